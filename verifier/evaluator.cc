@@ -1,0 +1,339 @@
+#include "verifier/evaluator.h"
+
+#include <stdexcept>
+
+#include "verifier/expression_eval.h"
+#include "verifier/parser.h"
+
+namespace thetagate {
+
+namespace {
+
+// c when the argument is exactly n - c with a whole c >= 1.
+std::optional<int64_t> subtractive_step(const Expr& argument) {
+  if (argument.kind != ExprKind::kSub) return std::nullopt;
+  const Expr& left = *argument.args[0];
+  const Expr& right = *argument.args[1];
+  if (left.kind != ExprKind::kVariable || right.kind != ExprKind::kNumber || !right.has_small) {
+    return std::nullopt;
+  }
+  if (right.small < 1 || right.small > 1'000'000) return std::nullopt;
+  return right.small;
+}
+
+// Beyond this size, a call that does not shrink is an error even when the
+// default base case applies: T(n + 1) is a mistake, not a base case.
+const BigInt kDefaultBaseLimit = BigInt(1) << 16;
+
+}  // namespace
+
+// Routes the recurrence's calls to the memo (top-down) or the window
+// (bottom-up).
+class Evaluator::Resolver : public CallResolver {
+ public:
+  explicit Resolver(Evaluator& owner) : owner_(owner) {}
+  Value resolve(const Expr& call, const Value& n, const EvalScope& scope) override {
+    return owner_.lookup(call, n, scope);
+  }
+
+ private:
+  Evaluator& owner_;
+};
+
+Evaluator::Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget)
+    : recurrence_(std::move(recurrence)), budget_(budget) {
+  ctx_.precision_bits = budget_.start_precision_bits;
+  ctx_.max_value_bits = budget_.max_value_bits;
+  deadline_ = std::chrono::steady_clock::now() +
+              std::chrono::microseconds(static_cast<int64_t>(budget_.max_seconds * 1e6));
+  resolver_ = std::make_unique<Resolver>(*this);
+  int64_t window = 0;
+  bool all_subtractive = true;
+  for (const CaseLine* line : recurrence_->main.lines_in_order()) {
+    for (const Expr* call : line->calls) {
+      auto step = subtractive_step(*call->args[0]);
+      if (!step) all_subtractive = false;
+      else window = std::max(window, *step);
+    }
+  }
+  window_ = all_subtractive ? window : 0;
+}
+
+Evaluator::~Evaluator() = default;
+
+EvalScope Evaluator::scope(const SourceText& source) {
+  EvalScope s;
+  s.source = &source;
+  s.ctx = &ctx_;
+  s.recurrence = recurrence_.get();
+  s.resolver = resolver_.get();
+  return s;
+}
+
+void Evaluator::charge_step() {
+  ++stats_.steps;
+  if (stats_.steps > budget_.max_steps) {
+    throw BudgetExceeded("more than " + std::to_string(budget_.max_steps) + " evaluation steps");
+  }
+  if ((stats_.steps & 1023) == 0 && std::chrono::steady_clock::now() > deadline_) {
+    throw BudgetExceeded("the time budget of " + std::to_string(budget_.max_seconds) +
+                         " s ran out");
+  }
+}
+
+void Evaluator::remember(const BigInt& m, const Value& v) {
+  auto [it, inserted] = memo_.emplace(m, v);
+  if (!inserted) return;
+  memo_bytes_ += (bit_length(m) + v.magnitude_bits()) / 8 + 112;
+  stats_.memo_entries = memo_.size();
+  if (memo_.size() > budget_.max_memo_entries || memo_bytes_ > budget_.max_memo_bytes) {
+    throw BudgetExceeded("one evaluation needs more than " + std::to_string(memo_.size()) +
+                         " remembered values (" + std::to_string(memo_bytes_ >> 20) + " MiB)");
+  }
+}
+
+void Evaluator::clear_memo() {
+  memo_.clear();
+  memo_bytes_ = 0;
+  ring_.clear();
+  ring_errors_.clear();
+  next_ = 0;
+  ++stats_.memo_clears;
+}
+
+template <class F>
+auto Evaluator::with_precision(F&& f) -> decltype(f()) {
+  while (true) {
+    try {
+      return f();
+    } catch (const PrecisionShortfall& shortfall) {
+      if (ctx_.precision_bits * 2 > budget_.max_precision_bits) {
+        throw BudgetExceeded(std::string("an interval stayed too wide to decide (") +
+                             shortfall.what() + ") even at " +
+                             std::to_string(ctx_.precision_bits) + " bits of precision");
+      }
+      ctx_.precision_bits *= 2;
+      ++stats_.precision_retries;
+      // Values remembered at the lower precision are still correct, but
+      // too wide; start over so every interval uses the new precision.
+      clear_memo();
+    }
+  }
+}
+
+Value Evaluator::value_at(const BigInt& n) {
+  if (n < 0) throw std::invalid_argument("sizes are non-negative");
+  if (!probed_) with_precision([&] { probe_default_base(); return 0; });
+  if (memo_bytes_ > budget_.max_memo_bytes / 2 || memo_.size() > budget_.max_memo_entries / 2) {
+    clear_memo();
+  }
+  // Floors of irrational values near n need about as many bits as n has.
+  ctx_.precision_bits = std::max<long>(ctx_.precision_bits, 64 + 2 * static_cast<long>(bit_length(n)));
+  stats_.precision_bits = ctx_.precision_bits;
+  return with_precision([&] { return window_ > 0 ? sweep_up(n) : top_down(n); });
+}
+
+Value Evaluator::default_base_value(const BigInt& n, const Expr& call, const BigInt& m) {
+  if (n >= kDefaultBaseLimit) not_shrinking(n, call, m);
+  return Value(int64_t{1});
+}
+
+[[noreturn]] void Evaluator::not_shrinking(const BigInt& n, const Expr& call, const BigInt& m) {
+  const Recurrence& r = *recurrence_;
+  std::string head = print(call) + " at n = " + n.str() + " calls " + r.main.name + "(" + m.str() + "), ";
+  if (m >= n) {
+    fail_at(r.source, call.pos, head + "which does not shrink",
+            "each call must reach a smaller size, such as " + r.main.name + "(n/2) or " +
+                r.main.name + "(n-1)");
+  }
+  fail_at(r.source, call.pos, head + "which is not a size",
+          "add a base case such as " + r.main.name + "(" + n.str() + ") = 1, or a line 'if n <= " +
+              n.str() + "'");
+}
+
+void Evaluator::probe_default_base() {
+  // With no base case, T(n) = 1 where a call would not shrink; that is a
+  // base case only if large sizes do shrink. T(n + 1) is an error.
+  probed_ = true;
+  if (!recurrence_->default_base) return;
+  const Recurrence& r = *recurrence_;
+  EvalScope s = scope(r.source);
+  for (const BigInt& n : {kDefaultBaseLimit, BigInt(kDefaultBaseLimit + 1), BigInt(3 * kDefaultBaseLimit / 2)}) {
+    Value nv(n);
+    const CaseLine& line = select_case(r.main, nv, s);
+    for (const Expr* call : line.calls) {
+      BigInt m = call_argument(*call, nv, s);
+      if (m < 0 || m >= n) not_shrinking(n, *call, m);
+    }
+  }
+}
+
+Value Evaluator::top_down(const BigInt& n) {
+  if (auto it = memo_.find(n); it != memo_.end()) return it->second;
+  const Recurrence& r = *recurrence_;
+  EvalScope s = scope(r.source);
+  struct Frame {
+    BigInt m;
+    const CaseLine* line = nullptr;
+    bool expanded = false;
+  };
+  std::vector<Frame> stack;
+  stack.push_back({n});
+  while (!stack.empty()) {
+    size_t top = stack.size() - 1;
+    if (!stack[top].expanded) {
+      if (memo_.count(stack[top].m)) {
+        stack.pop_back();
+        continue;
+      }
+      charge_step();
+      BigInt m = stack[top].m;
+      Value mv(m);
+      const CaseLine& line = select_case(r.main, mv, s);
+      stack[top].line = &line;
+      stack[top].expanded = true;
+      bool base = false;
+      std::vector<BigInt> missing;
+      for (const Expr* call : line.calls) {
+        BigInt arg = call_argument(*call, mv, s);
+        if (arg < 0 || arg >= m) {
+          if (!r.default_base) not_shrinking(m, *call, arg);
+          remember(m, default_base_value(m, *call, arg));
+          base = true;
+          break;
+        }
+        if (!memo_.count(arg)) missing.push_back(std::move(arg));
+      }
+      if (base) {
+        stack.pop_back();
+        continue;
+      }
+      for (auto& arg : missing) stack.push_back({std::move(arg)});
+      continue;
+    }
+    BigInt m = stack[top].m;
+    const CaseLine* line = stack[top].line;
+    stack.pop_back();
+    if (memo_.count(m)) continue;
+    remember(m, evaluate_expr(*line->body, Value(m), s));
+  }
+  return memo_.at(n);
+}
+
+Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope) {
+  if (in_sweep_) {
+    // Every call is T(n - c) and n is the sweep's current size.
+    int64_t m = *n.small() - call.args[0]->args[1]->small;
+    if (m < 0 || m >= next_ || m < next_ - window_) {
+      throw std::logic_error("bottom-up window miss");
+    }
+    size_t slot = static_cast<size_t>(m % window_);
+    if (ring_errors_[slot]) throw InputError(*ring_errors_[slot]);
+    return *ring_[slot];
+  }
+  BigInt m = call_argument(call, n, scope);
+  if (auto it = memo_.find(m); it != memo_.end()) return it->second;
+  // Only reachable from evaluate() on an expression that calls T directly.
+  return value_at(m);
+}
+
+Value Evaluator::sweep_up(const BigInt& n) {
+  const Recurrence& r = *recurrence_;
+  if (!n.is_zero() && bit_length(n) > 62) {
+    throw BudgetExceeded("reaching n = " + n.str() + " one step at a time (calls " + r.main.name +
+                         "(n - c)) is out of reach");
+  }
+  int64_t target = static_cast<int64_t>(n);
+  if (ring_.empty() || target < next_ - window_) {
+    ring_.assign(static_cast<size_t>(window_), std::nullopt);
+    ring_errors_.assign(static_cast<size_t>(window_), std::nullopt);
+    next_ = 0;
+  }
+  uint64_t needed = static_cast<uint64_t>(std::max<int64_t>(0, target - next_ + 1));
+  if (stats_.steps + needed > budget_.max_steps) {
+    throw BudgetExceeded("reaching n = " + n.str() + " bottom-up needs " + std::to_string(needed) +
+                         " more steps, over the budget of " + std::to_string(budget_.max_steps));
+  }
+  EvalScope s = scope(r.source);
+  while (next_ <= target) {
+    charge_step();
+    int64_t m = next_;
+    Value mv(m);
+    size_t slot = static_cast<size_t>(m % window_);
+    // A size below the first base case may be undefined (T(0) when only
+    // T(1) is given): keep its error, raised only if a later size needs it.
+    try {
+      const CaseLine& line = select_case(r.main, mv, s);
+      std::optional<Value> value;
+      for (const Expr* call : line.calls) {
+        int64_t arg = m - call->args[0]->args[1]->small;
+        if (arg < 0) {
+          if (!r.default_base) not_shrinking(BigInt(m), *call, BigInt(arg));
+          value = default_base_value(BigInt(m), *call, BigInt(arg));
+          break;
+        }
+      }
+      if (!value) {
+        in_sweep_ = true;
+        try {
+          value = evaluate_expr(*line.body, mv, s);
+        } catch (...) {
+          in_sweep_ = false;
+          throw;
+        }
+        in_sweep_ = false;
+      }
+      ring_[slot] = std::move(*value);
+      ring_errors_[slot].reset();
+    } catch (const InputError& error) {
+      ring_[slot].reset();
+      ring_errors_[slot] = error.diagnostic();
+    }
+    ++next_;
+  }
+  size_t slot = static_cast<size_t>(target % window_);
+  if (ring_errors_[slot]) throw InputError(*ring_errors_[slot]);
+  return *ring_[slot];
+}
+
+Value Evaluator::evaluate(const Expr& e, const SourceText& source, const BigInt& n) {
+  return with_precision([&] { return evaluate_expr(e, Value(n), scope(source)); });
+}
+
+int Evaluator::compare_at(const Expr& a, const SourceText& sa, const Expr& b, const SourceText& sb,
+                          const BigInt& n) {
+  return with_precision([&] {
+    Value va = evaluate_expr(a, Value(n), scope(sa));
+    Value vb = evaluate_expr(b, Value(n), scope(sb));
+    return compare(va, vb, ctx_);
+  });
+}
+
+BigInt evaluate_size(const std::string& text, const std::string& origin) {
+  SourceText source = SourceText::whole(origin, text);
+  ExprPtr e = parse_expression(source);
+  if (mentions_n(*e)) {
+    fail_at(source, 0, "a size must be a number, not an expression in n", "for example 2^4096 + 7");
+  }
+  NumericContext ctx;
+  ctx.max_value_bits = 1u << 24;
+  EvalScope s;
+  s.source = &source;
+  s.ctx = &ctx;
+  Value v;
+  try {
+    v = evaluate_expr(*e, Value(int64_t{0}), s);
+  } catch (const BudgetExceeded& error) {
+    fail_at(source, 0, std::string("the size is too large: ") + error.what());
+  } catch (const PrecisionShortfall&) {
+    fail_at(source, 0, "the size is not a whole number", "sizes are whole numbers: 10^6, 3*2^50");
+  }
+  if (!v.is_integer()) {
+    fail_at(source, 0, "the size " + v.str() + " is not a whole number",
+            "sizes are whole numbers: 10^6, 3*2^50");
+  }
+  if (v.integer() < 0) fail_at(source, 0, "the size " + v.str() + " is negative", "sizes are >= 0");
+  return v.integer();
+}
+
+}  // namespace thetagate

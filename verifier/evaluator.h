@@ -1,0 +1,104 @@
+// Exact evaluation of a recurrence: memoised over the distinct arguments
+// reached, iterative (an explicit work stack, never native recursion that
+// grows with n), with budgets. Recurrences whose calls are all T(n - c) are
+// evaluated bottom-up with a sliding window, so memory does not grow with n.
+#ifndef THETAGATE_VERIFIER_EVALUATOR_H_
+#define THETAGATE_VERIFIER_EVALUATOR_H_
+
+#include <chrono>
+#include <cstdint>
+#include <memory>
+#include <optional>
+#include <unordered_map>
+#include <vector>
+
+#include "verifier/expression_eval.h"
+#include "verifier/recurrence.h"
+#include "verifier/value.h"
+
+namespace thetagate {
+
+// Per-claim limits. Running out throws BudgetExceeded with the reason.
+struct Budget {
+  uint64_t max_memo_entries = 2'000'000;
+  uint64_t max_memo_bytes = 256ull << 20;
+  uint64_t max_value_bits = 1u << 20;
+  uint64_t max_steps = 30'000'000;   // case lines evaluated, in total
+  double max_seconds = 20.0;         // wall time from the evaluator's creation
+  long start_precision_bits = 128;   // intervals; doubled on a shortfall
+  long max_precision_bits = 1 << 16;
+};
+
+struct EvaluatorStats {
+  uint64_t steps = 0;
+  uint64_t memo_entries = 0;
+  uint64_t memo_clears = 0;
+  uint64_t precision_retries = 0;
+  long precision_bits = 0;
+};
+
+class Evaluator {
+ public:
+  explicit Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget = {});
+  ~Evaluator();
+  Evaluator(const Evaluator&) = delete;
+  Evaluator& operator=(const Evaluator&) = delete;
+
+  // T(n). REQUIRES: n >= 0. Throws InputError (a call that does not shrink,
+  // a domain error such as lg 0, no case line for n), BudgetExceeded.
+  Value value_at(const BigInt& n);
+
+  // An expression in n (a bound side, a growth function); T(...) calls in it
+  // are evaluated with this recurrence. `source` locates errors.
+  Value evaluate(const Expr& e, const SourceText& source, const BigInt& n);
+
+  // Compares a(n) with b(n) exactly, raising precision until decided.
+  // Returns -1, 0, +1. Throws BudgetExceeded if even the maximum precision
+  // cannot decide.
+  int compare_at(const Expr& a, const SourceText& sa, const Expr& b, const SourceText& sb,
+                 const BigInt& n);
+
+  const EvaluatorStats& stats() const { return stats_; }
+  const Recurrence& recurrence() const { return *recurrence_; }
+  // True when every recursive call is T(n - c): evaluated bottom-up.
+  bool bottom_up() const { return window_ > 0; }
+
+ private:
+  class Resolver;
+  EvalScope scope(const SourceText& source);
+  Value top_down(const BigInt& n);
+  Value sweep_up(const BigInt& n);
+  Value lookup(const Expr& call, const Value& n, const EvalScope& scope);
+  void probe_default_base();
+  Value default_base_value(const BigInt& n, const Expr& call, const BigInt& m);
+  [[noreturn]] void not_shrinking(const BigInt& n, const Expr& call, const BigInt& m);
+  void charge_step();
+  void remember(const BigInt& m, const Value& v);
+  void clear_memo();
+  template <class F> auto with_precision(F&& f) -> decltype(f());
+
+  std::shared_ptr<const Recurrence> recurrence_;
+  Budget budget_;
+  NumericContext ctx_;
+  EvaluatorStats stats_;
+  std::chrono::steady_clock::time_point deadline_;
+  std::unique_ptr<Resolver> resolver_;
+  std::unordered_map<BigInt, Value, BigIntHash> memo_;
+  uint64_t memo_bytes_ = 0;
+  // Bottom-up state: window_ = largest c in T(n - c); the ring holds the
+  // values (or the errors) of the window_ sizes just below next_.
+  int64_t window_ = 0;
+  int64_t next_ = 0;
+  std::vector<std::optional<Value>> ring_;
+  std::vector<std::optional<Diagnostic>> ring_errors_;
+  bool in_sweep_ = false;
+  bool probed_ = false;
+};
+
+// The value of a constant expression ("2^4096 + 7", "3*2^50"), exactly.
+// Throws InputError for a non-integer, negative, or n-dependent expression.
+BigInt evaluate_size(const std::string& text, const std::string& origin = "<size>");
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_VERIFIER_EVALUATOR_H_
