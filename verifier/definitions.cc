@@ -24,7 +24,7 @@ Definition parse_line(Parser& p) {
   if (p.at_name("n")) {
     p.next();
   } else if (p.at(TokenKind::kNumber) && p.peek().text.find('.') == std::string::npos) {
-    d.point = BigInt(p.next().text);
+    d.point = decimal_integer(p.next().text);
   } else {
     p.fail_expected("'n' or a whole number",
                     "the left side is " + name.text + "(n) for the general case or " + name.text +

@@ -75,6 +75,13 @@ void Evaluator::charge_step() {
   if (stats_.steps > budget_.max_steps) {
     throw BudgetExceeded("more than " + std::to_string(budget_.max_steps) + " evaluation steps");
   }
+  // Bottom-up sweeps continue from one size to the next; only the total
+  // budget applies to them.
+  if (budget_.max_steps_per_size != 0 && window_ == 0 &&
+      stats_.steps - call_start_steps_ > budget_.max_steps_per_size) {
+    throw BudgetExceeded("one size needs more than " + std::to_string(budget_.max_steps_per_size) +
+                         " subproblems");
+  }
   if ((stats_.steps & 1023) == 0 && std::chrono::steady_clock::now() > deadline_) {
     throw BudgetExceeded("the time budget of " + std::to_string(budget_.max_seconds) +
                          " s ran out");
@@ -84,6 +91,7 @@ void Evaluator::charge_step() {
 void Evaluator::remember(const BigInt& m, const Value& v) {
   auto [it, inserted] = memo_.emplace(m, v);
   if (!inserted) return;
+  if (!v.is_exact()) memo_has_intervals_ = true;
   memo_bytes_ += (bit_length(m) + v.magnitude_bits()) / 8 + 112;
   stats_.memo_entries = memo_.size();
   if (memo_.size() > budget_.max_memo_entries || memo_bytes_ > budget_.max_memo_bytes) {
@@ -95,6 +103,7 @@ void Evaluator::remember(const BigInt& m, const Value& v) {
 void Evaluator::clear_memo() {
   memo_.clear();
   memo_bytes_ = 0;
+  memo_has_intervals_ = false;
   ring_.clear();
   ring_errors_.clear();
   next_ = 0;
@@ -114,9 +123,9 @@ auto Evaluator::with_precision(F&& f) -> decltype(f()) {
       }
       ctx_.precision_bits *= 2;
       ++stats_.precision_retries;
-      // Values remembered at the lower precision are still correct, but
-      // too wide; start over so every interval uses the new precision.
-      clear_memo();
+      // Remembered intervals are still correct, but too wide; start over
+      // so every interval uses the new precision. Exact values stay.
+      if (memo_has_intervals_) clear_memo();
     }
   }
 }
@@ -124,13 +133,17 @@ auto Evaluator::with_precision(F&& f) -> decltype(f()) {
 Value Evaluator::value_at(const BigInt& n) {
   if (n < 0) throw std::invalid_argument("sizes are non-negative");
   if (!probed_) with_precision([&] { probe_default_base(); return 0; });
-  if (memo_bytes_ > budget_.max_memo_bytes / 2 || memo_.size() > budget_.max_memo_entries / 2) {
+  call_start_steps_ = stats_.steps;
+  if (memo_bytes_ > budget_.max_memo_bytes / 4 * 3 ||
+      memo_.size() > budget_.max_memo_entries / 4 * 3) {
     clear_memo();
   }
-  // Floors of irrational values near n need about as many bits as n has.
-  ctx_.precision_bits = std::max<long>(ctx_.precision_bits, 64 + 2 * static_cast<long>(bit_length(n)));
-  stats_.precision_bits = ctx_.precision_bits;
-  return with_precision([&] { return window_ > 0 ? sweep_up(n) : top_down(n); });
+  // Each top-level call starts low; a floor or comparison that an interval
+  // cannot decide doubles the precision and retries.
+  ctx_.precision_bits = budget_.start_precision_bits;
+  Value v = with_precision([&] { return window_ > 0 ? sweep_up(n) : top_down(n); });
+  stats_.precision_bits = std::max(stats_.precision_bits, ctx_.precision_bits);
+  return v;
 }
 
 Value Evaluator::default_base_value(const BigInt& n, const Expr& call, const BigInt& m) {
@@ -175,47 +188,62 @@ Value Evaluator::top_down(const BigInt& n) {
   struct Frame {
     BigInt m;
     const CaseLine* line = nullptr;
-    bool expanded = false;
+    std::vector<BigInt> args;  // the arguments of line->calls, in order
   };
   std::vector<Frame> stack;
   stack.push_back({n});
   while (!stack.empty()) {
-    size_t top = stack.size() - 1;
-    if (!stack[top].expanded) {
-      if (memo_.count(stack[top].m)) {
+    Frame& frame = stack.back();
+    if (frame.line == nullptr) {
+      // A size pushed twice (by two parents) is evaluated once.
+      if (memo_.count(frame.m)) {
         stack.pop_back();
         continue;
       }
       charge_step();
-      BigInt m = stack[top].m;
-      Value mv(m);
+      Value mv(frame.m);
       const CaseLine& line = select_case(r.main, mv, s);
-      stack[top].line = &line;
-      stack[top].expanded = true;
+      frame.line = &line;
       bool base = false;
-      std::vector<BigInt> missing;
+      size_t first_child = stack.size();
       for (const Expr* call : line.calls) {
         BigInt arg = call_argument(*call, mv, s);
-        if (arg < 0 || arg >= m) {
-          if (!r.default_base) not_shrinking(m, *call, arg);
-          remember(m, default_base_value(m, *call, arg));
+        if (arg < 0 || arg >= frame.m) {
+          if (!r.default_base) not_shrinking(frame.m, *call, arg);
+          remember(frame.m, default_base_value(frame.m, *call, arg));
           base = true;
           break;
         }
-        if (!memo_.count(arg)) missing.push_back(std::move(arg));
+        frame.args.push_back(arg);
       }
       if (base) {
         stack.pop_back();
         continue;
       }
+      // Push children after reading everything from `frame`: push_back
+      // may move the stack.
+      std::vector<BigInt> missing;
+      for (const BigInt& arg : stack[first_child - 1].args) {
+        if (!memo_.count(arg)) missing.push_back(arg);
+      }
       for (auto& arg : missing) stack.push_back({std::move(arg)});
       continue;
     }
-    BigInt m = stack[top].m;
-    const CaseLine* line = stack[top].line;
+    Frame done = std::move(frame);
     stack.pop_back();
-    if (memo_.count(m)) continue;
-    remember(m, evaluate_expr(*line->body, Value(m), s));
+    current_calls_ = &done.line->calls;
+    current_args_ = &done.args;
+    Value value;
+    try {
+      value = evaluate_expr(*done.line->body, Value(done.m), s);
+    } catch (...) {
+      current_calls_ = nullptr;
+      current_args_ = nullptr;
+      throw;
+    }
+    current_calls_ = nullptr;
+    current_args_ = nullptr;
+    remember(done.m, value);
   }
   return memo_.at(n);
 }
@@ -230,6 +258,12 @@ Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope
     size_t slot = static_cast<size_t>(m % window_);
     if (ring_errors_[slot]) throw InputError(*ring_errors_[slot]);
     return *ring_[slot];
+  }
+  if (current_calls_ != nullptr) {
+    // Evaluating a frame's body: its arguments were computed on expansion.
+    for (size_t i = 0; i < current_calls_->size(); ++i) {
+      if ((*current_calls_)[i] == &call) return memo_.at((*current_args_)[i]);
+    }
   }
   BigInt m = call_argument(call, n, scope);
   if (auto it = memo_.find(m); it != memo_.end()) return it->second;
@@ -297,11 +331,13 @@ Value Evaluator::sweep_up(const BigInt& n) {
 }
 
 Value Evaluator::evaluate(const Expr& e, const SourceText& source, const BigInt& n) {
+  ctx_.precision_bits = budget_.start_precision_bits;
   return with_precision([&] { return evaluate_expr(e, Value(n), scope(source)); });
 }
 
 int Evaluator::compare_at(const Expr& a, const SourceText& sa, const Expr& b, const SourceText& sb,
                           const BigInt& n) {
+  ctx_.precision_bits = budget_.start_precision_bits;
   return with_precision([&] {
     Value va = evaluate_expr(a, Value(n), scope(sa));
     Value vb = evaluate_expr(b, Value(n), scope(sb));

@@ -21,9 +21,10 @@ namespace thetagate {
 // Per-claim limits. Running out throws BudgetExceeded with the reason.
 struct Budget {
   uint64_t max_memo_entries = 2'000'000;
-  uint64_t max_memo_bytes = 256ull << 20;
+  uint64_t max_memo_bytes = 512ull << 20;
   uint64_t max_value_bits = 1u << 20;
   uint64_t max_steps = 30'000'000;   // case lines evaluated, in total
+  uint64_t max_steps_per_size = 0;   // for one value_at(); 0: no separate limit
   double max_seconds = 20.0;         // wall time from the evaluator's creation
   long start_precision_bits = 128;   // intervals; doubled on a shortfall
   long max_precision_bits = 1 << 16;
@@ -85,6 +86,7 @@ class Evaluator {
   std::unique_ptr<Resolver> resolver_;
   std::unordered_map<BigInt, Value, BigIntHash> memo_;
   uint64_t memo_bytes_ = 0;
+  bool memo_has_intervals_ = false;
   // Bottom-up state: window_ = largest c in T(n - c); the ring holds the
   // values (or the errors) of the window_ sizes just below next_.
   int64_t window_ = 0;
@@ -92,7 +94,11 @@ class Evaluator {
   std::vector<std::optional<Value>> ring_;
   std::vector<std::optional<Diagnostic>> ring_errors_;
   bool in_sweep_ = false;
+  // While a top-down frame's body is evaluated: its calls and arguments.
+  const std::vector<const Expr*>* current_calls_ = nullptr;
+  const std::vector<BigInt>* current_args_ = nullptr;
   bool probed_ = false;
+  uint64_t call_start_steps_ = 0;
 };
 
 // The value of a constant expression ("2^4096 + 7", "3*2^50"), exactly.

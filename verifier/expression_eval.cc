@@ -17,8 +17,19 @@ Value builtin(const Expr& e, const Value& n, const EvalScope& scope) {
   const NumericContext& ctx = *scope.ctx;
   const std::string& f = e.name;
   auto arg = [&](size_t i) { return evaluate_expr(*e.args[i], n, scope); };
-  if (f == "floor") return floor_value(arg(0));
-  if (f == "ceil") return ceil_value(arg(0));
+  if (f == "floor" || f == "ceil") {
+    const Expr& x = *e.args[0];
+    if (x.kind == ExprKind::kDiv) {  // floor(n/2): no rational in between
+      Value p = evaluate_expr(*x.args[0], n, scope);
+      Value q = evaluate_expr(*x.args[1], n, scope);
+      try {
+        return f == "floor" ? floor_quotient(p, q, ctx) : ceil_quotient(p, q, ctx);
+      } catch (const DomainError& error) {
+        domain_failure(error, x, n, scope);
+      }
+    }
+    return f == "floor" ? floor_value(arg(0)) : ceil_value(arg(0));
+  }
   if (f == "lg" || f == "log2") return lg_value(arg(0), ctx);
   if (f == "ln") return ln_value(arg(0), ctx);
   if (f == "sqrt") return sqrt_value(arg(0), ctx);
@@ -137,7 +148,19 @@ const CaseLine& select_case(const Function& f, const Value& n, const EvalScope& 
 }
 
 BigInt call_argument(const Expr& call, const Value& n, const EvalScope& scope) {
-  Value v = evaluate_expr(*call.args[0], n, scope);
+  const Expr& x = *call.args[0];
+  Value v;
+  if (x.kind == ExprKind::kDiv) {  // n/2 inside T(...) is read as floor(n/2)
+    Value p = evaluate_expr(*x.args[0], n, scope);
+    Value q = evaluate_expr(*x.args[1], n, scope);
+    try {
+      v = floor_quotient(p, q, *scope.ctx);
+    } catch (const DomainError& error) {
+      domain_failure(error, x, n, scope);
+    }
+  } else {
+    v = evaluate_expr(x, n, scope);
+  }
   if (auto s = v.small()) return BigInt(*s);
   if (v.is_integer()) return v.integer();
   return floor_value(v).integer();

@@ -179,11 +179,13 @@ Rational Interval::lower() const { return rational_of(&value_->left); }
 Rational Interval::upper() const { return rational_of(&value_->right); }
 
 double Interval::relative_width() const {
-  double lo = mpfr_get_d(&value_->left, MPFR_RNDD);
-  double hi = mpfr_get_d(&value_->right, MPFR_RNDU);
-  double mid = 0.5 * (lo + hi);
-  if (mid == 0) return std::numeric_limits<double>::infinity();
-  return (hi - lo) / std::fabs(mid);
+  if (mpfi_has_zero(value_)) return std::numeric_limits<double>::infinity();
+  mpfr_t width;
+  mpfr_init2(width, 64);
+  mpfi_diam_rel(width, value_);  // (hi - lo) / |mid|, rounded up
+  double w = mpfr_get_d(width, MPFR_RNDU);
+  mpfr_clear(width);
+  return w;
 }
 
 double Interval::approx() const {

@@ -57,13 +57,20 @@ BigInt floor_mod(const BigInt& x, const BigInt& m) {
 }
 
 size_t BigIntHash::operator()(const BigInt& x) const noexcept {
+  // Sizes the evaluator meets differ in their length or in their lowest and
+  // highest limbs (neighbours differ by a few units), so three limbs hash
+  // well and keep hashing O(1) for 4096-bit keys.
   mpz_srcptr v = x.backend().data();
-  size_t h = static_cast<size_t>(v->_mp_size) * 0x9e3779b97f4a7c15ULL;
+  uint64_t h = static_cast<uint64_t>(static_cast<int64_t>(v->_mp_size));
   int limbs = v->_mp_size < 0 ? -v->_mp_size : v->_mp_size;
-  for (int i = 0; i < limbs; ++i) {
-    h ^= static_cast<size_t>(v->_mp_d[i]) + 0x9e3779b97f4a7c15ULL + (h << 6) + (h >> 2);
-  }
-  return h;
+  auto mix = [&h](uint64_t limb) {
+    h ^= limb + 0x9e3779b97f4a7c15ULL + (h << 6) + (h >> 2);
+    h *= 0xbf58476d1ce4e5b9ULL;
+  };
+  if (limbs > 0) mix(v->_mp_d[0]);
+  if (limbs > 1) mix(v->_mp_d[1]);
+  if (limbs > 2) mix(v->_mp_d[limbs - 1]);
+  return static_cast<size_t>(h ^ (h >> 31));
 }
 
 std::string to_string(const Rational& x) {

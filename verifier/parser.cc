@@ -16,13 +16,24 @@ bool is_prefix_function(const std::string& name) {
   return name == "lg" || name == "ln" || name == "log2" || name == "sqrt" || name == "log";
 }
 
+}  // namespace
+
+BigInt decimal_integer(const std::string& digits) {
+  // Always base 10: GMP would read a leading 0 as octal.
+  BigInt value;
+  mpz_set_str(value.backend().data(), digits.c_str(), 10);
+  return value;
+}
+
+namespace {
+
 Rational literal_value(const std::string& text) {
   size_t dot = text.find('.');
-  if (dot == std::string::npos) return Rational(BigInt(text));
+  if (dot == std::string::npos) return Rational(decimal_integer(text));
   std::string digits = text.substr(0, dot) + text.substr(dot + 1);
   BigInt scale = 1;
   for (size_t i = dot + 1; i < text.size(); ++i) scale *= 10;
-  return Rational(BigInt(digits), scale);
+  return Rational(decimal_integer(digits), scale);
 }
 
 ExprKind comparison_kind(TokenKind t) {

@@ -71,6 +71,9 @@ class Parser {
 // not, even, odd, mod, for, is.
 bool is_keyword(const std::string& word);
 
+// A string of decimal digits as an integer (never octal: "010" is 10).
+BigInt decimal_integer(const std::string& digits);
+
 // Parses the whole of `source` as one value expression ("2^4096 + 7").
 ExprPtr parse_expression(const SourceText& source);
 

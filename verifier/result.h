@@ -38,6 +38,8 @@ struct BandRow {
   double high = 0;
   BigInt low_at;
   BigInt high_at;
+  double low_log2 = 0;   // log2 of low/high: finite even where the ratio
+  double high_log2 = 0;  // itself overflows a double (2^4096)
   uint64_t samples = 0;
 };
 

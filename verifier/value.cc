@@ -156,6 +156,12 @@ BigInt Value::integer() const {
   return boost::multiprecision::numerator(std::get<Rational>(repr_));
 }
 
+const BigInt& Value::integer_ref(BigInt& scratch) const {
+  if (auto* b = std::get_if<BigInt>(&repr_)) return *b;
+  scratch = integer();
+  return scratch;
+}
+
 std::optional<int64_t> Value::small() const {
   if (auto* s = std::get_if<int64_t>(&repr_)) return *s;
   return std::nullopt;
@@ -190,6 +196,36 @@ double Value::approx() const {
   return std::get<Interval>(repr_).approx();
 }
 
+double Value::log2_magnitude() const {
+  auto log2_of_integer = [](mpz_srcptr z) {
+    if (mpz_sgn(z) == 0) return -std::numeric_limits<double>::infinity();
+    long exponent = 0;
+    double mantissa = std::fabs(mpz_get_d_2exp(&exponent, z));
+    return std::log2(mantissa) + static_cast<double>(exponent);
+  };
+  if (auto* s = std::get_if<int64_t>(&repr_)) {
+    return *s == 0 ? -std::numeric_limits<double>::infinity() : std::log2(std::fabs(static_cast<double>(*s)));
+  }
+  if (auto* b = std::get_if<BigInt>(&repr_)) return log2_of_integer(b->backend().data());
+  if (auto* q = std::get_if<Rational>(&repr_)) {
+    return log2_of_integer(mpq_numref(q->backend().data())) - log2_of_integer(mpq_denref(q->backend().data()));
+  }
+  const Interval& i = std::get<Interval>(repr_);
+  mpfr_t mid;
+  mpfr_init2(mid, i.precision());
+  mpfi_mid(mid, i.raw());
+  double result;
+  if (mpfr_zero_p(mid)) {
+    result = -std::numeric_limits<double>::infinity();
+  } else {
+    long exponent = 0;
+    double mantissa = std::fabs(mpfr_get_d_2exp(&exponent, mid, MPFR_RNDN));
+    result = std::log2(mantissa) + static_cast<double>(exponent);
+  }
+  mpfr_clear(mid);
+  return result;
+}
+
 uint64_t Value::magnitude_bits() const {
   if (auto* s = std::get_if<int64_t>(&repr_)) return bit_length(BigInt(*s));
   if (auto* b = std::get_if<BigInt>(&repr_)) return bit_length(*b);
@@ -215,7 +251,11 @@ bool Value::same_exact(const Value& other) const {
 Value add(const Value& a, const Value& b, const NumericContext& ctx) {
   int64_t x, y, r;
   if (both_small(a, b, x, y) && !__builtin_add_overflow(x, y, &r)) return Value(r);
-  if (a.is_integer() && b.is_integer()) return checked(BigInt(a.integer() + b.integer()), ctx);
+  if (a.is_integer() && b.is_integer()) {
+    BigInt sa, sb, r;
+    mpz_add(r.backend().data(), a.integer_ref(sa).backend().data(), b.integer_ref(sb).backend().data());
+    return checked(std::move(r), ctx);
+  }
   if (a.is_exact() && b.is_exact()) return checked(Rational(a.exact() + b.exact()), ctx);
   long p = precision_for(a, b, ctx);
   return checked(a.interval(p) + b.interval(p));
@@ -224,7 +264,11 @@ Value add(const Value& a, const Value& b, const NumericContext& ctx) {
 Value sub(const Value& a, const Value& b, const NumericContext& ctx) {
   int64_t x, y, r;
   if (both_small(a, b, x, y) && !__builtin_sub_overflow(x, y, &r)) return Value(r);
-  if (a.is_integer() && b.is_integer()) return checked(BigInt(a.integer() - b.integer()), ctx);
+  if (a.is_integer() && b.is_integer()) {
+    BigInt sa, sb, r;
+    mpz_sub(r.backend().data(), a.integer_ref(sa).backend().data(), b.integer_ref(sb).backend().data());
+    return checked(std::move(r), ctx);
+  }
   if (a.is_exact() && b.is_exact()) return checked(Rational(a.exact() - b.exact()), ctx);
   long p = precision_for(a, b, ctx);
   return checked(a.interval(p) - b.interval(p));
@@ -237,7 +281,9 @@ Value mul(const Value& a, const Value& b, const NumericContext& ctx) {
   if (b.is_exact() && b.exact() == 0) return Value(int64_t{0});
   if (a.is_integer() && b.is_integer()) {
     check_bits(a.magnitude_bits() + b.magnitude_bits(), ctx);
-    return checked(BigInt(a.integer() * b.integer()), ctx);
+    BigInt sa, sb, r;
+    mpz_mul(r.backend().data(), a.integer_ref(sa).backend().data(), b.integer_ref(sb).backend().data());
+    return checked(std::move(r), ctx);
   }
   if (a.is_exact() && b.is_exact()) return checked(Rational(a.exact() * b.exact()), ctx);
   long p = precision_for(a, b, ctx);
@@ -246,9 +292,18 @@ Value mul(const Value& a, const Value& b, const NumericContext& ctx) {
 
 Value div(const Value& a, const Value& b, const NumericContext& ctx) {
   if (b.is_exact()) {
-    if (b.exact() == 0) throw DomainError("division by zero");
+    if (b.sign() == 0) throw DomainError("division by zero");
     int64_t x, y;
-    if (both_small(a, b, x, y) && y != 0 && y != -1 && x % y == 0) return Value(x / y);
+    if (both_small(a, b, x, y) && y != -1 && x % y == 0) return Value(x / y);
+    if (a.is_integer() && b.is_integer()) {
+      BigInt p = a.integer(), q = b.integer();
+      if (mpz_divisible_p(p.backend().data(), q.backend().data())) {
+        BigInt r;
+        mpz_divexact(r.backend().data(), p.backend().data(), q.backend().data());
+        return normalized(std::move(r));
+      }
+      return checked(Rational(p, q), ctx);
+    }
     if (a.is_exact()) return checked(Rational(a.exact() / b.exact()), ctx);
   }
   long p = precision_for(a, b, ctx);
@@ -296,6 +351,42 @@ Value power(const Value& base, const Value& exponent, const NumericContext& ctx)
     throw PrecisionShortfall("power of an interval around zero");
   }
   return checked(b.pow(exponent.interval(p)));
+}
+
+Value floor_quotient(const Value& a, const Value& b, const NumericContext& ctx) {
+  if (a.is_integer() && b.is_integer()) {
+    int64_t x, y;
+    if (both_small(a, b, x, y) && y != 0 && y != -1) {
+      int64_t q = x / y;
+      if ((x % y != 0) && ((x < 0) != (y < 0))) --q;
+      return Value(q);
+    }
+    BigInt q, sp, sd;
+    const BigInt& p = a.integer_ref(sp);
+    const BigInt& d = b.integer_ref(sd);
+    if (d == 0) throw DomainError("division by zero");
+    mpz_fdiv_q(q.backend().data(), p.backend().data(), d.backend().data());
+    return normalized(std::move(q));
+  }
+  return floor_value(div(a, b, ctx));
+}
+
+Value ceil_quotient(const Value& a, const Value& b, const NumericContext& ctx) {
+  if (a.is_integer() && b.is_integer()) {
+    int64_t x, y;
+    if (both_small(a, b, x, y) && y != 0 && y != -1) {
+      int64_t q = x / y;
+      if ((x % y != 0) && ((x < 0) == (y < 0))) ++q;
+      return Value(q);
+    }
+    BigInt q, sp, sd;
+    const BigInt& p = a.integer_ref(sp);
+    const BigInt& d = b.integer_ref(sd);
+    if (d == 0) throw DomainError("division by zero");
+    mpz_cdiv_q(q.backend().data(), p.backend().data(), d.backend().data());
+    return normalized(std::move(q));
+  }
+  return ceil_value(div(a, b, ctx));
 }
 
 Value floor_value(const Value& a) {
@@ -420,7 +511,8 @@ int compare(const Value& a, const Value& b, const NumericContext& ctx) {
   if (both_small(a, b, x, y)) return (x > y) - (x < y);
   if (a.is_exact() && b.is_exact()) {
     if (a.is_integer() && b.is_integer()) {
-      int c = a.integer().compare(b.integer());
+      BigInt sa, sb;
+      int c = mpz_cmp(a.integer_ref(sa).backend().data(), b.integer_ref(sb).backend().data());
       return (c > 0) - (c < 0);
     }
     int c = a.exact().compare(b.exact());

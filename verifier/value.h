@@ -52,6 +52,9 @@ class Value {
   Rational exact() const;
   // REQUIRES: is_integer().
   BigInt integer() const;
+  // The integer without copying when it is stored big; small integers are
+  // written to `scratch`. REQUIRES: is_integer().
+  const BigInt& integer_ref(BigInt& scratch) const;
   // The small-integer value if this is an integer fitting in int64.
   std::optional<int64_t> small() const;
   // This value as an interval of at least the given precision.
@@ -64,6 +67,9 @@ class Value {
   int sign() const;
   // Approximate value as a double (for plots and sorting only).
   double approx() const;
+  // log2 |x| as a double, accurate to double precision, for values of any
+  // size (a 10^6-bit integer is fine). -infinity for 0.
+  double log2_magnitude() const;
   // Bits of the integer part's magnitude (an estimate for intervals).
   uint64_t magnitude_bits() const;
 
@@ -87,6 +93,9 @@ Value div(const Value& a, const Value& b, const NumericContext& ctx);
 Value neg(const Value& a);
 Value power(const Value& base, const Value& exponent, const NumericContext& ctx);
 Value floor_value(const Value& a);
+// floor(a/b) and ceil(a/b) without forming a rational when both are integers.
+Value floor_quotient(const Value& a, const Value& b, const NumericContext& ctx);
+Value ceil_quotient(const Value& a, const Value& b, const NumericContext& ctx);
 Value ceil_value(const Value& a);
 Value lg_value(const Value& a, const NumericContext& ctx);
 Value ln_value(const Value& a, const NumericContext& ctx);

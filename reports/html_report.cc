@@ -1,0 +1,169 @@
+#include "reports/html_report.h"
+
+#include <array>
+#include <cmath>
+#include <cstdlib>
+
+#include <fmt/format.h>
+
+#include "reports/band_plot.h"
+#include "reports/number_text.h"
+#include "reports/xml_escape.h"
+
+namespace thetagate {
+
+namespace {
+
+const char* const kStyle = R"css(
+body { font: 15px/1.45 system-ui, sans-serif; margin: 2em auto; max-width: 60em; padding: 0 1em;
+       color: #1d2125; background: #fff; }
+h1 { font-size: 1.5em; margin-bottom: 0.2em; }
+h2 { font-size: 1.15em; margin: 0; }
+h3 { font-size: 0.95em; margin: 1.2em 0 0.3em; color: #444; }
+code, pre, .num { font-family: ui-monospace, monospace; font-size: 0.92em; }
+table { border-collapse: collapse; margin: 0.4em 0; }
+th, td { text-align: left; padding: 0.2em 0.7em; border-bottom: 1px solid #ddd; vertical-align: top; }
+th { font-weight: 600; }
+.summary td:first-child { white-space: nowrap; }
+.claim { border: 1px solid #ccd; border-left-width: 6px; border-radius: 4px; padding: 0.8em 1.1em;
+         margin: 1.4em 0; }
+.verdict { display: inline-block; min-width: 6.5em; font-weight: 700; text-transform: uppercase;
+           font-size: 0.85em; letter-spacing: 0.04em; }
+.holds { border-left-color: #2e7d32; } .holds .verdict, .verdict.holds { color: #2e7d32; }
+.refuted { border-left-color: #c62828; } .refuted .verdict, .verdict.refuted { color: #c62828; }
+.undecided { border-left-color: #b26a00; } .undecided .verdict, .verdict.undecided { color: #b26a00; }
+.error { border-left-color: #8e24aa; } .error .verdict, .verdict.error { color: #8e24aa; }
+.where { color: #666; margin: 0.2em 0; }
+pre.diagnostic { background: #f6f4f8; padding: 0.6em; overflow-x: auto; }
+.band-plot { display: block; margin: 0.4em 0; max-width: 100%; height: auto; }
+.band-plot .frame { fill: #fafbfc; stroke: #bbb; }
+.band-plot .grid { stroke: #e3e5e8; }
+.band-plot .tick, .band-plot .axis, .band-plot .constant-label { font: 11px sans-serif; fill: #555; }
+.band-plot .band { fill: #1565c0; fill-opacity: 0.18; stroke: none; }
+.band-plot .edge { fill: none; stroke: #1565c0; stroke-width: 1.5; }
+.band-plot .mark { fill: #1565c0; }
+.band-plot .constant { stroke: #c62828; stroke-dasharray: 5 4; }
+)css";
+
+std::string esc(const std::string& text) { return xml_escape_text(text); }
+std::string attr(const std::string& text) { return xml_escape_attribute(text); }
+
+std::string verdict_span(Verdict v) {
+  return fmt::format("<span class=\"verdict {0}\">{0}</span>", verdict_name(v));
+}
+
+std::string derived_text(const ClaimResult& c) {
+  if (c.derived.empty()) return "\u2014";
+  std::string s = c.derived;
+  if (!c.method.empty() && c.method != "numeric") s += " by " + c.method;
+  return s;
+}
+
+// A number shortened for reading, every digit in the hover title.
+std::string number_cell(const std::string& full, const std::string& shown) {
+  if (full == shown) return "<td class=\"num\">" + esc(full) + "</td>";
+  return "<td class=\"num\" title=\"" + attr(full) + "\">" + esc(shown) + "</td>";
+}
+
+std::string witness_table(const ClaimResult& c) {
+  std::string s = "<h3>Witnesses</h3>\n<table class=\"witnesses\">\n<tr><th>n</th><th>side</th>"
+                  "<th>T(n)/g(n)</th><th>T(n)</th><th>bound</th><th>family</th>"
+                  "<th>ladder c</th></tr>\n";
+  for (const Witness& w : c.witnesses) {
+    s += "<tr>" + number_cell(w.n.str(), short_decimal(w.n));
+    s += std::string("<td>") + side_name(w.side) + "</td>";
+    s += "<td class=\"num\">" + esc(format_ratio(w.ratio)) + "</td>";
+    s += number_cell(w.value, short_value(w.value));
+    s += number_cell(w.bound, short_value(w.bound));
+    s += "<td>" + esc(w.family) + "</td><td class=\"num\">" + esc(w.factor) + "</td></tr>\n";
+  }
+  return s + "</table>\n";
+}
+
+std::string list(const char* heading, const char* tag, const std::vector<std::string>& items) {
+  if (items.empty()) return "";
+  std::string s = fmt::format("<h3>{}</h3>\n<{}>\n", heading, tag);
+  for (const std::string& item : items) s += "<li>" + esc(item) + "</li>\n";
+  return s + fmt::format("</{}>\n", tag);
+}
+
+// Ratio 1 always; each witness-ladder constant c once.
+std::vector<PlotLine> plot_lines(const ClaimResult& c) {
+  std::vector<PlotLine> lines{{1.0, "ratio 1"}};
+  for (const Witness& w : c.witnesses) {
+    if (w.factor.empty()) continue;
+    double factor = std::strtod(w.factor.c_str(), nullptr);
+    if (!(factor > 0) || !std::isfinite(factor)) continue;
+    double ratio = w.side == Side::kUpper ? factor : 1.0 / factor;
+    std::string label = (w.side == Side::kUpper ? "c = " : "1/c, c = ") + w.factor;
+    bool seen = false;
+    for (const PlotLine& l : lines) seen = seen || l.label == label;
+    if (!seen) lines.push_back({ratio, label});
+  }
+  return lines;
+}
+
+std::string claim_section(const ClaimResult& c, size_t index) {
+  std::string s = fmt::format("<section class=\"claim {}\" id=\"claim-{}\">\n",
+                              verdict_name(c.verdict), index);
+  s += "<h2>" + verdict_span(c.verdict) + " " + esc(c.name) + "</h2>\n";
+  if (!c.file.empty()) s += "<p class=\"where\">" + esc(c.file + ":" + std::to_string(c.line)) + "</p>\n";
+  s += "<table class=\"bounds\">\n";
+  s += "<tr><th>claimed</th><td>" + esc(c.claimed.empty() ? "\u2014" : c.claimed) + "</td></tr>\n";
+  s += "<tr><th>derived</th><td>" + esc(derived_text(c)) + "</td></tr>\n";
+  if (c.verdict == Verdict::kHolds && !c.tight) s += "<tr><th>tight</th><td>no</td></tr>\n";
+  if (c.numeric_only) s += "<tr><th>decided by</th><td>the numbers alone</td></tr>\n";
+  if (c.sizes_checked > 0) {
+    s += fmt::format("<tr><th>checked</th><td>{} sizes up to {} bits</td></tr>\n",
+                     c.sizes_checked, c.largest_bits);
+  }
+  s += "</table>\n";
+  if (!c.message.empty()) s += "<p class=\"message\">" + esc(c.message) + "</p>\n";
+  if (c.error) s += "<pre class=\"diagnostic\">" + esc(format_diagnostic(*c.error)) + "</pre>\n";
+  if (!c.note.empty()) s += "<p class=\"note\">Note: " + esc(c.note) + "</p>\n";
+  s += list("Derivation", "ol", c.reasons);
+  s += list("Assumptions", "ul", c.notes);
+  if (!c.witnesses.empty()) s += witness_table(c);
+  std::string plot = render_band_plot(c.band, plot_lines(c));
+  if (!plot.empty()) {
+    s += fmt::format("<h3>Ratio band across {} scale{}</h3>\n", c.band.size(),
+                     c.band.size() == 1 ? "" : "s");
+    s += plot + "\n";
+  }
+  return s + "</section>\n";
+}
+
+}  // namespace
+
+std::string render_html(const RunResult& run) {
+  std::array<size_t, 4> count{};
+  for (const ClaimResult& c : run.claims) ++count[static_cast<size_t>(c.verdict)];
+  std::string summary = fmt::format(
+      "{} claim{}: {} holds, {} refuted, {} undecided, {} error{}", run.claims.size(),
+      run.claims.size() == 1 ? "" : "s", count[0], count[1], count[2], count[3],
+      count[3] == 1 ? "" : "s");
+
+  std::string s = "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n";
+  s += "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n";
+  s += fmt::format("<title>thetagate report, seed {}</title>\n", run.seed);
+  s += std::string("<style>") + kStyle + "</style>\n</head>\n<body>\n";
+  s += "<header>\n<h1>thetagate report</h1>\n";
+  s += fmt::format("<p>Seed <code>{0}</code>: rerun with <code>--seed {0}</code> to replay this "
+                   "run. {1}.</p>\n</header>\n",
+                   run.seed, esc(summary));
+  s += "<table class=\"summary\">\n<tr><th>verdict</th><th>claim</th><th>claimed</th>"
+       "<th>derived</th></tr>\n";
+  for (size_t i = 0; i < run.claims.size(); ++i) {
+    const ClaimResult& c = run.claims[i];
+    s += fmt::format("<tr><td>{}</td><td><a href=\"#claim-{}\">{}</a></td><td>{}</td><td>{}</td>"
+                     "</tr>\n",
+                     verdict_span(c.verdict), i + 1, esc(c.name), esc(c.claimed),
+                     esc(derived_text(c)));
+  }
+  s += "</table>\n";
+  for (size_t i = 0; i < run.claims.size(); ++i) s += claim_section(run.claims[i], i + 1);
+  s += "</body>\n</html>\n";
+  return s;
+}
+
+}  // namespace thetagate

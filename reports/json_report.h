@@ -1,0 +1,25 @@
+// The report for programs: one JSON object, schema documented in
+// docs/json-schema.md. The keys of DESIGN.md §6 are a contract; new keys may
+// be added, none renamed or removed without bumping "schema_version".
+#ifndef THETAGATE_REPORTS_JSON_REPORT_H_
+#define THETAGATE_REPORTS_JSON_REPORT_H_
+
+#include <string>
+
+#include "verifier/result.h"
+
+namespace thetagate {
+
+// Version of the layout render_json writes; docs/json-schema.md says what
+// each version holds.
+inline constexpr int kJsonSchemaVersion = 1;
+
+// Pretty-printed JSON (2-space indent, keys in a fixed order, UTF-8 kept as
+// is, invalid UTF-8 replaced by U+FFFD), ending with a newline. Sizes and
+// exact values are decimal strings with every digit; ratios are numbers, or
+// null when not finite. Deterministic.
+std::string render_json(const RunResult& run);
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_REPORTS_JSON_REPORT_H_

@@ -1,0 +1,157 @@
+#include "reports/junit_report.h"
+
+#include <algorithm>
+#include <cstdint>
+
+#include <fmt/format.h>
+
+#include "reports/number_text.h"
+#include "reports/xml_escape.h"
+
+namespace thetagate {
+
+namespace {
+
+std::string suite_name(const ClaimResult& c) { return c.file.empty() ? "(command line)" : c.file; }
+
+// "claims/sort.toml" -> "claims.sort": CI tools split classname at dots into
+// package and class, so claims group by folder and file.
+std::string class_name(const std::string& file) {
+  if (file.empty()) return "command-line";
+  std::string path = file.rfind("./", 0) == 0 ? file.substr(2) : file;
+  size_t slash = path.find_last_of("/\\");
+  size_t dot = path.rfind('.');
+  if (dot != std::string::npos && dot > 0 && (slash == std::string::npos || dot > slash + 1)) {
+    path.resize(dot);
+  }
+  for (char& ch : path) {
+    if (ch == '/' || ch == '\\') ch = '.';
+  }
+  return path;
+}
+
+std::string attr(const char* name, const std::string& value) {
+  return fmt::format(" {}=\"{}\"", name, xml_escape_attribute(value));
+}
+
+std::string claim_headline(const ClaimResult& c) {
+  std::string s = "claimed " + (c.claimed.empty() ? std::string("(nothing)") : c.claimed);
+  s += "; derived " + (c.derived.empty() ? std::string("(nothing)") : c.derived);
+  if (!c.method.empty()) s += " (" + c.method + ")";
+  return s + "\n";
+}
+
+std::string witness_block(const ClaimResult& c) {
+  std::string s;
+  for (size_t i = 0; i < c.witnesses.size(); ++i) {
+    const Witness& w = c.witnesses[i];
+    s += fmt::format("witness {}: n = {} ({} side)\n", i + 1, w.n.str(), side_name(w.side));
+    if (!w.value.empty()) s += "  T(n) = " + w.value + "\n";
+    if (!w.bound.empty()) s += "  bound = " + w.bound + "\n";
+    s += "  T(n)/g(n) = " + format_ratio(w.ratio) + "\n";
+    if (!w.family.empty()) s += "  family = " + w.family + "\n";
+    if (!w.factor.empty()) s += "  ladder c = " + w.factor + "\n";
+  }
+  return s;
+}
+
+std::string outcome_element(const ClaimResult& c, const JunitOptions& options) {
+  switch (c.verdict) {
+    case Verdict::kHolds:
+      return "";
+    case Verdict::kRefuted: {
+      std::string body = claim_headline(c);
+      if (!c.message.empty()) body += c.message + "\n";
+      body += witness_block(c);
+      return "      <failure" + attr("message", c.message) + attr("type", "refuted") + ">" +
+             xml_escape_text(body) + "</failure>\n";
+    }
+    case Verdict::kUndecided: {
+      if (!options.undecided_fails) {
+        return "      <skipped" + attr("message", c.message) + "/>\n";
+      }
+      std::string body = claim_headline(c) + (c.message.empty() ? "" : c.message + "\n");
+      return "      <failure" + attr("message", c.message) + attr("type", "undecided") + ">" +
+             xml_escape_text(body) + "</failure>\n";
+    }
+    case Verdict::kError: {
+      std::string message = c.error ? c.error->message : c.message;
+      std::string body = c.error ? format_diagnostic(*c.error) + "\n" : c.message + "\n";
+      return "      <error" + attr("message", message) + attr("type", "input") + ">" +
+             xml_escape_text(body) + "</error>\n";
+    }
+  }
+  return "";
+}
+
+// The derivation and assumptions, for a reader who opens the test case.
+std::string system_out(const ClaimResult& c) {
+  std::string s;
+  if (c.verdict == Verdict::kHolds) s += claim_headline(c);
+  for (const std::string& note : c.notes) s += "assumption: " + note + "\n";
+  if (!c.note.empty()) s += "note: " + c.note + "\n";
+  for (const std::string& reason : c.reasons) s += "derivation: " + reason + "\n";
+  if (c.sizes_checked > 0) {
+    s += fmt::format("checked {} sizes up to {} bits\n", c.sizes_checked, c.largest_bits);
+  }
+  if (s.empty()) return s;
+  return "      <system-out>" + xml_escape_text(s) + "</system-out>\n";
+}
+
+struct Counts {
+  size_t tests = 0, failures = 0, errors = 0, skipped = 0;
+  void add(const ClaimResult& c, const JunitOptions& options) {
+    ++tests;
+    if (c.verdict == Verdict::kRefuted) ++failures;
+    if (c.verdict == Verdict::kError) ++errors;
+    if (c.verdict == Verdict::kUndecided) ++(options.undecided_fails ? failures : skipped);
+  }
+  std::string attributes() const {
+    return fmt::format(" tests=\"{}\" failures=\"{}\" errors=\"{}\" skipped=\"{}\"", tests,
+                       failures, errors, skipped);
+  }
+};
+
+}  // namespace
+
+std::string render_junit(const RunResult& run, const JunitOptions& options) {
+  // Suites in order of first appearance; claims keep their order inside.
+  std::vector<std::string> suites;
+  for (const ClaimResult& c : run.claims) {
+    if (std::find(suites.begin(), suites.end(), suite_name(c)) == suites.end()) {
+      suites.push_back(suite_name(c));
+    }
+  }
+  Counts total;
+  for (const ClaimResult& c : run.claims) total.add(c, options);
+
+  std::string out = "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n";
+  out += "<testsuites" + attr("name", "thetagate") + total.attributes() + ">\n";
+  for (const std::string& suite : suites) {
+    Counts counts;
+    for (const ClaimResult& c : run.claims) {
+      if (suite_name(c) == suite) counts.add(c, options);
+    }
+    out += "  <testsuite" + attr("name", suite) + counts.attributes() + ">\n";
+    out += "    <properties>\n";
+    out += "      <property" + attr("name", "seed") + attr("value", std::to_string(run.seed)) +
+           "/>\n";
+    out += "    </properties>\n";
+    for (const ClaimResult& c : run.claims) {
+      if (suite_name(c) != suite) continue;
+      out += "    <testcase" + attr("name", c.name) + attr("classname", class_name(c.file));
+      if (!c.file.empty()) out += attr("file", c.file) + attr("line", std::to_string(c.line));
+      std::string inner = outcome_element(c, options) + system_out(c);
+      if (inner.empty()) {
+        out += "/>\n";
+      } else {
+        out += ">\n" + inner + "    </testcase>\n";
+      }
+    }
+    out += "  </testsuite>\n";
+  }
+  out += "</testsuites>\n";
+  return out;
+}
+
+}  // namespace thetagate

@@ -1,0 +1,35 @@
+// Short, human-readable text for huge numbers and ratios. Only the
+// human-facing writers (text, HTML) shorten; JSON and JUnit keep every digit.
+#ifndef THETAGATE_REPORTS_NUMBER_TEXT_H_
+#define THETAGATE_REPORTS_NUMBER_TEXT_H_
+
+#include <string>
+
+#include "verifier/number.h"
+
+namespace thetagate {
+
+// A size as a person wants to read it. Promises, in order of preference:
+//   - near c*2^k (c odd, c < 16) or 10^k, with an offset tiny beside n:
+//     "2^4096+7", "3*2^100-1", "10^30" — text `thetagate eval` accepts back;
+//   - up to 30 digits: every digit;
+//   - otherwise the first and last digits and the count:
+//     "123456…789012 (1234 digits)".
+std::string short_decimal(const BigInt& n);
+
+// An exact value as the engine writes it ("159", "7/2", "[lo, hi]") with
+// every run of more than 30 digits shortened as short_decimal does.
+std::string short_value(const std::string& text);
+
+// A ratio with 4 significant digits ("1.5", "2.048e+06"); "inf", "-inf" or
+// "nan" when not finite.
+std::string format_ratio(double ratio);
+
+// A ratio band end: format_ratio(ratio) while the double holds it, else
+// "2^E" from its log2 (a ratio that overflows or underflows a double, as
+// exponential bounds at 4096 bits do).
+std::string format_band_ratio(double ratio, double log2_ratio);
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_REPORTS_NUMBER_TEXT_H_

@@ -1,0 +1,35 @@
+// The report for a person at a terminal: one line per claim, then detail for
+// every claim that did not hold, then a summary line. Deterministic: the same
+// RunResult always gives the same bytes (no clock, no environment).
+#ifndef THETAGATE_REPORTS_TEXT_REPORT_H_
+#define THETAGATE_REPORTS_TEXT_REPORT_H_
+
+#include <string>
+
+#include "verifier/result.h"
+
+namespace thetagate {
+
+struct TextStyle {
+  bool colour = false;  // ANSI colour and bold; the front end decides (want_colour)
+};
+
+// The whole report, ending with a newline. Layout:
+//   seed 42 · rerun with --seed 42 to replay
+//
+//   holds      <name>   claimed Θ(n lg n) · derived Θ(n lg n) by master theorem
+//   refuted    <name>   claimed O(n) · derived Θ(n lg n) by master theorem
+//       <file:line, message, witnesses, ratio band, notes, reasons, diagnostic>
+//
+//   2 claims: 1 holds, 1 refuted, 0 undecided, 0 errors
+// Huge sizes and values are shortened (reports/number_text.h); the JSON and
+// JUnit writers keep every digit.
+std::string render_text(const RunResult& run, const TextStyle& style);
+
+// True when output to `fd` should be coloured: `fd` is a terminal and the
+// NO_COLOR environment variable is unset or empty (no-color.org convention).
+bool want_colour(int fd);
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_REPORTS_TEXT_REPORT_H_

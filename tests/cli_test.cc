@@ -1,0 +1,175 @@
+// End-to-end tests: run the built thetagate binary on claim files and check
+// exit codes, JSON fields and error text. The top of the test pyramid; the
+// library is tested directly elsewhere.
+#include <sys/wait.h>
+#include <unistd.h>
+
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <string>
+
+#include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
+
+namespace {
+
+struct CommandResult {
+  int status = -1;
+  std::string out;
+};
+
+CommandResult run(const std::string& arguments) {
+  std::string command = std::string(THETAGATE_BINARY) + " " + arguments + " 2>&1";
+  CommandResult r;
+  FILE* pipe = popen(command.c_str(), "r");
+  if (pipe == nullptr) return r;
+  char buffer[4096];
+  size_t got;
+  while ((got = fread(buffer, 1, sizeof buffer, pipe)) > 0) r.out.append(buffer, got);
+  int raw = pclose(pipe);
+  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
+  return r;
+}
+
+class Cli : public ::testing::Test {
+ protected:
+  void SetUp() override {
+    dir_ = std::filesystem::temp_directory_path() /
+           ("thetagate-cli-" + std::to_string(::getpid()) + "-" +
+            ::testing::UnitTest::GetInstance()->current_test_info()->name());
+    std::filesystem::create_directories(dir_);
+  }
+  void TearDown() override { std::filesystem::remove_all(dir_); }
+
+  std::string write_file(const std::string& name, const std::string& text) {
+    std::filesystem::path p = dir_ / name;
+    std::ofstream(p) << text;
+    return p.string();
+  }
+
+  std::filesystem::path dir_;
+};
+
+const char* kMergeSortTrue = R"toml([[claim]]
+name = "merge comparisons"
+recurrence = """
+T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1
+T(1) = 0
+"""
+bound = "T(n) <= n lg n for n >= 1"
+)toml";
+
+const char* kTooTight = R"toml([[claim]]
+name = "too tight"
+recurrence = "T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1; T(1) = 0"
+bound = "T(n) <= n lg n - n for n >= 2"
+)toml";
+
+TEST(CliEval, PrintsExactValuesOneLineEach) {
+  // W(37) = 159: M. A. Suchenek, "Elementary yet precise worst-case analysis of
+  // MergeSort", arXiv:1702.08443 (closed form n⌈lg n⌉ − 2^⌈lg n⌉ + 1) [calc].
+  CommandResult r = run("eval 'T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1; T(1) = 0' 37 2^64");
+  EXPECT_EQ(r.status, 0);
+  EXPECT_EQ(r.out, "37 159\n18446744073709551616 1162144876643701751809\n");
+}
+
+TEST(CliEval, PrintsRationalsAndIntervals) {
+  CommandResult r = run("eval 'T(n) = 2T(n/2) + n/lg n; T(1) = 1' 16 17");
+  EXPECT_EQ(r.status, 0);
+  // 16 (1 + H_4) = 148/3 [calc from T(2^k) = 2^k (T(1) + H_k)].
+  EXPECT_EQ(r.out.substr(0, 10), "16 148/3\n1");
+  EXPECT_NE(r.out.find("17 ["), std::string::npos) << r.out;
+}
+
+TEST(CliEval, BadRecurrenceIsALocatedErrorWithExitTwo) {
+  CommandResult r = run("eval 'T(n) = 2T(n/2 + n' 5");
+  EXPECT_EQ(r.status, 2);
+  EXPECT_EQ(r.out,
+            "<recurrence>:1:18: error: expected ')' after 'n', found the end of the text\n"
+            "T(n) = 2T(n/2 + n\n"
+            "                 ^\n"
+            "  hint: close the argument list of 'T' with ')'\n");
+}
+
+TEST_F(Cli, HoldingOrUndecidedClaimsExitZero) {
+  std::string file = write_file("true.toml", kMergeSortTrue);
+  CommandResult r = run("check --max-bits 256 --format json " + file);
+  EXPECT_EQ(r.status, 0) << r.out;
+  auto json = nlohmann::json::parse(r.out);
+  ASSERT_EQ(json["claims"].size(), 1u);
+  EXPECT_NE(json["claims"][0]["verdict"], "refuted");
+  EXPECT_NE(json["claims"][0]["verdict"], "error");
+}
+
+TEST_F(Cli, RefutedClaimExitsOneWithAWitness) {
+  std::string file = write_file("tight.toml", kTooTight);
+  CommandResult r = run("check --max-bits 64 --seed 7 --format json " + file);
+  EXPECT_EQ(r.status, 1) << r.out;
+  auto json = nlohmann::json::parse(r.out);
+  EXPECT_EQ(json["seed"], 7);
+  const auto& claim = json["claims"][0];
+  EXPECT_EQ(claim["name"], "too tight");
+  EXPECT_EQ(claim["verdict"], "refuted");
+  EXPECT_EQ(claim["line"], 1);
+  ASSERT_FALSE(claim["witnesses"].empty());
+  // W(3) = 3 > 3 lg 3 − 3 ≈ 1.75; n = 2 gives W(2) = 1 = 2 lg 2 − 2 + 1 > 0.
+  EXPECT_EQ(claim["witnesses"][0]["n"], "2");
+  EXPECT_EQ(claim["witnesses"][0]["side"], "upper");
+  for (const char* key : {"name", "file", "line", "verdict", "claimed", "derived", "method",
+                          "tight", "witnesses", "band", "message"}) {
+    EXPECT_TRUE(claim.contains(key)) << key;
+  }
+}
+
+TEST_F(Cli, ABadClaimDoesNotHideTheOthers) {
+  std::string file = write_file("mixed.toml", std::string(kTooTight) + R"toml(
+[[claim]]
+name = "broken"
+recurrence = "T(n) = T(n/2 +"
+bound = "O(lg n)"
+)toml");
+  CommandResult r = run("check --max-bits 64 --format json " + file);
+  EXPECT_EQ(r.status, 1) << r.out;
+  auto json = nlohmann::json::parse(r.out);
+  ASSERT_EQ(json["claims"].size(), 2u);
+  EXPECT_EQ(json["claims"][0]["verdict"], "refuted");
+  EXPECT_EQ(json["claims"][1]["verdict"], "error");
+  EXPECT_EQ(json["claims"][1]["name"], "broken");
+}
+
+TEST_F(Cli, OnlyErrorsExitTwo) {
+  std::string file = write_file("bad.toml", "[[claim]]\nname = \"x\"\nrecurrence = \"T(n) = T(n/2) + 1\"\nbound = \"O(lg n)\"\nbounds = \"typo\"\n");
+  CommandResult r = run("check " + file);
+  EXPECT_EQ(r.status, 2) << r.out;
+  EXPECT_NE(r.out.find("bad.toml:5:1"), std::string::npos) << r.out;
+}
+
+TEST_F(Cli, MissingPathIsUsageError) {
+  CommandResult r = run("check /nonexistent/claims.toml");
+  EXPECT_EQ(r.status, 2) << r.out;
+  EXPECT_NE(r.out.find("/nonexistent/claims.toml"), std::string::npos) << r.out;
+}
+
+TEST_F(Cli, SameSeedSameReportByteForByte) {
+  std::string file = write_file("true.toml", kMergeSortTrue);
+  CommandResult a = run("check --max-bits 128 --seed 42 --format json " + file);
+  CommandResult b = run("check --max-bits 128 --seed 42 --format json " + file);
+  EXPECT_EQ(a.out, b.out);
+}
+
+TEST_F(Cli, DemoClaimsRunAndIncludeARefutation) {
+  CommandResult r = run(std::string("check --max-bits 256 --format json ") + THETAGATE_SOURCE_DIR + "/claims");
+  EXPECT_EQ(r.status, 1) << r.out;
+  auto json = nlohmann::json::parse(r.out);
+  EXPECT_GE(json["claims"].size(), 12u);
+  int refuted = 0, errors = 0;
+  for (const auto& c : json["claims"]) {
+    refuted += c["verdict"] == "refuted";
+    errors += c["verdict"] == "error";
+  }
+  EXPECT_GE(refuted, 1);
+  EXPECT_EQ(errors, 0) << r.out;
+}
+
+}  // namespace

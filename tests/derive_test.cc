@@ -1,0 +1,210 @@
+// Derivations checked against published worked examples (sources named
+// beside each check, as listed in /work/shared/SOURCES.md).
+#include <gtest/gtest.h>
+#include <rapidcheck/gtest.h>
+
+#include <cmath>
+
+#include "verifier/bound.h"
+#include "verifier/derive.h"
+#include "verifier/evaluator.h"
+#include "verifier/recurrence.h"
+#include "verifier/theorems/akra_bazzi.h"
+#include "verifier/theorems/linear.h"
+
+namespace thetagate {
+namespace {
+
+Derivation derived(const std::string& text) { return derive(*recurrence_from_text(text)); }
+
+std::string reasons(const Derivation& d) {
+  std::string s;
+  for (const auto& r : d.reasons) s += r + "\n";
+  return s;
+}
+
+ClaimComparison against(const std::string& recurrence, const std::string& bound) {
+  return compare_claim(derived(recurrence), parse_bound(SourceText::whole("<bound>", bound)));
+}
+
+TEST(DeriveMaster, CaseTwo) {
+  Derivation d = derived("T(n) = 2T(n/2) + n; T(1) = 1");
+  EXPECT_EQ(d.derived, "n lg n") << reasons(d);
+  EXPECT_EQ(d.method, "master theorem, case 2");
+}
+
+TEST(DeriveMaster, CaseOneWithLogExponent) {
+  // Bentley, Haken, Saxe 1980: a = 7, b = 2 gives n^(log_2 7).
+  Derivation d = derived("T(n) = 7T(n/2) + n^2; T(1) = 1");
+  EXPECT_EQ(d.derived, "n^(lg 7)") << reasons(d);
+  EXPECT_EQ(d.method, "master theorem, case 1");
+}
+
+TEST(DeriveMaster, CaseThreeWithRegularity) {
+  Derivation d = derived("T(n) = 3T(n/4) + n lg n; T(1) = 1");
+  EXPECT_EQ(d.derived, "n lg n") << reasons(d);
+  EXPECT_EQ(d.method, "master theorem, case 3");
+}
+
+TEST(DeriveMaster, MergeSortWithFloorsAndCeilings) {
+  // Suchenek 2017: W(n) = n ceil(lg n) - 2^ceil(lg n) + 1 = Θ(n lg n).
+  Derivation d = derived("T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1; T(1) = 0");
+  EXPECT_EQ(d.derived, "n lg n") << reasons(d);
+}
+
+TEST(DeriveMaster, PolylogExtension) {
+  // Eberl, "The Akra–Bazzi theorem and the Master theorem", AFP 2015:
+  // master2_1 (k > -1), master2_2 (k = -1), master2_3 (k < -1).
+  EXPECT_EQ(derived("T(n) = 2T(n/2) + n lg n; T(1) = 1").derived, "n lg^2 n");
+  Derivation gap = derived("T(n) = 2T(n/2) + n/lg n; T(1) = 1; T(2) = 1");
+  EXPECT_EQ(gap.derived, "n lg lg n");
+  EXPECT_EQ(gap.method, "master theorem, case 2 (polylog extension, k = -1)");
+  bool names_gap = false;
+  for (const auto& s : gap.steps) names_gap = names_gap || s.find("not by a factor n^ε") != std::string::npos;
+  EXPECT_TRUE(names_gap);
+  EXPECT_EQ(derived("T(n) = 2T(n/2) + n/lg^2 n; T(1) = 1; T(2) = 1").derived, "n");
+}
+
+TEST(DeriveAkraBazzi, PublishedExamples) {
+  // Akra, Bazzi 1998; values from SOURCES.md (certified root finding).
+  Derivation a = derived("T(n) = T(n/5) + T(7n/10) + n; T(1) = 1");
+  EXPECT_EQ(a.derived, "n") << reasons(a);
+  EXPECT_EQ(a.method, "Akra–Bazzi");
+  EXPECT_EQ(derived("T(n) = T(n/2) + T(n/3) + T(n/6) + n; T(1) = 1").derived, "n lg n");
+  // Leighton 1996 example (from memory): 2T(n/4) + 3T(n/6) + n lg n.
+  EXPECT_EQ(derived("T(n) = 2T(n/4) + 3T(n/6) + n lg n; T(1) = 1").derived, "n lg^2 n");
+  Derivation golden = derived("T(n) = T(n/2) + T(n/4) + 1; T(1) = 1");
+  EXPECT_EQ(golden.derived, "n^0.694242…") << reasons(golden);  // calc: p = lg φ = 0.6942419...
+  EXPECT_EQ(derived("T(n) = 0.5T(n/2) + n; T(1) = 1").derived, "n");
+  EXPECT_EQ(derived("T(n) = (1/2)T(n/2) + 1/n; T(1) = 1").derived, "lg n/n");
+}
+
+TEST(DeriveAkraBazzi, CriticalExponentIsCertified) {
+  RealNumber p = critical_exponent({{Rational(1), Rational(1, 5)}, {Rational(1), Rational(7, 10)}});
+  EXPECT_EQ(p.digits(), "0.839780…");  // SOURCES.md: p = 0.83978...
+  EXPECT_LT(p, RealNumber(1L));
+  EXPECT_EQ(critical_exponent({{1, Rational(1, 2)}, {1, Rational(1, 3)}, {1, Rational(1, 6)}}), RealNumber(1L));
+}
+
+TEST(DeriveChangeOfVariables, RootTerms) {
+  // SOURCES.md [calc]: T(2^(2^k)) = lg n (T(2) + lg lg n).
+  EXPECT_EQ(derived("T(n) = 2T(sqrt(n)) + lg n; T(2) = 1; T(1) = 1; T(3) = 1").derived, "lg n lg lg n");
+  EXPECT_EQ(derived("T(n) = T(floor(sqrt(n))) + 1; T(1) = 1; T(2) = 1; T(3) = 1").derived, "lg lg n");
+}
+
+TEST(DeriveSubtract, CommonPractice) {
+  // Graham, Knuth, Patashnik, Concrete Mathematics, ch. 1: 2^n - 1.
+  EXPECT_EQ(derived("T(n) = 2T(n-1) + 1; T(0) = 0").derived, "2^n");
+  EXPECT_EQ(derived("T(n) = T(n-1) + n; T(0) = 0").derived, "n^2");  // common practice
+  EXPECT_EQ(derived("T(n) = 0.5T(n-1) + n; T(0) = 0").derived, "n");  // common practice
+  EXPECT_EQ(derived("T(n) = 4T(n-2) + 1; T(0) = 1; T(1) = 1").derived, "2^n");  // 4^(n/2)
+}
+
+TEST(DeriveLinear, DominantRootAndItsCoefficient) {
+  // Fibonacci: Θ(φ^n) (Neapolitan, Naimipour, appendix B).
+  Derivation fib = derived("T(n) = T(n-1) + T(n-2); T(0) = 0; T(1) = 1");
+  EXPECT_EQ(fib.derived, "((1 + sqrt(5))/2)^n") << reasons(fib);
+  // SOURCES.md [calc]: 1 - 2^n + 2*3^n.
+  EXPECT_EQ(derived("T(n) = 6T(n-1) - 11T(n-2) + 6T(n-3); T(0) = 2; T(1) = 5; T(2) = 15").derived, "3^n");
+  // SOURCES.md [calc]: a_n = 1, the root 2 has coefficient 0.
+  Derivation trap = derived("T(n) = 3T(n-1) - 2T(n-2); T(0) = 1; T(1) = 1");
+  EXPECT_EQ(trap.derived, "1") << reasons(trap);
+  // SOURCES.md [calc]: a_n = -a_{n-2} has no Θ of the form n^j r^n.
+  Derivation oscillating = derived("T(n) = -T(n-2); T(0) = 1; T(1) = 1");
+  EXPECT_FALSE(oscillating.derived_class());
+  EXPECT_NE(reasons(oscillating).find("oscillates"), std::string::npos) << reasons(oscillating);
+}
+
+TEST(DeriveLinear, ActivePolynomialDropsCancelledRoots) {
+  Polynomial c({Rational(2), Rational(-3), Rational(1)});  // x^2 - 3x + 2
+  EXPECT_EQ(active_polynomial(c, {1, 1, 1}).str(), "x - 1");
+  EXPECT_EQ(active_polynomial(c, {1, 2, 4}).str(), "x - 2");
+}
+
+TEST(DeriveRegularity, FailsWhereCaseThreeWouldBeWrong) {
+  // SOURCES.md [calc]: f(2^k) = 8^k for even k, 4^k for odd k; f = Ω(n^2) but
+  // T(n) >= n^3/4 at odd k, so Θ(f) is false.
+  Derivation d = derived(
+      "f(n) = n^3 if floor(lg n) mod 2 == 0; f(n) = n^2 otherwise;"
+      "T(n) = 2T(n/2) + f(n); T(1) = 1");
+  EXPECT_FALSE(d.derived_class());
+  std::string r = reasons(d);
+  EXPECT_NE(r.find("regularity"), std::string::npos) << r;
+  EXPECT_NE(r.find("2^3"), std::string::npos) << r;
+}
+
+TEST(DeriveShape, ReasonsInAReviewersWords) {
+  EXPECT_NE(reasons(derived("T(n) = n T(n/2) + 1; T(1) = 1")).find("depends on n"), std::string::npos);
+  EXPECT_NE(reasons(derived("T(n) = T(n/2)^2 + 1; T(1) = 1")).find("not linear"), std::string::npos);
+  EXPECT_NE(reasons(derived("T(n) = 2T(n/2) + 1 if n even; T(n) = T(n-1) + 1 otherwise; T(1) = 1"))
+                .find("differ in their recursive part"),
+            std::string::npos);
+  Derivation parity = derived("T(n) = 2T(n/2) + n if n even; T(n) = 2T(n/2) + n^2 otherwise; T(1) = 1");
+  EXPECT_FALSE(parity.derived_class());
+  EXPECT_NE(reasons(parity).find("different classes"), std::string::npos) << reasons(parity);
+}
+
+TEST(DeriveClaim, ExactComparison) {
+  const std::string strassen = "T(n) = 7T(n/2) + n^2; T(1) = 1";
+  EXPECT_EQ(against(strassen, "Theta(n^(lg 7))").agreement, ClaimAgreement::kAgree);
+  EXPECT_EQ(against(strassen, "Theta(n^2.807)").agreement, ClaimAgreement::kContradicts);
+  EXPECT_EQ(against(strassen, "O(n^2.81)").agreement, ClaimAgreement::kHoldsLoosely);
+  EXPECT_EQ(against(strassen, "Omega(n^2.81)").agreement, ClaimAgreement::kContradicts);
+  const std::string gap = "T(n) = 2T(n/2) + n/lg n; T(1) = 1; T(2) = 1";
+  EXPECT_EQ(against(gap, "Theta(n)").agreement, ClaimAgreement::kContradicts);  // lg lg n counts
+  EXPECT_EQ(against(gap, "Theta(n lg lg n)").agreement, ClaimAgreement::kAgree);
+  ClaimComparison loose = against(gap, "O(n lg n)");
+  EXPECT_EQ(loose.agreement, ClaimAgreement::kHoldsLoosely);
+  EXPECT_FALSE(loose.tight);
+  EXPECT_EQ(against("T(n) = T(n-1) + T(n-2); T(0) = 0; T(1) = 1", "Theta(((1+sqrt(5))/2)^n)").agreement,
+            ClaimAgreement::kAgree);
+  EXPECT_EQ(against(strassen, "Theta(n mod 3)").agreement, ClaimAgreement::kCannotClassifyClaim);
+}
+
+// log2 of a positive big value without overflowing a double.
+double log2_of(const Value& v) {
+  Rational q = v.is_exact() ? v.exact() : v.interval(256).lower();
+  auto log2_int = [](const BigInt& x) {
+    uint64_t bits = bit_length(x);
+    uint64_t drop = bits > 64 ? bits - 64 : 0;
+    BigInt top = x >> static_cast<unsigned>(drop);
+    return std::log2(top.convert_to<double>()) + static_cast<double>(drop);
+  };
+  return log2_int(numerator(q)) - log2_int(denominator(q));
+}
+
+// The derived class agrees with the trend of exact evaluation: between
+// n = b^K and n = b^(2K), T(n)/g(n) drifts less than it does against g lg n
+// or g / lg n (the nearest wrong answers).
+RC_GTEST_PROP(DeriveMaster, AgreesWithExactTrend, ()) {
+  const long a = *rc::gen::inRange(1, 9);
+  const long b = *rc::gen::inRange(2, 5);
+  const long alpha = *rc::gen::inRange(0, 4);
+  const long beta = *rc::gen::inRange(-2, 3);
+  std::string f = "n^" + std::to_string(alpha) + " * lg(n)^(" + std::to_string(beta) + ")";
+  std::string text = "T(n) = " + std::to_string(a) + "T(n/" + std::to_string(b) + ") + " + f + "; T(1) = 1";
+  Derivation d = derive(*recurrence_from_text(text));
+  if (!d.growth) RC_DISCARD("no class: " + reasons(d));  // lg lg lg n boundaries
+  Evaluator ev(recurrence_from_text(text));
+  // Large sizes: leaf costs n^p and the driving function cross late when
+  // alpha is close to p (3T(n/4) + n/lg^2 n needs n > 2^100).
+  const int k = static_cast<int>(std::ceil(200 / std::log2(static_cast<double>(b))));
+  auto log_ratio = [&](int power, double extra_lg) {
+    BigInt n = boost::multiprecision::pow(BigInt(b), static_cast<unsigned>(power));
+    double lg_n = power * std::log2(static_cast<double>(b));
+    double lg_t = log2_of(ev.value_at(n));
+    const GrowthClass& g = *d.growth;
+    double lg_g = g.alpha.approx() * lg_n + (g.beta.approx() + extra_lg) * std::log2(lg_n) +
+                  g.gamma.approx() * std::log2(std::log2(lg_n));
+    return lg_t - lg_g;
+  };
+  double drift = std::fabs(log_ratio(2 * k, 0) - log_ratio(k, 0));
+  double drift_up = std::fabs(log_ratio(2 * k, 1) - log_ratio(k, 1));
+  double drift_down = std::fabs(log_ratio(2 * k, -1) - log_ratio(k, -1));
+  RC_LOG() << text << " -> " << d.derived << " drift " << drift << " / " << drift_up << " / " << drift_down;
+  RC_ASSERT(drift < drift_up);
+  RC_ASSERT(drift < drift_down);
+}
+
+}  // namespace
+}  // namespace thetagate

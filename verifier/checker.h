@@ -1,0 +1,40 @@
+// Checks claims: evaluates the recurrence exactly over the size families,
+// tests explicit bounds at every size, builds the ratio band and witness
+// ladder for asymptotic bounds, and decides the verdict.
+#ifndef THETAGATE_VERIFIER_CHECKER_H_
+#define THETAGATE_VERIFIER_CHECKER_H_
+
+#include <cstdint>
+#include <optional>
+#include <vector>
+
+#include "verifier/claim.h"
+#include "verifier/evaluator.h"
+#include "verifier/result.h"
+
+namespace thetagate {
+
+struct CheckOptions {
+  uint64_t seed = 1;
+  std::optional<uint64_t> max_bits;   // overrides every claim's sizes.max_bits
+  BigInt exhaustive_limit = 10000;    // every n up to this is checked
+  Budget budget = default_check_budget();
+
+  static Budget default_check_budget();
+};
+
+// Checks one claim. Never throws for bad input: an input error gives
+// verdict `error` with its Diagnostic; a budget that runs out gives
+// `undecided` (or stops the search early) with the reason.
+ClaimResult check_claim(const Claim& claim, const CheckOptions& options);
+
+// Checks every entry in order; entries that failed to load get `error`.
+RunResult check_entries(const std::vector<ClaimEntry>& entries, const CheckOptions& options);
+
+// The divisors b of the recurrence's T(n/b)-style calls and its mod
+// conditions: the bases the size families build on. Always contains 2.
+std::vector<BigInt> recurrence_divisors(const Recurrence& r);
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_VERIFIER_CHECKER_H_
