@@ -3,19 +3,24 @@
 // 0 no claim refuted, 1 at least one refuted, 2 bad input or usage.
 #include <unistd.h>
 
+#include <chrono>
+#include <filesystem>
 #include <fstream>
 #include <iostream>
 #include <random>
 
 #include <CLI/CLI.hpp>
 
+#include "generators/size_family.h"
+#include "reports/derivation_report.h"
+#include "reports/html_report.h"
 #include "reports/json_report.h"
 #include "reports/junit_report.h"
 #include "reports/text_report.h"
-#include "verifier/checker.h"
-#include "verifier/claim.h"
+#include "verifier/derive.h"
 #include "verifier/evaluator.h"
 #include "verifier/recurrence.h"
+#include "verifier/run.h"
 
 namespace {
 
@@ -26,66 +31,132 @@ constexpr int kExitBadInput = 2;
 
 struct CheckArguments {
   std::vector<std::string> paths;
+  std::vector<std::string> claims;
   std::string format = "text";
   std::string out;
   std::string seed = "1";
   std::optional<uint64_t> max_bits;
+  std::string rounding;
+  unsigned jobs = 1;
+  bool list_families = false;
+  bool undecided_fails = false;
 };
 
 uint64_t parse_seed(const std::string& text) {
-  if (text == "random") return std::random_device{}() * 0x100000001ull ^ std::random_device{}();
+  if (text == "random") {
+    std::random_device device;
+    return (static_cast<uint64_t>(device()) << 32) ^ device();
+  }
   size_t used = 0;
   uint64_t seed = std::stoull(text, &used);
-  if (used != text.size()) throw std::invalid_argument(text);
+  if (used != text.size() || text.empty() || text[0] == '-') throw std::invalid_argument(text);
   return seed;
 }
 
-int write_output(const std::string& text, const std::string& out) {
-  if (out.empty()) {
-    std::cout << text;
-    return 0;
-  }
-  std::ofstream file(out, std::ios::binary);
+bool write_file(const std::string& path, const std::string& text) {
+  std::ofstream file(path, std::ios::binary);
   file << text;
+  file.close();
   if (!file) {
-    std::cerr << "thetagate: cannot write " << out << '\n';
-    return kExitBadInput;
+    std::cerr << "thetagate: cannot write " << path << '\n';
+    return false;
+  }
+  return true;
+}
+
+std::string render(const RunResult& run, const std::string& format, bool colour,
+                   bool undecided_fails) {
+  if (format == "json") return render_json(run);
+  if (format == "junit") return render_junit(run, JunitOptions{undecided_fails});
+  if (format == "html") return render_html(run);
+  TextStyle style;
+  style.colour = colour;
+  return render_text(run, style);
+}
+
+// A progress line on stderr, only on a terminal and only once a run has
+// taken a second: short runs and pipes stay quiet.
+class Progress {
+ public:
+  Progress() : enabled_(isatty(STDERR_FILENO) != 0), start_(std::chrono::steady_clock::now()) {}
+  void update(size_t done, size_t total, const std::string& name) {
+    if (!enabled_) return;
+    if (std::chrono::steady_clock::now() - start_ < std::chrono::seconds(1)) return;
+    std::string shown = name.size() > 50 ? name.substr(0, 49) + "…" : name;
+    std::cerr << "\r\033[K[" << done << "/" << total << "] " << shown << std::flush;
+    drawn_ = true;
+  }
+  ~Progress() {
+    if (drawn_) std::cerr << "\r\033[K" << std::flush;
+  }
+
+ private:
+  bool enabled_;
+  bool drawn_ = false;
+  std::chrono::steady_clock::time_point start_;
+};
+
+int list_families() {
+  for (const FamilyInfo& f : size_families()) {
+    std::cout << f.name << std::string(f.name.size() < 18 ? 18 - f.name.size() : 1, ' ')
+              << f.description << '\n';
   }
   return 0;
 }
 
 int run_check(const CheckArguments& args) {
-  CheckOptions options;
+  if (args.list_families) return list_families();
+  RunRequest request;
   try {
-    options.seed = parse_seed(args.seed);
+    request.options.seed = parse_seed(args.seed);
   } catch (const std::exception&) {
     std::cerr << "thetagate: --seed takes a whole number or 'random', not '" << args.seed << "'\n";
     return kExitBadInput;
   }
-  options.max_bits = args.max_bits;
-  std::vector<std::string> paths = args.paths.empty() ? std::vector<std::string>{"claims"} : args.paths;
-  std::vector<ClaimEntry> entries;
-  for (const std::string& file : find_claim_files(paths)) {
-    std::vector<ClaimEntry> loaded = load_claim_file(file);
-    entries.insert(entries.end(), loaded.begin(), loaded.end());
-  }
-  RunResult run = check_entries(entries, options);
+  request.options.max_bits = args.max_bits;
+  if (args.rounding == "floor") request.options.rounding = Rounding::kFloor;
+  if (args.rounding == "ceil") request.options.rounding = Rounding::kCeil;
+  if (args.rounding == "both") request.options.rounding = Rounding::kBoth;
+  request.paths = args.paths;
+  request.claim_names = args.claims;
+  request.jobs = args.jobs;
+  Progress progress;
+  request.progress = [&progress](size_t done, size_t total, const std::string& name) {
+    progress.update(done, total, name);
+  };
+  RunResult run = run_check(request);
 
-  std::string text;
-  if (args.format == "json") {
-    text = render_json(run);
-  } else if (args.format == "junit") {
-    text = render_junit(run, JunitOptions{});
+  bool out_is_folder = !args.out.empty() &&
+                       (args.out.back() == '/' || std::filesystem::is_directory(args.out));
+  if (out_is_folder) {
+    std::filesystem::create_directories(args.out);
+    const std::pair<const char*, const char*> formats[] = {
+        {"text", "report.txt"}, {"json", "report.json"}, {"junit", "report.junit.xml"},
+        {"html", "report.html"}};
+    for (const auto& [format, name] : formats) {
+      std::string path = (std::filesystem::path(args.out) / name).string();
+      if (!write_file(path, render(run, format, false, args.undecided_fails))) return kExitBadInput;
+    }
   } else {
-    TextStyle style;
-    style.colour = args.out.empty() && want_colour(STDOUT_FILENO);
-    text = render_text(run, style);
+    bool colour = args.out.empty() && args.format == "text" && want_colour(STDOUT_FILENO);
+    std::string text = render(run, args.format, colour, args.undecided_fails);
+    if (args.out.empty()) {
+      std::cout << text;
+    } else if (!write_file(args.out, text)) {
+      return kExitBadInput;
+    }
   }
-  if (int status = write_output(text, args.out)) return status;
   bool any_error = false;
   for (const auto& c : run.claims) any_error |= c.verdict == Verdict::kError;
   if (run.any_refuted()) return kExitRefuted;
   return any_error ? kExitBadInput : 0;
+}
+
+int run_derive(const std::string& recurrence_text, const std::string& format) {
+  auto recurrence = recurrence_from_text(recurrence_text);
+  Derivation d = derive(*recurrence);
+  std::cout << (format == "json" ? render_derivation_json(d) : render_derivation_text(d));
+  return 0;
 }
 
 int run_eval(const std::string& recurrence_text, const std::vector<std::string>& sizes) {
@@ -108,14 +179,31 @@ int main(int argc, char** argv) {
   CheckArguments check;
   auto* check_command = app.add_subcommand("check", "check the claims in files or folders (default: claims/)");
   check_command->add_option("paths", check.paths, "claim files (.toml) or folders");
-  check_command->add_option("--format", check.format, "report format")
-      ->check(CLI::IsMember({"text", "json", "junit"}));
-  check_command->add_option("--out", check.out, "write the report to FILE instead of stdout");
-  check_command->add_option("--seed", check.seed, "seed for random sizes (a number, or 'random')");
+  check_command->add_option("--format", check.format, "report format: text, json, junit or html")
+      ->check(CLI::IsMember({"text", "json", "junit", "html"}));
+  check_command->add_option("--out", check.out,
+                            "write the report to FILE; to a folder (existing, or ending in '/'): "
+                            "every format at once");
+  check_command->add_option("--seed", check.seed, "seed for random sizes: a number, or 'random'");
   check_command->add_option("--max-bits", check.max_bits, "largest size in bits (default 4096)")
       ->check(CLI::Range(1, 65536));
+  check_command->add_option("--claim", check.claims, "check only the claim with this name (repeatable)");
+  check_command->add_option("--rounding", check.rounding,
+                            "read n/b inside T(...) as floor, ceil, or both (overrides claims)")
+      ->check(CLI::IsMember({"floor", "ceil", "both"}));
+  check_command->add_option("--jobs,-j", check.jobs, "claims checked in parallel (same report)")
+      ->check(CLI::Range(1, 256));
+  check_command->add_flag("--undecided-fails", check.undecided_fails,
+                          "JUnit: report undecided claims as failures, not skipped");
+  check_command->add_flag("--list-families", check.list_families, "describe the size families and exit");
 
   std::string recurrence_text;
+  std::string derive_format = "text";
+  auto* derive_command = app.add_subcommand("derive", "the derived bound and the reasoning");
+  derive_command->add_option("recurrence", recurrence_text, "the recurrence; ';' separates lines")->required();
+  derive_command->add_option("--format", derive_format, "text or json")
+      ->check(CLI::IsMember({"text", "json"}));
+
   std::vector<std::string> sizes;
   auto* eval_command = app.add_subcommand("eval", "exact T(N), one 'N VALUE' line each");
   eval_command->add_option("recurrence", recurrence_text, "the recurrence; ';' separates lines")->required();
@@ -129,6 +217,7 @@ int main(int argc, char** argv) {
   }
   try {
     if (*check_command) return run_check(check);
+    if (*derive_command) return run_derive(recurrence_text, derive_format);
     if (*eval_command) return run_eval(recurrence_text, sizes);
   } catch (const InputError& e) {
     std::cerr << e.what() << '\n';

@@ -3,6 +3,7 @@
 #include <unistd.h>
 
 #include <algorithm>
+#include <cctype>
 #include <array>
 #include <cstdlib>
 #include <vector>
@@ -188,7 +189,29 @@ void append_list(std::string& out, const char* heading, const std::vector<std::s
   }
 }
 
-void append_detail(std::string& out, const ClaimResult& c, const Painter& painter) {
+// Quotes a word for a POSIX shell: abc stays abc, a b becomes 'a b'.
+std::string shell_quote(const std::string& word) {
+  bool plain = !word.empty();
+  for (char c : word) {
+    if (!(std::isalnum(static_cast<unsigned char>(c)) || std::string("-_./:=+,").find(c) != std::string::npos)) {
+      plain = false;
+    }
+  }
+  if (plain) return word;
+  std::string quoted = "'";
+  for (char c : word) quoted += c == '\'' ? std::string("'\\''") : std::string(1, c);
+  return quoted + "'";
+}
+
+// A command that checks this claim again with the same sizes.
+std::string replay_command(const RunResult& run, const ClaimResult& c) {
+  std::string command = "thetagate check " + shell_quote(c.file) + " --seed " + std::to_string(run.seed);
+  if (run.max_bits) command += " --max-bits " + std::to_string(*run.max_bits);
+  return command + " --claim " + shell_quote(c.name);
+}
+
+void append_detail(std::string& out, const RunResult& run, const ClaimResult& c,
+                   const Painter& painter) {
   bool has_diagnostic = c.verdict == Verdict::kError && c.error.has_value();
   if (!has_diagnostic && !c.file.empty()) {
     out += kIndent + painter.dim("at " + c.file + ":" + std::to_string(c.line)) + "\n";
@@ -206,6 +229,9 @@ void append_detail(std::string& out, const ClaimResult& c, const Painter& painte
     out += kIndent + painter.dim(fmt::format("checked {} size{} up to {} bits", c.sizes_checked,
                                              c.sizes_checked == 1 ? "" : "s", c.largest_bits)) +
            "\n";
+  }
+  if (!c.file.empty() && c.verdict != Verdict::kError) {
+    out += kIndent + painter.dim("replay: " + replay_command(run, c)) + "\n";
   }
 }
 
@@ -232,7 +258,7 @@ std::string render_text(const RunResult& run, const TextStyle& style) {
   for (const ClaimResult& c : run.claims) {
     out += claim_line(c, name_column, painter);
     if (c.verdict != Verdict::kHolds) {
-      append_detail(out, c, painter);
+      append_detail(out, run, c, painter);
       out += "\n";
     }
   }

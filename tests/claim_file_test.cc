@@ -79,7 +79,7 @@ TEST(ClaimFile, UnknownKeyNamesTheKeyAndSuggestsTheClosestOne) {
             "mem.toml:4:3: error: unknown key 'bounds' in [[claim]]\n"
             "  bounds = \"Theta(n lg n)\"\n"
             "  ^\n"
-            "  hint: did you mean 'bound'? allowed keys: name, recurrence, bound, note, sizes");
+            "  hint: did you mean 'bound'? allowed keys: name, recurrence, bound, note, sizes, rounding");
 }
 
 TEST(ClaimFile, UnknownKeyInSizes) {

@@ -1,6 +1,7 @@
 #include "verifier/checker.h"
 
-#include <chrono>
+#include <cstdio>
+#include <cstdlib>
 #include <cmath>
 #include <map>
 #include <set>
@@ -114,8 +115,7 @@ class ClaimCheck {
   ClaimCheck(const Claim& claim, const CheckOptions& options, ClaimResult& result)
       : claim_(claim), options_(options), result_(result),
         evaluator_(claim.recurrence, options.budget),
-        t_of_n_(make_call(claim.recurrence->main.name, {make_variable()})),
-        started_(std::chrono::steady_clock::now()) {}
+        t_of_n_(make_call(claim.recurrence->main.name, {make_variable()})) {}
 
   void run() {
     derive_bound();
@@ -126,6 +126,9 @@ class ClaimCheck {
       check_explicit(sizes);
     }
     if (!stopped_.empty()) result_.notes.push_back(stopped_);
+    if (std::getenv("THETAGATE_DEBUG_WORK")) {
+      std::fprintf(stderr, "work %s: %llu\n", claim_.name.c_str(), (unsigned long long)work_);
+    }
     if (undecidable_ > 0) {
       result_.notes.push_back(fmt::format(
           "{} exact comparisons stayed undecided even at the highest interval precision (both "
@@ -141,7 +144,7 @@ class ClaimCheck {
       derivation_ = Derivation{};
       derivation_->reasons.push_back(std::string("the derivation failed: ") + e.what());
     }
-    result_.derived = derivation_->derived;
+    if (!derivation_->derived.empty()) result_.derived = "Theta(" + derivation_->derived + ")";
     result_.method = derivation_->method;
     result_.reasons = derivation_->steps;
     for (const auto& r : derivation_->reasons) result_.reasons.push_back(r);
@@ -160,14 +163,17 @@ class ClaimCheck {
     return generate_sizes(plan);
   }
 
-  double elapsed() const {
-    return std::chrono::duration<double>(std::chrono::steady_clock::now() - started_).count();
+  // The share of the work budget used so far.
+  double work_used() const {
+    return static_cast<double>(work_) / static_cast<double>(std::max<uint64_t>(1, options_.work_budget));
   }
 
   // T(n), or nullopt when the budget ran out (the search stops there).
   std::optional<Value> value_at(const BigInt& n, bool count) {
     try {
+      uint64_t before = evaluator_.stats().steps;
       Value v = evaluator_.value_at(n);
+      work_ += (evaluator_.stats().steps - before) * (1 + bit_length(n) / 64);
       if (count) {
         ++result_.sizes_checked;
         result_.largest_bits = std::max<uint64_t>(result_.largest_bits, bit_length(n));
@@ -243,9 +249,9 @@ class ClaimCheck {
   // certified break.
   void sample_sizes(const std::vector<Size>& sizes, std::vector<Target>& targets, bool is_explicit) {
     for (const Size& size : sizes) {
-      if (elapsed() > options_.budget.max_seconds * 0.6) {
+      if (work_used() > 0.6) {
         if (stopped_.empty()) {
-          stopped_ = fmt::format("the search stopped before n = {}: over 60% of the time budget "
+          stopped_ = fmt::format("the search stopped before n = {}: 60% of the work budget "
                                  "went to the size families", short_number(size.n));
         }
         break;
@@ -280,8 +286,8 @@ class ClaimCheck {
     for (const BandRow& row : rows) {
       if (target.violation) return;
       if (row.scale < 14) continue;  // the exhaustive range covers these
-      if (elapsed() > options_.budget.max_seconds * 0.75) {
-        result_.notes.push_back(fmt::format("local search stopped at {} bits: time budget",
+      if (work_used() > 0.85) {
+        result_.notes.push_back(fmt::format("local search stopped at {} bits: work budget",
                                             row.scale + 1));
         return;
       }
@@ -585,7 +591,7 @@ class ClaimCheck {
   ClaimResult& result_;
   Evaluator evaluator_;
   ExprPtr t_of_n_;
-  std::chrono::steady_clock::time_point started_;
+  uint64_t work_ = 0;
   std::optional<Derivation> derivation_;
   BigInt min_n_ = 1;
   std::string stopped_;
@@ -606,7 +612,9 @@ ClaimResult error_result(const ClaimResult& base, const Diagnostic& d) {
 
 Budget CheckOptions::default_check_budget() {
   Budget b;
-  b.max_seconds = 4.0;
+  // A guard against hangs only: the work budget (deterministic) is what
+  // normally ends a search.
+  b.max_seconds = 60.0;
   b.max_steps = 20'000'000;
   // Sizes are tried in increasing order; one that needs this many
   // subproblems (T(n/5) + T(7n/10) at thousands of bits) ends the climb.
@@ -629,7 +637,9 @@ std::vector<BigInt> recurrence_divisors(const Recurrence& r) {
   return {found.begin(), found.end()};
 }
 
-ClaimResult check_claim(const Claim& claim, const CheckOptions& options) {
+namespace {
+
+ClaimResult check_one_reading(const Claim& claim, const CheckOptions& options) {
   ClaimResult result;
   result.name = claim.name;
   result.file = claim.where.file;
@@ -646,6 +656,46 @@ ClaimResult check_claim(const Claim& claim, const CheckOptions& options) {
     result.message = std::string("out of budget: ") + e.what();
   }
   return result;
+}
+
+// rounding = both: the claim must hold with quotients read as floors and as
+// ceilings; the report says which reading fails.
+ClaimResult combine_readings(ClaimResult floor_result, ClaimResult ceil_result) {
+  if (floor_result.verdict == Verdict::kError) return floor_result;
+  if (ceil_result.verdict == Verdict::kError) return ceil_result;
+  const char* both_note = "checked twice: quotients inside T(...) read as floor and as ceil";
+  auto labelled = [&](ClaimResult r, const std::string& reading) {
+    r.message = "with quotients read as " + reading + ": " + r.message;
+    r.notes.push_back(both_note);
+    return r;
+  };
+  bool floor_refuted = floor_result.verdict == Verdict::kRefuted;
+  bool ceil_refuted = ceil_result.verdict == Verdict::kRefuted;
+  if (floor_refuted && ceil_refuted) return labelled(floor_result, "floor (and also as ceil)");
+  if (floor_refuted) return labelled(floor_result, "floor (the ceil reading does not break it)");
+  if (ceil_refuted) return labelled(ceil_result, "ceil (the floor reading does not break it)");
+  if (floor_result.verdict == Verdict::kHolds && ceil_result.verdict == Verdict::kHolds) {
+    floor_result.tight = floor_result.tight && ceil_result.tight;
+    floor_result.message = "holds with quotients read as floor and as ceil: " + floor_result.message;
+    floor_result.notes.push_back(both_note);
+    floor_result.sizes_checked += ceil_result.sizes_checked;
+    return floor_result;
+  }
+  if (floor_result.verdict != Verdict::kHolds) return labelled(floor_result, "floor");
+  return labelled(ceil_result, "ceil");
+}
+
+}  // namespace
+
+ClaimResult check_claim(const Claim& claim, const CheckOptions& options) {
+  Rounding rounding = options.rounding.value_or(claim.rounding.value_or(Rounding::kFloor));
+  if (rounding == Rounding::kFloor || !has_unrounded_calls(*claim.recurrence)) {
+    return check_one_reading(claim, options);
+  }
+  Claim ceil_claim = claim;
+  ceil_claim.recurrence = read_quotients_as_ceilings(*claim.recurrence);
+  if (rounding == Rounding::kCeil) return check_one_reading(ceil_claim, options);
+  return combine_readings(check_one_reading(claim, options), check_one_reading(ceil_claim, options));
 }
 
 RunResult check_entries(const std::vector<ClaimEntry>& entries, const CheckOptions& options) {

@@ -18,7 +18,12 @@ struct CheckOptions {
   uint64_t seed = 1;
   std::optional<uint64_t> max_bits;   // overrides every claim's sizes.max_bits
   BigInt exhaustive_limit = 10000;    // every n up to this is checked
+  std::optional<Rounding> rounding;   // overrides every claim's `rounding`
   Budget budget = default_check_budget();
+  // Work per claim, in subproblem-limbs (a subproblem of a k-bit size
+  // counts 1 + k/64). Deterministic, unlike time: the sizes phase stops at
+  // 60% of it, local search at 85%, so a run replays exactly under any load.
+  uint64_t work_budget = 4'000'000;
 
   static Budget default_check_budget();
 };

@@ -20,6 +20,11 @@ struct SizeOptions {
   std::optional<BigInt> min_n;         // smallest size checked
 };
 
+// How a quotient inside T(...) that is not a whole number is read: as its
+// floor (the default), its ceiling, or both (the claim must hold for both).
+enum class Rounding { kFloor, kCeil, kBoth };
+const char* rounding_name(Rounding r);  // "floor", "ceil", "both"
+
 struct Claim {
   std::string name;
   Location where;  // the [[claim]] header
@@ -27,6 +32,7 @@ struct Claim {
   Bound bound;
   std::string note;
   SizeOptions sizes;
+  std::optional<Rounding> rounding;  // the claim's own `rounding` key
 };
 
 // One entry of a claim file: a claim, or the error that stopped it. A claim

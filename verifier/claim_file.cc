@@ -22,7 +22,8 @@ namespace thetagate {
 namespace {
 
 const std::vector<std::string> kTopLevelKeys = {"claim"};
-const std::vector<std::string> kClaimKeys = {"name", "recurrence", "bound", "note", "sizes"};
+const std::vector<std::string> kClaimKeys = {"name", "recurrence", "bound", "note", "sizes",
+                                             "rounding"};
 const std::vector<std::string> kSizeKeys = {"max_bits", "families", "min_n"};
 constexpr int64_t kMaxBitsLimit = 65536;
 
@@ -369,6 +370,16 @@ ClaimEntry ClaimFileReader::read_claim(const toml::table& t) {
       claim.note = note->as_string()->get();
     }
     if (const toml::node* sizes = t.get("sizes")) read_sizes(*sizes, claim.sizes);
+    if (const toml::node* rounding = t.get("rounding")) {
+      std::string value = rounding->is_string() ? rounding->as_string()->get() : "";
+      if (value == "floor") claim.rounding = Rounding::kFloor;
+      else if (value == "ceil") claim.rounding = Rounding::kCeil;
+      else if (value == "both") claim.rounding = Rounding::kBoth;
+      else {
+        fail(rounding->source().begin, "'rounding' must be \"floor\", \"ceil\" or \"both\"",
+             "write rounding = \"both\" to check T(n/2) read as floor and as ceil");
+      }
+    }
     claim.recurrence = build_recurrence(text_of(*t.get("recurrence"), recurrence));
     claim.bound = parse_bound(text_of(*t.get("bound"), bound), claim.recurrence->main.name);
     entry.claim = std::move(claim);
@@ -539,6 +550,15 @@ std::vector<std::string> find_claim_files(const std::vector<std::string>& paths)
     for (const std::string& f : found) add(f);
   }
   return files;
+}
+
+const char* rounding_name(Rounding r) {
+  switch (r) {
+    case Rounding::kFloor: return "floor";
+    case Rounding::kCeil: return "ceil";
+    case Rounding::kBoth: return "both";
+  }
+  return "?";
 }
 
 }  // namespace thetagate

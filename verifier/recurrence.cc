@@ -196,6 +196,47 @@ std::shared_ptr<const Recurrence> build_recurrence(const SourceText& source) {
   return r;
 }
 
+bool has_unrounded_calls(const Recurrence& r) {
+  for (const CaseLine* line : r.main.lines_in_order()) {
+    for (const Expr* call : line->calls) {
+      if (has_unrounded_quotient(*call->args[0])) return true;
+    }
+  }
+  return false;
+}
+
+namespace {
+ExprPtr ceil_calls(const ExprPtr& e, const std::string& function) {
+  if (e->kind == ExprKind::kCall && e->name == function && e->args.size() == 1 &&
+      has_unrounded_quotient(*e->args[0])) {
+    return make_call(function, {make_call("ceil", {e->args[0]}, e->args[0]->pos)}, e->pos);
+  }
+  if (e->args.empty()) return e;
+  auto copy = std::make_shared<Expr>(*e);
+  for (auto& a : copy->args) a = ceil_calls(a, function);
+  return copy;
+}
+}  // namespace
+
+std::shared_ptr<const Recurrence> read_quotients_as_ceilings(const Recurrence& r) {
+  auto copy = std::make_shared<Recurrence>(r);
+  auto rewrite = [&](CaseLine& line) {
+    line.body = ceil_calls(line.body, r.main.name);
+    line.calls.clear();
+    collect_calls(line.body, r.main.name, line.calls);
+  };
+  for (auto& l : copy->main.points) rewrite(l);
+  for (auto& l : copy->main.conditional) rewrite(l);
+  if (copy->main.fallback) rewrite(*copy->main.fallback);
+  for (std::string& note : copy->notes) {
+    if (note.find("rounded down") != std::string::npos) {
+      note = "every quotient inside " + r.main.name + "(...) that is not a whole number is read "
+             "as its ceiling (rounding = ceil)";
+    }
+  }
+  return copy;
+}
+
 std::shared_ptr<const Recurrence> recurrence_from_text(const std::string& text, const std::string& origin) {
   return build_recurrence(SourceText::whole(origin, text));
 }

@@ -54,6 +54,14 @@ struct Recurrence {
 // function, T inside T's argument, two default lines, duplicate points.
 std::shared_ptr<const Recurrence> build_recurrence(const SourceText& source);
 
+// True when some call of the recursive function has a quotient that is not
+// rounded explicitly (T(n/2), not T(floor(n/2))): the reading matters.
+bool has_unrounded_calls(const Recurrence& r);
+
+// The same recurrence with every such quotient read as its ceiling:
+// T(n/2) becomes T(ceil(n/2)). Explicit floors and ceilings stay.
+std::shared_ptr<const Recurrence> read_quotients_as_ceilings(const Recurrence& r);
+
 // A recurrence written on the command line: ';' separates lines.
 std::shared_ptr<const Recurrence> recurrence_from_text(const std::string& text,
                                                        const std::string& origin = "<recurrence>");

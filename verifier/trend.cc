@@ -1,5 +1,6 @@
 #include "verifier/trend.h"
 
+#include <algorithm>
 #include <cmath>
 
 #include <fmt/format.h>
@@ -38,22 +39,20 @@ EdgeReading read_edge(const std::vector<BandRow>& band, bool upper) {
   }
   double monotone = static_cast<double>(with) / static_cast<double>(with + against);
 
-  // Least-squares slope over the upper half of the scales (in lg scale).
+  // Theil–Sen slope (the median of pairwise slopes) over the upper half of
+  // the scales, in lg(scale): one odd scale cannot tilt it, as it can a
+  // least-squares fit.
   size_t from = x.size() / 2;
-  double mx = 0, my = 0;
+  std::vector<double> slopes;
   for (size_t i = from; i < x.size(); ++i) {
-    mx += x[i];
-    my += y[i];
+    for (size_t j = i + 1; j < x.size(); ++j) {
+      if (x[j] - x[i] > 1e-12) slopes.push_back((y[j] - y[i]) / (x[j] - x[i]));
+    }
   }
-  double count = static_cast<double>(x.size() - from);
-  mx /= count;
-  my /= count;
-  double sxy = 0, sxx = 0;
-  for (size_t i = from; i < x.size(); ++i) {
-    sxy += (x[i] - mx) * (y[i] - my);
-    sxx += (x[i] - mx) * (x[i] - mx);
+  if (!slopes.empty()) {
+    std::nth_element(slopes.begin(), slopes.begin() + static_cast<long>(slopes.size() / 2), slopes.end());
+    r.slope = slopes[slopes.size() / 2];
   }
-  r.slope = sxx > 0 ? sxy / sxx : 0;
 
   double escape = escape_log2();
   bool away = upper ? r.change_log2 >= escape : r.change_log2 <= -escape;
@@ -80,7 +79,7 @@ const char* drift_name(Drift d) {
     case Drift::kSteady: return "steady";
     case Drift::kRising: return "rising";
     case Drift::kFalling: return "falling";
-    case Drift::kEscapes: return "escapes";
+    case Drift::kEscapes: return "escaping";
     case Drift::kUnclear: return "unclear";
   }
   return "?";

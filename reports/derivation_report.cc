@@ -1,0 +1,46 @@
+#include "reports/derivation_report.h"
+
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+namespace thetagate {
+
+std::string render_derivation_text(const Derivation& d) {
+  std::string out;
+  if (d.growth) {
+    out += fmt::format("T(n) = Θ({})  by {}\n", d.derived, d.method);
+  } else {
+    out += "no theorem applies: the class is not derived\n";
+  }
+  if (!d.steps.empty()) {
+    out += "\n";
+    for (size_t i = 0; i < d.steps.size(); ++i) {
+      out += fmt::format("  {:>2}. {}\n", i + 1, d.steps[i]);
+    }
+  }
+  if (!d.reasons.empty()) {
+    out += d.growth ? "\nother theorems:\n" : "\nwhy not:\n";
+    for (const std::string& r : d.reasons) out += "  - " + r + "\n";
+  }
+  if (!d.notes.empty()) {
+    out += "\nassumptions:\n";
+    for (const std::string& n : d.notes) out += "  - " + n + "\n";
+  }
+  return out;
+}
+
+std::string render_derivation_json(const Derivation& d) {
+  nlohmann::ordered_json j;
+  j["derived"] = d.derived;
+  j["method"] = d.method;
+  nlohmann::ordered_json reasons = nlohmann::ordered_json::array();
+  for (const auto& s : d.steps) reasons.push_back(s);
+  for (const auto& r : d.reasons) reasons.push_back(r);
+  j["reasons"] = reasons;
+  j["steps"] = d.steps;
+  j["not_applied"] = d.reasons;
+  j["notes"] = d.notes;
+  return j.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n";
+}
+
+}  // namespace thetagate
