@@ -57,6 +57,21 @@ bool is_comparison(TokenKind t) {
 
 bool is_keyword(const std::string& word) { return keywords().count(word) != 0; }
 
+class Parser::Nesting {
+ public:
+  explicit Nesting(Parser& p) : parser_(p) {
+    if (++parser_.depth_ > kMaxDepth) {
+      parser_.fail(parser_.peek(), "the expression is nested too deeply",
+                   "more than " + std::to_string(kMaxDepth) + " levels of nesting; simplify it");
+    }
+  }
+  ~Nesting() { --parser_.depth_; }
+
+ private:
+  static constexpr int kMaxDepth = 400;
+  Parser& parser_;
+};
+
 Parser::Parser(const SourceText& source) : source_(source), tokens_(tokenize(source_)) {}
 
 const Token& Parser::peek(size_t ahead) const {
@@ -135,6 +150,7 @@ ExprPtr Parser::parse_sum() {
 }
 
 ExprPtr Parser::parse_or() {
+  Nesting guard(*this);
   ExprPtr left = parse_and();
   while (at_name("or")) {
     const Token& op = next();
@@ -153,6 +169,7 @@ ExprPtr Parser::parse_and() {
 }
 
 ExprPtr Parser::parse_not() {
+  Nesting guard(*this);
   if (at_name("not")) {
     const Token& op = next();
     return make_unary(ExprKind::kNot, parse_not(), op.pos);
@@ -192,6 +209,7 @@ ExprPtr Parser::parse_product() {
 }
 
 ExprPtr Parser::parse_unary() {
+  Nesting guard(*this);
   if (at(TokenKind::kMinus)) {
     const Token& op = next();
     return make_unary(ExprKind::kNeg, parse_unary(), op.pos);
@@ -228,6 +246,7 @@ ExprPtr Parser::parse_juxtaposition() {
 }
 
 ExprPtr Parser::parse_power() {
+  Nesting guard(*this);
   ExprPtr base = parse_atom();
   if (at(TokenKind::kCaret)) {
     const Token& op = next();
@@ -237,6 +256,7 @@ ExprPtr Parser::parse_power() {
 }
 
 ExprPtr Parser::parse_exponent() {
+  Nesting guard(*this);
   if (at(TokenKind::kMinus)) {
     const Token& op = next();
     return make_unary(ExprKind::kNeg, parse_exponent(), op.pos);

@@ -62,9 +62,13 @@ class Parser {
   std::vector<ExprPtr> parse_arguments(const Token& name);
   bool starts_atom(const Token& t) const;
 
+  // Nesting guard: parsing recurses, so depth is bounded (an input of
+  // 100,000 '(' is an error, not a stack overflow).
+  class Nesting;
   SourceText source_;
   std::vector<Token> tokens_;
   size_t cursor_ = 0;
+  int depth_ = 0;
 };
 
 // Words that end an expression and are never names: if, otherwise, and, or,
