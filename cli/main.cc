@@ -8,10 +8,13 @@
 #include <fstream>
 #include <iostream>
 #include <random>
+#include <sstream>
 
 #include <CLI/CLI.hpp>
 
 #include "generators/size_family.h"
+#include "reports/baseline.h"
+#include "reports/drift.h"
 #include "reports/derivation_report.h"
 #include "reports/html_report.h"
 #include "reports/json_report.h"
@@ -40,6 +43,8 @@ struct CheckArguments {
   unsigned jobs = 1;
   bool list_families = false;
   bool undecided_fails = false;
+  std::string baseline;
+  std::vector<std::string> fail_on;
 };
 
 uint64_t parse_seed(const std::string& text) {
@@ -64,14 +69,30 @@ bool write_file(const std::string& path, const std::string& text) {
   return true;
 }
 
-std::string render(const RunResult& run, const std::string& format, bool colour,
-                   bool undecided_fails) {
-  if (format == "json") return render_json(run);
+std::string render(const RunResult& run, const DriftReport* drift, const std::string& format,
+                   bool colour, bool undecided_fails) {
+  if (format == "json") return drift ? render_json_with_drift(run, *drift) : render_json(run);
   if (format == "junit") return render_junit(run, JunitOptions{undecided_fails});
   if (format == "html") return render_html(run);
   TextStyle style;
   style.colour = colour;
-  return render_text(run, style);
+  std::string text = render_text(run, style);
+  if (drift) text += render_drift_text(*drift, style);
+  return text;
+}
+
+std::string read_file(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) {
+    Diagnostic d;
+    d.where = {path, 1, 1};
+    d.message = "cannot read the baseline report";
+    d.hint = "give the JSON report of an earlier run: thetagate check --format json --out OLD.json";
+    throw InputError(d);
+  }
+  std::stringstream buffer;
+  buffer << in.rdbuf();
+  return buffer.str();
 }
 
 // A progress line on stderr, only on a terminal and only once a run has
@@ -106,6 +127,13 @@ int list_families() {
 
 int run_check(const CheckArguments& args) {
   if (args.list_families) return list_families();
+  FailOn fail_on = args.fail_on.empty() ? FailOn{} : parse_fail_on(args.fail_on);
+  if (fail_on.drift && args.baseline.empty()) {
+    std::cerr << "thetagate: --fail-on drift needs --baseline OLD.json\n";
+    return kExitBadInput;
+  }
+  std::optional<RunResult> baseline;
+  if (!args.baseline.empty()) baseline = read_json_report(read_file(args.baseline), args.baseline);
   RunRequest request;
   try {
     request.options.seed = parse_seed(args.seed);
@@ -125,6 +153,9 @@ int run_check(const CheckArguments& args) {
     progress.update(done, total, name);
   };
   RunResult run = run_check(request);
+  std::optional<DriftReport> drift;
+  if (baseline) drift = compare_runs(*baseline, run);
+  const DriftReport* drift_ptr = drift ? &*drift : nullptr;
 
   bool out_is_folder = !args.out.empty() &&
                        (args.out.back() == '/' || std::filesystem::is_directory(args.out));
@@ -135,11 +166,13 @@ int run_check(const CheckArguments& args) {
         {"html", "report.html"}};
     for (const auto& [format, name] : formats) {
       std::string path = (std::filesystem::path(args.out) / name).string();
-      if (!write_file(path, render(run, format, false, args.undecided_fails))) return kExitBadInput;
+      if (!write_file(path, render(run, drift_ptr, format, false, args.undecided_fails))) {
+        return kExitBadInput;
+      }
     }
   } else {
     bool colour = args.out.empty() && args.format == "text" && want_colour(STDOUT_FILENO);
-    std::string text = render(run, args.format, colour, args.undecided_fails);
+    std::string text = render(run, drift_ptr, args.format, colour, args.undecided_fails);
     if (args.out.empty()) {
       std::cout << text;
     } else if (!write_file(args.out, text)) {
@@ -148,7 +181,7 @@ int run_check(const CheckArguments& args) {
   }
   bool any_error = false;
   for (const auto& c : run.claims) any_error |= c.verdict == Verdict::kError;
-  if (run.any_refuted()) return kExitRefuted;
+  if (should_fail(run, drift_ptr, fail_on)) return kExitRefuted;
   return any_error ? kExitBadInput : 0;
 }
 
@@ -196,6 +229,12 @@ int main(int argc, char** argv) {
   check_command->add_flag("--undecided-fails", check.undecided_fails,
                           "JUnit: report undecided claims as failures, not skipped");
   check_command->add_flag("--list-families", check.list_families, "describe the size families and exit");
+  check_command->add_option("--baseline", check.baseline,
+                            "an earlier JSON report: mark verdict changes, new or lost witnesses "
+                            "and band moves");
+  check_command->add_option("--fail-on", check.fail_on,
+                            "what exits 1: refuted (default), undecided, drift; comma-separated")
+      ->delimiter(',');
 
   std::string recurrence_text;
   std::string derive_format = "text";

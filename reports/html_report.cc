@@ -23,12 +23,13 @@ h3 { font-size: 0.95em; margin: 1.2em 0 0.3em; color: #444; }
 code, pre, .num { font-family: ui-monospace, monospace; font-size: 0.92em; }
 table { border-collapse: collapse; margin: 0.4em 0; }
 th, td { text-align: left; padding: 0.2em 0.7em; border-bottom: 1px solid #ddd; vertical-align: top; }
-th { font-weight: 600; }
+th { font-weight: 600; white-space: nowrap; }
 .summary td:first-child { white-space: nowrap; }
 .claim { border: 1px solid #ccd; border-left-width: 6px; border-radius: 4px; padding: 0.8em 1.1em;
          margin: 1.4em 0; }
 .verdict { display: inline-block; min-width: 6.5em; font-weight: 700; text-transform: uppercase;
            font-size: 0.85em; letter-spacing: 0.04em; }
+h2 .verdict { min-width: 7.6em; margin-right: 0.3em; }
 .holds { border-left-color: #2e7d32; } .holds .verdict, .verdict.holds { color: #2e7d32; }
 .refuted { border-left-color: #c62828; } .refuted .verdict, .verdict.refuted { color: #c62828; }
 .undecided { border-left-color: #b26a00; } .undecided .verdict, .verdict.undecided { color: #b26a00; }
@@ -157,8 +158,9 @@ std::string render_html(const RunResult& run) {
     const ClaimResult& c = run.claims[i];
     s += fmt::format("<tr><td>{}</td><td><a href=\"#claim-{}\">{}</a></td><td>{}</td><td>{}</td>"
                      "</tr>\n",
-                     verdict_span(c.verdict), i + 1, esc(c.name), esc(c.claimed),
-                     esc(derived_text(c)));
+                     verdict_span(c.verdict), i + 1, esc(c.name),
+                     esc(c.claimed.empty() ? "\u2014" : c.claimed),
+                     esc(c.derived.empty() ? "\u2014" : c.derived));
   }
   s += "</table>\n";
   for (size_t i = 0; i < run.claims.size(); ++i) s += claim_section(run.claims[i], i + 1);

@@ -1,6 +1,7 @@
 // HTML report tests: self-contained page, one section per claim, one sized
-// SVG band plot per claim with a band. The browser check runs Debian's
-// `chromium` headless and skips with a message where it is absent.
+// SVG band plot per claim with a band. The browser checks run Debian's
+// `chromium` headless (a fresh profile, no network) and skip with a message
+// where it is absent. THETAGATE_KEEP_SCREENSHOT=FILE.png keeps the screenshot.
 #include <gtest/gtest.h>
 
 #include <sys/wait.h>
@@ -9,6 +10,7 @@
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
+#include <filesystem>
 #include <fstream>
 #include <sstream>
 
@@ -102,28 +104,123 @@ std::string find_on_path(const std::string& name) {
   return "";
 }
 
-TEST(HtmlReport, HeadlessBrowserKeepsThePlots) {
-  std::string browser = find_on_path("chromium");
-  if (browser.empty()) {
-    GTEST_SKIP() << "chromium not found on PATH; install Debian's chromium to run the browser "
-                    "check of the HTML report";
+std::string read_file(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  std::stringstream buffer;
+  buffer << in.rdbuf();
+  return buffer.str();
+}
+
+// Headless Chromium with a fresh profile and nothing that reaches the
+// network; the profile folder is removed afterwards.
+class HtmlReportBrowser : public ::testing::Test {
+ protected:
+  void SetUp() override {
+    browser_ = find_on_path("chromium");
+    if (browser_.empty()) {
+      GTEST_SKIP() << "chromium not found on PATH; install Debian's chromium to run the browser "
+                      "check of the HTML report";
+    }
+    std::string pattern = ::testing::TempDir() + "thetagate_browser_XXXXXX";
+    ASSERT_NE(mkdtemp(pattern.data()), nullptr) << pattern;
+    dir_ = pattern;
   }
-  std::string page = ::testing::TempDir() + "thetagate_report.html";
-  std::string dom = page + ".dom";
-  {
-    std::ofstream out(page, std::ios::binary);
-    out << render_html(sample_run());
+
+  void TearDown() override {
+    if (!dir_.empty()) std::filesystem::remove_all(dir_);
   }
-  std::string command = browser + " --headless --disable-gpu --no-sandbox --dump-dom 'file://" +
-                        page + "' >'" + dom + "' 2>/dev/null";
-  int status = std::system(command.c_str());
-  ASSERT_TRUE(WIFEXITED(status) && WEXITSTATUS(status) == 0) << command;
-  std::ifstream in(dom);
-  std::stringstream parsed;
-  parsed << in.rdbuf();
-  // The browser's DOM, serialised back: both plots survived parsing with their size.
-  EXPECT_EQ(count_of(parsed.str(), "<svg class=\"band-plot\" width=\"640\" height=\"260\""), 2u);
-  EXPECT_EQ(count_of(parsed.str(), "<polygon class=\"band\""), 2u);
+
+  // Runs the browser on `page` (written to a file) with `action`, e.g.
+  // "--dump-dom"; returns stdout. A failed or hung browser fails the test.
+  std::string run(const std::string& page, const std::string& action) {
+    std::string file = dir_ + "/page.html";
+    std::ofstream(file, std::ios::binary) << page;
+    std::string out = dir_ + "/stdout";
+    std::string command =
+        "timeout 120 '" + browser_ + "' --headless --no-sandbox --disable-gpu --disable-quic "
+        "--no-first-run --disable-background-networking --disable-component-update --disable-sync "
+        "--hide-scrollbars --window-size=1280,2400 --user-data-dir='" + dir_ + "/profile' " +
+        action + " 'file://" + file + "' >'" + out + "' 2>'" + dir_ + "/stderr'";
+    int status = std::system(command.c_str());
+    EXPECT_TRUE(WIFEXITED(status) && WEXITSTATUS(status) == 0)
+        << command << "\n" << read_file(dir_ + "/stderr");
+    return read_file(out);
+  }
+
+  std::string browser_;
+  std::string dir_;
+};
+
+// The page needs no script; the test adds one to a copy of it, after the
+// page, only to ask the browser's layout what it drew: per band plot the
+// rendered size of the <svg> and the box of its filled band, written into
+// the DOM that --dump-dom serialises.
+const char* const kMeasure = R"js(<script>
+const lines = [];
+for (const svg of document.querySelectorAll('svg.band-plot')) {
+  const box = svg.getBoundingClientRect();
+  const band = svg.querySelector('polygon.band').getBBox();
+  lines.push(`plot ${Math.round(box.width)}x${Math.round(box.height)} ` +
+             `band ${Math.round(band.width)}x${Math.round(band.height)}`);
+}
+const out = document.createElement('pre');
+out.id = 'measured';
+out.textContent = lines.join('\n');
+document.body.appendChild(out);
+</script>
+)js";
+
+TEST_F(HtmlReportBrowser, HtmlReportDrawsSizedPlots) {
+  std::string html = render_html(sample_run());
+  size_t body_end = html.rfind("</body>");
+  ASSERT_NE(body_end, std::string::npos);
+  std::string dom = run(html.substr(0, body_end) + kMeasure + html.substr(body_end), "--dump-dom");
+  size_t start = dom.find("<pre id=\"measured\">");
+  ASSERT_NE(start, std::string::npos) << "the measuring script did not run:\n" << dom.substr(0, 400);
+  start += std::string("<pre id=\"measured\">").size();
+  std::string measured = dom.substr(start, dom.find("</pre>", start) - start);
+  std::istringstream lines(measured);
+  int plots = 0;
+  for (std::string line; std::getline(lines, line);) {
+    ++plots;
+    int width = 0, height = 0, band_width = 0, band_height = 0;
+    ASSERT_EQ(std::sscanf(line.c_str(), "plot %dx%d band %dx%d", &width, &height, &band_width,
+                          &band_height),
+              4)
+        << line;
+    // Laid out at the size band_plot.h promises (the 1280-pixel window is
+    // wider than the page's column, so max-width does not shrink it) ...
+    EXPECT_EQ(width, kBandPlotWidth) << line;
+    EXPECT_EQ(height, kBandPlotHeight) << line;
+    // ... with a band that covers part of the plot, not a point or a line.
+    EXPECT_GT(band_width, kBandPlotWidth / 4) << line;
+    EXPECT_GT(band_height, 2) << line;
+    EXPECT_LE(band_width, kBandPlotWidth) << line;
+    EXPECT_LE(band_height, kBandPlotHeight) << line;
+  }
+  EXPECT_EQ(plots, 2) << measured;  // the refuted and the undecided claim
+}
+
+// A screenshot of the page as it is (no script added): a PNG of the window's
+// size. The header is read by hand (the test links no image library); look
+// at the file itself after changing the page's layout or style.
+TEST_F(HtmlReportBrowser, HtmlReportScreenshotIsAFullWindowPng) {
+  std::string shot = dir_ + "/report.png";
+  run(render_html(sample_run()), "--screenshot='" + shot + "'");
+  std::string png = read_file(shot);
+  ASSERT_GT(png.size(), 24u) << "no screenshot written";
+  EXPECT_EQ(png.substr(0, 8), std::string("\x89PNG\r\n\x1a\n", 8));
+  EXPECT_EQ(png.substr(12, 4), "IHDR");
+  auto be32 = [&](size_t at) {
+    return (static_cast<unsigned char>(png[at]) << 24) |
+           (static_cast<unsigned char>(png[at + 1]) << 16) |
+           (static_cast<unsigned char>(png[at + 2]) << 8) | static_cast<unsigned char>(png[at + 3]);
+  };
+  EXPECT_EQ(be32(16), 1280);
+  EXPECT_EQ(be32(20), 2400);
+  if (const char* keep = std::getenv("THETAGATE_KEEP_SCREENSHOT")) {
+    std::filesystem::copy_file(shot, keep, std::filesystem::copy_options::overwrite_existing);
+  }
 }
 
 }  // namespace

@@ -1,5 +1,6 @@
 #include "verifier/bound.h"
 
+#include "verifier/expression_eval.h"
 #include "verifier/parser.h"
 
 namespace thetagate {
@@ -156,10 +157,22 @@ Bound parse_bound(const SourceText& source, const std::string& function) {
     const Token& start = p.peek();
     ExprPtr n0 = p.parse_sum();
     if (mentions_n(*n0)) p.fail(start, "the starting size must not depend on n", "for n >= 2");
-    if (n0->kind != ExprKind::kNumber || denominator(n0->number) != 1 || n0->number < 0) {
-      p.fail(start, "the starting size must be a whole number", "for n >= 2");
+    // A constant expression: "for n >= 10^6", "for n >= 2^40".
+    NumericContext ctx;
+    ctx.max_value_bits = 1 << 16;
+    EvalScope scope;
+    scope.source = &source;
+    scope.ctx = &ctx;
+    std::optional<Value> value;
+    try {
+      value = evaluate_expr(*n0, Value(int64_t{0}), scope);
+    } catch (const BudgetExceeded&) {
+    } catch (const PrecisionShortfall&) {
     }
-    b.n0 = numerator(n0->number) + (strict ? 1 : 0);
+    if (!value || !value->is_integer() || value->sign() < 0) {
+      p.fail(start, "the starting size must be a whole number", "for n >= 2, for n >= 10^6");
+    }
+    b.n0 = value->integer() + (strict ? 1 : 0);
   }
   while (p.accept(TokenKind::kNewline)) {
   }

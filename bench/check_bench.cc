@@ -1,0 +1,111 @@
+// Benchmarks of a full check: every default size family, 4096-bit maximum,
+// local search and shrinking included (issue 4 §6 targets, 2-core machine):
+//   one claim with a one- or two-term recurrence   < 200 ms
+//   the whole demo library claims/ with --jobs 2   < 5 s
+// Run from the source root so that the relative path "claims" resolves, or
+// point THETAGATE_CLAIMS_DIR at the folder (the bench target, unlike the
+// tests, gets no THETAGATE_SOURCE_DIR):
+//   cd /path/to/thetagate && build/thetagate_bench --benchmark_filter=Check
+//   THETAGATE_CLAIMS_DIR=/path/to/claims build/thetagate_bench --benchmark_filter=Check
+// Counters: sizes = sizes evaluated by the families, bits = bits of the
+// largest, verdict = 0 holds, 1 refuted, 2 undecided, 3 error.
+#include <benchmark/benchmark.h>
+
+#include <cstdlib>
+#include <filesystem>
+#include <string>
+#include <vector>
+
+#include "verifier/checker.h"
+#include "verifier/claim.h"
+#include "verifier/run.h"
+
+namespace {
+
+using thetagate::CheckOptions;
+using thetagate::ClaimEntry;
+using thetagate::ClaimResult;
+
+CheckOptions full_check_options() {
+  CheckOptions options;
+  options.seed = 1;
+  options.max_bits = 4096;
+  return options;
+}
+
+void check_once(benchmark::State& state, const char* recurrence, const char* bound) {
+  std::string toml = std::string("[[claim]]\nname = \"orchard::bench\"\nrecurrence = \"\"\"\n") +
+                     recurrence + "\n\"\"\"\nbound = \"" + bound + "\"\n";
+  std::vector<ClaimEntry> entries = thetagate::load_claim_text(toml, "bench.toml");
+  if (entries.size() != 1 || !entries[0].claim) {
+    state.SkipWithError("the benchmark's claim did not load");
+    return;
+  }
+  CheckOptions options = full_check_options();
+  for (auto _ : state) {
+    ClaimResult r = thetagate::check_claim(*entries[0].claim, options);
+    state.counters["sizes"] = static_cast<double>(r.sizes_checked);
+    state.counters["bits"] = static_cast<double>(r.largest_bits);
+    state.counters["verdict"] = static_cast<double>(r.verdict);
+    benchmark::DoNotOptimize(r);
+  }
+}
+
+void CheckMergeSortTheta(benchmark::State& state) {
+  check_once(state, "T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1\nT(1) = 0", "Theta(n lg n)");
+}
+BENCHMARK(CheckMergeSortTheta)->Unit(benchmark::kMillisecond);
+
+void CheckBinarySearchTheta(benchmark::State& state) {
+  check_once(state, "T(n) = T(floor(n/2)) + 1\nT(1) = 1", "Theta(lg n)");
+}
+BENCHMARK(CheckBinarySearchTheta)->Unit(benchmark::kMillisecond);
+
+void CheckMedianOfMediansTheta(benchmark::State& state) {
+  // Base cases for every n <= 4: with only T(1) given, T(n/5) reaches T(0)
+  // and the claim is an input error (a call that does not shrink).
+  check_once(state, "T(n) = 1 if n <= 4\nT(n) = T(n/5) + T(7n/10) + n", "Theta(n)");
+}
+BENCHMARK(CheckMedianOfMediansTheta)->Unit(benchmark::kMillisecond);
+
+// Holds, so no early exit at a witness: every family, every scale searched.
+void CheckMergeSortExplicitBound(benchmark::State& state) {
+  check_once(state, "T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1\nT(1) = 0",
+             "T(n) <= n lg n - 0.9139 n + 1 for n >= 1");
+}
+BENCHMARK(CheckMergeSortExplicitBound)->Unit(benchmark::kMillisecond);
+
+std::string claims_dir() {
+  const char* env = std::getenv("THETAGATE_CLAIMS_DIR");
+  return env && *env ? std::string(env) : std::string("claims");
+}
+
+// The demo library as `thetagate check claims/ --jobs N` runs it; N is the
+// benchmark's argument. One iteration: a run takes seconds.
+void CheckDemoLibrary(benchmark::State& state) {
+  std::string dir = claims_dir();
+  if (!std::filesystem::is_directory(dir)) {
+    state.SkipWithError(("no claims folder at '" + dir + "': run from the source root or set "
+                         "THETAGATE_CLAIMS_DIR").c_str());
+    return;
+  }
+  thetagate::RunRequest request;
+  request.paths = {dir};
+  request.options = full_check_options();
+  request.jobs = static_cast<unsigned>(state.range(0));
+  for (auto _ : state) {
+    thetagate::RunResult run = thetagate::run_check(request);
+    state.counters["claims"] = static_cast<double>(run.claims.size());
+    int refuted = 0, undecided = 0;
+    for (const ClaimResult& r : run.claims) {
+      refuted += r.verdict == thetagate::Verdict::kRefuted;
+      undecided += r.verdict == thetagate::Verdict::kUndecided;
+    }
+    state.counters["refuted"] = refuted;
+    state.counters["undecided"] = undecided;
+  }
+}
+BENCHMARK(CheckDemoLibrary)->Arg(1)->Arg(2)->Unit(benchmark::kMillisecond)->Iterations(1)
+    ->UseRealTime();
+
+}  // namespace

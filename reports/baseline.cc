@@ -1,0 +1,384 @@
+#include "reports/baseline.h"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <optional>
+#include <string_view>
+
+#include <nlohmann/json.hpp>
+
+#include "reports/json_report.h"
+#include "verifier/source.h"
+
+namespace thetagate {
+
+namespace {
+
+using Json = nlohmann::json;
+
+const char* const kHint = "a baseline is a report written by `thetagate check --format json`";
+
+// Finds the byte offset where the value at a path ("claims[2].band[0].low")
+// starts. nlohmann::json keeps no positions, so errors, which are rare, scan
+// the text once more. REQUIRES: the text is valid JSON.
+class PathFinder {
+ public:
+  PathFinder(const std::string& text, const std::string& target) : text_(text), target_(target) {}
+
+  std::optional<size_t> find() {
+    value("", 0);
+    return found_;
+  }
+
+ private:
+  void skip_space() {
+    while (pos_ < text_.size() && (text_[pos_] == ' ' || text_[pos_] == '\n' ||
+                                   text_[pos_] == '\t' || text_[pos_] == '\r')) {
+      ++pos_;
+    }
+  }
+
+  // The raw text between the quotes; escapes are kept as written, which is
+  // enough for our own ASCII keys.
+  std::string string_token() {
+    size_t start = ++pos_;
+    while (pos_ < text_.size() && text_[pos_] != '"') pos_ += text_[pos_] == '\\' ? 2 : 1;
+    std::string s = text_.substr(start, std::min(pos_, text_.size()) - start);
+    ++pos_;
+    return s;
+  }
+
+  // Returns false to stop the scan (found, or the text ended).
+  bool value(const std::string& path, int depth) {
+    skip_space();
+    if (pos_ >= text_.size() || depth > 200) return false;
+    if (path == target_) {
+      found_ = pos_;
+      return false;
+    }
+    char c = text_[pos_];
+    if (c == '{' || c == '[') {
+      ++pos_;
+      char close = c == '{' ? '}' : ']';
+      for (size_t index = 0;; ++index) {
+        skip_space();
+        if (pos_ >= text_.size()) return false;
+        if (text_[pos_] == close) break;
+        std::string child;
+        if (c == '{') {
+          std::string key = string_token();
+          skip_space();
+          ++pos_;  // ':'
+          child = path.empty() ? key : path + "." + key;
+        } else {
+          child = path + "[" + std::to_string(index) + "]";
+        }
+        if (!value(child, depth + 1)) return false;
+        skip_space();
+        if (pos_ < text_.size() && text_[pos_] == ',') ++pos_;
+      }
+      ++pos_;
+      return true;
+    }
+    if (c == '"') {
+      string_token();
+      return true;
+    }
+    while (pos_ < text_.size() && std::string_view(",]} \n\t\r").find(text_[pos_]) ==
+                                      std::string_view::npos) {
+      ++pos_;
+    }
+    return true;
+  }
+
+  const std::string& text_;
+  const std::string& target_;
+  size_t pos_ = 0;
+  std::optional<size_t> found_;
+};
+
+class ReportReader {
+ public:
+  ReportReader(const std::string& text, const std::string& name) : text_(text), name_(name) {}
+
+  RunResult read() {
+    Json root;
+    try {
+      root = Json::parse(text_);
+    } catch (const Json::parse_error& e) {
+      // e.byte is 1-based: the byte the parser stopped at.
+      std::string what = e.what();
+      size_t detail = what.find("syntax error");
+      fail_at_offset(e.byte > 0 ? e.byte - 1 : 0,
+                     "not valid JSON: " + (detail == std::string::npos ? what : what.substr(detail)));
+    }
+    expect_object(root, "");
+    const Json& version = require(root, "", "schema_version");
+    if (!version.is_number_unsigned() || version.get<uint64_t>() != kJsonSchemaVersion) {
+      fail("schema_version", "schema_version " + version.dump() + " is not one this thetagate "
+                             "reads (it reads version " + std::to_string(kJsonSchemaVersion) + ")");
+    }
+    RunResult run;
+    run.seed = unsigned_at(root, "", "seed");
+    // Not in every schema-1 report: --max-bits, for replay commands.
+    if (const Json* max_bits = optional_key(root, "max_bits"); max_bits && !max_bits->is_null()) {
+      run.max_bits = unsigned_value(*max_bits, "max_bits");
+    }
+    const Json& claims = require(root, "", "claims");
+    expect_array(claims, "claims");
+    for (size_t i = 0; i < claims.size(); ++i) {
+      run.claims.push_back(claim(claims[i], "claims[" + std::to_string(i) + "]"));
+    }
+    return run;
+  }
+
+ private:
+  [[noreturn]] void fail_at_offset(size_t offset, const std::string& message) {
+    offset = std::min(offset, text_.size());
+    size_t line_start = text_.rfind('\n', offset == 0 ? 0 : offset - 1);
+    line_start = line_start == std::string::npos || offset == 0 ? 0 : line_start + 1;
+    size_t line_end = text_.find('\n', line_start);
+    if (line_end == std::string::npos) line_end = text_.size();
+    Diagnostic d;
+    d.where.file = name_;
+    d.where.line = 1 + static_cast<int>(std::count(text_.begin(), text_.begin() + line_start, '\n'));
+    d.where.column = 1 + utf8_columns(text_.substr(line_start, offset - line_start), offset - line_start);
+    d.message = message;
+    d.hint = kHint;
+    d.source_line = text_.substr(line_start, line_end - line_start);
+    throw InputError(std::move(d));
+  }
+
+  // Fails at the value of `path` (or at the start of the text if the path
+  // cannot be found).
+  [[noreturn]] void fail(const std::string& path, const std::string& message) {
+    std::optional<size_t> at = PathFinder(text_, path).find();
+    fail_at_offset(at.value_or(0), message);
+  }
+
+  static std::string join(const std::string& path, const std::string& key) {
+    return path.empty() ? key : path + "." + key;
+  }
+
+  static const char* type_name(const Json& j) {
+    if (j.is_null()) return "null";
+    if (j.is_boolean()) return "a boolean";
+    if (j.is_number()) return "a number";
+    if (j.is_string()) return "a string";
+    if (j.is_array()) return "an array";
+    return "an object";
+  }
+
+  void expect_object(const Json& j, const std::string& path) {
+    if (!j.is_object()) {
+      fail(path, (path.empty() ? std::string("the report") : "'" + path + "'") +
+                     " should be an object, not " + type_name(j));
+    }
+  }
+
+  void expect_array(const Json& j, const std::string& path) {
+    if (!j.is_array()) fail(path, "'" + path + "' should be an array, not " + type_name(j));
+  }
+
+  const Json& require(const Json& object, const std::string& path, const std::string& key) {
+    auto it = object.find(key);
+    if (it == object.end()) {
+      fail(path, "missing key '" + join(path, key) + "'");
+    }
+    return *it;
+  }
+
+  const Json* optional_key(const Json& object, const std::string& key) {
+    auto it = object.find(key);
+    return it == object.end() ? nullptr : &*it;
+  }
+
+  [[noreturn]] void wrong_type(const Json& j, const std::string& path, const char* expected) {
+    fail(path, "'" + path + "' should be " + expected + ", not " + type_name(j));
+  }
+
+  std::string string_value(const Json& j, const std::string& path) {
+    if (!j.is_string()) wrong_type(j, path, "a string");
+    return j.get<std::string>();
+  }
+
+  uint64_t unsigned_value(const Json& j, const std::string& path) {
+    if (!j.is_number_unsigned()) wrong_type(j, path, "a whole number >= 0");
+    return j.get<uint64_t>();
+  }
+
+  // A ratio: a number, or null for "not finite".
+  double ratio_value(const Json& j, const std::string& path) {
+    if (j.is_null()) return std::numeric_limits<double>::quiet_NaN();
+    if (!j.is_number()) wrong_type(j, path, "a number or null");
+    return j.get<double>();
+  }
+
+  BigInt size_value(const Json& j, const std::string& path) {
+    std::string s = string_value(j, path);
+    bool digits = !s.empty() && s.find_first_not_of("0123456789") == std::string::npos;
+    if (!digits) fail(path, "'" + path + "' should be a size in decimal digits, not \"" + s + "\"");
+    return BigInt(s);
+  }
+
+  std::string string_at(const Json& o, const std::string& path, const std::string& key) {
+    return string_value(require(o, path, key), join(path, key));
+  }
+  uint64_t unsigned_at(const Json& o, const std::string& path, const std::string& key) {
+    return unsigned_value(require(o, path, key), join(path, key));
+  }
+  std::string optional_string(const Json& o, const std::string& path, const std::string& key) {
+    const Json* j = optional_key(o, key);
+    return j ? string_value(*j, join(path, key)) : "";
+  }
+  uint64_t optional_unsigned(const Json& o, const std::string& path, const std::string& key) {
+    const Json* j = optional_key(o, key);
+    return j ? unsigned_value(*j, join(path, key)) : 0;
+  }
+  bool boolean_value(const Json& j, const std::string& path) {
+    if (!j.is_boolean()) wrong_type(j, path, "true or false");
+    return j.get<bool>();
+  }
+  std::vector<std::string> optional_strings(const Json& o, const std::string& path,
+                                            const std::string& key) {
+    std::vector<std::string> out;
+    const Json* j = optional_key(o, key);
+    if (!j) return out;
+    std::string at = join(path, key);
+    expect_array(*j, at);
+    for (size_t i = 0; i < j->size(); ++i) {
+      out.push_back(string_value((*j)[i], at + "[" + std::to_string(i) + "]"));
+    }
+    return out;
+  }
+
+  Verdict verdict_value(const Json& j, const std::string& path) {
+    std::string s = string_value(j, path);
+    for (Verdict v : {Verdict::kHolds, Verdict::kRefuted, Verdict::kUndecided, Verdict::kError}) {
+      if (s == verdict_name(v)) return v;
+    }
+    fail(path, "'" + path + "' is \"" + s + "\"; expected \"holds\", \"refuted\", \"undecided\" "
+               "or \"error\"");
+  }
+
+  Side side_value(const Json& j, const std::string& path) {
+    std::string s = string_value(j, path);
+    if (s == side_name(Side::kUpper)) return Side::kUpper;
+    if (s == side_name(Side::kLower)) return Side::kLower;
+    fail(path, "'" + path + "' is \"" + s + "\"; expected \"upper\" or \"lower\"");
+  }
+
+  Witness witness(const Json& j, const std::string& path) {
+    expect_object(j, path);
+    Witness w;
+    w.n = size_value(require(j, path, "n"), join(path, "n"));
+    w.ratio = ratio_value(require(j, path, "ratio"), join(path, "ratio"));
+    w.side = side_value(require(j, path, "side"), join(path, "side"));
+    w.value = optional_string(j, path, "value");
+    w.bound = optional_string(j, path, "bound");
+    w.family = optional_string(j, path, "family");
+    w.factor = optional_string(j, path, "factor");
+    return w;
+  }
+
+  // A band end: null with a positive finite log2 overflowed a double (+inf);
+  // any other null stays NaN (both render as null again).
+  static double band_end(double ratio, double log2) {
+    if (!std::isnan(ratio) || !(log2 > 0)) return ratio;
+    return std::numeric_limits<double>::infinity();
+  }
+
+  BandRow band_row(const Json& j, const std::string& path) {
+    expect_object(j, path);
+    BandRow r;
+    r.scale = unsigned_at(j, path, "scale");
+    r.low = ratio_value(require(j, path, "low"), join(path, "low"));
+    r.high = ratio_value(require(j, path, "high"), join(path, "high"));
+    if (const Json* at = optional_key(j, "low_at")) r.low_at = size_value(*at, join(path, "low_at"));
+    if (const Json* at = optional_key(j, "high_at")) {
+      r.high_at = size_value(*at, join(path, "high_at"));
+    }
+    r.samples = optional_unsigned(j, path, "samples");
+    const Json* low_log2 = optional_key(j, "low_log2");
+    const Json* high_log2 = optional_key(j, "high_log2");
+    r.low_log2 = low_log2 ? ratio_value(*low_log2, join(path, "low_log2")) : std::log2(r.low);
+    r.high_log2 = high_log2 ? ratio_value(*high_log2, join(path, "high_log2")) : std::log2(r.high);
+    r.low = band_end(r.low, r.low_log2);
+    r.high = band_end(r.high, r.high_log2);
+    return r;
+  }
+
+  std::optional<Diagnostic> error(const Json& o, const std::string& path) {
+    const Json* j = optional_key(o, "error");
+    if (!j || j->is_null()) return std::nullopt;
+    std::string at = join(path, "error");
+    expect_object(*j, at);
+    Diagnostic d;
+    d.where.file = string_at(*j, at, "file");
+    d.where.line = static_cast<int>(unsigned_at(*j, at, "line"));
+    d.where.column = static_cast<int>(unsigned_at(*j, at, "column"));
+    d.message = string_at(*j, at, "message");
+    d.hint = optional_string(*j, at, "hint");
+    // format_diagnostic puts the source line second, with a caret line below.
+    std::string text = optional_string(*j, at, "text");
+    size_t first = text.find('\n');
+    size_t second = first == std::string::npos ? first : text.find('\n', first + 1);
+    if (second != std::string::npos) {
+      size_t third = text.find('\n', second + 1);
+      std::string caret = text.substr(second + 1, third == std::string::npos ? third
+                                                                             : third - second - 1);
+      if (!caret.empty() && caret.back() == '^') {
+        d.source_line = text.substr(first + 1, second - first - 1);
+      }
+    }
+    return d;
+  }
+
+  ClaimResult claim(const Json& j, const std::string& path) {
+    expect_object(j, path);
+    ClaimResult c;
+    c.name = string_at(j, path, "name");
+    c.file = string_at(j, path, "file");
+    c.line = static_cast<int>(unsigned_at(j, path, "line"));
+    c.verdict = verdict_value(require(j, path, "verdict"), join(path, "verdict"));
+    c.claimed = string_at(j, path, "claimed");
+    c.derived = string_at(j, path, "derived");
+    c.method = string_at(j, path, "method");
+    c.tight = boolean_value(require(j, path, "tight"), join(path, "tight"));
+    const Json& witnesses = require(j, path, "witnesses");
+    std::string at = join(path, "witnesses");
+    expect_array(witnesses, at);
+    for (size_t i = 0; i < witnesses.size(); ++i) {
+      c.witnesses.push_back(witness(witnesses[i], at + "[" + std::to_string(i) + "]"));
+    }
+    const Json& band = require(j, path, "band");
+    at = join(path, "band");
+    expect_array(band, at);
+    for (size_t i = 0; i < band.size(); ++i) {
+      c.band.push_back(band_row(band[i], at + "[" + std::to_string(i) + "]"));
+    }
+    c.message = string_at(j, path, "message");
+    if (const Json* n = optional_key(j, "numeric_only")) {
+      c.numeric_only = boolean_value(*n, join(path, "numeric_only"));
+    }
+    c.notes = optional_strings(j, path, "notes");
+    c.reasons = optional_strings(j, path, "reasons");
+    c.note = optional_string(j, path, "note");
+    c.sizes_checked = optional_unsigned(j, path, "sizes_checked");
+    c.largest_bits = optional_unsigned(j, path, "largest_bits");
+    c.error = error(j, path);
+    return c;
+  }
+
+  const std::string& text_;
+  const std::string& name_;
+};
+
+}  // namespace
+
+RunResult read_json_report(const std::string& json_text, const std::string& display_name) {
+  return ReportReader(json_text, display_name).read();
+}
+
+}  // namespace thetagate

@@ -1,0 +1,339 @@
+#include "reports/drift.h"
+
+#include <algorithm>
+#include <cmath>
+#include <map>
+#include <tuple>
+
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+#include "reports/json_report.h"
+#include "reports/number_text.h"
+#include "verifier/source.h"
+
+namespace thetagate {
+
+namespace {
+
+constexpr size_t kMaxDetailLines = 8;  // per kind (new witnesses, lost ones, band moves)
+const char* const kIndent = "    ";
+
+using ClaimKey = std::pair<std::string, std::string>;  // name, file
+
+bool same_witness(const Witness& a, const Witness& b) { return a.side == b.side && a.n == b.n; }
+
+// Witnesses of `from` that `other` lacks, in `from`'s order.
+std::vector<Witness> missing_from(const std::vector<Witness>& from,
+                                  const std::vector<Witness>& other) {
+  std::vector<Witness> out;
+  for (const Witness& w : from) {
+    bool found = false;
+    for (const Witness& o : other) found = found || same_witness(w, o);
+    if (!found) out.push_back(w);
+  }
+  return out;
+}
+
+// An end moved: by more than the tolerance, or between finite and not.
+bool end_moved(double before_log2, double after_log2) {
+  bool finite_before = std::isfinite(before_log2), finite_after = std::isfinite(after_log2);
+  if (finite_before != finite_after) return true;
+  if (!finite_before) return false;
+  return std::fabs(after_log2 - before_log2) > kBandMoveLog2;
+}
+
+std::vector<BandMove> band_moves(const std::vector<BandRow>& before,
+                                 const std::vector<BandRow>& after) {
+  std::map<uint64_t, const BandRow*> by_scale;
+  for (const BandRow& r : before) by_scale.emplace(r.scale, &r);
+  std::map<uint64_t, BandMove> moves;  // sorted by scale
+  for (const BandRow& r : after) {
+    auto it = by_scale.find(r.scale);
+    if (it == by_scale.end()) continue;
+    BandMove m{*it->second, r, end_moved(it->second->low_log2, r.low_log2),
+               end_moved(it->second->high_log2, r.high_log2)};
+    if (m.low_moved || m.high_moved) moves.emplace(r.scale, m);
+  }
+  std::vector<BandMove> out;
+  for (auto& [scale, m] : moves) out.push_back(m);
+  return out;
+}
+
+ClaimDrift compare_claim(const ClaimResult& before, const ClaimResult& after) {
+  ClaimDrift d;
+  d.name = after.name;
+  d.file = after.file;
+  d.line = after.line;
+  d.before = before.verdict;
+  d.after = after.verdict;
+  d.derived_before = before.derived;
+  d.derived_after = after.derived;
+  d.new_witnesses = missing_from(after.witnesses, before.witnesses);
+  d.lost_witnesses = missing_from(before.witnesses, after.witnesses);
+  d.band_moves = band_moves(before.band, after.band);
+  return d;
+}
+
+bool drifted(const ClaimDrift& d) {
+  return d.is_new() || d.is_lost() || d.verdict_changed() || d.derived_changed() ||
+         !d.new_witnesses.empty() || !d.lost_witnesses.empty() || !d.band_moves.empty();
+}
+
+const char* change_name(const ClaimDrift& d) {
+  return d.is_new() ? "new" : d.is_lost() ? "lost" : "changed";
+}
+
+// ---- text ----
+
+std::string paint(const TextStyle& style, const char* code, const std::string& text) {
+  return style.colour ? code + text + "\033[0m" : text;
+}
+
+std::string witness_text(const Witness& w) {
+  std::string s = fmt::format("n = {} ({}, ratio {}", short_decimal(w.n), side_name(w.side),
+                              format_ratio(w.ratio));
+  if (!w.factor.empty()) s += ", c = " + w.factor;
+  return s + ")";
+}
+
+void append_witnesses(std::string& out, const char* kind, const std::vector<Witness>& ws) {
+  for (size_t i = 0; i < ws.size() && i < kMaxDetailLines; ++i) {
+    out += fmt::format("{}{} witness {}\n", kIndent, kind, witness_text(ws[i]));
+  }
+  if (ws.size() > kMaxDetailLines) {
+    out += fmt::format("{}… and {} more {} witnesses\n", kIndent, ws.size() - kMaxDetailLines,
+                       kind);
+  }
+}
+
+std::string band_move_text(const BandMove& m) {
+  std::string s = fmt::format("band at scale {}:", m.after.scale);
+  if (m.low_moved) {
+    s += fmt::format(" low {} → {}", format_band_ratio(m.before.low, m.before.low_log2),
+                     format_band_ratio(m.after.low, m.after.low_log2));
+  }
+  if (m.high_moved) {
+    s += fmt::format("{} high {} → {}", m.low_moved ? "," : "",
+                     format_band_ratio(m.before.high, m.before.high_log2),
+                     format_band_ratio(m.after.high, m.after.high_log2));
+  }
+  return s;
+}
+
+std::string or_none(const std::string& derived) { return derived.empty() ? "none" : derived; }
+
+std::string claim_text(const ClaimDrift& d, const TextStyle& style) {
+  std::string label = fmt::format("{:<11}", change_name(d));
+  std::string s = paint(style, "\033[33m", label) + d.name + "   " + d.file + ":" +
+                  std::to_string(d.line);
+  if (d.is_new()) s += std::string("   ") + verdict_name(*d.after);
+  if (d.is_lost()) s += std::string("   was ") + verdict_name(*d.before);
+  s += "\n";
+  if (d.verdict_changed()) {
+    s += fmt::format("{}verdict {} → {}\n", kIndent, verdict_name(*d.before),
+                     verdict_name(*d.after));
+  }
+  if (d.derived_changed()) {
+    s += fmt::format("{}derived {} → {}\n", kIndent, or_none(d.derived_before),
+                     or_none(d.derived_after));
+  }
+  append_witnesses(s, "new", d.new_witnesses);
+  append_witnesses(s, "lost", d.lost_witnesses);
+  for (size_t i = 0; i < d.band_moves.size() && i < kMaxDetailLines; ++i) {
+    s += kIndent + band_move_text(d.band_moves[i]) + "\n";
+  }
+  if (d.band_moves.size() > kMaxDetailLines) {
+    s += fmt::format("{}… and {} more scales moved\n", kIndent,
+                     d.band_moves.size() - kMaxDetailLines);
+  }
+  return s;
+}
+
+// ---- JSON ----
+
+using Json = nlohmann::ordered_json;
+
+Json ratio_json(double r) { return std::isfinite(r) ? Json(r) : Json(nullptr); }
+
+// The same layout as the claims' witnesses and band rows (docs/json-schema.md).
+Json witness_json(const Witness& w) {
+  Json j;
+  j["n"] = w.n.str();
+  j["ratio"] = ratio_json(w.ratio);
+  j["side"] = side_name(w.side);
+  j["value"] = w.value;
+  j["bound"] = w.bound;
+  j["family"] = w.family;
+  j["factor"] = w.factor;
+  return j;
+}
+
+Json band_row_json(const BandRow& r) {
+  Json j;
+  j["scale"] = r.scale;
+  j["low"] = ratio_json(r.low);
+  j["high"] = ratio_json(r.high);
+  j["low_at"] = r.low_at.str();
+  j["high_at"] = r.high_at.str();
+  j["samples"] = r.samples;
+  j["low_log2"] = ratio_json(r.low_log2);
+  j["high_log2"] = ratio_json(r.high_log2);
+  return j;
+}
+
+Json witnesses_json(const std::vector<Witness>& ws) {
+  Json j = Json::array();
+  for (const Witness& w : ws) j.push_back(witness_json(w));
+  return j;
+}
+
+Json claim_json(const ClaimDrift& d) {
+  Json j;
+  j["name"] = d.name;
+  j["file"] = d.file;
+  j["line"] = d.line;
+  j["change"] = change_name(d);
+  j["verdict_before"] = d.before ? verdict_name(*d.before) : "";
+  j["verdict_after"] = d.after ? verdict_name(*d.after) : "";
+  j["derived_before"] = d.derived_before;
+  j["derived_after"] = d.derived_after;
+  j["new_witnesses"] = witnesses_json(d.new_witnesses);
+  j["lost_witnesses"] = witnesses_json(d.lost_witnesses);
+  j["band_moves"] = Json::array();
+  for (const BandMove& m : d.band_moves) {
+    Json move;
+    move["scale"] = m.after.scale;
+    move["before"] = band_row_json(m.before);
+    move["after"] = band_row_json(m.after);
+    move["low_moved"] = m.low_moved;
+    move["high_moved"] = m.high_moved;
+    j["band_moves"].push_back(move);
+  }
+  return j;
+}
+
+}  // namespace
+
+DriftReport compare_runs(const RunResult& baseline, const RunResult& current) {
+  DriftReport report;
+  report.baseline_seed = baseline.seed;
+  report.current_seed = current.seed;
+  // Names are unique in a run; should a baseline repeat one, the copies pair
+  // up in order.
+  std::multimap<ClaimKey, size_t> unmatched;
+  for (size_t i = 0; i < baseline.claims.size(); ++i) {
+    unmatched.emplace(ClaimKey{baseline.claims[i].name, baseline.claims[i].file}, i);
+  }
+  for (const ClaimResult& c : current.claims) {
+    auto it = unmatched.find(ClaimKey{c.name, c.file});
+    if (it == unmatched.end()) {
+      ClaimDrift d;
+      d.name = c.name;
+      d.file = c.file;
+      d.line = c.line;
+      d.after = c.verdict;
+      d.derived_after = c.derived;
+      report.claims.push_back(std::move(d));
+      continue;
+    }
+    ++report.compared;
+    ClaimDrift d = compare_claim(baseline.claims[it->second], c);
+    unmatched.erase(it);
+    if (drifted(d)) report.claims.push_back(std::move(d));
+  }
+  std::vector<size_t> lost;
+  for (const auto& [key, index] : unmatched) lost.push_back(index);
+  std::sort(lost.begin(), lost.end());
+  for (size_t index : lost) {
+    const ClaimResult& c = baseline.claims[index];
+    ClaimDrift d;
+    d.name = c.name;
+    d.file = c.file;
+    d.line = c.line;
+    d.before = c.verdict;
+    d.derived_before = c.derived;
+    report.claims.push_back(std::move(d));
+  }
+  return report;
+}
+
+std::string render_drift_text(const DriftReport& drift, const TextStyle& style) {
+  size_t changed = 0, added = 0, lost = 0;
+  for (const ClaimDrift& d : drift.claims) {
+    if (d.is_new()) {
+      ++added;
+    } else if (d.is_lost()) {
+      ++lost;
+    } else {
+      ++changed;
+    }
+  }
+  std::string heading =
+      drift.any()
+          ? fmt::format("drift against the baseline: {} of {} claim{} changed, {} new, {} lost",
+                        changed, drift.compared, drift.compared == 1 ? "" : "s", added, lost)
+          : fmt::format("no drift against the baseline: {} claim{} compared", drift.compared,
+                        drift.compared == 1 ? "" : "s");
+  std::string s = "\n" + paint(style, "\033[1m", heading) + "\n";
+  if (drift.baseline_seed != drift.current_seed) {
+    s += fmt::format("{}the seeds differ (baseline {}, this run {}): witnesses and band ends at "
+                     "random sizes may move for that reason alone\n",
+                     kIndent, drift.baseline_seed, drift.current_seed);
+  }
+  for (const ClaimDrift& d : drift.claims) s += claim_text(d, style);
+  return s;
+}
+
+std::string render_json_with_drift(const RunResult& run, const DriftReport& drift) {
+  // Re-reading our own output keeps render_json the one writer of the claims;
+  // ordered_json keeps the key order and doubles print back identically.
+  Json j = Json::parse(render_json(run));
+  Json d;
+  d["baseline_seed"] = drift.baseline_seed;
+  d["claims_compared"] = drift.compared;
+  d["band_move_log2"] = kBandMoveLog2;
+  d["changed"] = drift.any();
+  d["claims"] = Json::array();
+  for (const ClaimDrift& c : drift.claims) d["claims"].push_back(claim_json(c));
+  j["drift"] = std::move(d);
+  return j.dump(2, ' ', false, Json::error_handler_t::replace) + "\n";
+}
+
+FailOn parse_fail_on(const std::vector<std::string>& words) {
+  FailOn on{false, false, false};
+  for (const std::string& word : words) {
+    size_t start = 0;
+    while (start <= word.size()) {
+      size_t end = word.find(',', start);
+      if (end == std::string::npos) end = word.size();
+      std::string kind = word.substr(start, end - start);
+      if (kind == "refuted") {
+        on.refuted = true;
+      } else if (kind == "undecided") {
+        on.undecided = true;
+      } else if (kind == "drift") {
+        on.drift = true;
+      } else {
+        Diagnostic d;
+        d.where = Location{"--fail-on", 1, 1 + utf8_columns(word, start)};
+        d.message = "unknown kind '" + kind + "'";
+        d.hint = "--fail-on takes refuted, undecided or drift, or a list like refuted,drift";
+        d.source_line = word;
+        throw InputError(std::move(d));
+      }
+      start = end + 1;
+    }
+  }
+  return on;
+}
+
+bool should_fail(const RunResult& run, const DriftReport* drift, const FailOn& on) {
+  for (const ClaimResult& c : run.claims) {
+    if (on.refuted && c.verdict == Verdict::kRefuted) return true;
+    if (on.undecided && c.verdict == Verdict::kUndecided) return true;
+  }
+  return on.drift && drift != nullptr && drift->any();
+}
+
+}  // namespace thetagate
