@@ -6,6 +6,8 @@
 // Peak memory: /usr/bin/time -v build/thetagate_bench --benchmark_filter=NAME
 #include <benchmark/benchmark.h>
 
+#include <vector>
+
 #include "verifier/evaluator.h"
 #include "verifier/recurrence.h"
 
@@ -53,6 +55,22 @@ void ThreeTermsTwoPrimes256Bits(benchmark::State& state) {
                 "2^256");
 }
 BENCHMARK(ThreeTermsTwoPrimes256Bits)->Unit(benchmark::kMillisecond);
+
+// The checker asks one evaluator for many nearby sizes (n, n +- 1, 2^k +- 1):
+// later sizes should mostly hit the memo the earlier ones filled.
+void MergeSortNearbySizes4096Bits(benchmark::State& state) {
+  auto r = recurrence_from_text("T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1; T(1) = 0");
+  BigInt power = BigInt(1) << 4096;
+  std::vector<BigInt> sizes = {power + 12345, power + 12346, power + 12344, power - 1, power + 1,
+                               power, power / 3, power / 3 + 1};
+  for (auto _ : state) {
+    Evaluator evaluator(r);
+    for (const BigInt& n : sizes) benchmark::DoNotOptimize(evaluator.value_at(n));
+    state.counters["memo"] = static_cast<double>(evaluator.stats().memo_entries);
+    state.counters["steps"] = static_cast<double>(evaluator.stats().steps);
+  }
+}
+BENCHMARK(MergeSortNearbySizes4096Bits)->Unit(benchmark::kMillisecond);
 
 void SubtractiveTenMillion(benchmark::State& state) {
   evaluate_once(state, "T(n) = T(n-1) + n; T(1) = 1", "10^7");

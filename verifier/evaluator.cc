@@ -88,16 +88,17 @@ void Evaluator::charge_step() {
   }
 }
 
-void Evaluator::remember(const BigInt& m, const Value& v) {
-  auto [it, inserted] = memo_.emplace(m, v);
-  if (!inserted) return;
+const Value* Evaluator::remember(const Value& m, const Value& v) {
+  auto [stored, inserted] = memo_.insert(m, v);
+  if (!inserted) return stored;
   if (!v.is_exact()) memo_has_intervals_ = true;
-  memo_bytes_ += (bit_length(m) + v.magnitude_bits()) / 8 + 112;
+  memo_bytes_ += (m.magnitude_bits() + v.magnitude_bits()) / 8 + 112;
   stats_.memo_entries = memo_.size();
   if (memo_.size() > budget_.max_memo_entries || memo_bytes_ > budget_.max_memo_bytes) {
     throw BudgetExceeded("one evaluation needs more than " + std::to_string(memo_.size()) +
                          " remembered values (" + std::to_string(memo_bytes_ >> 20) + " MiB)");
   }
+  return stored;
 }
 
 void Evaluator::clear_memo() {
@@ -141,7 +142,9 @@ Value Evaluator::value_at(const BigInt& n) {
   // Each top-level call starts low; a floor or comparison that an interval
   // cannot decide doubles the precision and retries.
   ctx_.precision_bits = budget_.start_precision_bits;
-  Value v = with_precision([&] { return window_ > 0 ? sweep_up(n) : top_down(n); });
+  Value v = with_precision([&] {
+    return window_ > 0 ? sweep_up(n) : top_down(canonical_integer(Value(n)));
+  });
   stats_.precision_bits = std::max(stats_.precision_bits, ctx_.precision_bits);
   return v;
 }
@@ -181,71 +184,98 @@ void Evaluator::probe_default_base() {
   }
 }
 
-Value Evaluator::top_down(const BigInt& n) {
-  if (auto it = memo_.find(n); it != memo_.end()) return it->second;
+const Value* Evaluator::remembered(const Value& m) const {
+  const Value* value = memo_.find(m);
+  if (value == nullptr) throw std::logic_error("a finished subproblem is not remembered");
+  return value;
+}
+
+Value Evaluator::top_down(const Value& n) {
+  if (const Value* known_value = memo_.find(n)) return *known_value;
   const Recurrence& r = *recurrence_;
   EvalScope s = scope(r.source);
+  constexpr size_t kRoot = ~size_t{0};
   struct Frame {
-    BigInt m;
+    Value m;
+    size_t parent_slot = kRoot;  // known[parent_slot] receives this frame's value
     const CaseLine* line = nullptr;
-    std::vector<BigInt> args;  // the arguments of line->calls, in order
+    size_t first_arg = 0;  // its arguments are args[first_arg, ...)
   };
+  // The arguments of expanded frames, stacked like the frames: a child's
+  // arguments are appended after its parent's and dropped when it is done.
+  // known[i] is args[i]'s remembered value once it is known.
   std::vector<Frame> stack;
+  std::vector<Value> args;
+  std::vector<const Value*> known;
+  const Value* result = nullptr;
+  auto deliver = [&](size_t slot, const Value* value) {
+    if (slot == kRoot) result = value;
+    else known[slot] = value;
+  };
   stack.push_back({n});
   while (!stack.empty()) {
     Frame& frame = stack.back();
     if (frame.line == nullptr) {
       // A size pushed twice (by two parents) is evaluated once.
-      if (memo_.count(frame.m)) {
+      if (const Value* value = memo_.find(frame.m)) {
+        deliver(frame.parent_slot, value);
         stack.pop_back();
         continue;
       }
       charge_step();
-      Value mv(frame.m);
-      const CaseLine& line = select_case(r.main, mv, s);
+      const CaseLine& line = select_case(r.main, frame.m, s);
       frame.line = &line;
+      frame.first_arg = args.size();
       bool base = false;
-      size_t first_child = stack.size();
       for (const Expr* call : line.calls) {
-        BigInt arg = call_argument(*call, mv, s);
-        if (arg < 0 || arg >= frame.m) {
-          if (!r.default_base) not_shrinking(frame.m, *call, arg);
-          remember(frame.m, default_base_value(frame.m, *call, arg));
+        Value arg = call_argument_value(*call, frame.m, s);
+        if (arg.sign() < 0 || compare(arg, frame.m, ctx_) >= 0) {
+          BigInt m = frame.m.integer();
+          if (!r.default_base) not_shrinking(m, *call, arg.integer());
+          deliver(frame.parent_slot, remember(frame.m, default_base_value(m, *call, arg.integer())));
           base = true;
           break;
         }
-        frame.args.push_back(arg);
+        args.push_back(std::move(arg));
       }
       if (base) {
+        args.resize(stack.back().first_arg);
         stack.pop_back();
         continue;
       }
       // Push children after reading everything from `frame`: push_back
       // may move the stack.
-      std::vector<BigInt> missing;
-      for (const BigInt& arg : stack[first_child - 1].args) {
-        if (!memo_.count(arg)) missing.push_back(arg);
+      size_t first = frame.first_arg;
+      size_t end = args.size();
+      known.resize(end);
+      for (size_t i = first; i < end; ++i) known[i] = memo_.find(args[i]);
+      for (size_t i = first; i < end; ++i) {
+        if (known[i] == nullptr) stack.push_back({args[i], i});
       }
-      for (auto& arg : missing) stack.push_back({std::move(arg)});
       continue;
     }
     Frame done = std::move(frame);
     stack.pop_back();
+    for (size_t i = done.first_arg; i < args.size(); ++i) {
+      if (known[i] == nullptr) known[i] = remembered(args[i]);
+    }
     current_calls_ = &done.line->calls;
-    current_args_ = &done.args;
+    current_values_ = known.data() + done.first_arg;
     Value value;
     try {
-      value = evaluate_expr(*done.line->body, Value(done.m), s);
+      value = evaluate_expr(*done.line->body, done.m, s);
     } catch (...) {
       current_calls_ = nullptr;
-      current_args_ = nullptr;
+      current_values_ = nullptr;
       throw;
     }
     current_calls_ = nullptr;
-    current_args_ = nullptr;
-    remember(done.m, value);
+    current_values_ = nullptr;
+    args.resize(done.first_arg);
+    known.resize(done.first_arg);
+    deliver(done.parent_slot, remember(done.m, value));
   }
-  return memo_.at(n);
+  return result != nullptr ? *result : *remembered(n);
 }
 
 Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope) {
@@ -262,13 +292,13 @@ Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope
   if (current_calls_ != nullptr) {
     // Evaluating a frame's body: its arguments were computed on expansion.
     for (size_t i = 0; i < current_calls_->size(); ++i) {
-      if ((*current_calls_)[i] == &call) return memo_.at((*current_args_)[i]);
+      if ((*current_calls_)[i] == &call) return *current_values_[i];
     }
   }
-  BigInt m = call_argument(call, n, scope);
-  if (auto it = memo_.find(m); it != memo_.end()) return it->second;
+  Value m = call_argument_value(call, n, scope);
+  if (const Value* value = memo_.find(m)) return *value;
   // Only reachable from evaluate() on an expression that calls T directly.
-  return value_at(m);
+  return value_at(m.integer());
 }
 
 Value Evaluator::sweep_up(const BigInt& n) {

@@ -13,6 +13,7 @@
 #include <vector>
 
 #include "verifier/expression_eval.h"
+#include "verifier/memo_table.h"
 #include "verifier/recurrence.h"
 #include "verifier/value.h"
 
@@ -67,14 +68,16 @@ class Evaluator {
  private:
   class Resolver;
   EvalScope scope(const SourceText& source);
-  Value top_down(const BigInt& n);
+  Value top_down(const Value& n);
   Value sweep_up(const BigInt& n);
   Value lookup(const Expr& call, const Value& n, const EvalScope& scope);
   void probe_default_base();
   Value default_base_value(const BigInt& n, const Expr& call, const BigInt& m);
   [[noreturn]] void not_shrinking(const BigInt& n, const Expr& call, const BigInt& m);
   void charge_step();
-  void remember(const BigInt& m, const Value& v);
+  // Returns the remembered value (stable: memo_'s elements never move).
+  const Value* remember(const Value& m, const Value& v);
+  const Value* remembered(const Value& m) const;  // REQUIRES: m was remembered
   void clear_memo();
   template <class F> auto with_precision(F&& f) -> decltype(f());
 
@@ -84,7 +87,9 @@ class Evaluator {
   EvaluatorStats stats_;
   std::chrono::steady_clock::time_point deadline_;
   std::unique_ptr<Resolver> resolver_;
-  std::unordered_map<BigInt, Value, BigIntHash> memo_;
+  // Keys are canonical integers (canonical_integer), shared with the frames
+  // that computed them: no limb copies on insert or lookup.
+  MemoTable memo_;
   uint64_t memo_bytes_ = 0;
   bool memo_has_intervals_ = false;
   // Bottom-up state: window_ = largest c in T(n - c); the ring holds the
@@ -94,9 +99,10 @@ class Evaluator {
   std::vector<std::optional<Value>> ring_;
   std::vector<std::optional<Diagnostic>> ring_errors_;
   bool in_sweep_ = false;
-  // While a top-down frame's body is evaluated: its calls and arguments.
+  // While a top-down frame's body is evaluated: its calls and their values
+  // (pointers into memo_, whose elements never move).
   const std::vector<const Expr*>* current_calls_ = nullptr;
-  const std::vector<BigInt>* current_args_ = nullptr;
+  const Value* const* current_values_ = nullptr;
   bool probed_ = false;
   uint64_t call_start_steps_ = 0;
 };

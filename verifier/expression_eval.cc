@@ -1,5 +1,7 @@
 #include "verifier/expression_eval.h"
 
+#include <gmp.h>
+
 #include <stdexcept>
 
 namespace thetagate {
@@ -13,7 +15,8 @@ namespace {
           std::string(error.what()) + " at n = " + n.str() + " (in '" + print(at) + "')", hint);
 }
 
-Value builtin(const Expr& e, const Value& n, const EvalScope& scope) {
+// The value of a builtin call; nullopt when `e` names no builtin.
+std::optional<Value> builtin(const Expr& e, const Value& n, const EvalScope& scope) {
   const NumericContext& ctx = *scope.ctx;
   const std::string& f = e.name;
   auto arg = [&](size_t i) { return evaluate_expr(*e.args[i], n, scope); };
@@ -42,7 +45,8 @@ Value builtin(const Expr& e, const Value& n, const EvalScope& scope) {
     }
     return best;
   }
-  throw std::logic_error("unhandled builtin " + f);
+  if (is_builtin(f)) throw std::logic_error("unhandled builtin " + f);
+  return std::nullopt;
 }
 
 Value call_helper(const Function& helper, const Expr& call, const Value& n, const EvalScope& scope) {
@@ -74,8 +78,9 @@ Value evaluate_expr(const Expr& e, const Value& n, const EvalScope& scope) {
       case ExprKind::kNeg:
         return neg(evaluate_expr(*e.args[0], n, scope));
       case ExprKind::kCall: {
-        if (is_builtin(e.name)) return builtin(e, n, scope);
         const Recurrence* r = scope.recurrence;
+        // The recurrence's own calls are the hot path; its name is never a
+        // builtin's (definitions refuse that), so test it first.
         if (r && e.name == r->main.name) {
           if (!scope.resolver) {
             fail_at(*scope.source, e.pos, "'" + e.name + "' cannot be used here",
@@ -83,6 +88,7 @@ Value evaluate_expr(const Expr& e, const Value& n, const EvalScope& scope) {
           }
           return scope.resolver->resolve(e, n, scope);
         }
+        if (std::optional<Value> v = builtin(e, n, scope)) return std::move(*v);
         if (r) {
           auto it = r->helpers.find(e.name);
           if (it != r->helpers.end()) return call_helper(it->second, e, n, scope);
@@ -108,7 +114,8 @@ bool test_condition(const Expr& c, const Value& n, const EvalScope& scope) {
     case ExprKind::kOdd: {
       Value v = evaluate_expr(*c.args[0], n, scope);
       if (!v.is_integer()) return false;  // 5/2 is neither even nor odd
-      bool even = v.small() ? (*v.small() % 2 == 0) : (floor_mod(v.integer(), 2) == 0);
+      BigInt scratch;
+      bool even = v.small() ? (*v.small() % 2 == 0) : mpz_even_p(v.integer_ref(scratch).backend().data()) != 0;
       return c.kind == ExprKind::kEven ? even : !even;
     }
     case ExprKind::kEq: case ExprKind::kNe: case ExprKind::kLt:
@@ -133,10 +140,9 @@ bool test_condition(const Expr& c, const Value& n, const EvalScope& scope) {
 }
 
 const CaseLine& select_case(const Function& f, const Value& n, const EvalScope& scope) {
-  if (n.is_integer() && !f.points.empty()) {
-    BigInt m = n.integer();
+  if (!f.points.empty() && n.is_integer()) {
     for (const CaseLine& line : f.points) {
-      if (*line.point == m) return line;
+      if (equals_integer(n, *line.point)) return line;
     }
   }
   for (const CaseLine& line : f.conditional) {
@@ -148,6 +154,10 @@ const CaseLine& select_case(const Function& f, const Value& n, const EvalScope& 
 }
 
 BigInt call_argument(const Expr& call, const Value& n, const EvalScope& scope) {
+  return call_argument_value(call, n, scope).integer();
+}
+
+Value call_argument_value(const Expr& call, const Value& n, const EvalScope& scope) {
   const Expr& x = *call.args[0];
   Value v;
   if (x.kind == ExprKind::kDiv) {  // n/2 inside T(...) is read as floor(n/2)
@@ -161,9 +171,9 @@ BigInt call_argument(const Expr& call, const Value& n, const EvalScope& scope) {
   } else {
     v = evaluate_expr(x, n, scope);
   }
-  if (auto s = v.small()) return BigInt(*s);
-  if (v.is_integer()) return v.integer();
-  return floor_value(v).integer();
+  if (v.small()) return v;
+  if (v.is_integer()) return canonical_integer(v);
+  return canonical_integer(floor_value(v));
 }
 
 }  // namespace thetagate

@@ -38,6 +38,9 @@ const CaseLine& select_case(const Function& f, const Value& n, const EvalScope& 
 
 // The argument of a recurrence call at n, rounded down to an integer.
 BigInt call_argument(const Expr& call, const Value& n, const EvalScope& scope);
+// The same argument as a canonical integer value (see canonical_integer):
+// no big-integer copy, ready as a memo key.
+Value call_argument_value(const Expr& call, const Value& n, const EvalScope& scope);
 
 }  // namespace thetagate
 

@@ -20,14 +20,43 @@ const bool kWideExponentRange = [] {
 
 Value normalized(BigInt x) {
   if (mpz_fits_slong_p(x.backend().data())) return Value(static_cast<int64_t>(mpz_get_si(x.backend().data())));
-  return Value(x);
+  return Value(std::move(x));
 }
 
 Value normalized(Rational x) {
   if (mpz_cmp_ui(mpq_denref(x.backend().data()), 1) == 0) {
-    return normalized(BigInt(boost::multiprecision::numerator(x)));
+    BigInt numerator;
+    mpz_swap(numerator.backend().data(), mpq_numref(x.backend().data()));
+    return normalized(std::move(numerator));
   }
-  return Value(x);
+  return Value(std::move(x));
+}
+
+// Bits of |x| for a machine integer, like bit_length().
+uint64_t small_bit_length(int64_t x) {
+  uint64_t magnitude = x < 0 ? uint64_t{0} - static_cast<uint64_t>(x) : static_cast<uint64_t>(x);
+  return magnitude == 0 ? 0 : 64 - static_cast<uint64_t>(__builtin_clzll(magnitude));
+}
+
+uint64_t mpz_bits(mpz_srcptr z) { return mpz_sgn(z) == 0 ? 0 : mpz_sizeinbase(z, 2); }
+
+// r = big + s and r = big - s for a machine integer s, without a scratch mpz.
+void add_small(mpz_ptr r, mpz_srcptr big, int64_t s) {
+  if (s >= 0) mpz_add_ui(r, big, static_cast<unsigned long>(s));
+  else mpz_sub_ui(r, big, static_cast<unsigned long>(uint64_t{0} - static_cast<uint64_t>(s)));
+}
+void sub_small(mpz_ptr r, mpz_srcptr big, int64_t s) {
+  if (s >= 0) mpz_sub_ui(r, big, static_cast<unsigned long>(s));
+  else mpz_add_ui(r, big, static_cast<unsigned long>(uint64_t{0} - static_cast<uint64_t>(s)));
+}
+// r = s - big.
+void small_sub(mpz_ptr r, int64_t s, mpz_srcptr big) {
+  if (s >= 0) {
+    mpz_ui_sub(r, static_cast<unsigned long>(s), big);
+  } else {
+    mpz_add_ui(r, big, static_cast<unsigned long>(uint64_t{0} - static_cast<uint64_t>(s)));
+    mpz_neg(r, r);
+  }
 }
 
 void check_bits(uint64_t bits, const NumericContext& ctx) {
@@ -38,8 +67,7 @@ void check_bits(uint64_t bits, const NumericContext& ctx) {
 }
 
 uint64_t rational_bits(const Rational& x) {
-  return std::max(bit_length(BigInt(boost::multiprecision::numerator(x))),
-                  bit_length(BigInt(boost::multiprecision::denominator(x))));
+  return std::max(mpz_bits(mpq_numref(x.backend().data())), mpz_bits(mpq_denref(x.backend().data())));
 }
 
 Value checked(BigInt x, const NumericContext& ctx) {
@@ -59,6 +87,19 @@ Value checked(Interval x) {
   }
   return Value(std::move(x));
 }
+
+// Integer operands without copies: a big operand by pointer, a machine one
+// by value. REQUIRES: v.is_integer().
+struct IntegerOperand {
+  const BigInt* big = nullptr;
+  int64_t small = 0;
+  BigInt scratch;  // a whole rational's numerator
+  explicit IntegerOperand(const Value& v) {
+    if (auto s = v.small()) small = *s;
+    else big = &v.integer_ref(scratch);
+  }
+  mpz_srcptr big_data() const { return big->backend().data(); }
+};
 
 bool both_small(const Value& a, const Value& b, int64_t& x, int64_t& y) {
   auto sa = a.small();
@@ -135,43 +176,42 @@ Interval interval_integer_power(const Interval& base, const BigInt& k) {
 
 }  // namespace
 
-Value::Value(const BigInt& x) : repr_(x) {}
-Value::Value(const Rational& x) : repr_(x) {}
+Value::Value(const BigInt& x) : repr_(std::make_shared<BigInt>(x)) {}
+Value::Value(BigInt&& x) : repr_(std::make_shared<BigInt>(std::move(x))) {}
+Value::Value(const Rational& x) : repr_(std::make_shared<const Rational>(x)) {}
+Value::Value(Rational&& x) : repr_(std::make_shared<const Rational>(std::move(x))) {}
+Value::Value(Interval x) : repr_(std::make_shared<const Interval>(std::move(x))) {}
 
 bool Value::is_integer() const {
-  if (std::holds_alternative<int64_t>(repr_) || std::holds_alternative<BigInt>(repr_)) return true;
-  if (auto* q = std::get_if<Rational>(&repr_)) return boost::multiprecision::denominator(*q) == 1;
+  if (std::holds_alternative<int64_t>(repr_) || std::holds_alternative<BigIntPtr>(repr_)) return true;
+  if (const Rational* q = rational()) return mpz_cmp_ui(mpq_denref(q->backend().data()), 1) == 0;
   return false;
 }
 
 Rational Value::exact() const {
   if (auto* s = std::get_if<int64_t>(&repr_)) return Rational(*s);
-  if (auto* b = std::get_if<BigInt>(&repr_)) return Rational(*b);
-  return std::get<Rational>(repr_);
+  if (const BigInt* b = big_integer()) return Rational(*b);
+  return *rational();
 }
 
 BigInt Value::integer() const {
   if (auto* s = std::get_if<int64_t>(&repr_)) return BigInt(*s);
-  if (auto* b = std::get_if<BigInt>(&repr_)) return *b;
-  return boost::multiprecision::numerator(std::get<Rational>(repr_));
+  if (const BigInt* b = big_integer()) return *b;
+  return boost::multiprecision::numerator(*rational());
 }
 
 const BigInt& Value::integer_ref(BigInt& scratch) const {
-  if (auto* b = std::get_if<BigInt>(&repr_)) return *b;
+  if (const BigInt* b = big_integer()) return *b;
   scratch = integer();
   return scratch;
 }
 
-std::optional<int64_t> Value::small() const {
-  if (auto* s = std::get_if<int64_t>(&repr_)) return *s;
-  return std::nullopt;
-}
 
 Interval Value::interval(long precision_bits) const {
   if (auto* s = std::get_if<int64_t>(&repr_)) return Interval(BigInt(*s), precision_bits);
-  if (auto* b = std::get_if<BigInt>(&repr_)) return Interval(*b, precision_bits);
-  if (auto* q = std::get_if<Rational>(&repr_)) return Interval(*q, precision_bits);
-  const Interval& i = std::get<Interval>(repr_);
+  if (const BigInt* b = big_integer()) return Interval(*b, precision_bits);
+  if (const Rational* q = rational()) return Interval(*q, precision_bits);
+  const Interval& i = *interval_ptr();
   if (i.precision() >= precision_bits) return i;
   Interval wider(precision_bits);
   mpfi_set(wider.raw(), i.raw());
@@ -180,9 +220,9 @@ Interval Value::interval(long precision_bits) const {
 
 int Value::sign() const {
   if (auto* s = std::get_if<int64_t>(&repr_)) return (*s > 0) - (*s < 0);
-  if (auto* b = std::get_if<BigInt>(&repr_)) return b->sign();
-  if (auto* q = std::get_if<Rational>(&repr_)) return q->sign();
-  const Interval& i = std::get<Interval>(repr_);
+  if (const BigInt* b = big_integer()) return b->sign();
+  if (const Rational* q = rational()) return q->sign();
+  const Interval& i = *interval_ptr();
   if (i.certainly_positive()) return 1;
   if (i.certainly_negative()) return -1;
   if (mpfi_is_zero(i.raw())) return 0;
@@ -191,9 +231,9 @@ int Value::sign() const {
 
 double Value::approx() const {
   if (auto* s = std::get_if<int64_t>(&repr_)) return static_cast<double>(*s);
-  if (auto* b = std::get_if<BigInt>(&repr_)) return mpz_get_d(b->backend().data());
-  if (auto* q = std::get_if<Rational>(&repr_)) return mpq_get_d(q->backend().data());
-  return std::get<Interval>(repr_).approx();
+  if (const BigInt* b = big_integer()) return mpz_get_d(b->backend().data());
+  if (const Rational* q = rational()) return mpq_get_d(q->backend().data());
+  return interval_ptr()->approx();
 }
 
 double Value::log2_magnitude() const {
@@ -206,11 +246,11 @@ double Value::log2_magnitude() const {
   if (auto* s = std::get_if<int64_t>(&repr_)) {
     return *s == 0 ? -std::numeric_limits<double>::infinity() : std::log2(std::fabs(static_cast<double>(*s)));
   }
-  if (auto* b = std::get_if<BigInt>(&repr_)) return log2_of_integer(b->backend().data());
-  if (auto* q = std::get_if<Rational>(&repr_)) {
+  if (const BigInt* b = big_integer()) return log2_of_integer(b->backend().data());
+  if (const Rational* q = rational()) {
     return log2_of_integer(mpq_numref(q->backend().data())) - log2_of_integer(mpq_denref(q->backend().data()));
   }
-  const Interval& i = std::get<Interval>(repr_);
+  const Interval& i = *interval_ptr();
   mpfr_t mid;
   mpfr_init2(mid, i.precision());
   mpfi_mid(mid, i.raw());
@@ -227,10 +267,10 @@ double Value::log2_magnitude() const {
 }
 
 uint64_t Value::magnitude_bits() const {
-  if (auto* s = std::get_if<int64_t>(&repr_)) return bit_length(BigInt(*s));
-  if (auto* b = std::get_if<BigInt>(&repr_)) return bit_length(*b);
-  if (auto* q = std::get_if<Rational>(&repr_)) return bit_length(floor_of(abs(*q)));
-  const Interval& i = std::get<Interval>(repr_);
+  if (auto* s = std::get_if<int64_t>(&repr_)) return small_bit_length(*s);
+  if (const BigInt* b = big_integer()) return bit_length(*b);
+  if (const Rational* q = rational()) return bit_length(floor_of(abs(*q)));
+  const Interval& i = *interval_ptr();
   mpfr_srcptr hi = &i.raw()->right;
   if (mpfr_zero_p(hi) || mpfr_get_exp(hi) <= 0) return 0;
   return static_cast<uint64_t>(mpfr_get_exp(hi));
@@ -238,22 +278,65 @@ uint64_t Value::magnitude_bits() const {
 
 std::string Value::str() const {
   if (auto* s = std::get_if<int64_t>(&repr_)) return std::to_string(*s);
-  if (auto* b = std::get_if<BigInt>(&repr_)) return b->str();
-  if (auto* q = std::get_if<Rational>(&repr_)) return to_string(*q);
-  return std::get<Interval>(repr_).str();
+  if (const BigInt* b = big_integer()) return b->str();
+  if (const Rational* q = rational()) return to_string(*q);
+  return interval_ptr()->str();
 }
 
 bool Value::same_exact(const Value& other) const {
   if (!is_exact() || !other.is_exact()) return false;
+  if (is_integer() && other.is_integer()) {
+    IntegerOperand a(*this), b(other);
+    if (!a.big && !b.big) return a.small == b.small;
+    if (a.big && b.big) return mpz_cmp(a.big_data(), b.big_data()) == 0;
+    return a.big ? mpz_cmp_si(a.big_data(), b.small) == 0 : mpz_cmp_si(b.big_data(), a.small) == 0;
+  }
   return exact() == other.exact();
+}
+
+Value canonical_integer(BigInt&& x) { return normalized(std::move(x)); }
+
+Value canonical_integer(const Value& v) {
+  if (v.small()) return v;
+  if (const BigInt* b = v.big_integer()) {
+    if (mpz_fits_slong_p(b->backend().data())) return Value(static_cast<int64_t>(mpz_get_si(b->backend().data())));
+    return v;
+  }
+  return normalized(v.integer());
+}
+
+bool same_integer(const Value& a, const Value& b) {
+  auto sa = a.small();
+  auto sb = b.small();
+  if (sa || sb) return sa && sb && *sa == *sb;
+  return mpz_cmp(a.big_integer()->backend().data(), b.big_integer()->backend().data()) == 0;
+}
+
+size_t IntegerValueHash::operator()(const Value& v) const {
+  if (auto s = v.small()) {
+    uint64_t h = static_cast<uint64_t>(*s) * 0x9e3779b97f4a7c15ULL;
+    return static_cast<size_t>(h ^ (h >> 29));
+  }
+  return BigIntHash()(*v.big_integer());
+}
+
+bool equals_integer(const Value& v, const BigInt& x) {
+  if (auto s = v.small()) return mpz_cmp_si(x.backend().data(), *s) == 0;
+  if (const BigInt* b = v.big_integer()) return mpz_cmp(b->backend().data(), x.backend().data()) == 0;
+  return v.integer() == x;
 }
 
 Value add(const Value& a, const Value& b, const NumericContext& ctx) {
   int64_t x, y, r;
   if (both_small(a, b, x, y) && !__builtin_add_overflow(x, y, &r)) return Value(r);
   if (a.is_integer() && b.is_integer()) {
-    BigInt sa, sb, r;
-    mpz_add(r.backend().data(), a.integer_ref(sa).backend().data(), b.integer_ref(sb).backend().data());
+    IntegerOperand p(a), q(b);
+    BigInt r;
+    mpz_ptr out = r.backend().data();
+    if (p.big && q.big) mpz_add(out, p.big_data(), q.big_data());
+    else if (p.big) add_small(out, p.big_data(), q.small);
+    else if (q.big) add_small(out, q.big_data(), p.small);
+    else add_small(out, BigInt(p.small).backend().data(), q.small);  // int64 overflow
     return checked(std::move(r), ctx);
   }
   if (a.is_exact() && b.is_exact()) return checked(Rational(a.exact() + b.exact()), ctx);
@@ -261,12 +344,69 @@ Value add(const Value& a, const Value& b, const NumericContext& ctx) {
   return checked(a.interval(p) + b.interval(p));
 }
 
+// Access to a Value's storage for the in-place operations.
+struct ValueOps {
+  // The big integer of a value that alone owns it, else null.
+  static BigInt* unique_big(Value& v) {
+    auto* p = std::get_if<Value::BigIntPtr>(&v.repr_);
+    return p && p->use_count() == 1 ? p->get() : nullptr;
+  }
+  // `v` after its big integer was changed in place: what checked() gives.
+  static Value finish(Value&& v, const NumericContext& ctx) {
+    mpz_srcptr z = std::get<Value::BigIntPtr>(v.repr_)->backend().data();
+    check_bits(mpz_bits(z), ctx);
+    if (mpz_fits_slong_p(z)) return Value(static_cast<int64_t>(mpz_get_si(z)));
+    return std::move(v);
+  }
+};
+
+Value add(Value&& a, Value&& b, const NumericContext& ctx) {
+  if (!a.small() || !b.small()) {
+    if (BigInt* t = ValueOps::unique_big(a); t && b.is_integer()) {
+      mpz_ptr out = t->backend().data();
+      if (auto y = b.small()) add_small(out, out, *y);
+      else { BigInt scratch; mpz_add(out, out, b.integer_ref(scratch).backend().data()); }
+      return ValueOps::finish(std::move(a), ctx);
+    }
+    if (BigInt* t = ValueOps::unique_big(b); t && a.is_integer()) {
+      mpz_ptr out = t->backend().data();
+      if (auto x = a.small()) add_small(out, out, *x);
+      else { BigInt scratch; mpz_add(out, a.integer_ref(scratch).backend().data(), out); }
+      return ValueOps::finish(std::move(b), ctx);
+    }
+  }
+  return add(static_cast<const Value&>(a), static_cast<const Value&>(b), ctx);
+}
+
+Value sub(Value&& a, Value&& b, const NumericContext& ctx) {
+  if (!a.small() || !b.small()) {
+    if (BigInt* t = ValueOps::unique_big(a); t && b.is_integer()) {
+      mpz_ptr out = t->backend().data();
+      if (auto y = b.small()) sub_small(out, out, *y);
+      else { BigInt scratch; mpz_sub(out, out, b.integer_ref(scratch).backend().data()); }
+      return ValueOps::finish(std::move(a), ctx);
+    }
+    if (BigInt* t = ValueOps::unique_big(b); t && a.is_integer()) {
+      mpz_ptr out = t->backend().data();
+      if (auto x = a.small()) small_sub(out, *x, out);
+      else { BigInt scratch; mpz_sub(out, a.integer_ref(scratch).backend().data(), out); }
+      return ValueOps::finish(std::move(b), ctx);
+    }
+  }
+  return sub(static_cast<const Value&>(a), static_cast<const Value&>(b), ctx);
+}
+
 Value sub(const Value& a, const Value& b, const NumericContext& ctx) {
   int64_t x, y, r;
   if (both_small(a, b, x, y) && !__builtin_sub_overflow(x, y, &r)) return Value(r);
   if (a.is_integer() && b.is_integer()) {
-    BigInt sa, sb, r;
-    mpz_sub(r.backend().data(), a.integer_ref(sa).backend().data(), b.integer_ref(sb).backend().data());
+    IntegerOperand p(a), q(b);
+    BigInt r;
+    mpz_ptr out = r.backend().data();
+    if (p.big && q.big) mpz_sub(out, p.big_data(), q.big_data());
+    else if (p.big) sub_small(out, p.big_data(), q.small);
+    else if (q.big) small_sub(out, p.small, q.big_data());
+    else sub_small(out, BigInt(p.small).backend().data(), q.small);  // int64 overflow
     return checked(std::move(r), ctx);
   }
   if (a.is_exact() && b.is_exact()) return checked(Rational(a.exact() - b.exact()), ctx);
@@ -277,12 +417,17 @@ Value sub(const Value& a, const Value& b, const NumericContext& ctx) {
 Value mul(const Value& a, const Value& b, const NumericContext& ctx) {
   int64_t x, y, r;
   if (both_small(a, b, x, y) && !__builtin_mul_overflow(x, y, &r)) return Value(r);
-  if (a.is_exact() && a.exact() == 0) return Value(int64_t{0});
-  if (b.is_exact() && b.exact() == 0) return Value(int64_t{0});
+  if (a.is_exact() && a.sign() == 0) return Value(int64_t{0});
+  if (b.is_exact() && b.sign() == 0) return Value(int64_t{0});
   if (a.is_integer() && b.is_integer()) {
     check_bits(a.magnitude_bits() + b.magnitude_bits(), ctx);
-    BigInt sa, sb, r;
-    mpz_mul(r.backend().data(), a.integer_ref(sa).backend().data(), b.integer_ref(sb).backend().data());
+    IntegerOperand p(a), q(b);
+    BigInt r;
+    mpz_ptr out = r.backend().data();
+    if (p.big && q.big) mpz_mul(out, p.big_data(), q.big_data());
+    else if (p.big) mpz_mul_si(out, p.big_data(), static_cast<long>(q.small));
+    else if (q.big) mpz_mul_si(out, q.big_data(), static_cast<long>(p.small));
+    else mpz_mul_si(out, BigInt(p.small).backend().data(), static_cast<long>(q.small));
     return checked(std::move(r), ctx);
   }
   if (a.is_exact() && b.is_exact()) return checked(Rational(a.exact() * b.exact()), ctx);
@@ -296,7 +441,9 @@ Value div(const Value& a, const Value& b, const NumericContext& ctx) {
     int64_t x, y;
     if (both_small(a, b, x, y) && y != -1 && x % y == 0) return Value(x / y);
     if (a.is_integer() && b.is_integer()) {
-      BigInt p = a.integer(), q = b.integer();
+      BigInt sp, sq;
+      const BigInt& p = a.integer_ref(sp);
+      const BigInt& q = b.integer_ref(sq);
       if (mpz_divisible_p(p.backend().data(), q.backend().data())) {
         BigInt r;
         mpz_divexact(r.backend().data(), p.backend().data(), q.backend().data());
@@ -353,6 +500,37 @@ Value power(const Value& base, const Value& exponent, const NumericContext& ctx)
   return checked(b.pow(exponent.interval(p)));
 }
 
+namespace {
+// floor(a/b) or ceil(a/b) of integers. A positive machine divisor divides
+// without a scratch mpz; a power of two is a shift.
+Value rounded_quotient(const Value& a, const Value& b, bool ceiling) {
+  BigInt q;
+  mpz_ptr out = q.backend().data();
+  auto divisor = b.small();
+  if (divisor && *divisor > 0 && a.big_integer()) {
+    mpz_srcptr p = a.big_integer()->backend().data();
+    auto d = static_cast<unsigned long>(*divisor);
+    if ((d & (d - 1)) == 0) {
+      auto shift = static_cast<mp_bitcnt_t>(__builtin_ctzl(d));
+      if (ceiling) mpz_cdiv_q_2exp(out, p, shift);
+      else mpz_fdiv_q_2exp(out, p, shift);
+    } else if (ceiling) {
+      mpz_cdiv_q_ui(out, p, d);
+    } else {
+      mpz_fdiv_q_ui(out, p, d);
+    }
+    return normalized(std::move(q));
+  }
+  BigInt sp, sd;
+  const BigInt& p = a.integer_ref(sp);
+  const BigInt& d = b.integer_ref(sd);
+  if (d == 0) throw DomainError("division by zero");
+  if (ceiling) mpz_cdiv_q(out, p.backend().data(), d.backend().data());
+  else mpz_fdiv_q(out, p.backend().data(), d.backend().data());
+  return normalized(std::move(q));
+}
+}  // namespace
+
 Value floor_quotient(const Value& a, const Value& b, const NumericContext& ctx) {
   if (a.is_integer() && b.is_integer()) {
     int64_t x, y;
@@ -361,12 +539,7 @@ Value floor_quotient(const Value& a, const Value& b, const NumericContext& ctx) 
       if ((x % y != 0) && ((x < 0) != (y < 0))) --q;
       return Value(q);
     }
-    BigInt q, sp, sd;
-    const BigInt& p = a.integer_ref(sp);
-    const BigInt& d = b.integer_ref(sd);
-    if (d == 0) throw DomainError("division by zero");
-    mpz_fdiv_q(q.backend().data(), p.backend().data(), d.backend().data());
-    return normalized(std::move(q));
+    return rounded_quotient(a, b, /*ceiling=*/false);
   }
   return floor_value(div(a, b, ctx));
 }
@@ -379,12 +552,7 @@ Value ceil_quotient(const Value& a, const Value& b, const NumericContext& ctx) {
       if ((x % y != 0) && ((x < 0) == (y < 0))) ++q;
       return Value(q);
     }
-    BigInt q, sp, sd;
-    const BigInt& p = a.integer_ref(sp);
-    const BigInt& d = b.integer_ref(sd);
-    if (d == 0) throw DomainError("division by zero");
-    mpz_cdiv_q(q.backend().data(), p.backend().data(), d.backend().data());
-    return normalized(std::move(q));
+    return rounded_quotient(a, b, /*ceiling=*/true);
   }
   return ceil_value(div(a, b, ctx));
 }
@@ -407,7 +575,7 @@ Value ceil_value(const Value& a) {
 
 namespace {
 Interval positive_interval(const Value& a, long p, const char* what) {
-  if (a.is_exact() && a.exact() <= 0) throw DomainError(std::string(what) + " of a number that is not positive");
+  if (a.is_exact() && a.sign() <= 0) throw DomainError(std::string(what) + " of a number that is not positive");
   Interval x = a.interval(p);
   if (!x.certainly_positive()) {
     if (!mpfi_is_strictly_pos(x.raw()) && mpfr_sgn(&x.raw()->right) <= 0) {
@@ -420,6 +588,13 @@ Interval positive_interval(const Value& a, long p, const char* what) {
 }  // namespace
 
 Value lg_value(const Value& a, const NumericContext& ctx) {
+  if (const BigInt* b = a.big_integer(); b && b->sign() > 0) {
+    // lg of a big size: exact only for a power of two (no rational copy).
+    mpz_srcptr z = b->backend().data();
+    mp_bitcnt_t low = mpz_scan1(z, 0);
+    if (mpz_sizeinbase(z, 2) == low + 1) return Value(static_cast<int64_t>(low));
+    return checked(positive_interval(a, ctx.precision_bits, "lg").log2());
+  }
   if (a.is_exact()) {
     if (a.exact() <= 0) throw DomainError("lg of a number that is not positive");
     if (auto k = exact_log2(a.exact())) return Value(*k);
@@ -480,13 +655,13 @@ Value sqrt_value(const Value& a, const NumericContext& ctx) {
 }
 
 Value min_value(const Value& a, const Value& b, const NumericContext& ctx) {
-  if (a.is_exact() && b.is_exact()) return a.exact() <= b.exact() ? a : b;
+  if (a.is_exact() && b.is_exact()) return compare(a, b, ctx) <= 0 ? a : b;
   long p = precision_for(a, b, ctx);
   return Value(Interval::min(a.interval(p), b.interval(p)));
 }
 
 Value max_value(const Value& a, const Value& b, const NumericContext& ctx) {
-  if (a.is_exact() && b.is_exact()) return a.exact() >= b.exact() ? a : b;
+  if (a.is_exact() && b.is_exact()) return compare(a, b, ctx) >= 0 ? a : b;
   long p = precision_for(a, b, ctx);
   return Value(Interval::max(a.interval(p), b.interval(p)));
 }
@@ -511,8 +686,11 @@ int compare(const Value& a, const Value& b, const NumericContext& ctx) {
   if (both_small(a, b, x, y)) return (x > y) - (x < y);
   if (a.is_exact() && b.is_exact()) {
     if (a.is_integer() && b.is_integer()) {
-      BigInt sa, sb;
-      int c = mpz_cmp(a.integer_ref(sa).backend().data(), b.integer_ref(sb).backend().data());
+      IntegerOperand p(a), q(b);
+      int c;
+      if (p.big && q.big) c = mpz_cmp(p.big_data(), q.big_data());
+      else if (p.big) c = mpz_cmp_si(p.big_data(), static_cast<long>(q.small));
+      else c = -mpz_cmp_si(q.big_data(), static_cast<long>(p.small));
       return (c > 0) - (c < 0);
     }
     int c = a.exact().compare(b.exact());

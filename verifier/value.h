@@ -5,6 +5,7 @@
 #define THETAGATE_VERIFIER_VALUE_H_
 
 #include <cstdint>
+#include <memory>
 #include <optional>
 #include <stdexcept>
 #include <string>
@@ -38,15 +39,22 @@ struct NumericContext {
   uint64_t max_value_bits = 1u << 22;  // a larger exact value is a budget error
 };
 
+// An exact or certified number. Big integers, rationals and intervals live
+// in shared immutable storage, so copying a Value (the size n at each use, a
+// memo lookup) costs a reference count, never a limb allocation.
 class Value {
  public:
   Value() : repr_(int64_t{0}) {}
   Value(int64_t x) : repr_(x) {}  // NOLINT: implicit from integers is natural
+  // Kept in the big form even when small (tests exercise both forms); use
+  // canonical_integer() for the machine form where it fits.
   Value(const BigInt& x);         // NOLINT
+  Value(BigInt&& x);              // NOLINT: takes the limbs, no copy
   Value(const Rational& x);       // NOLINT
-  Value(Interval x) : repr_(std::move(x)) {}  // NOLINT
+  Value(Rational&& x);            // NOLINT
+  Value(Interval x);              // NOLINT
 
-  bool is_exact() const { return !std::holds_alternative<Interval>(repr_); }
+  bool is_exact() const { return !std::holds_alternative<IntervalPtr>(repr_); }
   bool is_integer() const;
   // REQUIRES: is_exact().
   Rational exact() const;
@@ -56,11 +64,19 @@ class Value {
   // written to `scratch`. REQUIRES: is_integer().
   const BigInt& integer_ref(BigInt& scratch) const;
   // The small-integer value if this is an integer fitting in int64.
-  std::optional<int64_t> small() const;
+  std::optional<int64_t> small() const {
+    if (auto* s = std::get_if<int64_t>(&repr_)) return *s;
+    return std::nullopt;
+  }
   // This value as an interval of at least the given precision.
   Interval interval(long precision_bits) const;
   // REQUIRES: !is_exact().
-  const Interval& as_interval() const { return std::get<Interval>(repr_); }
+  const Interval& as_interval() const { return **std::get_if<IntervalPtr>(&repr_); }
+  // The big integer when stored in the big form, else null (no copy).
+  const BigInt* big_integer() const {
+    auto* p = std::get_if<BigIntPtr>(&repr_);
+    return p ? p->get() : nullptr;
+  }
 
   // Sign if certain: -1, 0, +1. Throws PrecisionShortfall for an interval
   // containing zero.
@@ -80,14 +96,53 @@ class Value {
   bool same_exact(const Value& other) const;
 
  private:
-  std::variant<int64_t, BigInt, Rational, Interval> repr_;
+  // Not const: a temporary that owns its storage alone is updated in place
+  // (see the rvalue add/sub); shared storage is never written.
+  using BigIntPtr = std::shared_ptr<BigInt>;
+  using RationalPtr = std::shared_ptr<const Rational>;
+  using IntervalPtr = std::shared_ptr<const Interval>;
+  const Rational* rational() const {
+    auto* p = std::get_if<RationalPtr>(&repr_);
+    return p ? p->get() : nullptr;
+  }
+  const Interval* interval_ptr() const {
+    auto* p = std::get_if<IntervalPtr>(&repr_);
+    return p ? p->get() : nullptr;
+  }
+
+  std::variant<int64_t, BigIntPtr, RationalPtr, IntervalPtr> repr_;
   friend struct ValueOps;
 };
+
+// The same integer in canonical form: the machine form when it fits in
+// int64, else the big form (a whole rational becomes an integer).
+// REQUIRES: v.is_integer(). Canonical integers are equal iff
+// same_integer() says so, and hash alike under IntegerValueHash.
+Value canonical_integer(const Value& v);
+Value canonical_integer(BigInt&& x);
+
+// Equality and hashing of canonical integers, for memo tables.
+bool same_integer(const Value& a, const Value& b);
+struct IntegerValueHash {
+  // Deliberately not noexcept: that makes std::unordered_map cache each
+  // key's hash code, so walking a bucket never rehashes big keys.
+  size_t operator()(const Value& v) const;
+};
+struct IntegerValueEqual {
+  bool operator()(const Value& a, const Value& b) const noexcept { return same_integer(a, b); }
+};
+
+// True when the integer v equals x. REQUIRES: v.is_integer().
+bool equals_integer(const Value& v, const BigInt& x);
 
 // Arithmetic. Results are exact when both operands are exact and the result
 // is rational; otherwise intervals at ctx.precision_bits.
 Value add(const Value& a, const Value& b, const NumericContext& ctx);
 Value sub(const Value& a, const Value& b, const NumericContext& ctx);
+// The same results; a temporary big operand that owns its storage alone is
+// reused for the result instead of allocating new limbs.
+Value add(Value&& a, Value&& b, const NumericContext& ctx);
+Value sub(Value&& a, Value&& b, const NumericContext& ctx);
 Value mul(const Value& a, const Value& b, const NumericContext& ctx);
 Value div(const Value& a, const Value& b, const NumericContext& ctx);
 Value neg(const Value& a);
