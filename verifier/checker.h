@@ -23,7 +23,7 @@ struct CheckOptions {
   // Work per claim, in subproblem-limbs (a subproblem of a k-bit size
   // counts 1 + k/64). Deterministic, unlike time: the sizes phase stops at
   // 60% of it, local search at 85%, so a run replays exactly under any load.
-  uint64_t work_budget = 4'000'000;
+  uint64_t work_budget = 2'500'000;
 
   static Budget default_check_budget();
 };
