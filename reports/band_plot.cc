@@ -53,7 +53,8 @@ std::string render_band_plot(const std::vector<BandRow>& band, const std::vector
     if (std::isnan(low) && std::isnan(high)) continue;
     if (std::isnan(low)) low = high;
     if (std::isnan(high)) high = low;
-    points.push_back({static_cast<double>(row.scale), std::min(low, high), std::max(low, high)});
+    // x: bits of n (a size at scale k has k + 1 bits).
+    points.push_back({static_cast<double>(row.scale + 1), std::min(low, high), std::max(low, high)});
   }
   if (points.empty()) return "";
 
@@ -92,7 +93,8 @@ std::string render_band_plot(const std::vector<BandRow>& band, const std::vector
                      kLeft, kTop, plot_w, plot_h);
 
   // Ticks and grid.
-  double x_step = nice_step(x_max - x_min, 6);
+  // Sizes in bits are whole numbers: never a fractional tick.
+  double x_step = std::max(1.0, nice_step(x_max - x_min, 6));
   for (double x = std::ceil(x_min / x_step) * x_step; x <= x_max + 1e-9; x += x_step) {
     svg += fmt::format("<line class=\"grid\" x1=\"{0:.1f}\" y1=\"{1:.1f}\" x2=\"{0:.1f}\" "
                        "y2=\"{2:.1f}\"/><text class=\"tick\" x=\"{0:.1f}\" y=\"{3:.1f}\" "

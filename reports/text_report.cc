@@ -176,7 +176,7 @@ void append_band(std::string& out, const ClaimResult& c) {
   out += fmt::format("{}  {:>6}  {:>11}  {:>11}  {:>8}\n", kIndent, "bits", "low", "high", "samples");
   for (size_t i : rows) {
     const BandRow& r = c.band[i];
-    out += fmt::format("{}  {:>6}  {:>11}  {:>11}  {:>8}\n", kIndent, r.scale, format_band_ratio(r.low, r.low_log2),
+    out += fmt::format("{}  {:>6}  {:>11}  {:>11}  {:>8}\n", kIndent, r.scale + 1, format_band_ratio(r.low, r.low_log2),
                        format_band_ratio(r.high, r.high_log2), r.samples);
   }
 }

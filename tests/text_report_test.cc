@@ -117,8 +117,9 @@ TEST(TextReport, ErrorShowsTheWholeDiagnostic) {
 TEST(TextReport, LongBandIsThinnedKeepingBothEnds) {
   std::string text = render_text(sample_run(), TextStyle{false});
   EXPECT_NE(text.find("ratio band T(n)/g(n) (12 of 40 scales):"), std::string::npos);
-  EXPECT_NE(text.find("\n           1          0.7          1.5        24\n"), std::string::npos);
-  EXPECT_NE(text.find("\n        3901        0.739         1.89        24\n"), std::string::npos);
+  // The column shows bits of n: scale k holds sizes of k + 1 bits.
+  EXPECT_NE(text.find("\n           2          0.7          1.5        24\n"), std::string::npos);
+  EXPECT_NE(text.find("\n        3902        0.739         1.89        24\n"), std::string::npos);
 }
 
 TEST(TextReport, HoldingClaimsHaveNoDetail) {
