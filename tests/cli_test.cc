@@ -173,3 +173,41 @@ TEST_F(Cli, DemoClaimsRunAndIncludeARefutation) {
 }
 
 }  // namespace
+
+namespace {
+
+TEST_F(Cli, ParallelRunPrintsWhatASerialRunPrints) {
+  std::string claims = std::string(THETAGATE_SOURCE_DIR) + "/tests/data/golden_claims.toml";
+  CommandResult serial = run("check --seed 5 --format json --jobs 1 " + claims);
+  CommandResult parallel = run("check --seed 5 --format json --jobs 2 " + claims);
+  EXPECT_EQ(serial.status, parallel.status);
+  EXPECT_EQ(serial.out, parallel.out);
+}
+
+TEST_F(Cli, OutFolderGetsEveryFormatAndABaselineGatesOnDrift) {
+  std::string file = write_file("tight.toml", kTooTight);
+  std::string folder = (dir_ / "nightly").string() + "/";
+  CommandResult first = run("check --max-bits 64 --seed 3 --out " + folder + " " + file);
+  EXPECT_EQ(first.status, 1) << first.out;
+  for (const char* name : {"report.txt", "report.json", "report.junit.xml", "report.html"}) {
+    EXPECT_TRUE(std::filesystem::exists(dir_ / "nightly" / name)) << name;
+  }
+  // Same claims, same seed: nothing drifted, so --fail-on drift passes.
+  CommandResult again = run("check --max-bits 64 --seed 3 --fail-on drift --baseline " + folder +
+                            "report.json " + file);
+  EXPECT_EQ(again.status, 0) << again.out;
+  // The claim is fixed: its verdict changes from refuted, which is drift.
+  std::string fixed = write_file("tight.toml", R"toml([[claim]]
+name = "too tight"
+recurrence = "T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1; T(1) = 0"
+bound = "T(n) <= n lg n for n >= 2"
+)toml");
+  CommandResult drifted = run("check --max-bits 64 --seed 3 --fail-on drift --baseline " + folder +
+                              "report.json " + fixed);
+  EXPECT_EQ(drifted.status, 1) << drifted.out;
+  EXPECT_NE(drifted.out.find("refuted"), std::string::npos) << drifted.out;
+  CommandResult usage = run("check --fail-on drift " + fixed);
+  EXPECT_EQ(usage.status, 2) << usage.out;
+}
+
+}  // namespace
