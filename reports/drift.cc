@@ -9,6 +9,7 @@
 #include <nlohmann/json.hpp>
 
 #include "reports/json_report.h"
+
 #include "reports/number_text.h"
 #include "verifier/source.h"
 
@@ -154,37 +155,9 @@ std::string claim_text(const ClaimDrift& d, const TextStyle& style) {
 
 using Json = nlohmann::ordered_json;
 
-Json ratio_json(double r) { return std::isfinite(r) ? Json(r) : Json(nullptr); }
-
-// The same layout as the claims' witnesses and band rows (docs/json-schema.md).
-Json witness_json(const Witness& w) {
-  Json j;
-  j["n"] = w.n.str();
-  j["ratio"] = ratio_json(w.ratio);
-  j["side"] = side_name(w.side);
-  j["value"] = w.value;
-  j["bound"] = w.bound;
-  j["family"] = w.family;
-  j["factor"] = w.factor;
-  return j;
-}
-
-Json band_row_json(const BandRow& r) {
-  Json j;
-  j["scale"] = r.scale;
-  j["low"] = ratio_json(r.low);
-  j["high"] = ratio_json(r.high);
-  j["low_at"] = r.low_at.str();
-  j["high_at"] = r.high_at.str();
-  j["samples"] = r.samples;
-  j["low_log2"] = ratio_json(r.low_log2);
-  j["high_log2"] = ratio_json(r.high_log2);
-  return j;
-}
-
 Json witnesses_json(const std::vector<Witness>& ws) {
   Json j = Json::array();
-  for (const Witness& w : ws) j.push_back(witness_json(w));
+  for (const Witness& w : ws) j.push_back(witness_to_json(w));
   return j;
 }
 
@@ -204,8 +177,8 @@ Json claim_json(const ClaimDrift& d) {
   for (const BandMove& m : d.band_moves) {
     Json move;
     move["scale"] = m.after.scale;
-    move["before"] = band_row_json(m.before);
-    move["after"] = band_row_json(m.after);
+    move["before"] = band_row_to_json(m.before);
+    move["after"] = band_row_to_json(m.after);
     move["low_moved"] = m.low_moved;
     move["high_moved"] = m.high_moved;
     j["band_moves"].push_back(move);

@@ -13,7 +13,9 @@ using Json = nlohmann::ordered_json;
 // JSON has no infinity or NaN; null says "no finite ratio" explicitly.
 Json ratio(double r) { return std::isfinite(r) ? Json(r) : Json(nullptr); }
 
-Json witness_json(const Witness& w) {
+}  // namespace
+
+Json witness_to_json(const Witness& w) {
   Json j;
   j["n"] = w.n.str();
   j["ratio"] = ratio(w.ratio);
@@ -25,7 +27,7 @@ Json witness_json(const Witness& w) {
   return j;
 }
 
-Json band_json(const BandRow& r) {
+Json band_row_to_json(const BandRow& r) {
   Json j;
   j["scale"] = r.scale;
   j["low"] = ratio(r.low);
@@ -37,6 +39,8 @@ Json band_json(const BandRow& r) {
   j["high_log2"] = ratio(r.high_log2);
   return j;
 }
+
+namespace {
 
 Json error_json(const std::optional<Diagnostic>& d) {
   if (!d) return nullptr;
@@ -62,9 +66,9 @@ Json claim_json(const ClaimResult& c) {
   j["method"] = c.method;
   j["tight"] = c.tight;
   j["witnesses"] = Json::array();
-  for (const Witness& w : c.witnesses) j["witnesses"].push_back(witness_json(w));
+  for (const Witness& w : c.witnesses) j["witnesses"].push_back(witness_to_json(w));
   j["band"] = Json::array();
-  for (const BandRow& r : c.band) j["band"].push_back(band_json(r));
+  for (const BandRow& r : c.band) j["band"].push_back(band_row_to_json(r));
   j["message"] = c.message;
   // Added in schema version 1.
   j["numeric_only"] = c.numeric_only;

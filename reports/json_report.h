@@ -6,9 +6,16 @@
 
 #include <string>
 
+#include <nlohmann/json.hpp>
+
 #include "verifier/result.h"
 
 namespace thetagate {
+
+// The JSON objects of one witness and one band row, as they appear inside
+// claims (docs/json-schema.md); other writers (drift) reuse them.
+nlohmann::ordered_json witness_to_json(const Witness& w);
+nlohmann::ordered_json band_row_to_json(const BandRow& r);
 
 // Version of the layout render_json writes; docs/json-schema.md says what
 // each version holds.

@@ -2,6 +2,7 @@
 // parsed as a SourceText that knows where it sits in the file, so an error
 // inside a multi-line recurrence names the file's own line and column.
 #include "verifier/claim.h"
+#include "verifier/spelling.h"
 
 #include <toml++/toml.h>
 
@@ -26,21 +27,6 @@ const std::vector<std::string> kClaimKeys = {"name", "recurrence", "bound", "not
                                              "rounding"};
 const std::vector<std::string> kSizeKeys = {"max_bits", "families", "min_n"};
 constexpr int64_t kMaxBitsLimit = 65536;
-
-size_t edit_distance(const std::string& a, const std::string& b) {
-  std::vector<size_t> row(b.size() + 1);
-  for (size_t j = 0; j <= b.size(); ++j) row[j] = j;
-  for (size_t i = 1; i <= a.size(); ++i) {
-    size_t diagonal = row[0];
-    row[0] = i;
-    for (size_t j = 1; j <= b.size(); ++j) {
-      size_t above = row[j];
-      row[j] = std::min({row[j] + 1, row[j - 1] + 1, diagonal + (a[i - 1] == b[j - 1] ? 0 : 1)});
-      diagonal = above;
-    }
-  }
-  return row[b.size()];
-}
 
 std::string lower(std::string s) {
   for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));

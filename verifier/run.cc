@@ -6,6 +6,7 @@
 #include <thread>
 
 #include "verifier/claim.h"
+#include "verifier/spelling.h"
 
 namespace thetagate {
 
@@ -27,21 +28,6 @@ void mark_duplicate_names(std::vector<ClaimEntry>& entries) {
     entry.error = d;
     entry.claim.reset();
   }
-}
-
-size_t edit_distance(const std::string& a, const std::string& b) {
-  std::vector<size_t> row(b.size() + 1);
-  for (size_t j = 0; j <= b.size(); ++j) row[j] = j;
-  for (size_t i = 1; i <= a.size(); ++i) {
-    size_t diagonal = row[0];
-    row[0] = i;
-    for (size_t j = 1; j <= b.size(); ++j) {
-      size_t up = row[j];
-      row[j] = std::min({row[j] + 1, row[j - 1] + 1, diagonal + (a[i - 1] != b[j - 1])});
-      diagonal = up;
-    }
-  }
-  return row[b.size()];
 }
 
 std::vector<ClaimEntry> select_claims(const std::vector<ClaimEntry>& entries,
