@@ -358,3 +358,19 @@ TEST(Evaluator, SizesAreExactConstantExpressions) {
 
 }  // namespace
 }  // namespace thetagate
+
+namespace {
+
+TEST(EvaluatorWellFoundedness, NonShrinkingCallNamesTheFirstOffendingSize) {
+  // DESIGN.md §3: the error names the first offending n and call.
+  try {
+    thetagate::Evaluator ev(thetagate::recurrence_from_text("T(n) = T(n+1) + 1"));
+    ev.value_at(thetagate::BigInt(3));
+    FAIL() << "expected an InputError";
+  } catch (const thetagate::InputError& e) {
+    EXPECT_EQ(e.diagnostic().message, "T(n + 1) at n = 0 calls T(1), which does not shrink");
+    EXPECT_EQ(e.diagnostic().where.column, 8);
+  }
+}
+
+}  // namespace

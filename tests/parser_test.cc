@@ -573,3 +573,14 @@ TEST(Printer, PropertyWouldCatchAPrinterThatDropsParentheses) {
 
 }  // namespace
 }  // namespace thetagate
+
+namespace {
+
+TEST(ParserCallForms, ModAlsoReadsAsACall) {
+  using namespace thetagate;
+  ExprPtr infix = parse_expression(SourceText::whole("<t>", "n mod 3"));
+  ExprPtr call = parse_expression(SourceText::whole("<t>", "mod(n, 3)"));
+  EXPECT_TRUE(same_tree(*infix, *call)) << print(*call);
+}
+
+}  // namespace

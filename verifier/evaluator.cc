@@ -174,13 +174,26 @@ void Evaluator::probe_default_base() {
   if (!recurrence_->default_base) return;
   const Recurrence& r = *recurrence_;
   EvalScope s = scope(r.source);
-  for (const BigInt& n : {kDefaultBaseLimit, BigInt(kDefaultBaseLimit + 1), BigInt(3 * kDefaultBaseLimit / 2)}) {
+  // The first size whose call does not shrink, if any.
+  auto offending = [&](const BigInt& n) -> std::optional<std::pair<const Expr*, BigInt>> {
     Value nv(n);
     const CaseLine& line = select_case(r.main, nv, s);
     for (const Expr* call : line.calls) {
       BigInt m = call_argument(*call, nv, s);
-      if (m < 0 || m >= n) not_shrinking(n, *call, m);
+      if (m < 0 || m >= n) return std::pair<const Expr*, BigInt>{call, m};
     }
+    return std::nullopt;
+  };
+  for (const BigInt& n : {kDefaultBaseLimit, BigInt(kDefaultBaseLimit + 1), BigInt(3 * kDefaultBaseLimit / 2)}) {
+    auto bad = offending(n);
+    if (!bad) continue;
+    // Name the first size where the same call fails (DESIGN.md §3): T(n + 1)
+    // already fails at n = 0, not only at the probe.
+    for (BigInt first = 0; first <= 64; ++first) {
+      auto early = offending(first);
+      if (early && early->first == bad->first) not_shrinking(first, *early->first, early->second);
+    }
+    not_shrinking(n, *bad->first, bad->second);
   }
 }
 

@@ -291,6 +291,10 @@ ExprPtr Parser::parse_atom() {
     case TokenKind::kSqrt:
       return parse_prefix_function(t);
     case TokenKind::kName:
+      if (t.text == "mod" && peek(1).kind == TokenKind::kLeftParen) {
+        next();  // mod(a, b): the call form of the infix operator
+        return make_call("mod", parse_arguments(t), t.pos);
+      }
       if (is_keyword(t.text)) {
         fail(t, "expected a number, 'n' or a function, found the keyword '" + t.text + "'");
       }
