@@ -114,7 +114,18 @@ void classify_driving(const Shape& shape, const Recurrence& rec, DerivationInput
   }
 }
 
-std::string outcome_reason(const TheoremOutcome& o) { return o.theorem + ": " + o.failure; }
+// "master theorem: needs exactly one ...", not "master theorem: the master
+// theorem needs exactly one ...".
+std::string outcome_reason(const TheoremOutcome& o) {
+  std::string failure = o.failure;
+  for (const std::string& lead : {"the " + o.theorem + " ", o.theorem + " "}) {
+    if (failure.rfind(lead, 0) == 0) {
+      failure = failure.substr(lead.size());
+      break;
+    }
+  }
+  return o.theorem + ": " + failure;
+}
 
 }  // namespace
 
