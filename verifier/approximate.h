@@ -1,0 +1,23 @@
+// Double-precision evaluation of an expression in n, for ratio bands only:
+// tens of thousands of sizes need log2 g(n) to a few digits, and MPFR
+// logarithms dominated that cost. Every verdict-deciding comparison stays
+// exact (Evaluator::compare_at).
+#ifndef THETAGATE_VERIFIER_APPROXIMATE_H_
+#define THETAGATE_VERIFIER_APPROXIMATE_H_
+
+#include <cstdint>
+#include <optional>
+
+#include "verifier/expr.h"
+
+namespace thetagate {
+
+// The value of `e` at n to about double precision, or nullopt where a double
+// cannot be trusted: n >= 2^50, calls other than builtins, a floor or
+// ceiling of an irrational value close to a whole number, mod of
+// non-integers, a domain error, or a result that is not finite.
+std::optional<double> approximate(const Expr& e, int64_t n);
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_VERIFIER_APPROXIMATE_H_
