@@ -1,7 +1,5 @@
 #include "verifier/checker.h"
 
-#include <cstdio>
-#include <cstdlib>
 #include <cmath>
 #include <map>
 #include <set>
@@ -127,9 +125,6 @@ class ClaimCheck {
       check_explicit(sizes);
     }
     if (!stopped_.empty()) result_.notes.push_back(stopped_);
-    if (std::getenv("THETAGATE_DEBUG_WORK")) {
-      std::fprintf(stderr, "work %s: %llu\n", claim_.name.c_str(), (unsigned long long)work_);
-    }
     if (undecidable_ > 0) {
       result_.notes.push_back(fmt::format(
           "{} exact comparisons stayed undecided even at the highest interval precision (both "
