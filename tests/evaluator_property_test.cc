@@ -10,6 +10,7 @@
 #include <string>
 #include <vector>
 
+#include "tests/test_support.h"
 #include "verifier/evaluator.h"
 #include "verifier/recurrence.h"
 
@@ -17,27 +18,7 @@ namespace thetagate {
 namespace {
 
 // A GMP integer with automatic cleanup.
-class Mpz {
- public:
-  Mpz() { mpz_init(v_); }
-  Mpz(const Mpz& o) { mpz_init_set(v_, o.v_); }
-  Mpz& operator=(const Mpz& o) {
-    mpz_set(v_, o.v_);
-    return *this;
-  }
-  ~Mpz() { mpz_clear(v_); }
-  mpz_ptr get() { return v_; }
-  mpz_srcptr get() const { return v_; }
-  std::string str() const {
-    std::string out(mpz_sizeinbase(v_, 10) + 2, '\0');
-    mpz_get_str(out.data(), 10, v_);
-    out.resize(std::char_traits<char>::length(out.c_str()));
-    return out;
-  }
-
- private:
-  mpz_t v_;
-};
+using test_support::Mpz;
 
 enum class Shape { kFloor, kCeil, kImplicitFloor, kMinus };
 

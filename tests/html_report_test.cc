@@ -14,6 +14,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "tests/test_support.h"
 #include "reports/band_plot.h"
 #include "reports/html_report.h"
 #include "tests/report_fixture.h"
@@ -23,13 +24,7 @@ namespace {
 
 using test_support::sample_run;
 
-size_t count_of(const std::string& text, const std::string& needle) {
-  size_t count = 0;
-  for (size_t at = text.find(needle); at != std::string::npos; at = text.find(needle, at + 1)) {
-    ++count;
-  }
-  return count;
-}
+using test_support::count_of;
 
 TEST(HtmlReport, IsSelfContainedWithoutScript) {
   std::string html = render_html(sample_run());

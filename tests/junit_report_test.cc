@@ -12,6 +12,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "tests/test_support.h"
 #include "reports/junit_report.h"
 #include "reports/xml_escape.h"
 #include "tests/golden.h"
@@ -23,13 +24,7 @@ namespace {
 using test_support::expect_matches_golden;
 using test_support::sample_run;
 
-size_t count_of(const std::string& text, const std::string& needle) {
-  size_t count = 0;
-  for (size_t at = text.find(needle); at != std::string::npos; at = text.find(needle, at + 1)) {
-    ++count;
-  }
-  return count;
-}
+using test_support::count_of;
 
 std::string find_xmllint() {
   const char* path = std::getenv("PATH");

@@ -14,35 +14,13 @@
 
 #include "verifier/interval.h"
 #include "verifier/number.h"
+#include "tests/test_support.h"
 
 namespace thetagate {
 namespace {
 
 // A GMP integer with automatic cleanup; the reference side of every check.
-class Mpz {
- public:
-  Mpz() { mpz_init(v_); }
-  explicit Mpz(const std::string& decimal) { mpz_init_set_str(v_, decimal.c_str(), 10); }
-  Mpz(const Mpz& o) { mpz_init_set(v_, o.v_); }
-  Mpz& operator=(const Mpz& o) {
-    mpz_set(v_, o.v_);
-    return *this;
-  }
-  ~Mpz() { mpz_clear(v_); }
-  mpz_ptr get() { return v_; }
-  mpz_srcptr get() const { return v_; }
-  std::string str() const {
-    char* s = mpz_get_str(nullptr, 10, v_);
-    std::string out(s);
-    void (*free_fn)(void*, size_t);
-    mp_get_memory_functions(nullptr, nullptr, &free_fn);
-    free_fn(s, out.size() + 1);
-    return out;
-  }
-
- private:
-  mpz_t v_;
-};
+using test_support::Mpz;
 
 // 2^k + delta, built with mpz alone.
 Mpz mpz_pow2_plus(unsigned long k, long delta) {
