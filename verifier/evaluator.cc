@@ -40,7 +40,21 @@ class Evaluator::Resolver : public CallResolver {
   Evaluator& owner_;
 };
 
-Evaluator::Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget)
+// The kernel's budget callbacks land in the evaluator's own accounting.
+class Evaluator::KernelLink : public KernelHooks {
+ public:
+  explicit KernelLink(Evaluator& owner) : owner_(owner) {}
+  void charge_step() override { owner_.charge_step(); }
+  void remembered(uint64_t key_bits, uint64_t value_bits, size_t) override {
+    owner_.account_memo(key_bits, value_bits);
+  }
+
+ private:
+  Evaluator& owner_;
+};
+
+Evaluator::Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget,
+                     EvaluationPath path)
     : recurrence_(std::move(recurrence)), budget_(budget) {
   ctx_.precision_bits = budget_.start_precision_bits;
   ctx_.max_value_bits = budget_.max_value_bits;
@@ -57,6 +71,10 @@ Evaluator::Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget
     }
   }
   window_ = all_subtractive ? window : 0;
+  if (window_ == 0 && path == EvaluationPath::kAuto) {
+    kernel_ = IntegerKernel::compile(*recurrence_, ctx_);
+    if (kernel_) kernel_link_ = std::make_unique<KernelLink>(*this);
+  }
 }
 
 Evaluator::~Evaluator() = default;
@@ -92,17 +110,29 @@ const Value* Evaluator::remember(const Value& m, const Value& v) {
   auto [stored, inserted] = memo_.insert(m, v);
   if (!inserted) return stored;
   if (!v.is_exact()) memo_has_intervals_ = true;
-  memo_bytes_ += (m.magnitude_bits() + v.magnitude_bits()) / 8 + 112;
-  stats_.memo_entries = memo_.size();
-  if (memo_.size() > budget_.max_memo_entries || memo_bytes_ > budget_.max_memo_bytes) {
-    throw BudgetExceeded("one evaluation needs more than " + std::to_string(memo_.size()) +
+  account_memo(m.magnitude_bits(), v.magnitude_bits());
+  return stored;
+}
+
+size_t Evaluator::memo_size() const {
+  return memo_.size() + (kernel_ ? kernel_->memo_size() : 0);
+}
+
+void Evaluator::account_memo(uint64_t key_bits, uint64_t value_bits) {
+  // A nominal cost per entry, the same on both paths, so the budget (and a
+  // report) does not depend on which path evaluated.
+  memo_bytes_ += (key_bits + value_bits) / 8 + 112;
+  size_t size = memo_size();
+  stats_.memo_entries = size;
+  if (size > budget_.max_memo_entries || memo_bytes_ > budget_.max_memo_bytes) {
+    throw BudgetExceeded("one evaluation needs more than " + std::to_string(size) +
                          " remembered values (" + std::to_string(memo_bytes_ >> 20) + " MiB)");
   }
-  return stored;
 }
 
 void Evaluator::clear_memo() {
   memo_.clear();
+  if (kernel_) kernel_->clear_memo();
   memo_bytes_ = 0;
   memo_has_intervals_ = false;
   ring_.clear();
@@ -136,14 +166,18 @@ Value Evaluator::value_at(const BigInt& n) {
   if (!probed_) with_precision([&] { probe_default_base(); return 0; });
   call_start_steps_ = stats_.steps;
   if (memo_bytes_ > budget_.max_memo_bytes / 4 * 3 ||
-      memo_.size() > budget_.max_memo_entries / 4 * 3) {
+      memo_size() > budget_.max_memo_entries / 4 * 3) {
     clear_memo();
   }
   // Each top-level call starts low; a floor or comparison that an interval
   // cannot decide doubles the precision and retries.
   ctx_.precision_bits = budget_.start_precision_bits;
   Value v = with_precision([&] {
-    return window_ > 0 ? sweep_up(n) : top_down(canonical_integer(Value(n)));
+    if (window_ > 0) return sweep_up(n);
+    if (kernel_) {
+      if (std::optional<Value> fast = kernel_value(n)) return std::move(*fast);
+    }
+    return top_down(canonical_integer(Value(n)));
   });
   stats_.precision_bits = std::max(stats_.precision_bits, ctx_.precision_bits);
   return v;
@@ -201,6 +235,16 @@ const Value* Evaluator::remembered(const Value& m) const {
   const Value* value = memo_.find(m);
   if (value == nullptr) throw std::logic_error("a finished subproblem is not remembered");
   return value;
+}
+
+std::optional<Value> Evaluator::kernel_value(const BigInt& n) {
+  try {
+    BigInt out;
+    kernel_->value_at(n.backend().data(), out.backend().data(), *kernel_link_);
+    return canonical_integer(std::move(out));
+  } catch (const KernelDeclines&) {
+    return std::nullopt;  // the general path redoes this size and names the problem
+  }
 }
 
 Value Evaluator::top_down(const Value& n) {
@@ -310,6 +354,11 @@ Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope
   }
   Value m = call_argument_value(call, n, scope);
   if (const Value* value = memo_.find(m)) return *value;
+  if (kernel_) {
+    // Not through value_at(): that would restart the precision this
+    // expression's evaluation may be raising (with_precision).
+    if (std::optional<Value> fast = kernel_value(m.integer())) return std::move(*fast);
+  }
   // Only reachable from evaluate() on an expression that calls T directly.
   return value_at(m.integer());
 }

@@ -13,6 +13,7 @@
 #include <vector>
 
 #include "verifier/expression_eval.h"
+#include "verifier/integer_kernel.h"
 #include "verifier/memo_table.h"
 #include "verifier/recurrence.h"
 #include "verifier/value.h"
@@ -39,9 +40,14 @@ struct EvaluatorStats {
   long precision_bits = 0;
 };
 
+// kAuto uses the integer kernel (verifier/integer_kernel.h) wherever the
+// recurrence compiles to it; kGeneral never does (tests compare the two).
+enum class EvaluationPath { kAuto, kGeneral };
+
 class Evaluator {
  public:
-  explicit Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget = {});
+  explicit Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget = {},
+                     EvaluationPath path = EvaluationPath::kAuto);
   ~Evaluator();
   Evaluator(const Evaluator&) = delete;
   Evaluator& operator=(const Evaluator&) = delete;
@@ -64,11 +70,15 @@ class Evaluator {
   const Recurrence& recurrence() const { return *recurrence_; }
   // True when every recursive call is T(n - c): evaluated bottom-up.
   bool bottom_up() const { return window_ > 0; }
+  // True when top-down sizes go through the integer kernel.
+  bool uses_integer_kernel() const { return kernel_ != nullptr; }
 
  private:
   class Resolver;
+  class KernelLink;
   EvalScope scope(const SourceText& source);
   Value top_down(const Value& n);
+  std::optional<Value> kernel_value(const BigInt& n);
   Value sweep_up(const BigInt& n);
   Value lookup(const Expr& call, const Value& n, const EvalScope& scope);
   void probe_default_base();
@@ -78,6 +88,9 @@ class Evaluator {
   // Returns the remembered value (stable: memo_'s elements never move).
   const Value* remember(const Value& m, const Value& v);
   const Value* remembered(const Value& m) const;  // REQUIRES: m was remembered
+  // Counts one remembered value against the memo budget (both memos).
+  void account_memo(uint64_t key_bits, uint64_t value_bits);
+  size_t memo_size() const;
   void clear_memo();
   template <class F> auto with_precision(F&& f) -> decltype(f());
 
@@ -90,6 +103,8 @@ class Evaluator {
   // Keys are canonical integers (canonical_integer), shared with the frames
   // that computed them: no limb copies on insert or lookup.
   MemoTable memo_;
+  std::unique_ptr<IntegerKernel> kernel_;  // null: the general path only
+  std::unique_ptr<KernelLink> kernel_link_;
   uint64_t memo_bytes_ = 0;
   bool memo_has_intervals_ = false;
   // Bottom-up state: window_ = largest c in T(n - c); the ring holds the

@@ -59,13 +59,6 @@ void small_sub(mpz_ptr r, int64_t s, mpz_srcptr big) {
   }
 }
 
-void check_bits(uint64_t bits, const NumericContext& ctx) {
-  if (bits > ctx.max_value_bits) {
-    throw BudgetExceeded("a value would need " + std::to_string(bits) + " bits, over the budget of " +
-                         std::to_string(ctx.max_value_bits) + " bits per value");
-  }
-}
-
 uint64_t rational_bits(const Rational& x) {
   return std::max(mpz_bits(mpq_numref(x.backend().data())), mpz_bits(mpq_denref(x.backend().data())));
 }
@@ -175,6 +168,13 @@ Interval interval_integer_power(const Interval& base, const BigInt& k) {
 }
 
 }  // namespace
+
+void check_bits(uint64_t bits, const NumericContext& ctx) {
+  if (bits > ctx.max_value_bits) {
+    throw BudgetExceeded("a value would need " + std::to_string(bits) + " bits, over the budget of " +
+                         std::to_string(ctx.max_value_bits) + " bits per value");
+  }
+}
 
 Value::Value(const BigInt& x) : repr_(std::make_shared<BigInt>(x)) {}
 Value::Value(BigInt&& x) : repr_(std::make_shared<BigInt>(std::move(x))) {}

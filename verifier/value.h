@@ -39,6 +39,9 @@ struct NumericContext {
   uint64_t max_value_bits = 1u << 22;  // a larger exact value is a budget error
 };
 
+// Throws BudgetExceeded when a value of `bits` bits is over ctx's limit.
+void check_bits(uint64_t bits, const NumericContext& ctx);
+
 // An exact or certified number. Big integers, rationals and intervals live
 // in shared immutable storage, so copying a Value (the size n at each use, a
 // memo lookup) costs a reference count, never a limb allocation.

@@ -1,0 +1,208 @@
+// The integer kernel against the general evaluation path: for random integer
+// recurrences (conditions, min/max, powers, mod, ceilings, quotients of
+// multiples) both give the same values, expand the same subproblems (equal
+// steps and memo counts, so work budgets and reports do not depend on the
+// path), and fail with the same located errors.
+#include <gtest/gtest.h>
+#include <rapidcheck/gtest.h>
+
+#include <string>
+#include <vector>
+
+#include "tests/test_support.h"
+#include "verifier/evaluator.h"
+#include "verifier/recurrence.h"
+#include "verifier/source.h"
+
+namespace thetagate {
+namespace {
+
+using test_support::Mpz;
+
+// Recursive terms over n. Multiples p·n/q (q > p) do not collapse: each
+// level adds distinct subproblems, so they get smaller sizes below.
+const std::vector<std::string> kCollapsingCalls = {
+    "T(floor(n/2))", "T(ceil(n/2))", "T(n/2)", "T(n/3)", "T(ceil(n/4))", "T(floor(n/2) - 1)"};
+const std::vector<std::string> kSpreadingCalls = {"T(7n/10)", "T(ceil(2n/3))", "T(floor(3n/4))"};
+const std::vector<std::string> kDrivers = {
+    "n",         "n^2",        "1",           "n mod 3",      "floor(n/2)",     "ceil(n/3)",
+    "max(n, 7)", "min(n, 100)", "2n + 3",      "n^3 - n",      "(n mod 2) * n",  "-n",
+    "0",         "mod(n, 5)^2", "10^20 - n"};
+
+struct Spec {
+  std::string text;
+  bool spreading = false;
+};
+
+Spec gen_spec() {
+  Spec s;
+  int terms = *rc::gen::inRange(1, 4);
+  std::string body;
+  for (int i = 0; i < terms; ++i) {
+    bool spread = *rc::gen::inRange(0, 4) == 0;
+    s.spreading |= spread;
+    std::string call = spread ? *rc::gen::elementOf(kSpreadingCalls)
+                              : *rc::gen::elementOf(kCollapsingCalls);
+    int coefficient = *rc::gen::inRange(1, 4);
+    body += (i > 0 ? " + " : "") + (coefficient > 1 ? std::to_string(coefficient) : "") + call;
+  }
+  body += " + " + *rc::gen::elementOf(kDrivers);
+  std::vector<std::string> lines;
+  switch (*rc::gen::inRange(0, 4)) {
+    case 0:  // point base cases
+      lines = {"T(n) = " + body, "T(0) = " + std::to_string(*rc::gen::inRange(-3, 10)),
+               "T(1) = " + std::to_string(*rc::gen::inRange(-3, 10))};
+      break;
+    case 1:  // a conditional base case
+      lines = {"T(n) = " + std::to_string(*rc::gen::inRange(0, 5)) + " if n <= " +
+                   std::to_string(*rc::gen::inRange(3, 7)),
+               "T(n) = " + body};
+      break;
+    case 2:  // parity lines: odd sizes step down by one, even sizes divide
+      lines = {"T(n) = T(n - 1) + " + *rc::gen::elementOf(kDrivers) + " if n odd and n > 1",
+               "T(n) = " + body, "T(0) = 0", "T(1) = 2"};
+      break;
+    default:  // no base case: the default base case applies
+      lines = {"T(n) = " + body};
+      break;
+  }
+  for (size_t i = 0; i < lines.size(); ++i) s.text += (i > 0 ? "\n" : "") + lines[i];
+  return s;
+}
+
+BigInt gen_size(bool spreading) {
+  int bits = *rc::gen::inRange(1, spreading ? 40 : 600);
+  auto limbs = *rc::gen::container<std::vector<uint64_t>>(static_cast<size_t>(bits / 64 + 1),
+                                                          rc::gen::arbitrary<uint64_t>());
+  BigInt n = 0;
+  for (uint64_t limb : limbs) n = (n << 64) | BigInt(limb);
+  return n & ((BigInt(1) << bits) - 1);
+}
+
+RC_GTEST_PROP(IntegerKernel, AgreesWithTheGeneralPathStepForStep, ()) {
+  const Spec spec = gen_spec();
+  RC_LOG() << spec.text << "\n";
+  auto recurrence = recurrence_from_text(spec.text);
+  Evaluator fast(recurrence);
+  Evaluator general(recurrence, Budget{}, EvaluationPath::kGeneral);
+  RC_ASSERT(fast.uses_integer_kernel());
+  RC_ASSERT(!general.uses_integer_kernel());
+  for (int i = 0; i < 4; ++i) {
+    BigInt n = gen_size(spec.spreading);
+    RC_LOG() << "n = " << n << "\n";
+    std::string fast_value, general_value;
+    try {
+      fast_value = fast.value_at(n).str();
+    } catch (const InputError& e) {
+      fast_value = "error: " + e.diagnostic().message;
+    }
+    try {
+      general_value = general.value_at(n).str();
+    } catch (const InputError& e) {
+      general_value = "error: " + e.diagnostic().message;
+    }
+    RC_ASSERT(fast_value == general_value);
+    if (fast_value.rfind("error", 0) == 0) return;  // step counts differ after a decline
+    RC_ASSERT(fast.stats().steps == general.stats().steps);
+    RC_ASSERT(fast.stats().memo_entries == general.stats().memo_entries);
+  }
+}
+
+// The diagnostic both paths give for `text` at n, or "" when there is none.
+std::string error_of(const std::string& text, const BigInt& n, EvaluationPath path) {
+  Evaluator ev(recurrence_from_text(text), Budget{}, path);
+  try {
+    ev.value_at(n);
+  } catch (const InputError& e) {
+    return format_diagnostic(e.diagnostic());
+  }
+  return "";
+}
+
+TEST(IntegerKernel, DeclinedSizesFailWithTheGeneralPathsLocatedError) {
+  const std::vector<std::string> cases = {
+      "T(n) = T(n + 1) + 1",                          // does not shrink, beyond the default base
+      "T(n) = T(n/2) + 1 if n > 5\nT(n) = 1 if n == 0",  // no line applies at 1..5
+      "T(n) = T(n/2) + n mod (n - n)\nT(0) = 0",       // mod by zero
+      "T(n) = T(floor(n/(n - 3))) + 1\nT(0) = 0",      // reaches T(1), which calls T(-1)
+  };
+  for (const std::string& text : cases) {
+    EXPECT_TRUE(Evaluator(recurrence_from_text(text)).uses_integer_kernel()) << text;
+    std::string fast = error_of(text, BigInt(100000), EvaluationPath::kAuto);
+    std::string general = error_of(text, BigInt(100000), EvaluationPath::kGeneral);
+    EXPECT_FALSE(fast.empty()) << text;
+    EXPECT_EQ(fast, general) << text;
+  }
+}
+
+TEST(IntegerKernel, CompilesOnlyRecurrencesThatStayWhole) {
+  struct Case {
+    const char* text;
+    bool compiles;
+  };
+  const Case cases[] = {
+      {"T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1\nT(1) = 0", true},
+      {"T(n) = 1 if n <= 4\nT(n) = T(n/5) + T(7n/10) + n", true},
+      {"T(n) = 7T(n/2) + n^2", true},
+      {"T(n) = T(n/2) + 1 if n even\nT(n) = T(n - 1) + 1 if n odd\nT(0) = 0", true},
+      {"T(n) = 2T(n/2) + n lg n", false},       // irrational driving function
+      {"T(n) = 2T(n/2) + n/2", false},          // a bare quotient may be a fraction
+      {"T(n) = T(floor(sqrt(n))) + 1", false},  // a root inside the call
+      {"T(n) = 2T(n/2) + 0.5", false},          // not a whole constant
+      {"T(n) = 2T(n/2) + f(n)\nf(n) = n + 1", false},  // helpers stay general
+  };
+  for (const Case& c : cases) {
+    Evaluator ev(recurrence_from_text(c.text));
+    EXPECT_EQ(ev.uses_integer_kernel(), c.compiles) << c.text;
+  }
+  // T(n - c) alone is swept bottom-up, never through the kernel.
+  Evaluator sweep(recurrence_from_text("T(n) = T(n - 1) + n\nT(0) = 0"));
+  EXPECT_TRUE(sweep.bottom_up());
+  EXPECT_FALSE(sweep.uses_integer_kernel());
+}
+
+TEST(IntegerKernel, ValueBitsBudgetAppliesAsOnTheGeneralPath) {
+  Budget budget;
+  budget.max_value_bits = 4096;
+  auto recurrence = recurrence_from_text("T(n) = T(n/2) + n^64\nT(0) = 0");
+  Evaluator fast(recurrence, budget);
+  Evaluator general(recurrence, budget, EvaluationPath::kGeneral);
+  ASSERT_TRUE(fast.uses_integer_kernel());
+  // 2^70 raised to the 64th power needs about 4480 bits.
+  const BigInt n = BigInt(1) << 70;
+  std::string fast_error, general_error;
+  try {
+    fast.value_at(n);
+  } catch (const BudgetExceeded& e) {
+    fast_error = e.what();
+  }
+  try {
+    general.value_at(n);
+  } catch (const BudgetExceeded& e) {
+    general_error = e.what();
+  }
+  EXPECT_NE(fast_error.find("bits per value"), std::string::npos) << fast_error;
+  EXPECT_EQ(fast_error, general_error);
+}
+
+TEST(IntegerKernel, MergeSortWorstCaseMatchesItsClosedFormAtLargeSizes) {
+  // W(n) = n⌈lg n⌉ − 2^⌈lg n⌉ + 1 for the comparisons of top-down merge sort:
+  // M. A. Suchenek, "Elementary yet precise worst-case analysis of
+  // MergeSort", arXiv:1702.08443, 2017. Closed form computed with GMP.
+  Evaluator ev(recurrence_from_text("T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1\nT(1) = 0"));
+  ASSERT_TRUE(ev.uses_integer_kernel());
+  for (const BigInt& n : {BigInt(1000003), (BigInt(1) << 4096) + 12345, (BigInt(3) << 2000) - 1}) {
+    Mpz size, power, expected;
+    mpz_set(size.get(), n.backend().data());
+    mpz_sub_ui(power.get(), size.get(), 1);
+    unsigned long k = mpz_sizeinbase(power.get(), 2);  // ⌈lg n⌉ for n >= 2
+    mpz_ui_pow_ui(power.get(), 2, k);
+    mpz_mul_ui(expected.get(), size.get(), k);
+    mpz_sub(expected.get(), expected.get(), power.get());
+    mpz_add_ui(expected.get(), expected.get(), 1);
+    EXPECT_EQ(ev.value_at(n).str(), expected.str());
+  }
+}
+
+}  // namespace
+}  // namespace thetagate
