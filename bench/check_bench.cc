@@ -8,7 +8,9 @@
 //   cd /path/to/thetagate && build/thetagate_bench --benchmark_filter=Check
 //   THETAGATE_CLAIMS_DIR=/path/to/claims build/thetagate_bench --benchmark_filter=Check
 // Counters: sizes = sizes evaluated by the families, bits = bits of the
-// largest, verdict = 0 holds, 1 refuted, 2 undecided, 3 error.
+// largest, verdict = 0 holds, 1 refuted, 2 undecided, 3 error. The default
+// work budget (CheckOptions::kDefaultWorkBudget) is calibrated here: a claim
+// that spends all of it (median of medians) should take about 200 ms.
 #include <benchmark/benchmark.h>
 
 #include <cstdlib>
@@ -33,7 +35,8 @@ CheckOptions full_check_options() {
   return options;
 }
 
-void check_once(benchmark::State& state, const char* recurrence, const char* bound) {
+void check_once(benchmark::State& state, const char* recurrence, const char* bound,
+                uint64_t effort = 1) {
   std::string toml = std::string("[[claim]]\nname = \"orchard::bench\"\nrecurrence = \"\"\"\n") +
                      recurrence + "\n\"\"\"\nbound = \"" + bound + "\"\n";
   std::vector<ClaimEntry> entries = thetagate::load_claim_text(toml, "bench.toml");
@@ -42,6 +45,7 @@ void check_once(benchmark::State& state, const char* recurrence, const char* bou
     return;
   }
   CheckOptions options = full_check_options();
+  options.effort = effort;
   for (auto _ : state) {
     ClaimResult r = thetagate::check_claim(*entries[0].claim, options);
     state.counters["sizes"] = static_cast<double>(r.sizes_checked);
@@ -67,6 +71,19 @@ void CheckMedianOfMediansTheta(benchmark::State& state) {
   check_once(state, "T(n) = 1 if n <= 4\nT(n) = T(n/5) + T(7n/10) + n", "Theta(n)");
 }
 BENCHMARK(CheckMedianOfMediansTheta)->Unit(benchmark::kMillisecond);
+
+// The same claim as a nightly run would check it (--effort 10): reach grows
+// with work, about as O(bits^2) subproblems per size.
+void CheckMedianOfMediansEffort10(benchmark::State& state) {
+  check_once(state, "T(n) = 1 if n <= 4\nT(n) = T(n/5) + T(7n/10) + n", "Theta(n)", 10);
+}
+BENCHMARK(CheckMedianOfMediansEffort10)->Unit(benchmark::kMillisecond)->Iterations(1);
+
+// An irrational driving function: the general path (intervals) throughout.
+void CheckTreeSortingPerLevelTheta(benchmark::State& state) {
+  check_once(state, "T(n) = 2T(n/2) + n lg n\nT(1) = 0", "Theta(n lg^2 n)");
+}
+BENCHMARK(CheckTreeSortingPerLevelTheta)->Unit(benchmark::kMillisecond);
 
 // Holds, so no early exit at a witness: every family, every scale searched.
 void CheckMergeSortExplicitBound(benchmark::State& state) {

@@ -39,6 +39,7 @@ struct CheckArguments {
   std::string out;
   std::string seed = "1";
   std::optional<uint64_t> max_bits;
+  uint64_t effort = 1;
   std::string rounding;
   unsigned jobs = 1;
   bool list_families = false;
@@ -142,6 +143,7 @@ int run_check(const CheckArguments& args) {
     return kExitBadInput;
   }
   request.options.max_bits = args.max_bits;
+  request.options.effort = args.effort;
   if (args.rounding == "floor") request.options.rounding = Rounding::kFloor;
   if (args.rounding == "ceil") request.options.rounding = Rounding::kCeil;
   if (args.rounding == "both") request.options.rounding = Rounding::kBoth;
@@ -220,6 +222,10 @@ int main(int argc, char** argv) {
   check_command->add_option("--seed", check.seed, "seed for random sizes: a number, or 'random'");
   check_command->add_option("--max-bits", check.max_bits, "largest size in bits (default 4096)")
       ->check(CLI::Range(1, 65536));
+  check_command->add_option("--effort", check.effort,
+                            "search work per claim, a multiple of the default (about 0.2 s of one "
+                            "core): 10 or 100 for deeper nightly runs")
+      ->check(CLI::Range(1, 10000));
   check_command->add_option("--claim", check.claims, "check only the claim with this name (repeatable)");
   check_command->add_option("--rounding", check.rounding,
                             "read n/b inside T(...) as floor, ceil, or both (overrides claims)")

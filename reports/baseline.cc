@@ -121,9 +121,12 @@ class ReportReader {
     }
     RunResult run;
     run.seed = unsigned_at(root, "", "seed");
-    // Not in every schema-1 report: --max-bits, for replay commands.
+    // Only when given: --max-bits and --effort, for replay commands.
     if (const Json* max_bits = optional_key(root, "max_bits"); max_bits && !max_bits->is_null()) {
       run.max_bits = unsigned_value(*max_bits, "max_bits");
+    }
+    if (const Json* effort = optional_key(root, "effort"); effort && !effort->is_null()) {
+      run.effort = unsigned_value(*effort, "effort");
     }
     const Json& claims = require(root, "", "claims");
     expect_array(claims, "claims");

@@ -87,6 +87,9 @@ std::string render_json(const RunResult& run) {
   Json j;
   j["schema_version"] = kJsonSchemaVersion;
   j["seed"] = run.seed;
+  // The options a replay needs besides the seed, when they were given.
+  if (run.max_bits) j["max_bits"] = *run.max_bits;
+  if (run.effort) j["effort"] = *run.effort;
   j["claims"] = Json::array();
   for (const ClaimResult& c : run.claims) j["claims"].push_back(claim_json(c));
   return j.dump(2, ' ', false, Json::error_handler_t::replace) + "\n";

@@ -203,11 +203,18 @@ std::string shell_quote(const std::string& word) {
   return quoted + "'";
 }
 
+// The options that make a run choose the same sizes again.
+std::string replay_options(const RunResult& run) {
+  std::string options = "--seed " + std::to_string(run.seed);
+  if (run.max_bits) options += " --max-bits " + std::to_string(*run.max_bits);
+  if (run.effort) options += " --effort " + std::to_string(*run.effort);
+  return options;
+}
+
 // A command that checks this claim again with the same sizes.
 std::string replay_command(const RunResult& run, const ClaimResult& c) {
-  std::string command = "thetagate check " + shell_quote(c.file) + " --seed " + std::to_string(run.seed);
-  if (run.max_bits) command += " --max-bits " + std::to_string(*run.max_bits);
-  return command + " --claim " + shell_quote(c.name);
+  return "thetagate check " + shell_quote(c.file) + " " + replay_options(run) + " --claim " +
+         shell_quote(c.name);
 }
 
 void append_detail(std::string& out, const RunResult& run, const ClaimResult& c,
@@ -249,7 +256,7 @@ std::string summary_line(const RunResult& run) {
 std::string render_text(const RunResult& run, const TextStyle& style) {
   Painter painter(style);
   std::string out = painter.dim(
-      fmt::format("seed {} (rerun with --seed {} to replay this run)", run.seed, run.seed));
+      fmt::format("seed {} (rerun with {} to replay this run)", run.seed, replay_options(run)));
   out += "\n\n";
   int name_column = 0;
   for (const ClaimResult& c : run.claims) {

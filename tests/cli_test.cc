@@ -151,6 +151,36 @@ TEST_F(Cli, MissingPathIsUsageError) {
   EXPECT_NE(r.out.find("/nonexistent/claims.toml"), std::string::npos) << r.out;
 }
 
+TEST_F(Cli, EffortBuysReachAndIsPartOfTheReplay) {
+  // Two terms whose floors never collapse: each larger size costs more
+  // subproblems, so the work budget, not --max-bits, sets the reach.
+  std::string file = write_file("select.toml", R"toml([[claim]]
+name = "select"
+recurrence = """
+T(n) = 1 if n <= 4
+T(n) = T(n/5) + T(7n/10) + n
+"""
+bound = "Theta(n)"
+)toml");
+  CommandResult base = run("check --max-bits 256 --format json " + file);
+  CommandResult deep = run("check --max-bits 256 --effort 4 --format json " + file);
+  ASSERT_EQ(base.status, 0) << base.out;
+  ASSERT_EQ(deep.status, 0) << deep.out;
+  auto b = nlohmann::json::parse(base.out);
+  auto d = nlohmann::json::parse(deep.out);
+  EXPECT_FALSE(b.contains("effort"));
+  EXPECT_EQ(b["max_bits"], 256);
+  EXPECT_EQ(d["effort"], 4);
+  EXPECT_GT(d["claims"][0]["largest_bits"].get<int>(), b["claims"][0]["largest_bits"].get<int>());
+  EXPECT_GT(d["claims"][0]["sizes_checked"].get<int>(), b["claims"][0]["sizes_checked"].get<int>());
+
+  CommandResult text = run("check --max-bits 256 --effort 4 " + file);
+  EXPECT_NE(text.out.find("rerun with --seed 1 --max-bits 256 --effort 4 to replay"),
+            std::string::npos)
+      << text.out;
+  EXPECT_EQ(run("check --effort 0 " + file).status, 2);
+}
+
 TEST_F(Cli, SameSeedSameReportByteForByte) {
   std::string file = write_file("true.toml", kMergeSortTrue);
   CommandResult a = run("check --max-bits 128 --seed 42 --format json " + file);

@@ -24,6 +24,11 @@ const BigInt kSmallSize = 64;
 // A log2 ratio this close to 0 is checked exactly; farther away, the double
 // approximation (relative error ~1e-15) already decides the side.
 constexpr double kExactMargin = 1e-9;
+// Work units (CheckOptions::work_budget): a subproblem of b bits on the
+// integer kernel costs 1 + b/kWorkBitsUnit, on the general path
+// kGeneralPathStepWork times that.
+constexpr uint64_t kWorkBitsUnit = 2048;
+constexpr uint64_t kGeneralPathStepWork = 16;
 
 void collect_divisors(const Expr& e, std::set<BigInt>& out) {
   bool is_div = e.kind == ExprKind::kDiv;
@@ -101,6 +106,8 @@ struct Sample {
 // One side of a bound being hunted: the reference function (g, or an
 // explicit side) and what breaking it means.
 struct Target {
+  Target(Side s, const Expr* r, bool strict_side = false)
+      : side(s), reference(r), strict(strict_side) {}
   Side side;
   const Expr* reference;
   bool strict = false;
@@ -159,9 +166,21 @@ class ClaimCheck {
     return generate_sizes(plan);
   }
 
+  // The work of `steps` subproblems of about `bits` bits (the size's or the
+  // value's, whichever is larger: exponential recurrences have small n and
+  // huge values). Calibrated on time (bench/check_bench.cc): a step costs
+  // about the same up to a few thousand bits, memo traffic dominating the
+  // arithmetic; on the general path (intervals, logarithms) a step costs
+  // about 16 kernel steps.
+  uint64_t work_of(uint64_t steps, uint64_t bits) const {
+    uint64_t weight = evaluator_.uses_integer_kernel() ? 1 : kGeneralPathStepWork;
+    return steps * weight * (kWorkBitsUnit + bits) / kWorkBitsUnit;
+  }
+
   // The share of the work budget used so far.
   double work_used() const {
-    return static_cast<double>(work_) / static_cast<double>(std::max<uint64_t>(1, options_.work_budget));
+    uint64_t budget = options_.work_budget * std::max<uint64_t>(1, options_.effort);
+    return static_cast<double>(work_) / static_cast<double>(std::max<uint64_t>(1, budget));
   }
 
   // T(n), or nullopt when the budget ran out (the search stops there).
@@ -169,9 +188,8 @@ class ClaimCheck {
     try {
       uint64_t before = evaluator_.stats().steps;
       Value v = evaluator_.value_at(n);
-      // Exponential recurrences have small n and huge values: weigh by both.
-      uint64_t bits = std::max<uint64_t>(bit_length(n), v.magnitude_bits());
-      work_ += (evaluator_.stats().steps - before) * (1 + bits / 64);
+      work_ += work_of(evaluator_.stats().steps - before,
+                       std::max<uint64_t>(bit_length(n), v.magnitude_bits()));
       if (count) {
         ++result_.sizes_checked;
         result_.largest_bits = std::max<uint64_t>(result_.largest_bits, bit_length(n));

@@ -20,10 +20,15 @@ struct CheckOptions {
   BigInt exhaustive_limit = 10000;    // every n up to this is checked
   std::optional<Rounding> rounding;   // overrides every claim's `rounding`
   Budget budget = default_check_budget();
-  // Work per claim, in subproblem-limbs (a subproblem of a k-bit size
-  // counts 1 + k/64). Deterministic, unlike time: the sizes phase stops at
-  // 60% of it, local search at 85%, so a run replays exactly under any load.
-  uint64_t work_budget = 2'500'000;
+  // Work per claim, in subproblems weighted by their bits and by the
+  // evaluation path (checker.cc, work_of). Deterministic, unlike time: the
+  // sizes phase stops at 60% of it, local search at 85%, so a run replays
+  // exactly under any load. The default is about 200 ms on one core of the
+  // reference machine (DEVELOPERS.md); --effort multiplies it.
+  uint64_t work_budget = kDefaultWorkBudget;
+  static constexpr uint64_t kDefaultWorkBudget = 400'000;
+  // Multiplies work_budget (--effort): nightly runs search deeper.
+  uint64_t effort = 1;
 
   static Budget default_check_budget();
 };

@@ -67,6 +67,7 @@ struct ClaimResult {
 struct RunResult {
   uint64_t seed = 0;
   std::optional<uint64_t> max_bits;  // --max-bits, when given (for replay commands)
+  std::optional<uint64_t> effort;    // --effort, when not 1 (for replay commands)
   std::vector<ClaimResult> claims;
   bool any_refuted() const;
 };

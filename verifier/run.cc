@@ -96,6 +96,7 @@ RunResult run_check(const RunRequest& request) {
   RunResult run;
   run.seed = request.options.seed;
   run.max_bits = request.options.max_bits;
+  if (request.options.effort != 1) run.effort = request.options.effort;
   run.claims.resize(entries.size());
   std::atomic<size_t> next{0};
   std::mutex progress_lock;
