@@ -368,6 +368,20 @@ TEST(ParserDiagnostic, UnknownCharacter) {
             "  hint: use ( ) for grouping, floor(x) or \u230ax\u230b for rounding down");
 }
 
+TEST(ParserDiagnostic, ExclamationMarkIsReadAsFactorialAfterAnOperand) {
+  EXPECT_EQ(recurrence_error("T(n) = n T(n-1) + (n-1)!; T(0) = 1"),
+            "<recurrence>:1:24: error: unexpected character '!'\n"
+            "T(n) = n T(n-1) + (n-1)!; T(0) = 1\n"
+            "                       ^\n"
+            "  hint: there is no factorial; n! is itself the recurrence T(n) = n T(n-1), T(0) = 1, "
+            "or bound it, e.g. by n^n");
+  EXPECT_EQ(recurrence_error("T(n) = T(n/2) + 1 if !(n even)"),
+            "<recurrence>:1:22: error: unexpected character '!'\n"
+            "T(n) = T(n/2) + 1 if !(n even)\n"
+            "                     ^\n"
+            "  hint: write 'not' for negation, '!=' for inequality");
+}
+
 TEST(ParserDiagnostic, LogWithoutBase) {
   EXPECT_EQ(recurrence_error("T(n) = 2T(n/2) + n log n"),
             "<recurrence>:1:20: error: 'log' needs its base\n"

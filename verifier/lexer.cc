@@ -93,7 +93,18 @@ std::vector<Token> tokenize(const SourceText& source) {
     std::string bad = s.substr(i, len);
     std::string hint = "the language uses + - * / ^ ( ) , = == != < <= > >= and ⌊ ⌋ ⌈ ⌉ √";
     if (bad == "[" || bad == "{") hint = "use ( ) for grouping, floor(x) or ⌊x⌋ for rounding down";
-    if (bad == "!") hint = "write 'not' for negation, '!=' for inequality";
+    if (bad == "!") {
+      // After an operand ("n!", "(n-1)!") it is a factorial, not a negation.
+      const Token* last = tokens.empty() ? nullptr : &tokens.back();
+      bool keyword = last && (last->text == "if" || last->text == "and" || last->text == "or" ||
+                              last->text == "not" || last->text == "is");
+      bool after_operand = last && !keyword && (last->kind == TokenKind::kNumber ||
+                                                last->kind == TokenKind::kName ||
+                                                last->kind == TokenKind::kRightParen);
+      hint = after_operand ? "there is no factorial; n! is itself the recurrence "
+                             "T(n) = n T(n-1), T(0) = 1, or bound it, e.g. by n^n"
+                           : "write 'not' for negation, '!=' for inequality";
+    }
     if (bad == "&" || bad == "|") hint = "write 'and' / 'or' in conditions";
     fail_at(source, i, "unexpected character '" + bad + "'", hint);
   }
