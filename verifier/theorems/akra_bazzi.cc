@@ -176,7 +176,14 @@ TheoremOutcome akra_bazzi(const DerivationInput& input) {
       out.failure = "the integral of g(u)/u^(p+1) grows like lg lg lg n, outside the normal form";
       return out;
     }
-    out.steps.push_back("∫_1^n g(u)/u^(p+1) du = Θ(" + to_string(*integral) + ")");
+    std::string integral_text = to_string(*integral);
+    if (compare(g.alpha, p) > 0 && !p.is_rational()) {
+      // n^(α - p) first: its digits alone do not show where they come from.
+      GrowthClass logs = GrowthClass::polylog(RealNumber(), g.beta, g.gamma);
+      integral_text = "n^(" + g.alpha.str() + " - p)" + (logs.is_constant() ? "" : " " + to_string(logs)) +
+                      ") = Θ(" + integral_text;
+    }
+    out.steps.push_back("∫_1^n g(u)/u^(p+1) du = Θ(" + integral_text + ")");
     // For alpha > p the product n^p * n^(alpha - p) is g itself; building it
     // from the two would leave p + (1 - p) as an enclosure that never equals 1.
     result = compare(g.alpha, p) > 0 ? g : np.times(*integral);
