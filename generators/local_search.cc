@@ -12,9 +12,9 @@ class Climber {
  public:
   Climber(const BigInt& start, const SizeScore& score, const LocalSearchOptions& options)
       : score_(score), options_(options), k_(bit_length(start) - 1),
-        low_(BigInt(1) << k_), high_(low_ << 1), best_(start) {
-    best_value_ = evaluate(start);
-  }
+        low_(BigInt(1) << k_), high_(low_ << 1), best_(start) {}
+
+  void begin() { best_value_ = evaluate(best_); }
 
   // Moves to n if it is in scale and strictly better. Returns whether it moved.
   bool try_move(const BigInt& n) {
@@ -96,9 +96,14 @@ void kicks(Climber& c, uint64_t seed) {
 std::optional<LocalSearchResult> local_search(const BigInt& start, const SizeScore& score,
                                               const LocalSearchOptions& options) {
   Climber climber(start, score, options);
-  coarse_to_fine(climber);
-  fine(climber, options.max_step);
-  kicks(climber, options.seed);
+  try {
+    climber.begin();
+    coarse_to_fine(climber);
+    fine(climber, options.max_step);
+    kicks(climber, options.seed);
+  } catch (const StopSearch&) {
+    // The caller's work allowance is spent: the best so far stands.
+  }
   return climber.result();
 }
 

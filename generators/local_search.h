@@ -30,7 +30,10 @@ namespace thetagate {
 
 // The score of a size, or nullopt where it cannot be evaluated (outside the
 // recurrence's domain, over budget). Called at most max_evaluations times.
+// It may throw StopSearch when the caller's work allowance is spent: the
+// search ends there and keeps its best size.
 using SizeScore = std::function<std::optional<double>(const BigInt&)>;
+struct StopSearch {};
 
 struct LocalSearchOptions {
   uint64_t seed = 0;

@@ -278,6 +278,29 @@ TEST(WitnessHunt, MergeSortBoundsNearThePeakFromTwoToTheForty) {
   EXPECT_EQ(bit_length(w.n), 41u) << w.n;
 }
 
+// Far out and close to the peak: the gap (W(n) − n lg n)/n peaks at
+// −lg(ln 2) − 1/ln 2 = −0.9139286679… [calc: with n = x·2^⌈lg n⌉ the gap is
+// −lg x − 1/x + 1/n, largest at x = ln 2], so a constant 3.2·10^-8 past it
+// fails only where |x − ln 2| < about 1.5·10^-4: the default search, with
+// no family below 10^30, must close in on that window.
+TEST(WitnessHunt, MergeSortBoundsNearThePeakBeyondTenToTheThirty) {
+  const BigInt n0 = boost::multiprecision::pow(BigInt(10), 30);
+  ClaimResult holds = check_one(
+      claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139286 n for n >= 10^30"), CheckOptions{});
+  EXPECT_EQ(holds.verdict, Verdict::kHolds) << holds.message;
+
+  ClaimResult r = check_one(
+      claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139287 n for n >= 10^30"), CheckOptions{});
+  ASSERT_EQ(r.verdict, Verdict::kRefuted) << r.message;
+  ASSERT_EQ(r.witnesses.size(), 1u);
+  const Witness& w = r.witnesses.front();
+  EXPECT_GE(w.n, n0);
+  EXPECT_EQ(w.value, merge_sort_worst(w.n).str());
+  // W(n) + 0.9139287 n > n lg n, exactly (the bound has no "+ 1" here).
+  BigInt x = BigInt(10000000) * merge_sort_worst(w.n) + BigInt(9139287) * w.n;
+  EXPECT_GT(sign_minus_k_n_lg_n(x, 10000000, w.n), 0) << w.n << ", family " << w.family;
+}
+
 // The ratio band of the holding bound: at every scale >= 20 bits the band's
 // top must be attained at a size whose gap (W(n) − n lg n − 1)/n is within
 // 10^-4 of the peak −0.913928667944… (issue 4 §3). For this bound the

@@ -1,6 +1,9 @@
 #include "verifier/approximate.h"
 
 #include <cmath>
+#include <string>
+#include <utility>
+#include <vector>
 
 namespace thetagate {
 
@@ -141,7 +144,155 @@ std::optional<Approx> eval(const Expr& e, int64_t n) {
   }
 }
 
+// A real number as its sign and log2 of its magnitude: products and powers
+// of sizes with thousands of bits stay small numbers.
+struct LogApprox {
+  int sign = 0;       // -1, 0, +1
+  double log2 = 0;    // log2 |value|; unused when sign == 0
+};
+
+// Below this magnitude a value is also used as a plain double (an exponent,
+// an argument of lg).
+constexpr double kPlainLog2Limit = 1000;
+// A difference whose result is this much smaller than its larger term has
+// lost too many digits to promise 1e-12 in log2.
+constexpr double kCancellationLog2 = -20;
+
+LogApprox from_double(double v) {
+  if (v == 0) return {0, 0};
+  return {v < 0 ? -1 : 1, std::log2(std::fabs(v))};
+}
+
+std::optional<double> plain(const LogApprox& x) {
+  if (x.sign == 0) return 0.0;
+  if (x.log2 > kPlainLog2Limit) return std::nullopt;
+  return x.sign * std::exp2(x.log2);
+}
+
+std::optional<LogApprox> log_eval(const Expr& e, const BigInt& n, double log2_n);
+
+std::optional<LogApprox> log_sum(LogApprox a, LogApprox b) {
+  if (a.sign == 0) return b;
+  if (b.sign == 0) return a;
+  if (a.log2 < b.log2) std::swap(a, b);
+  double d = b.log2 - a.log2;  // <= 0
+  if (a.sign == b.sign) return LogApprox{a.sign, a.log2 + std::log2(1 + std::exp2(d))};
+  double rest = 1 - std::exp2(d);
+  if (rest <= 0 || std::log2(rest) < kCancellationLog2) return std::nullopt;
+  return LogApprox{a.sign, a.log2 + std::log2(rest)};
+}
+
+std::optional<LogApprox> log_call(const Expr& e, const BigInt& n, double log2_n) {
+  const std::string& f = e.name;
+  std::vector<LogApprox> args;
+  for (const auto& a : e.args) {
+    auto v = log_eval(*a, n, log2_n);
+    if (!v) return std::nullopt;
+    args.push_back(*v);
+  }
+  if (f == "floor" || f == "ceil") {
+    // A large value moves by less than one unit in 2^-40 of itself.
+    if (args[0].sign != 0 && args[0].log2 > 40) return args[0];
+    auto v = plain(args[0]);
+    if (!v) return std::nullopt;
+    double nearest = std::round(*v);
+    if (std::fabs(*v - nearest) <= 1e-6 * std::max(1.0, std::fabs(*v))) return std::nullopt;
+    return from_double(f == "ceil" ? std::ceil(*v) : std::floor(*v));
+  }
+  if (f == "lg" || f == "log2") {
+    if (args[0].sign <= 0) return std::nullopt;
+    return from_double(args[0].log2);
+  }
+  if (f == "ln") {
+    if (args[0].sign <= 0) return std::nullopt;
+    return from_double(args[0].log2 * std::log(2.0));
+  }
+  if (f == "log") {
+    if (args[0].sign <= 0 || args[1].sign <= 0 || args[0].log2 == 0) return std::nullopt;
+    return from_double(args[1].log2 / args[0].log2);
+  }
+  if (f == "sqrt") {
+    if (args[0].sign < 0) return std::nullopt;
+    return args[0].sign == 0 ? args[0] : LogApprox{1, args[0].log2 / 2};
+  }
+  if (f == "min" || f == "max") {
+    auto order = [](const LogApprox& a, const LogApprox& b) {  // a < b
+      if (a.sign != b.sign) return a.sign < b.sign;
+      return a.sign > 0 ? a.log2 < b.log2 : a.sign < 0 && a.log2 > b.log2;
+    };
+    LogApprox best = args[0];
+    for (const LogApprox& a : args) {
+      if (f == "min" ? order(a, best) : order(best, a)) best = a;
+    }
+    return best;
+  }
+  return std::nullopt;  // mod needs the exact value; the recurrence; helpers
+}
+
+std::optional<LogApprox> log_eval(const Expr& e, const BigInt& n, double log2_n) {
+  std::optional<LogApprox> a, b;
+  if (e.kind >= ExprKind::kAdd && e.kind <= ExprKind::kDiv) {
+    a = log_eval(*e.args[0], n, log2_n);
+    b = log_eval(*e.args[1], n, log2_n);
+    if (!a || !b) return std::nullopt;
+  }
+  switch (e.kind) {
+    case ExprKind::kNumber:
+      return from_double(e.number.convert_to<double>());
+    case ExprKind::kVariable:
+      return n == 0 ? LogApprox{0, 0} : LogApprox{1, log2_n};
+    case ExprKind::kAdd:
+      return log_sum(*a, *b);
+    case ExprKind::kSub:
+      return log_sum(*a, LogApprox{-b->sign, b->log2});
+    case ExprKind::kMul:
+      if (a->sign == 0 || b->sign == 0) return LogApprox{0, 0};
+      return LogApprox{a->sign * b->sign, a->log2 + b->log2};
+    case ExprKind::kDiv:
+      if (b->sign == 0) return std::nullopt;
+      if (a->sign == 0) return LogApprox{0, 0};
+      return LogApprox{a->sign * b->sign, a->log2 - b->log2};
+    case ExprKind::kPow: {
+      auto base = log_eval(*e.args[0], n, log2_n);
+      auto exponent = log_eval(*e.args[1], n, log2_n);
+      if (!base || !exponent) return std::nullopt;
+      auto y = plain(*exponent);
+      if (!y) return std::nullopt;
+      if (base->sign == 0) return *y > 0 ? std::optional<LogApprox>(LogApprox{0, 0}) : std::nullopt;
+      if (base->sign < 0) {
+        // Only whole exponents of negative bases are real.
+        if (*y != std::floor(*y) || std::fabs(*y) > 1e15) return std::nullopt;
+        bool odd = std::fmod(std::fabs(*y), 2.0) == 1.0;
+        return LogApprox{odd ? -1 : 1, base->log2 * *y};
+      }
+      return LogApprox{1, base->log2 * *y};
+    }
+    case ExprKind::kNeg: {
+      auto x = log_eval(*e.args[0], n, log2_n);
+      if (!x) return std::nullopt;
+      return LogApprox{-x->sign, x->log2};
+    }
+    case ExprKind::kCall:
+      return log_call(e, n, log2_n);
+    default:
+      return std::nullopt;
+  }
+}
+
 }  // namespace
+
+std::optional<double> approximate_log2(const Expr& e, const BigInt& n) {
+  if (n < 0) return std::nullopt;
+  double log2_n = 0;
+  if (n > 0) {
+    long exponent = 0;
+    double mantissa = mpz_get_d_2exp(&exponent, n.backend().data());
+    log2_n = std::log2(mantissa) + static_cast<double>(exponent);
+  }
+  auto a = log_eval(e, n, log2_n);
+  if (!a || a->sign <= 0 || !std::isfinite(a->log2)) return std::nullopt;
+  return a->log2;
+}
 
 std::optional<double> approximate(const Expr& e, int64_t n) {
   if (n < 0 || n >= (int64_t{1} << 50)) return std::nullopt;

@@ -9,6 +9,7 @@
 #include <optional>
 
 #include "verifier/expr.h"
+#include "verifier/number.h"
 
 namespace thetagate {
 
@@ -17,6 +18,13 @@ namespace thetagate {
 // ceiling of an irrational value close to a whole number, mod of
 // non-integers, a domain error, or a result that is not finite.
 std::optional<double> approximate(const Expr& e, int64_t n);
+
+// log2 e(n) for any n, computed on logarithms (sign and log2 of the
+// magnitude), so sizes of thousands of bits cost no big arithmetic. Accurate
+// to about 1e-12 in log2, or nullopt where that cannot be promised: e(n) not
+// positive, a difference of nearly equal terms, mod, a floor or ceiling of a
+// small irrational value, calls other than builtins, or a domain error.
+std::optional<double> approximate_log2(const Expr& e, const BigInt& n);
 
 }  // namespace thetagate
 

@@ -1,8 +1,10 @@
 #include "verifier/checker.h"
 
+#include <algorithm>
 #include <cmath>
 #include <map>
 #include <set>
+#include <unordered_map>
 
 #include <fmt/format.h>
 
@@ -27,7 +29,7 @@ constexpr double kExactMargin = 1e-9;
 // Work units (CheckOptions::work_budget): a subproblem of b bits on the
 // integer kernel costs 1 + b/kWorkBitsUnit, on the general path
 // kGeneralPathStepWork times that.
-constexpr uint64_t kWorkBitsUnit = 2048;
+constexpr uint64_t kWorkBitsUnit = 8192;
 constexpr uint64_t kGeneralPathStepWork = 16;
 
 void collect_divisors(const Expr& e, std::set<BigInt>& out) {
@@ -177,10 +179,24 @@ class ClaimCheck {
     return steps * weight * (kWorkBitsUnit + bits) / kWorkBitsUnit;
   }
 
+  uint64_t work_budget() const {
+    return std::max<uint64_t>(1, options_.work_budget * std::max<uint64_t>(1, options_.effort));
+  }
+
   // The share of the work budget used so far.
   double work_used() const {
-    uint64_t budget = options_.work_budget * std::max<uint64_t>(1, options_.effort);
-    return static_cast<double>(work_) / static_cast<double>(std::max<uint64_t>(1, budget));
+    return static_cast<double>(work_) / static_cast<double>(work_budget());
+  }
+
+  // Local search for every target, each with an equal share of the work
+  // left below 85% of the budget.
+  void search_targets(std::vector<Target>& targets, bool is_explicit) {
+    uint64_t end = work_budget() / 100 * 85;
+    for (size_t i = 0; i < targets.size(); ++i) {
+      uint64_t share = work_ < end ? (end - work_) / (targets.size() - i) : 0;
+      search_locally(targets[i], is_explicit, work_ + share);
+      if (is_explicit && targets[i].violation) shrink(targets[i]);
+    }
   }
 
   // T(n), or nullopt when the budget ran out (the search stops there).
@@ -194,6 +210,7 @@ class ClaimCheck {
         ++result_.sizes_checked;
         result_.largest_bits = std::max<uint64_t>(result_.largest_bits, bit_length(n));
       }
+      values_.try_emplace(n, v);
       return v;
     } catch (const BudgetExceeded& e) {
       if (stopped_.empty()) {
@@ -202,6 +219,26 @@ class ClaimCheck {
       }
       return std::nullopt;
     }
+  }
+
+  // The rows a trend may be read through: scales the size families
+  // covered, with at least three samples. Where the families stopped, and
+  // in the scales c·2^k spills into, a row holds one or two shapes (often
+  // only even sizes), and its edges would bend the trend.
+  std::vector<BandRow> complete_scales(const std::vector<BandRow>& rows) const {
+    std::vector<BandRow> out;
+    for (const BandRow& row : rows) {
+      if ((!partial_scale_ || row.scale < *partial_scale_) && row.samples >= 3) out.push_back(row);
+    }
+    return out;
+  }
+
+  // T(n) for a size evaluated before. Kept here because the evaluator's
+  // memo may have been cleared since, and one large size alone can need
+  // more subproblems than the per-size limit allows.
+  Value known_value(const BigInt& n) {
+    auto it = values_.find(n);
+    return it != values_.end() ? it->second : evaluator_.value_at(n);
   }
 
   // -1, 0, +1, or nullopt when even the highest precision cannot decide.
@@ -222,10 +259,15 @@ class ClaimCheck {
     // Small sizes: a double evaluation of the reference is enough for the
     // band and is much cheaper than intervals; its sign must be clearly
     // positive, else the exact route below decides.
+    // Larger sizes: the same on logarithms (error about 1e-12 in log2,
+    // far inside kExactMargin).
     if (bit_length(n) < 50) {
       std::optional<double> g = approximate(*target.reference, static_cast<int64_t>(n));
       int t_sign = sign_of(t);
       if (g && *g > 0 && t_sign > 0) return t.log2_magnitude() - std::log2(*g);
+    } else if (std::optional<double> lg = approximate_log2(*target.reference, n);
+               lg && sign_of(t) > 0) {
+      return t.log2_magnitude() - *lg;
     }
     std::optional<Value> r;
     try {
@@ -278,10 +320,14 @@ class ClaimCheck {
           stopped_ = fmt::format("the search stopped before n = {}: 60% of the work budget "
                                  "went to the size families", short_number(size.n));
         }
+        partial_scale_ = bit_length(size.n) - 1;
         break;
       }
       std::optional<Value> t = value_at(size.n, true);
-      if (!t) break;
+      if (!t) {
+        partial_scale_ = bit_length(size.n) - 1;
+        break;
+      }
       bool all_done = true;
       for (Target& target : targets) {
         if (target.violation) continue;
@@ -301,14 +347,20 @@ class ClaimCheck {
   }
 
   // Pushes each scale's band edge outward by local search from its extreme
-  // sample; returns sizes whose score improved.
-  void search_locally(Target& target, bool is_explicit) {
+  // sample, until the work reaches work_end. Each scale gets an equal share
+  // of what is left when it starts, so cheap scales pass their work on.
+  void search_locally(Target& target, bool is_explicit, uint64_t work_end) {
     std::vector<BandRow> rows = target.band.rows();
     LocalSearchOptions options;
     options.seed = options_.seed;
     options.maximise = target.side == Side::kUpper;
+    // Enough for coarse-to-fine moves to close in on a window a few parts
+    // per million wide; the work share usually ends a scale first.
+    options.max_evaluations = 96;
     bool upper = target.side == Side::kUpper;
+    std::optional<uint64_t> scale_end;  // set while local_search runs
     SizeScore score = [&](const BigInt& n) -> std::optional<double> {
+      if (scale_end && work_ >= *scale_end) throw StopSearch{};
       if (n < min_n_) return std::nullopt;
       std::optional<Value> t = value_at(n, false);
       if (!t) return std::nullopt;
@@ -327,16 +379,24 @@ class ClaimCheck {
     // relative to 2^k on every scale.
     std::optional<BigInt> carried;
     uint64_t carried_scale = 0;
+    // Scales below 14 bits are covered by the exhaustive range.
+    size_t scales_left = static_cast<size_t>(std::count_if(
+        rows.begin(), rows.end(), [&](const BandRow& r) { return r.scale >= 14 && r.scale < below; }));
+    bool searching = true;
     for (const BandRow& row : rows) {
       if (row.scale >= below) return;
-      if (row.scale < 14) continue;  // the exhaustive range covers these
-      if (work_used() > 0.85) {
+      if (row.scale < 14) continue;
+      // Past the search's share, each scale still gets its carried size: one
+      // evaluation, and what keeps the high scales near the extreme. Only
+      // the whole budget ends that.
+      if (work_ >= work_budget()) return;
+      if (searching && work_ >= work_end) {
         result_.notes.push_back(fmt::format("local search stopped at {} bits: work budget",
                                             row.scale + 1));
-        return;
+        searching = false;
       }
-      // Cost per evaluation grows with the size's bits: ration the work.
-      options.max_evaluations = std::clamp<uint64_t>(1024 / (row.scale + 1), 4, 48);
+      uint64_t share = searching ? (work_end - work_) / scales_left : 0;
+      --scales_left;
       BigInt start = upper ? row.high_at : row.low_at;
       double start_score = upper ? row.high_log2 : row.low_log2;
       if (carried) {
@@ -348,7 +408,12 @@ class ClaimCheck {
           target.band.add(shifted, *s);
         }
       }
-      std::optional<LocalSearchResult> found = local_search(start, score, options);
+      std::optional<LocalSearchResult> found;
+      if (searching) {
+        scale_end = work_ + share;
+        found = local_search(start, score, options);
+        scale_end.reset();
+      }
       bool better = found && (upper ? found->score > start_score : found->score < start_score);
       BigInt best = better ? found->n : start;
       double best_score = better ? found->score : start_score;
@@ -400,7 +465,7 @@ class ClaimCheck {
     Witness w;
     w.n = s.n;
     w.side = target.side;
-    Value t = evaluator_.value_at(s.n);
+    Value t = known_value(s.n);
     w.value = t.str();
     if (factor.empty()) {
       Value r = evaluator_.evaluate(*target.reference, claim_.bound.source, s.n);
@@ -422,13 +487,10 @@ class ClaimCheck {
     if (bound.upper) targets.push_back({Side::kUpper, bound.upper.get(), bound.strict_upper});
     if (bound.lower) targets.push_back({Side::kLower, bound.lower.get(), bound.strict_lower});
     sample_sizes(sizes, targets, true);
-    for (Target& target : targets) {
-      // A family member may land in a narrow window at a high scale while
-      // lower scales have windows of their own: search those first, so the
-      // witness is the smallest scale's, then shrink within it.
-      search_locally(target, true);
-      if (target.violation) shrink(target);
-    }
+    // A family member may land in a narrow window at a high scale while
+    // lower scales have windows of their own: search those first, so the
+    // witness is the smallest scale's, then shrink within it.
+    search_targets(targets, true);
     result_.band = targets.front().band.rows();
     if (result_.method.empty()) result_.method = "exact evaluation";
     for (const Target& target : targets) {
@@ -523,13 +585,13 @@ class ClaimCheck {
     if (!derivation_->growth) return "";
     BandBuilder band;
     for (const Sample& s : samples) {
-      Value t = evaluator_.value_at(s.n);
+      Value t = known_value(s.n);
       std::optional<double> lg = log2_of_class(*derivation_->growth, s.n);
       if (!lg || sign_of(t) <= 0) continue;
       band.add(s.n, t.log2_magnitude() - *lg);
     }
     if (band.empty()) return "";
-    TrendReading trend = read_trend(band.rows());
+    TrendReading trend = read_trend(complete_scales(band.rows()));
     std::vector<std::string> drift;
     for (const auto& [edge, name] : {std::pair{trend.high, "upper"}, std::pair{trend.low, "lower"}}) {
       if (edge.drift == Drift::kEscapes || ((edge.drift == Drift::kRising || edge.drift == Drift::kFalling) &&
@@ -553,7 +615,7 @@ class ClaimCheck {
       targets.push_back({Side::kLower, bound.growth.get()});
     }
     sample_sizes(sizes, targets, false);
-    for (Target& target : targets) search_locally(target, false);
+    search_targets(targets, false);
     // One band for the report: both sides saw the same sizes.
     BandBuilder merged;
     for (const Target& target : targets) {
@@ -598,7 +660,7 @@ class ClaimCheck {
     BoundKind kind = claim_.bound.kind;
     bool upper_matters = kind == BoundKind::kTheta || kind == BoundKind::kBigO;
     bool lower_matters = kind == BoundKind::kTheta || kind == BoundKind::kOmega;
-    TrendReading trend = read_trend(result_.band);
+    TrendReading trend = read_trend(complete_scales(result_.band));
     result_.method = "numeric";
     result_.numeric_only = true;
 
@@ -645,6 +707,8 @@ class ClaimCheck {
   Evaluator evaluator_;
   ExprPtr t_of_n_;
   uint64_t work_ = 0;
+  std::optional<uint64_t> partial_scale_;  // where the size families stopped, if they did
+  std::unordered_map<BigInt, Value, BigIntHash> values_;  // every T(n) value_at() gave
   std::optional<Derivation> derivation_;
   BigInt min_n_ = 1;
   std::string stopped_;
