@@ -40,6 +40,17 @@ TEST(DeriveMaster, CaseOneWithLogExponent) {
   EXPECT_EQ(d.method, "master theorem, case 1");
 }
 
+TEST(DeriveMaster, ZeroDrivingFunctionCostsOnlyTheLeaves) {
+  // Common practice: with f = 0, T(n) = a^(log_b n) T(1) = Θ(n^(log_b a)).
+  Derivation d = derived("T(n) = 3T(ceil(n/2)); T(1) = 1");
+  EXPECT_EQ(d.derived, "n^(lg 3)");
+  EXPECT_EQ(d.method, "master theorem, case 1");
+  std::string steps;
+  for (const auto& s : d.steps) steps += s + "\n";
+  EXPECT_NE(steps.find("f(n) = 0: only the n^p leaves cost"), std::string::npos) << steps;
+  EXPECT_EQ(steps.find("ε"), std::string::npos) << "f = 0 has no ε to speak of:\n" << steps;
+}
+
 TEST(DeriveMaster, CaseThreeWithRegularity) {
   Derivation d = derived("T(n) = 3T(n/4) + n lg n; T(1) = 1");
   EXPECT_EQ(d.derived, "n lg n") << reasons(d);

@@ -166,7 +166,9 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
   if (input.driving.zero) {
     out = master_on_class(t.a, divisor, GrowthClass::polylog(-1), "0");
     if (out.applies()) {
-      out.steps[1] = "f(n) = 0: only the leaves cost, case 1";
+      // Derived through f = Θ(1/n), whose steps speak of an ε that f = 0
+      // does not have: keep p and the conclusion only.
+      out.steps = {out.steps.front(), "f(n) = 0: only the n^p leaves cost, case 1", out.steps.back()};
       out.method = "master theorem, case 1";
     }
   } else if (input.driving.growth) {
