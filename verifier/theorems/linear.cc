@@ -95,8 +95,9 @@ TheoremOutcome linear_recurrence(const DerivationInput& input) {
     }
     long degree = static_cast<long>(numerator(input.driving.growth->alpha.rational()));
     for (long i = 0; i <= degree; ++i) full = full * Polynomial({Rational(-1), Rational(1)});
-    out.steps.push_back("the polynomial driving function of degree " + std::to_string(degree) + " adds the root 1 " +
-                        std::to_string(degree + 1) + " times: " + full.str());
+    std::string times = degree == 0 ? "once" : degree == 1 ? "twice" : std::to_string(degree + 1) + " times";
+    out.steps.push_back("the polynomial driving function of degree " + std::to_string(degree) +
+                        " adds the root 1 " + times + ": " + full.str());
   }
   // The recurrence holds from the first n above every base case; starting
   // later is always safe.
@@ -189,7 +190,9 @@ TheoremOutcome linear_recurrence(const DerivationInput& input) {
     out.failure = "roots of the same modulus as " + r.str() + " oscillate with at least its multiplicity";
     return out;
   }
-  out.steps.push_back("dominant root r = " + r.str() + (r.is_rational() ? "" : " = " + r.digits()) +
+  // Digits only when r has a closed form of its own: "1 + sqrt(2) = 2.414214…".
+  bool closed_form = !r.is_rational() && r.str() != r.digits();
+  out.steps.push_back("dominant root r = " + r.str() + (closed_form ? " = " + r.digits() : "") +
                       " (certified by Sturm's theorem), multiplicity " + std::to_string(multiplicity) +
                       "; every other root has smaller modulus (numerically)");
   try {
