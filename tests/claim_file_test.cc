@@ -35,7 +35,8 @@ TEST(ClaimFile, TwoGoodClaimsLoadWithTheirLines) {
       "[claim.sizes]\n"
       "max_bits = 64\n"
       "families = [\"powers\", \"random\"]\n"
-      "min_n = \"2^4\"\n",
+      "min_n = \"2^4\"\n"
+      "effort = 3\n",
       "mem.toml");
   ASSERT_EQ(entries.size(), 2u);
   for (const ClaimEntry& e : entries) ASSERT_FALSE(e.error) << error_text(e);
@@ -48,6 +49,7 @@ TEST(ClaimFile, TwoGoodClaimsLoadWithTheirLines) {
   EXPECT_EQ(first.bound.kind, BoundKind::kTheta);
   EXPECT_EQ(first.recurrence->main.name, "T");
   EXPECT_FALSE(first.sizes.max_bits);
+  EXPECT_EQ(first.sizes.effort, 1u);
   EXPECT_TRUE(first.note.empty());
 
   const Claim& second = *entries[1].claim;
@@ -57,6 +59,7 @@ TEST(ClaimFile, TwoGoodClaimsLoadWithTheirLines) {
   EXPECT_EQ(second.sizes.max_bits, std::optional<uint64_t>(64));
   EXPECT_EQ(second.sizes.families, (std::vector<std::string>{"powers", "random"}));
   EXPECT_EQ(second.sizes.min_n, std::optional<BigInt>(16));
+  EXPECT_EQ(second.sizes.effort, 3u);
   // The recurrence text keeps its place in the file: its first byte is the
   // start of line 10 (TOML drops the line break after the opening quotes).
   Location at = second.recurrence->source.locate(0);
@@ -95,7 +98,7 @@ TEST(ClaimFile, UnknownKeyInSizes) {
             "mem.toml:5:26: error: unknown key 'maxbit' in sizes\n"
             "sizes = { max_bits = 64, maxbit = 10 }\n"
             "                         ^\n"
-            "  hint: did you mean 'max_bits'? allowed keys: max_bits, families, min_n");
+            "  hint: did you mean 'max_bits'? allowed keys: max_bits, families, min_n, effort");
 }
 
 TEST(ClaimFile, UnknownTopLevelKeyIsAnEntryOfItsOwn) {
@@ -138,6 +141,22 @@ TEST(ClaimFile, DuplicateNameIsAnErrorAtTheSecondClaim) {
             "         ^\n"
             "  hint: names identify claims in reports; make each one unique, e.g. add the case "
             "measured");
+}
+
+TEST(ClaimFile, EffortOutOfRangeIsLocated) {
+  auto entries = load_claim_text(
+      "[[claim]]\n"
+      "name = \"a\"\n"
+      "recurrence = \"T(n) = 2T(n/2) + n\"\n"
+      "bound = \"Theta(n lg n)\"\n"
+      "sizes = { effort = 0 }\n",
+      "mem.toml");
+  ASSERT_EQ(entries.size(), 1u);
+  EXPECT_EQ(error_text(entries[0]),
+            "mem.toml:5:20: error: 'effort' must be between 1 and 10000, found 0\n"
+            "sizes = { effort = 0 }\n"
+            "                   ^\n"
+            "  hint: the default is 1, about 0.2 s of search per claim");
 }
 
 TEST(ClaimFile, WrongTypeNamesTheKeyAndTheExpectedType) {

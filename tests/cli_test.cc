@@ -179,6 +179,20 @@ bound = "Theta(n)"
             std::string::npos)
       << text.out;
   EXPECT_EQ(run("check --effort 0 " + file).status, 2);
+
+  // The claim's own effort multiplies the same budget.
+  std::string own = write_file("select-own.toml", R"toml([[claim]]
+name = "select"
+recurrence = """
+T(n) = 1 if n <= 4
+T(n) = T(n/5) + T(7n/10) + n
+"""
+bound = "Theta(n)"
+sizes = { effort = 4 }
+)toml");
+  auto o = nlohmann::json::parse(run("check --max-bits 256 --format json " + own).out);
+  EXPECT_EQ(o["claims"][0]["largest_bits"], d["claims"][0]["largest_bits"]);
+  EXPECT_EQ(o["claims"][0]["sizes_checked"], d["claims"][0]["sizes_checked"]);
 }
 
 TEST_F(Cli, SameSeedSameReportByteForByte) {

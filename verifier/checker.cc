@@ -179,8 +179,10 @@ class ClaimCheck {
     return steps * weight * (kWorkBitsUnit + bits) / kWorkBitsUnit;
   }
 
+  // The default budget times --effort times the claim's own `effort`.
   uint64_t work_budget() const {
-    return std::max<uint64_t>(1, options_.work_budget * std::max<uint64_t>(1, options_.effort));
+    uint64_t effort = std::max<uint64_t>(1, options_.effort) * std::max<uint64_t>(1, claim_.sizes.effort);
+    return std::max<uint64_t>(1, options_.work_budget * effort);
   }
 
   // The share of the work budget used so far.

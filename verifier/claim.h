@@ -18,6 +18,7 @@ struct SizeOptions {
   std::optional<uint64_t> max_bits;    // largest size, in bits
   std::vector<std::string> families;   // names of size families; empty = all
   std::optional<BigInt> min_n;         // smallest size checked
+  uint64_t effort = 1;                 // search work, a multiple of the default (times --effort)
 };
 
 // How a quotient inside T(...) that is not a whole number is read: as its

@@ -25,8 +25,9 @@ namespace {
 const std::vector<std::string> kTopLevelKeys = {"claim"};
 const std::vector<std::string> kClaimKeys = {"name", "recurrence", "bound", "note", "sizes",
                                              "rounding"};
-const std::vector<std::string> kSizeKeys = {"max_bits", "families", "min_n"};
+const std::vector<std::string> kSizeKeys = {"max_bits", "families", "min_n", "effort"};
 constexpr int64_t kMaxBitsLimit = 65536;
+constexpr int64_t kMaxEffort = 10000;  // as --effort
 
 std::string lower(std::string s) {
   for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
@@ -257,6 +258,21 @@ void ClaimFileReader::read_sizes(const toml::node& node, SizeOptions& sizes) con
            "the default is 4096 bits");
     }
     sizes.max_bits = static_cast<uint64_t>(i->get());
+  }
+  if (const toml::node* effort = t->get("effort")) {
+    const auto* i = effort->as_integer();
+    if (!i) {
+      fail(effort->source().begin,
+           "'effort' must be an integer, found " + type_with_article(effort->type()),
+           "write effort = 10: ten times the default search work for this claim");
+    }
+    if (i->get() < 1 || i->get() > kMaxEffort) {
+      fail(effort->source().begin,
+           "'effort' must be between 1 and " + std::to_string(kMaxEffort) + ", found " +
+               std::to_string(i->get()),
+           "the default is 1, about 0.2 s of search per claim");
+    }
+    sizes.effort = static_cast<uint64_t>(i->get());
   }
   if (const toml::node* families = t->get("families")) {
     const toml::array* a = families->as_array();
