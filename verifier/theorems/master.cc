@@ -28,6 +28,11 @@ std::vector<Size> regularity_sizes(const Rational& divisor) {
       sizes.push_back({power - 1, p + " - 1"});
       sizes.push_back({power + 1, p + " + 1"});
       sizes.push_back({3 * power, "3*" + p});
+      // Digits 1010… in base b: along the chain n, n/b, n/b^2, … the
+      // remainders alternate, so drivers that depend on parity meet both.
+      BigInt square_less_one = base * base - 1;
+      sizes.push_back({BigInt(power * base / square_less_one),
+                       "floor(" + b + "^" + std::to_string(k + 1) + "/" + square_less_one.str() + ")"});
     }
   }
   return sizes;
