@@ -130,6 +130,25 @@ TEST(DeriveLinear, DominantRootAndItsCoefficient) {
   EXPECT_NE(reasons(oscillating).find("oscillates"), std::string::npos) << reasons(oscillating);
 }
 
+TEST(DeriveLinear, DominanceIsCertifiedAndRepeatedRootsAreFound) {
+  auto steps_of = [](const Derivation& d) {
+    std::string s;
+    for (const auto& step : d.steps) s += step + "\n";
+    return s;
+  };
+  // x^2 - x - 1 has roots 1.618… and −0.618… (from memory).
+  Derivation fib = derived("T(n) = T(n-1) + T(n-2); T(0) = 0; T(1) = 1");
+  EXPECT_NE(steps_of(fib).find("(certified: Pellet's theorem after Graeffe root-squaring)"),
+            std::string::npos)
+      << steps_of(fib);
+  // Characteristic polynomial (x - 1)^3 with the root 1 of the constant
+  // driving function: (x - 1)^4, so T(n) = Θ(n^3) (common practice). A
+  // fourfold root used to scatter numerically into four "roots".
+  Derivation cubic = derived("T(n) = 3T(n-1) - 3T(n-2) + T(n-3) + 1; T(0) = 0; T(1) = 1; T(2) = 3");
+  EXPECT_EQ(cubic.derived, "n^3") << reasons(cubic);
+  EXPECT_NE(steps_of(cubic).find("multiplicity 4"), std::string::npos) << steps_of(cubic);
+}
+
 TEST(DeriveLinear, ActivePolynomialDropsCancelledRoots) {
   Polynomial c({Rational(2), Rational(-3), Rational(1)});  // x^2 - 3x + 2
   EXPECT_EQ(active_polynomial(c, {1, 1, 1}).str(), "x - 1");

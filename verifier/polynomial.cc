@@ -172,6 +172,41 @@ Rational Polynomial::root_bound() const {
   return m + 1;
 }
 
+Polynomial Polynomial::root_squared() const {
+  // q(x^2) = (-1)^d p(x) p(-x): p(-x) negates the odd coefficients.
+  std::vector<Rational> mirrored = c_;
+  for (size_t i = 1; i < mirrored.size(); i += 2) mirrored[i] = -mirrored[i];
+  Polynomial product = *this * Polynomial(std::move(mirrored));
+  std::vector<Rational> q;
+  for (size_t i = 0; i < product.c_.size(); i += 2) q.push_back(product.c_[i]);
+  if (degree() % 2 != 0) {
+    for (Rational& c : q) c = -c;
+  }
+  return Polynomial(std::move(q));
+}
+
+bool Polynomial::certify_roots_inside(const Rational& radius, int inside, int max_squarings) const {
+  if (inside < 0 || inside > degree()) return false;
+  Polynomial p = *this;
+  Rational rho = radius;
+  for (int step = 0; step <= max_squarings; ++step) {
+    // Pellet: |a_k| rho^k > sum over i != k of |a_i| rho^i gives exactly k
+    // roots in |z| < rho and none on the circle.
+    Rational dominant = 0, rest = 0, power = 1;
+    for (int i = 0; i <= p.degree(); ++i) {
+      Rational term = Rational(abs(p.coefficient(static_cast<size_t>(i)))) * power;
+      (i == inside ? dominant : rest) += term;
+      power *= rho;
+    }
+    if (dominant > rest) return true;
+    if (step < max_squarings) {
+      p = p.root_squared().monic();
+      rho = rho * rho;
+    }
+  }
+  return false;
+}
+
 std::string Polynomial::str() const {
   if (c_.empty()) return "0";
   std::string s;

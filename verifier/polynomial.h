@@ -60,6 +60,16 @@ class Polynomial {
   // Cauchy's bound: every complex root has modulus < the result.
   Rational root_bound() const;
 
+  // Whether exactly `inside` roots (with multiplicity) lie in the open disk
+  // |z| < radius, certified: Pellet's theorem (Rouché's theorem with one
+  // dominant term on the circle) on p, then on its Graeffe root-squarings
+  // (roots z^2, z^4, ... against radius^2, radius^4, ...), which separate
+  // the moduli, up to max_squarings times. False means "not shown", not
+  // "false". REQUIRES: radius > 0, !is_zero().
+  bool certify_roots_inside(const Rational& radius, int inside, int max_squarings = 8) const;
+  // The Graeffe step: the polynomial whose roots are the squares of p's.
+  Polynomial root_squared() const;
+
   // "x^2 - x - 1".
   std::string str() const;
 

@@ -45,6 +45,37 @@ bool is_polynomial_in_n(const Expr& e) {
   }
 }
 
+// Why every root of p other than r (multiplicity m, r > lo) has smaller
+// modulus: a radius between them, numerically, at which Pellet's theorem
+// after root-squaring certifies that exactly degree - m roots lie inside.
+// `distinct` are p's distinct roots, numerically.
+std::string others_smaller(const Polynomial& p, const std::vector<Complex>& distinct, long double r,
+                           int m, const Rational& lo) {
+  if (p.degree() == m) return "there is no other root";
+  long double largest = 0;
+  bool skipped = false;  // r itself, the distinct root nearest to it
+  size_t nearest = 0;
+  for (size_t i = 1; i < distinct.size(); ++i) {
+    if (std::abs(distinct[i] - Complex(r, 0)) < std::abs(distinct[nearest] - Complex(r, 0))) nearest = i;
+  }
+  for (size_t i = 0; i < distinct.size(); ++i) {
+    if (i == nearest && !skipped) {
+      skipped = true;
+      continue;
+    }
+    largest = std::max(largest, std::abs(distinct[i]));
+  }
+  Rational radius(static_cast<double>((largest + r) / 2));
+  if (radius >= lo) radius = lo;  // r itself must stay outside
+  if (radius > 0 && p.certify_roots_inside(radius, p.degree() - m)) {
+    char text[32];
+    std::snprintf(text, sizeof text, "%.4g", radius.convert_to<double>());
+    return "every other root has modulus below " + std::string(text) +
+           " (certified: Pellet's theorem after Graeffe root-squaring)";
+  }
+  return "every other root has smaller modulus (numerically)";
+}
+
 }  // namespace
 
 Polynomial active_polynomial(const Polynomial& c, const std::vector<Rational>& values) {
@@ -135,7 +166,10 @@ TheoremOutcome linear_recurrence(const DerivationInput& input) {
     out.steps.push_back("for these initial values only the roots of " + active.str() +
                         " have non-zero coefficients (the others cancel exactly)");
   }
-  std::vector<Complex> roots = numeric_roots(active);
+  // Roots of the squarefree part: a repeated root scatters numerically
+  // (by about the ε^(1/m) of its multiplicity m) and would look like several.
+  // Multiplicities come exactly from gcds below.
+  std::vector<Complex> roots = numeric_roots(active.squarefree());
   long double modulus = 0;
   for (const auto& z : roots) modulus = std::max(modulus, std::abs(z));
   long double tolerance = 1e-9L * std::max<long double>(1, modulus);
@@ -194,7 +228,9 @@ TheoremOutcome linear_recurrence(const DerivationInput& input) {
   bool closed_form = !r.is_rational() && r.str() != r.digits();
   out.steps.push_back("dominant root r = " + r.str() + (closed_form ? " = " + r.digits() : "") +
                       " (certified by Sturm's theorem), multiplicity " + std::to_string(multiplicity) +
-                      "; every other root has smaller modulus (numerically)");
+                      "; " + (other > 0 ? std::string("the other roots of modulus r (numerically) have "
+                                                      "lower multiplicity, so n^(m-1) r^n dominates")
+                                          : others_smaller(active, roots, real_root, multiplicity, lo)));
   try {
     auto far = input.value_at(start + 40 * std::max(1, big_d));
     if (far && far->sign() < 0) {
