@@ -1,214 +1,44 @@
+// classify(): walks an expression in n and builds its asymptotic expansion
+// (classify_expansion.h) node by node, then reads the growth class and leading
+// constant off the first term. Helper functions are expanded line by line
+// through substitute() and condition_reach(), both defined here; constants
+// come from constant_value() (classify_constant.cc).
 #include "verifier/classify.h"
 
-#include <algorithm>
+#include <string>
+#include <utility>
 #include <vector>
 
+#include "verifier/classify_expansion.h"
 #include "verifier/value.h"
 
 namespace thetagate {
 
 namespace {
 
-struct Refusal {
-  std::string reason;
-};
+using classify_internal::absorb;
+using classify_internal::add;
+using classify_internal::approximate_power;
+using classify_internal::constant_expansion;
+using classify_internal::Expansion;
+using classify_internal::integer_power;
+using classify_internal::is_class;
+using classify_internal::Lead;
+using classify_internal::lead_of;
+using classify_internal::lg_of;
+using classify_internal::log2_of;
+using classify_internal::multiply;
+using classify_internal::n_class;
+using classify_internal::negate;
+using classify_internal::normalize;
+using classify_internal::pure_expansion;
+using classify_internal::Refusal;
+using classify_internal::term_expansion;
 
-struct Term {
-  RealNumber c;
-  GrowthClass g;
-};
-
-// value = sum of terms + R, with R = O(error); error_sign = +-1 when R is
-// known to be Θ(error) with that sign (a leading constant we do not know).
-struct Expansion {
-  std::vector<Term> terms;  // decreasing classes, all above `error`
-  std::optional<GrowthClass> error;
-  int error_sign = 0;
-
-  bool is_zero() const { return terms.empty() && !error; }
-  bool is_pure() const { return terms.empty() && error; }
-};
-
-constexpr size_t kMaxTerms = 24;
 constexpr int kMaxDepth = 32;
-
-const GrowthClass& n_class() {
-  static const GrowthClass g = GrowthClass::polylog(RealNumber(1L));
-  return g;
-}
-
-bool is_class(const GrowthClass& g, long alpha, long beta, long gamma) {
-  return g.is_subexponential() && g.alpha == RealNumber(alpha) && g.beta == RealNumber(beta) &&
-         g.gamma == RealNumber(gamma);
-}
-
-Expansion constant_expansion(const RealNumber& c) {
-  Expansion x;
-  if (c.sign() != 0) x.terms.push_back({c, GrowthClass::constant()});
-  return x;
-}
-
-Expansion term_expansion(const RealNumber& c, const GrowthClass& g) {
-  Expansion x;
-  if (c.sign() != 0) x.terms.push_back({c, g});
-  return x;
-}
-
-Expansion pure_expansion(const GrowthClass& g, int sign) {
-  Expansion x;
-  x.error = g;
-  x.error_sign = sign;
-  return x;
-}
-
-void absorb(Expansion& x, const GrowthClass& g, int sign) {
-  if (!x.error || compare(g, *x.error) > 0) {
-    x.error = g;
-    x.error_sign = sign;
-  } else if (compare(g, *x.error) == 0 && x.error_sign != sign) {
-    x.error_sign = 0;
-  }
-}
-
-void normalize(Expansion& x) {
-  std::stable_sort(x.terms.begin(), x.terms.end(),
-                   [](const Term& a, const Term& b) { return compare(a.g, b.g) > 0; });
-  std::vector<Term> merged;
-  for (auto& t : x.terms) {
-    if (!merged.empty() && compare(merged.back().g, t.g) == 0) {
-      merged.back().c = merged.back().c + t.c;
-    } else {
-      merged.push_back(t);
-    }
-  }
-  std::vector<Term> kept;
-  for (auto& t : merged) {
-    int s = t.c.sign();
-    if (s == 0) continue;
-    if (x.error && compare(t.g, *x.error) <= 0) {
-      if (compare(t.g, *x.error) == 0 && x.error_sign != s) x.error_sign = 0;
-      continue;
-    }
-    kept.push_back(t);
-  }
-  if (kept.size() > kMaxTerms) {
-    // The first dropped term dominates everything after it: its sign is the remainder's.
-    absorb(x, kept[kMaxTerms].g, kept[kMaxTerms].c.sign());
-    kept.resize(kMaxTerms);
-  }
-  x.terms = std::move(kept);
-}
-
-struct Lead {
-  GrowthClass g;
-  RealNumber c;
-  bool known;
-  int sign;
-};
-
-Lead lead_of(const Expansion& x) {
-  if (!x.terms.empty()) return {x.terms[0].g, x.terms[0].c, true, x.terms[0].c.sign()};
-  if (x.error && x.error_sign != 0) return {*x.error, RealNumber(static_cast<long>(x.error_sign)), false, x.error_sign};
-  if (x.error) {
-    throw Refusal{"the leading terms cancel, leaving a remainder known only as O(" +
-                  to_string(*x.error) + ")"};
-  }
-  throw Refusal{"the expression is zero"};
-}
-
-Expansion add(Expansion x, const Expansion& y) {
-  for (const auto& t : y.terms) x.terms.push_back(t);
-  if (y.error) absorb(x, *y.error, y.error_sign);
-  normalize(x);
-  return x;
-}
-
-Expansion negate(Expansion x) {
-  for (auto& t : x.terms) t.c = -t.c;
-  x.error_sign = -x.error_sign;
-  return x;
-}
-
-Expansion multiply(const Expansion& x, const Expansion& y) {
-  if (x.is_zero() || y.is_zero()) return {};
-  if (x.is_pure() || y.is_pure()) {
-    Lead a = lead_of(x), b = lead_of(y);
-    return pure_expansion(a.g.times(b.g), a.sign * b.sign);
-  }
-  Expansion r;
-  for (const auto& s : x.terms) {
-    for (const auto& t : y.terms) r.terms.push_back({s.c * t.c, s.g.times(t.g)});
-  }
-  if (x.error) absorb(r, y.terms[0].g.times(*x.error), 0);
-  if (y.error) absorb(r, x.terms[0].g.times(*y.error), 0);
-  r.error_sign = 0;
-  normalize(r);
-  return r;
-}
-
-// The class just below the leading term: the second term or the remainder.
-std::optional<GrowthClass> next_class(const Expansion& x) {
-  std::optional<GrowthClass> next;
-  if (x.terms.size() >= 2) next = x.terms[1].g;
-  if (x.error && (!next || compare(*x.error, *next) > 0)) next = x.error;
-  return next;
-}
-
-// x^r by its leading term: c^r G^r (1 + O(next/G)).
-Expansion approximate_power(const Expansion& x, const RealNumber& r, const std::string& what) {
-  if (x.is_zero()) throw Refusal{"'" + what + "' takes a power of zero"};
-  Lead l = lead_of(x);
-  if (l.sign < 0) throw Refusal{"'" + what + "' takes a fractional or negative power of a negative quantity"};
-  GrowthClass g = l.g.power(r);
-  if (!l.known) return pure_expansion(g, 1);
-  Expansion out = term_expansion(pow(l.c, r), g);
-  if (auto next = next_class(x)) out.error = g.times(next->over(l.g));
-  return out;
-}
-
-Expansion integer_power(const Expansion& x, long k, const std::string& what) {
-  if (k > 12) return approximate_power(x, RealNumber(k), what);
-  Expansion r = constant_expansion(RealNumber(1L));
-  for (long i = 0; i < k; ++i) r = multiply(r, x);
-  return r;
-}
-
-RealNumber log2_of(const RealNumber& c) {
-  if (c.is_rational()) return RealNumber::log(2, c.rational());
-  return RealNumber::enclosed([c](long prec) { return c.enclose(prec).log2(); });
-}
 
 RealNumber ln2() {
   return RealNumber::enclosed([](long prec) { return Interval(Rational(2), prec).log(); });
-}
-
-Expansion lg_of(const Expansion& x, const std::string& what) {
-  if (x.is_zero()) throw Refusal{"'" + what + "' takes lg of zero"};
-  Lead l = lead_of(x);
-  if (l.sign < 0) throw Refusal{"'" + what + "' takes lg of a negative quantity"};
-  if (l.g.is_constant()) {
-    if (!l.known) throw Refusal{"'" + what + "' takes lg of a bounded quantity with unknown constant"};
-    if (l.c == RealNumber(1L)) throw Refusal{"'" + what + "' takes lg of a quantity tending to 1"};
-    Expansion out = constant_expansion(log2_of(l.c));
-    if (auto next = next_class(x)) absorb(out, next->over(l.g), 0);
-    return out;
-  }
-  Expansion out;
-  if (!l.g.is_subexponential()) out.terms.push_back({log2_of(l.g.rho), n_class()});
-  if (l.g.alpha.sign() != 0) out.terms.push_back({l.g.alpha, GrowthClass::polylog(0, 1)});
-  if (l.g.beta.sign() != 0) out.terms.push_back({l.g.beta, GrowthClass::polylog(0, 0, 1)});
-  if (l.g.gamma.sign() != 0) {
-    if (out.terms.empty()) throw Refusal{"'" + what + "' grows like lg lg lg n, outside the normal form"};
-    absorb(out, GrowthClass::polylog(0, 0, Rational(1, 2)), 0);  // lg lg lg n = o(sqrt(lg lg n))
-  }
-  if (l.known) {
-    if (l.c != RealNumber(1L)) out.terms.push_back({log2_of(l.c), GrowthClass::constant()});
-  } else {
-    absorb(out, GrowthClass::constant(), 0);
-  }
-  if (auto next = next_class(x)) absorb(out, next->over(l.g), 0);
-  normalize(out);
-  return out;
 }
 
 class Classifier {
@@ -382,11 +212,6 @@ class Classifier {
   int depth_ = 0;
 };
 
-std::optional<RealNumber> fail(std::string* reason, std::string text) {
-  if (reason != nullptr) *reason = std::move(text);
-  return std::nullopt;
-}
-
 }  // namespace
 
 int condition_reach(const Expr& c) {
@@ -415,109 +240,6 @@ ExprPtr substitute(const ExprPtr& e, const ExprPtr& argument) {
   auto copy = std::make_shared<Expr>(*e);
   for (auto& a : copy->args) a = substitute(a, argument);
   return copy;
-}
-
-std::optional<RealNumber> constant_value(const Expr& e, std::string* reason) {
-  auto arg = [&](size_t i) { return constant_value(*e.args[i], reason); };
-  try {
-    switch (e.kind) {
-      case ExprKind::kNumber: return RealNumber(e.number);
-      case ExprKind::kVariable: return fail(reason, "the expression depends on n");
-      case ExprKind::kNeg: {
-        auto a = arg(0);
-        if (!a) return a;
-        return -*a;
-      }
-      case ExprKind::kAdd: case ExprKind::kSub: case ExprKind::kMul: case ExprKind::kDiv: {
-        auto a = arg(0), b = arg(1);
-        if (!a || !b) return std::nullopt;
-        if (e.kind == ExprKind::kAdd) return *a + *b;
-        if (e.kind == ExprKind::kSub) return *a - *b;
-        if (e.kind == ExprKind::kMul) return *a * *b;
-        if (b->sign() == 0) return fail(reason, "'" + print(e) + "' divides by zero");
-        return *a / *b;
-      }
-      case ExprKind::kPow: {
-        auto a = arg(0), b = arg(1);
-        if (!a || !b) return std::nullopt;
-        if (a->is_rational() && b->is_integer() && boost::multiprecision::abs(b->rational()) < 4096) {
-          long k = static_cast<long>(numerator(b->rational()));
-          if (a->sign() == 0 && k < 0) return fail(reason, "'" + print(e) + "' divides by zero");
-          Rational r = 1;
-          for (long i = 0; i < (k < 0 ? -k : k); ++i) r *= a->rational();
-          return RealNumber(k < 0 ? Rational(1) / r : r);
-        }
-        if (a->sign() <= 0) return fail(reason, "'" + print(e) + "' raises a non-positive number to a fractional power");
-        return pow(*a, *b);
-      }
-      case ExprKind::kCall: {
-        const std::string& f = e.name;
-        if (!is_builtin(f)) return fail(reason, "'" + print(e) + "' calls " + f + ", which has no closed form here");
-        std::vector<RealNumber> v;
-        for (size_t i = 0; i < e.args.size(); ++i) {
-          auto a = arg(i);
-          if (!a) return a;
-          v.push_back(*a);
-        }
-        if (f == "lg" || f == "log2" || f == "ln") {
-          if (v[0].sign() <= 0) return fail(reason, "'" + print(e) + "' takes the log of a non-positive number");
-          if (f == "ln") {
-            RealNumber x = v[0];
-            if (x == RealNumber(1L)) return RealNumber(0L);
-            return RealNumber::enclosed([x](long prec) { return x.enclose(prec).log(); });
-          }
-          return log2_of(v[0]);
-        }
-        if (f == "log") {
-          if (v[0].sign() <= 0 || v[0] == RealNumber(1L) || v[1].sign() <= 0) {
-            return fail(reason, "'" + print(e) + "' is not a valid logarithm");
-          }
-          if (v[0].is_rational() && v[1].is_rational()) return RealNumber::log(v[0].rational(), v[1].rational());
-          return log2_of(v[1]) / log2_of(v[0]);
-        }
-        if (f == "sqrt") {
-          int s = v[0].sign();
-          if (s < 0) return fail(reason, "'" + print(e) + "' takes the square root of a negative number");
-          if (s == 0) return RealNumber(0L);
-          if (v[0].is_rational()) return RealNumber::root(v[0].rational(), 2);
-          return pow(v[0], RealNumber(Rational(1, 2)));
-        }
-        if (f == "floor" || f == "ceil") {
-          if (v[0].is_rational()) {
-            return RealNumber(Rational(f == "floor" ? floor_of(v[0].rational()) : ceil_of(v[0].rational())));
-          }
-          for (long prec = 64; prec <= 4096; prec *= 2) {
-            Interval x = v[0].enclose(prec);
-            auto k = f == "floor" ? x.common_floor() : x.common_ceil();
-            if (k) return RealNumber(Rational(*k));
-          }
-          return fail(reason, "'" + print(e) + "' cannot be rounded with certainty");
-        }
-        if (f == "min" || f == "max") {
-          RealNumber best = v[0];
-          for (size_t i = 1; i < v.size(); ++i) {
-            int c = compare(v[i], best);
-            if ((f == "max" && c > 0) || (f == "min" && c < 0)) best = v[i];
-          }
-          return best;
-        }
-        if (f == "mod") {
-          if (!v[0].is_rational() || !v[1].is_rational() || v[1].sign() == 0) {
-            return fail(reason, "'" + print(e) + "' needs rational operands");
-          }
-          Rational x = v[0].rational(), m = v[1].rational();
-          return RealNumber(x - m * Rational(floor_of(x / m)));
-        }
-        return fail(reason, "'" + print(e) + "' is not supported in a constant");
-      }
-      default:
-        return fail(reason, "'" + print(e) + "' is a condition, not a number");
-    }
-  } catch (const DomainError& error) {
-    return fail(reason, "'" + print(e) + "': " + error.what());
-  } catch (const PrecisionShortfall& error) {
-    return fail(reason, "'" + print(e) + "': " + error.what());
-  }
 }
 
 Classification classify(const Expr& e, const HelperTable* helpers) {

@@ -1,39 +1,34 @@
+// RealNumber's exact core: rationals, logarithms, roots and enclosed numbers
+// as values; arithmetic that stays exact where the kinds allow; and the
+// comparison that dispatches by kind. Rationals and logarithms of one base are
+// compared here exactly, by integer powers; algebraic numbers and everything
+// else go to real_number_algebraic.cc.
 #include "verifier/real_number.h"
-
-#include <mpfi.h>
 
 #include <algorithm>
 #include <mutex>
-#include <numeric>
 #include <optional>
-#include <stdexcept>
 #include <utility>
 #include <vector>
 
+#include "verifier/real_number_node.h"
 #include "verifier/value.h"
 
 namespace thetagate {
 
-struct RealNumber::Node {
-  Kind kind = Kind::kRational;
-  Rational q;        // the rational value, or the constant part of a log form
-  Rational c, a, g;  // log form: q + c * log_g(a)
-  Polynomial p;      // algebraic: squarefree, exactly one root in (lo, hi)
-  mutable std::mutex mutex;
-  mutable Rational lo, hi;  // lo == hi once bisection has hit the root exactly
-  int sign_lo = 0;          // sign of p just right of lo
-  std::function<Interval(long)> enclose;  // enclosed
-};
+using real_number_internal::bisect_locked;
+using real_number_internal::compare_algebraic;
+using real_number_internal::compare_algebraic_rational;
+using real_number_internal::compare_by_intervals;
+using real_number_internal::exact_value;
+using real_number_internal::from_node;
 
 namespace {
 
 using Node = RealNumber::Node;
 using Kind = RealNumber::Kind;
 
-constexpr long kMaxPrecision = 1 << 14;
 constexpr uint64_t kMaxExactBits = 1 << 21;
-
-RealNumber from_node(std::shared_ptr<Node> n) { return RealNumber(std::move(n)); }
 
 RealNumber make_log_form(Rational q, Rational c, Rational a, Rational g) {
   if (c == 0) return RealNumber(q);
@@ -51,12 +46,6 @@ RealNumber make_enclosed(std::function<Interval(long)> f) {
   n->kind = Kind::kEnclosed;
   n->enclose = std::move(f);
   return from_node(n);
-}
-
-Interval hull(const Rational& lo, const Rational& hi, long prec) {
-  Interval r(prec);
-  mpfi_interv_q(r.raw(), lo.backend().data(), hi.backend().data());
-  return r;
 }
 
 // x = m^k with k as large as possible (numerator and denominator together).
@@ -80,31 +69,6 @@ std::pair<Rational, unsigned long> primitive_power(const Rational& x) {
     }
   }
   return {Rational(num, den), total};
-}
-
-// The value of a rational or of an algebraic number whose bisection hit it.
-std::optional<Rational> exact_value(const RealNumber& x) {
-  const Node& n = x.node();
-  if (n.kind == Kind::kRational) return n.q;
-  if (n.kind == Kind::kAlgebraic) {
-    std::lock_guard<std::mutex> lock(n.mutex);
-    if (n.lo == n.hi) return n.lo;
-  }
-  return std::nullopt;
-}
-
-// One bisection step of an algebraic number's isolating interval.
-void bisect_locked(const Node& n) {
-  if (n.lo == n.hi) return;
-  Rational mid = (n.lo + n.hi) / 2;
-  int s = n.p.sign_at(mid);
-  if (s == 0) {
-    n.lo = n.hi = mid;
-  } else if (s == n.sign_lo) {
-    n.lo = mid;
-  } else {
-    n.hi = mid;
-  }
 }
 
 Rational pow_rational(const Rational& base, long k) {
@@ -153,76 +117,21 @@ std::optional<int> log_sum_sign(const Rational& q, const std::vector<std::pair<R
   return top > bottom ? 1 : (top < bottom ? -1 : 0);
 }
 
-int compare_by_intervals(const RealNumber& a, const RealNumber& b) {
-  for (long prec = 64; prec <= kMaxPrecision; prec *= 2) {
-    Interval x = a.enclose(prec), y = b.enclose(prec);
-    if (x.upper() < y.lower()) return -1;
-    if (x.lower() > y.upper()) return 1;
-  }
-  throw PrecisionShortfall("two real numbers agree to " + std::to_string(kMaxPrecision) +
-                           " bits and cannot be told apart: " + a.str() + " and " + b.str());
-}
-
-int compare_algebraic_rational(const Node& n, const Rational& r) {
-  std::lock_guard<std::mutex> lock(n.mutex);
-  if (n.lo == n.hi) return n.lo < r ? -1 : (n.lo > r ? 1 : 0);
-  if (r <= n.lo) return 1;
-  if (r >= n.hi) return -1;
-  int s = n.p.sign_at(r);
-  if (s == 0) {
-    n.lo = n.hi = r;
-    return 0;
-  }
-  if (s == n.sign_lo) {
-    n.lo = r;  // no sign change in (lo, r]: the root lies right of r
-    return 1;
-  }
-  n.hi = r;
-  return -1;
-}
-
-int compare_algebraic(const Node& x, const Node& y, const RealNumber& a, const RealNumber& b) {
-  Polynomial common = Polynomial::gcd(x.p, y.p);
-  for (int step = 0; step < 4096; ++step) {
-    Rational xl, xh, yl, yh;
-    {
-      std::lock_guard<std::mutex> lock(x.mutex);
-      xl = x.lo;
-      xh = x.hi;
-    }
-    {
-      std::lock_guard<std::mutex> lock(y.mutex);
-      yl = y.lo;
-      yh = y.hi;
-    }
-    if (xh < yl || (xh == yl && !(xl == xh && yl == yh))) return -1;
-    if (yh < xl || (yh == xl && !(xl == xh && yl == yh))) return 1;
-    if (xl == xh && yl == yh) return 0;
-    if (common.degree() >= 1) {
-      // A root of the common factor inside both isolating intervals is the
-      // root of both polynomials there: the numbers are equal.
-      Rational lo = std::max(xl, yl), hi = std::min(xh, yh);
-      if (lo < hi && common.sign_at(lo) * common.sign_at(hi) < 0) return 0;
-    }
-    {
-      std::lock_guard<std::mutex> lock(x.mutex);
-      bisect_locked(x);
-    }
-    {
-      std::lock_guard<std::mutex> lock(y.mutex);
-      bisect_locked(y);
-    }
-  }
-  return compare_by_intervals(a, b);
-}
-
-std::string log_text(const Rational& g, const Rational& a) {
-  std::string arg = denominator(a) == 1 ? to_string(a) : "(" + to_string(a) + ")";
-  if (g == 2) return "lg " + arg;
-  return "log(" + to_string(g) + ", " + to_string(a) + ")";
-}
-
 }  // namespace
+
+namespace real_number_internal {
+
+std::optional<Rational> exact_value(const RealNumber& x) {
+  const Node& n = x.node();
+  if (n.kind == Kind::kRational) return n.q;
+  if (n.kind == Kind::kAlgebraic) {
+    std::lock_guard<std::mutex> lock(n.mutex);
+    if (n.lo == n.hi) return n.lo;
+  }
+  return std::nullopt;
+}
+
+}  // namespace real_number_internal
 
 RealNumber::RealNumber() : RealNumber(Rational(0)) {}
 
@@ -254,42 +163,6 @@ RealNumber RealNumber::log(const Rational& base, const Rational& x) {
   return make_log_form(0, c, a, g);
 }
 
-RealNumber RealNumber::algebraic(const Polynomial& p, const Rational& lo, const Rational& hi) {
-  Polynomial sf = p.squarefree();
-  if (sf.degree() < 1 || !(lo < hi)) throw std::invalid_argument("algebraic: no polynomial or interval");
-  if (sf.degree() == 1) return RealNumber(-sf.coefficient(0) / sf.coefficient(1));
-  int hi_sign = sf.sign_at(hi);
-  int count = sf.count_real_roots(lo, hi) - (hi_sign == 0 ? 1 : 0);
-  if (count != 1 || sf.sign_at(lo) == 0) {
-    throw std::invalid_argument("algebraic: " + sf.str() + " has " + std::to_string(count) +
-                                " roots in (" + to_string(lo) + ", " + to_string(hi) + ")");
-  }
-  auto n = std::make_shared<Node>();
-  n->kind = Kind::kAlgebraic;
-  n->p = sf;
-  n->lo = lo;
-  n->hi = hi;
-  n->sign_lo = sf.sign_at(lo);
-  if (hi_sign == 0) {
-    // The root in (lo, hi) is not hi itself: move hi left of it and inside.
-    Rational step = (hi - lo) / 2, h = hi - step;
-    while (sf.sign_at(h) == 0 || sf.count_real_roots(lo, h) != 1) {
-      step /= 2;
-      h = hi - step;
-    }
-    n->hi = h;
-  }
-  // Small rational roots are caught here so that they print as rationals.
-  for (long d = 1; d <= 12; ++d) {
-    BigInt k = floor_of(lo * Rational(d)) + 1;
-    for (int tries = 0; tries < 4 && Rational(k, BigInt(d)) < n->hi; ++tries, ++k) {
-      Rational candidate(k, BigInt(d));
-      if (sf.sign_at(candidate) == 0) return RealNumber(candidate);
-    }
-  }
-  return from_node(n);
-}
-
 RealNumber RealNumber::root(const Rational& q, unsigned long k) {
   if (q <= 0 || k == 0) throw DomainError("root of a non-positive number");
   if (k == 1) return RealNumber(q);
@@ -318,91 +191,7 @@ const Polynomial* RealNumber::polynomial() const {
   return kind() == Kind::kAlgebraic ? &node_->p : nullptr;
 }
 
-Interval RealNumber::enclose(long prec) const {
-  const Node& n = *node_;
-  switch (n.kind) {
-    case Kind::kRational:
-      return Interval(n.q, prec);
-    case Kind::kLog: {
-      long p = prec + 32;
-      Interval ratio = Interval(n.a, p).log() / Interval(n.g, p).log();
-      return Interval(n.q, p) + Interval(n.c, p) * ratio;
-    }
-    case Kind::kAlgebraic: {
-      std::lock_guard<std::mutex> lock(n.mutex);
-      Rational width = Rational(1) / Rational(BigInt(1) << static_cast<unsigned>(prec));
-      Rational scale = std::max(Rational(1), Rational(boost::multiprecision::abs(n.lo)));
-      for (long i = 0; i < 4 * prec + 64 && n.hi - n.lo > width * scale; ++i) bisect_locked(n);
-      return hull(n.lo, n.hi, prec + 8);
-    }
-    case Kind::kEnclosed:
-      return n.enclose(prec);
-  }
-  return Interval(prec);
-}
-
-double RealNumber::approx() const { return enclose(64).approx(); }
-
 int RealNumber::sign() const { return compare(*this, RealNumber(Rational(0))); }
-
-std::string RealNumber::digits(int decimals) const {
-  BigInt scale = boost::multiprecision::pow(BigInt(10), static_cast<unsigned>(decimals));
-  for (long prec = 64; prec <= kMaxPrecision; prec *= 2) {
-    Interval x = enclose(prec);
-    BigInt lo = floor_of(x.lower() * Rational(scale) + Rational(1, 2));
-    BigInt hi = floor_of(x.upper() * Rational(scale) + Rational(1, 2));
-    if (lo != hi) continue;
-    bool exact = x.lower() == x.upper() && x.lower() * Rational(scale) == Rational(lo);
-    bool negative = lo < 0;
-    BigInt m = negative ? BigInt(-lo) : lo;
-    std::string s = BigInt(m / scale).str();
-    std::string frac = BigInt(m % scale).str();
-    if (decimals > 0) s += "." + std::string(decimals - frac.size(), '0') + frac;
-    return (negative ? "-" : "") + s + (exact ? "" : "…");
-  }
-  return "[" + enclose(64).str(8) + "]";
-}
-
-std::string RealNumber::str() const {
-  const Node& n = *node_;
-  switch (n.kind) {
-    case Kind::kRational:
-      return to_string(n.q);
-    case Kind::kLog: {
-      std::string log = log_text(n.g, n.a);
-      BigInt u = numerator(n.c), v = denominator(n.c);
-      std::string s = u == 1 ? log : (u == -1 ? "-" + log : u.str() + " " + log);
-      if (v != 1) s = "(" + s + ")/" + v.str();
-      if (n.q > 0) s += " + " + to_string(n.q);
-      if (n.q < 0) s += " - " + to_string(Rational(-n.q));
-      return s;
-    }
-    case Kind::kAlgebraic: {
-      if (auto q = exact_value(*this)) return to_string(*q);
-      Polynomial m = n.p.monic();
-      if (m.degree() == 2) {
-        Rational b = m.coefficient(1), c = m.coefficient(0);
-        Rational disc = b * b - 4 * c;
-        Rational center = -b / 2;
-        bool plus = compare(*this, RealNumber(center)) > 0;
-        std::string root = "sqrt(" + to_string(disc) + ")";
-        if (-b == 0) return std::string(plus ? "" : "-") + root + "/2";
-        return "(" + to_string(Rational(-b)) + (plus ? " + " : " - ") + root + ")/2";
-      }
-      bool binomial = true;
-      for (int i = 1; i < m.degree(); ++i) binomial = binomial && m.coefficient(i) == 0;
-      if (binomial && m.coefficient(0) < 0) {
-        std::string q = to_string(Rational(-m.coefficient(0)));
-        if (denominator(m.coefficient(0)) != 1) q = "(" + q + ")";
-        return q + "^(1/" + std::to_string(m.degree()) + ")";
-      }
-      return digits();
-    }
-    case Kind::kEnclosed:
-      return digits();
-  }
-  return "?";
-}
 
 RealNumber operator+(const RealNumber& a, const RealNumber& b) {
   auto ea = exact_value(a), eb = exact_value(b);
