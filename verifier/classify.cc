@@ -65,19 +65,27 @@ class Classifier {
       return constant_expansion(constant(e));
     }
     switch (e.kind) {
-      case ExprKind::kVariable: return term_expansion(RealNumber(1L), n_class());
-      case ExprKind::kNeg: return negate(run(*e.args[0]));
-      case ExprKind::kAdd: return add(run(*e.args[0]), run(*e.args[1]));
-      case ExprKind::kSub: return add(run(*e.args[0]), negate(run(*e.args[1])));
-      case ExprKind::kMul: return multiply(run(*e.args[0]), run(*e.args[1]));
+      case ExprKind::kVariable:
+        return term_expansion(RealNumber(1L), n_class());
+      case ExprKind::kNeg:
+        return negate(run(*e.args[0]));
+      case ExprKind::kAdd:
+        return add(run(*e.args[0]), run(*e.args[1]));
+      case ExprKind::kSub:
+        return add(run(*e.args[0]), negate(run(*e.args[1])));
+      case ExprKind::kMul:
+        return multiply(run(*e.args[0]), run(*e.args[1]));
       case ExprKind::kDiv: {
         Expansion d = run(*e.args[1]);
         if (d.is_zero()) throw Refusal{"'" + print(e) + "' divides by zero"};
         return multiply(run(*e.args[0]), approximate_power(d, RealNumber(-1L), print(e)));
       }
-      case ExprKind::kPow: return power(e);
-      case ExprKind::kCall: return call(e);
-      default: throw Refusal{"'" + print(e) + "' is a condition, not a value"};
+      case ExprKind::kPow:
+        return power(e);
+      case ExprKind::kCall:
+        return call(e);
+      default:
+        throw Refusal{"'" + print(e) + "' is a condition, not a value"};
     }
   }
 
@@ -87,37 +95,47 @@ class Classifier {
     if (!mentions_n(exponent)) {
       RealNumber r = constant(exponent);
       Expansion x = run(base);
-      if (r.is_integer() && r.sign() >= 0) return integer_power(x, static_cast<long>(numerator(r.rational())), print(e));
+      if (r.is_integer() && r.sign() >= 0)
+        return integer_power(x, static_cast<long>(numerator(r.rational())), print(e));
       return approximate_power(x, r, print(e));
     }
     if (mentions_n(base)) {
-      throw Refusal{"'" + print(e) + "' has n in both base and exponent: it grows faster than "
+      throw Refusal{"'" + print(e) +
+                    "' has n in both base and exponent: it grows faster than "
                     "every c^n, outside the normal form"};
     }
     RealNumber c = constant(base);
     int s = c.sign();
-    if (s < 0) throw Refusal{"'" + print(e) + "' alternates in sign: a negative base raised to n oscillates"};
+    if (s < 0)
+      throw Refusal{"'" + print(e) +
+                    "' alternates in sign: a negative base raised to n oscillates"};
     if (s == 0) return {};
     Expansion y = run(exponent);
     RealNumber lgc = log2_of(c);
     GrowthClass g;
     RealNumber coefficient(1L);
     for (const auto& t : y.terms) {
-      if (t.g.is_constant()) coefficient = coefficient * pow(c, t.c);
-      else if (is_class(t.g, 1, 0, 0)) g = g.times(GrowthClass::exponential(pow(c, t.c)));
-      else if (is_class(t.g, 0, 1, 0)) g = g.times(GrowthClass::polylog(t.c * lgc));
-      else if (is_class(t.g, 0, 0, 1)) g = g.times(GrowthClass::polylog(0, t.c * lgc));
+      if (t.g.is_constant())
+        coefficient = coefficient * pow(c, t.c);
+      else if (is_class(t.g, 1, 0, 0))
+        g = g.times(GrowthClass::exponential(pow(c, t.c)));
+      else if (is_class(t.g, 0, 1, 0))
+        g = g.times(GrowthClass::polylog(t.c * lgc));
+      else if (is_class(t.g, 0, 0, 1))
+        g = g.times(GrowthClass::polylog(0, t.c * lgc));
       else {
         throw Refusal{"'" + print(e) + "' has exponent growing like " + to_string(t.g) +
-                      (compare(t.g, n_class()) < 0 ? ": it lies between polynomial and exponential growth"
-                                                    : ": it grows faster than every c^n") +
+                      (compare(t.g, n_class()) < 0
+                           ? ": it lies between polynomial and exponential growth"
+                           : ": it grows faster than every c^n") +
                       ", outside the normal form"};
       }
     }
     if (y.error) {
       int order = compare(*y.error, GrowthClass::constant());
       if (order > 0) {
-        throw Refusal{"the exponent of '" + print(e) + "' is known only up to O(" + to_string(*y.error) + ")"};
+        throw Refusal{"the exponent of '" + print(e) + "' is known only up to O(" +
+                      to_string(*y.error) + ")"};
       }
       if (order == 0) return pure_expansion(g, 1);  // c^O(1) is a bounded positive factor
       Expansion out = term_expansion(coefficient, g);
@@ -134,7 +152,8 @@ class Classifier {
       Expansion x = run(*e.args[0]);
       Lead l = lead_of(x);
       if (compare(l.g, GrowthClass::constant()) <= 0) {
-        throw Refusal{"'" + what + "' rounds a quantity that does not grow, which can change its order"};
+        throw Refusal{"'" + what +
+                      "' rounds a quantity that does not grow, which can change its order"};
       }
       absorb(x, GrowthClass::constant(), 0);
       normalize(x);
@@ -146,12 +165,14 @@ class Classifier {
       if (mentions_n(*e.args[0])) throw Refusal{"'" + what + "' has a base that depends on n"};
       RealNumber b = constant(*e.args[0]);
       if (b.sign() <= 0 || b == RealNumber(1L)) throw Refusal{"'" + what + "' has an invalid base"};
-      return multiply(lg_of(run(*e.args[1]), what), constant_expansion(RealNumber(1L) / log2_of(b)));
+      return multiply(lg_of(run(*e.args[1]), what),
+                      constant_expansion(RealNumber(1L) / log2_of(b)));
     }
     if (name == "sqrt") return approximate_power(run(*e.args[0]), RealNumber(Rational(1, 2)), what);
     if (name == "min" || name == "max") {
       Expansion best = run(*e.args[0]);
-      for (size_t i = 1; i < e.args.size(); ++i) best = extreme(best, run(*e.args[i]), name == "max", what);
+      for (size_t i = 1; i < e.args.size(); ++i)
+        best = extreme(best, run(*e.args[i]), name == "max", what);
       return best;
     }
     if (name == "mod") {
@@ -198,8 +219,10 @@ class Classifier {
     for (size_t i = 1; i < cases.size(); ++i) {
       Lead l = lead_of(cases[i].second);
       if (compare(l.g, first.g) != 0 || l.sign != first.sign) {
-        throw Refusal{"helper " + f.name + "(n) is " + to_string(first.g) + (cases[0].first == "otherwise" ? " " : " when ") + cases[0].first +
-                      " but " + to_string(l.g) + (cases[i].first == "otherwise" ? " " : " when ") + cases[i].first +
+        throw Refusal{"helper " + f.name + "(n) is " + to_string(first.g) +
+                      (cases[0].first == "otherwise" ? " " : " when ") + cases[0].first + " but " +
+                      to_string(l.g) + (cases[i].first == "otherwise" ? " " : " when ") +
+                      cases[i].first +
                       ": its case lines differ in class, so it oscillates between them"};
       }
       same_constant = same_constant && l.known && l.c == first.c;
@@ -221,10 +244,14 @@ int condition_reach(const Expr& c) {
     ExprKind k = c.kind;
     if (n_right) {
       // c < n is n > c.
-      if (k == ExprKind::kLt) k = ExprKind::kGt;
-      else if (k == ExprKind::kLe) k = ExprKind::kGe;
-      else if (k == ExprKind::kGt) k = ExprKind::kLt;
-      else if (k == ExprKind::kGe) k = ExprKind::kLe;
+      if (k == ExprKind::kLt)
+        k = ExprKind::kGt;
+      else if (k == ExprKind::kLe)
+        k = ExprKind::kGe;
+      else if (k == ExprKind::kGt)
+        k = ExprKind::kLt;
+      else if (k == ExprKind::kGe)
+        k = ExprKind::kLe;
     }
     if (n_left || n_right) {
       if (k == ExprKind::kLt || k == ExprKind::kLe || k == ExprKind::kEq) return -1;

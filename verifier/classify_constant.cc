@@ -3,13 +3,12 @@
 // lg 7 or 1/2. Values stay exact RealNumbers where the kinds allow; what is
 // not a real number (lg 0, the square root of a negative number, division by
 // zero) or cannot be decided within precision gives a reason instead.
-#include "verifier/classify.h"
-
 #include <optional>
 #include <string>
 #include <utility>
 #include <vector>
 
+#include "verifier/classify.h"
 #include "verifier/classify_expansion.h"
 #include "verifier/value.h"
 
@@ -30,14 +29,19 @@ std::optional<RealNumber> constant_value(const Expr& e, std::string* reason) {
   auto arg = [&](size_t i) { return constant_value(*e.args[i], reason); };
   try {
     switch (e.kind) {
-      case ExprKind::kNumber: return RealNumber(e.number);
-      case ExprKind::kVariable: return fail(reason, "the expression depends on n");
+      case ExprKind::kNumber:
+        return RealNumber(e.number);
+      case ExprKind::kVariable:
+        return fail(reason, "the expression depends on n");
       case ExprKind::kNeg: {
         auto a = arg(0);
         if (!a) return a;
         return -*a;
       }
-      case ExprKind::kAdd: case ExprKind::kSub: case ExprKind::kMul: case ExprKind::kDiv: {
+      case ExprKind::kAdd:
+      case ExprKind::kSub:
+      case ExprKind::kMul:
+      case ExprKind::kDiv: {
         auto a = arg(0), b = arg(1);
         if (!a || !b) return std::nullopt;
         if (e.kind == ExprKind::kAdd) return *a + *b;
@@ -49,19 +53,23 @@ std::optional<RealNumber> constant_value(const Expr& e, std::string* reason) {
       case ExprKind::kPow: {
         auto a = arg(0), b = arg(1);
         if (!a || !b) return std::nullopt;
-        if (a->is_rational() && b->is_integer() && boost::multiprecision::abs(b->rational()) < 4096) {
+        if (a->is_rational() && b->is_integer() &&
+            boost::multiprecision::abs(b->rational()) < 4096) {
           long k = static_cast<long>(numerator(b->rational()));
           if (a->sign() == 0 && k < 0) return fail(reason, "'" + print(e) + "' divides by zero");
           Rational r = 1;
           for (long i = 0; i < (k < 0 ? -k : k); ++i) r *= a->rational();
           return RealNumber(k < 0 ? Rational(1) / r : r);
         }
-        if (a->sign() <= 0) return fail(reason, "'" + print(e) + "' raises a non-positive number to a fractional power");
+        if (a->sign() <= 0)
+          return fail(reason,
+                      "'" + print(e) + "' raises a non-positive number to a fractional power");
         return pow(*a, *b);
       }
       case ExprKind::kCall: {
         const std::string& f = e.name;
-        if (!is_builtin(f)) return fail(reason, "'" + print(e) + "' calls " + f + ", which has no closed form here");
+        if (!is_builtin(f))
+          return fail(reason, "'" + print(e) + "' calls " + f + ", which has no closed form here");
         std::vector<RealNumber> v;
         for (size_t i = 0; i < e.args.size(); ++i) {
           auto a = arg(i);
@@ -69,7 +77,8 @@ std::optional<RealNumber> constant_value(const Expr& e, std::string* reason) {
           v.push_back(*a);
         }
         if (f == "lg" || f == "log2" || f == "ln") {
-          if (v[0].sign() <= 0) return fail(reason, "'" + print(e) + "' takes the log of a non-positive number");
+          if (v[0].sign() <= 0)
+            return fail(reason, "'" + print(e) + "' takes the log of a non-positive number");
           if (f == "ln") {
             RealNumber x = v[0];
             if (x == RealNumber(1L)) return RealNumber(0L);
@@ -81,19 +90,22 @@ std::optional<RealNumber> constant_value(const Expr& e, std::string* reason) {
           if (v[0].sign() <= 0 || v[0] == RealNumber(1L) || v[1].sign() <= 0) {
             return fail(reason, "'" + print(e) + "' is not a valid logarithm");
           }
-          if (v[0].is_rational() && v[1].is_rational()) return RealNumber::log(v[0].rational(), v[1].rational());
+          if (v[0].is_rational() && v[1].is_rational())
+            return RealNumber::log(v[0].rational(), v[1].rational());
           return log2_of(v[1]) / log2_of(v[0]);
         }
         if (f == "sqrt") {
           int s = v[0].sign();
-          if (s < 0) return fail(reason, "'" + print(e) + "' takes the square root of a negative number");
+          if (s < 0)
+            return fail(reason, "'" + print(e) + "' takes the square root of a negative number");
           if (s == 0) return RealNumber(0L);
           if (v[0].is_rational()) return RealNumber::root(v[0].rational(), 2);
           return pow(v[0], RealNumber(Rational(1, 2)));
         }
         if (f == "floor" || f == "ceil") {
           if (v[0].is_rational()) {
-            return RealNumber(Rational(f == "floor" ? floor_of(v[0].rational()) : ceil_of(v[0].rational())));
+            return RealNumber(
+                Rational(f == "floor" ? floor_of(v[0].rational()) : ceil_of(v[0].rational())));
           }
           for (long prec = 64; prec <= 4096; prec *= 2) {
             Interval x = v[0].enclose(prec);

@@ -93,7 +93,8 @@ void normalize(Expansion& x) {
 
 Lead lead_of(const Expansion& x) {
   if (!x.terms.empty()) return {x.terms[0].g, x.terms[0].c, true, x.terms[0].c.sign()};
-  if (x.error && x.error_sign != 0) return {*x.error, RealNumber(static_cast<long>(x.error_sign)), false, x.error_sign};
+  if (x.error && x.error_sign != 0)
+    return {*x.error, RealNumber(static_cast<long>(x.error_sign)), false, x.error_sign};
   if (x.error) {
     throw Refusal{"the leading terms cancel, leaving a remainder known only as O(" +
                   to_string(*x.error) + ")"};
@@ -135,7 +136,8 @@ Expansion multiply(const Expansion& x, const Expansion& y) {
 Expansion approximate_power(const Expansion& x, const RealNumber& r, const std::string& what) {
   if (x.is_zero()) throw Refusal{"'" + what + "' takes a power of zero"};
   Lead l = lead_of(x);
-  if (l.sign < 0) throw Refusal{"'" + what + "' takes a fractional or negative power of a negative quantity"};
+  if (l.sign < 0)
+    throw Refusal{"'" + what + "' takes a fractional or negative power of a negative quantity"};
   GrowthClass g = l.g.power(r);
   if (!l.known) return pure_expansion(g, 1);
   Expansion out = term_expansion(pow(l.c, r), g);
@@ -160,7 +162,8 @@ Expansion lg_of(const Expansion& x, const std::string& what) {
   Lead l = lead_of(x);
   if (l.sign < 0) throw Refusal{"'" + what + "' takes lg of a negative quantity"};
   if (l.g.is_constant()) {
-    if (!l.known) throw Refusal{"'" + what + "' takes lg of a bounded quantity with unknown constant"};
+    if (!l.known)
+      throw Refusal{"'" + what + "' takes lg of a bounded quantity with unknown constant"};
     if (l.c == RealNumber(1L)) throw Refusal{"'" + what + "' takes lg of a quantity tending to 1"};
     Expansion out = constant_expansion(log2_of(l.c));
     if (auto next = next_class(x)) absorb(out, next->over(l.g), 0);
@@ -171,7 +174,8 @@ Expansion lg_of(const Expansion& x, const std::string& what) {
   if (l.g.alpha.sign() != 0) out.terms.push_back({l.g.alpha, GrowthClass::polylog(0, 1)});
   if (l.g.beta.sign() != 0) out.terms.push_back({l.g.beta, GrowthClass::polylog(0, 0, 1)});
   if (l.g.gamma.sign() != 0) {
-    if (out.terms.empty()) throw Refusal{"'" + what + "' grows like lg lg lg n, outside the normal form"};
+    if (out.terms.empty())
+      throw Refusal{"'" + what + "' grows like lg lg lg n, outside the normal form"};
     absorb(out, GrowthClass::polylog(0, 0, Rational(1, 2)), 0);  // lg lg lg n = o(sqrt(lg lg n))
   }
   if (l.known) {

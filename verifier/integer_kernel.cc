@@ -160,7 +160,9 @@ class IntegerKernel::Compiler {
     if (r_.helpers.count(e.name) != 0) return std::nullopt;
     if ((e.name == "floor" || e.name == "ceil") && e.args.size() == 1) {
       const Expr& x = *e.args[0];
-      if (x.kind == ExprKind::kDiv) return quotient(x, e.name == "floor" ? Op::kFloorDiv : Op::kCeilDiv);
+      if (x.kind == ExprKind::kDiv) {
+        return quotient(x, e.name == "floor" ? Op::kFloorDiv : Op::kCeilDiv);
+      }
       return value(x);  // the floor of an integer is itself
     }
     if (e.name == "mod" && e.args.size() == 2) return binary(Op::kMod, *e.args[0], *e.args[1]);
@@ -191,7 +193,9 @@ class IntegerKernel::Compiler {
         std::optional<uint32_t> x =
             e.kind == ExprKind::kNot ? condition(*e.args[0]) : value(*e.args[0]);
         if (!x) return std::nullopt;
-        Op op = e.kind == ExprKind::kNot ? Op::kNot : e.kind == ExprKind::kEven ? Op::kEven : Op::kOdd;
+        Op op = e.kind == ExprKind::kNot    ? Op::kNot
+                : e.kind == ExprKind::kEven ? Op::kEven
+                                            : Op::kOdd;
         return node(op, *x);
       }
       case ExprKind::kEq: return binary(Op::kEq, *e.args[0], *e.args[1]);

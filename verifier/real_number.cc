@@ -83,11 +83,14 @@ Rational pow_rational(const Rational& base, long k) {
   return r;
 }
 
-BigInt lcm_big(const BigInt& a, const BigInt& b) { return a / boost::multiprecision::gcd(a, b) * b; }
+BigInt lcm_big(const BigInt& a, const BigInt& b) {
+  return a / boost::multiprecision::gcd(a, b) * b;
+}
 
 // Sign of q + sum c_i log_g(a_i), exactly, by comparing g^Q prod a_i^C_i with 1
 // (after clearing denominators). Empty when the powers would be too large.
-std::optional<int> log_sum_sign(const Rational& q, const std::vector<std::pair<Rational, Rational>>& terms,
+std::optional<int> log_sum_sign(const Rational& q,
+                                const std::vector<std::pair<Rational, Rational>>& terms,
                                 const Rational& g) {
   BigInt d = denominator(q);
   for (const auto& [c, a] : terms) d = lcm_big(d, denominator(c));
@@ -98,7 +101,8 @@ std::optional<int> log_sum_sign(const Rational& q, const std::vector<std::pair<R
   for (const auto& [e, b] : factors) {
     BigInt m = boost::multiprecision::abs(e);
     if (bit_length(m) > 40) return std::nullopt;
-    bits += static_cast<uint64_t>(m) * (std::max(bit_length(numerator(b)), bit_length(denominator(b))));
+    bits +=
+        static_cast<uint64_t>(m) * (std::max(bit_length(numerator(b)), bit_length(denominator(b))));
     if (bits > kMaxExactBits) return std::nullopt;
   }
   BigInt top = 1, bottom = 1;
@@ -243,8 +247,10 @@ RealNumber operator/(const RealNumber& a, const RealNumber& b) {
   const Node& y = b.node();
   if (y.kind == Kind::kLog && y.q == 0) {
     // (c1 log_g a1) / (c2 log_g a2) = (c1/c2) log_a2 a1; 1/(c log_g a) = (1/c) log_a g.
-    if (x.kind == Kind::kLog && x.q == 0 && x.g == y.g) return RealNumber::log(y.a, x.a) * RealNumber(Rational(x.c / y.c));
-    if (x.kind == Kind::kLog && x.q == 0 && x.a == y.a) return RealNumber::log(x.g, y.g) * RealNumber(Rational(x.c / y.c));
+    if (x.kind == Kind::kLog && x.q == 0 && x.g == y.g)
+      return RealNumber::log(y.a, x.a) * RealNumber(Rational(x.c / y.c));
+    if (x.kind == Kind::kLog && x.q == 0 && x.a == y.a)
+      return RealNumber::log(x.g, y.g) * RealNumber(Rational(x.c / y.c));
     RealNumber inverse = RealNumber::log(y.a, y.g) * (Rational(1) / y.c);
     if (exact_value(a)) return inverse * a;
   }
@@ -283,9 +289,8 @@ RealNumber pow(const RealNumber& base, const RealNumber& exponent) {
     return RealNumber(pow_rational(e.g, static_cast<long>(numerator(e.q))) *
                       pow_rational(e.a, static_cast<long>(numerator(e.c))));
   }
-  return make_enclosed([base, exponent](long prec) {
-    return base.enclose(prec).pow(exponent.enclose(prec));
-  });
+  return make_enclosed(
+      [base, exponent](long prec) { return base.enclose(prec).pow(exponent.enclose(prec)); });
 }
 
 int compare(const RealNumber& a, const RealNumber& b) {
@@ -304,7 +309,8 @@ int compare(const RealNumber& a, const RealNumber& b) {
   }
   if (x.kind == Kind::kAlgebraic && eb) return compare_algebraic_rational(x, *eb);
   if (y.kind == Kind::kAlgebraic && ea) return -compare_algebraic_rational(y, *ea);
-  if (x.kind == Kind::kAlgebraic && y.kind == Kind::kAlgebraic) return compare_algebraic(x, y, a, b);
+  if (x.kind == Kind::kAlgebraic && y.kind == Kind::kAlgebraic)
+    return compare_algebraic(x, y, a, b);
   return compare_by_intervals(a, b);
 }
 

@@ -115,7 +115,8 @@ int compare_algebraic(const Node& x, const Node& y, const RealNumber& a, const R
 
 RealNumber RealNumber::algebraic(const Polynomial& p, const Rational& lo, const Rational& hi) {
   Polynomial sf = p.squarefree();
-  if (sf.degree() < 1 || !(lo < hi)) throw std::invalid_argument("algebraic: no polynomial or interval");
+  if (sf.degree() < 1 || !(lo < hi))
+    throw std::invalid_argument("algebraic: no polynomial or interval");
   if (sf.degree() == 1) return RealNumber(-sf.coefficient(0) / sf.coefficient(1));
   int hi_sign = sf.sign_at(hi);
   int count = sf.count_real_roots(lo, hi) - (hi_sign == 0 ? 1 : 0);
