@@ -282,6 +282,7 @@ class ReportReader {
     w.bound = optional_string(j, path, "bound");
     w.family = optional_string(j, path, "family");
     w.factor = optional_string(j, path, "factor");
+    w.margin = optional_string(j, path, "margin");
     return w;
   }
 

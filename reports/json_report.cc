@@ -24,6 +24,7 @@ Json witness_to_json(const Witness& w) {
   j["bound"] = w.bound;
   j["family"] = w.family;
   j["factor"] = w.factor;
+  j["margin"] = w.margin;
   return j;
 }
 

@@ -144,6 +144,10 @@ void append_witnesses(std::string& out, const ClaimResult& c) {
     out += kIndent + std::string("  ") + witness_headline(w) + "\n";
     if (!w.value.empty()) out += kIndent + std::string("    T(n)  = ") + short_value(w.value) + "\n";
     if (!w.bound.empty()) out += kIndent + std::string("    bound = ") + short_value(w.bound) + "\n";
+    if (!w.margin.empty()) {
+      out += kIndent + std::string(w.side == Side::kUpper ? "    T(n) − bound = " : "    bound − T(n) = ") +
+             short_value(w.margin) + "\n";
+    }
   }
   if (shown < c.witnesses.size()) {
     out += fmt::format("{}  \u2026 and {} more (every witness is in --format json)\n", kIndent,

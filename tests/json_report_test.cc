@@ -87,7 +87,7 @@ TEST(JsonReport, WitnessSizesAreFullDecimalStrings) {
     EXPECT_DOUBLE_EQ(witnesses[i]["ratio"].get<double>(), w.ratio);
   }
   EXPECT_EQ(keys_of(witnesses[0]),
-            (std::vector<std::string>{"n", "ratio", "side", "value", "bound", "family", "factor"}));
+            (std::vector<std::string>{"n", "ratio", "side", "value", "bound", "family", "factor", "margin"}));
 }
 
 TEST(JsonReport, BandRowsCarryScaleEndsAndWhereFound) {

@@ -238,6 +238,10 @@ TEST(WitnessHunt, MergeSortBoundJustBelowThePeakRefutedInTheNarrowWindow) {
   EXPECT_GE(w.n, 1000000);
   EXPECT_EQ(w.value, merge_sort_worst(w.n).str());
   EXPECT_TRUE(breaks_merge_sort_bound(w.n, 91393, 100000)) << w.n;
+  // The margin is a certified interval above 0 (the bound is irrational).
+  ASSERT_FALSE(w.margin.empty());
+  EXPECT_EQ(w.margin.front(), '[') << w.margin;
+  EXPECT_GT(std::stod(w.margin.substr(1)), 0.0) << w.margin;
   EXPECT_NE(r.message.find("n = " + w.n.str()), std::string::npos) << r.message;
   // The smallest violation >= 10^6, by scanning the closed form [calc]. The
   // window of scale 19 lies below 10^6 (2 ln 2 · 2^19 ≈ 726,817), so the
@@ -358,6 +362,7 @@ TEST(WitnessHunt, StrictBoundBreaksExactlyAtAPowerOfTwo) {
   EXPECT_EQ(r.witnesses.front().n, 8);  // calc: T(8) = 32 = 8·3 + 8
   EXPECT_EQ(r.witnesses.front().value, "32");
   EXPECT_EQ(r.witnesses.front().side, Side::kUpper);
+  EXPECT_EQ(r.witnesses.front().margin, "0");  // a strict bound met with equality
 
   // Beyond the exhaustive range: the first power of two at or above 10^6.
   ClaimResult far = check_one(claim_toml(kTwoHalves, "T(n) < n lg n + n for n >= 1000000"),

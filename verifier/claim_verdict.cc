@@ -4,6 +4,7 @@
 // ladder alone.
 #include <algorithm>
 #include <cmath>
+#include <stdexcept>
 #include <utility>
 
 #include <fmt/format.h>
@@ -37,6 +38,7 @@ void ClaimCheck::check_explicit(const std::vector<Size>& sizes) {
   std::vector<Target> targets;
   if (bound.upper) targets.push_back({Side::kUpper, bound.upper.get(), bound.strict_upper});
   if (bound.lower) targets.push_back({Side::kLower, bound.lower.get(), bound.strict_lower});
+  if (targets.empty()) throw std::logic_error("an explicit bound without a side");
   sample_sizes(sizes, targets, true);
   // A family member may land in a narrow window at a high scale while
   // lower scales have windows of their own: search those first, so the
@@ -50,10 +52,11 @@ void ClaimCheck::check_explicit(const std::vector<Size>& sizes) {
   if (!result_.witnesses.empty()) {
     const Witness& w = result_.witnesses.front();
     result_.verdict = Verdict::kRefuted;
-    result_.message = fmt::format("{} bound broken at n = {} (family {}): {}({}) = {} {} {}",
+    result_.message = fmt::format("{} bound broken at n = {} (family {}): {}({}) = {} {} {}{}",
                                   side_name(w.side), short_number(w.n), w.family,
                                   claim_.recurrence->main.name, short_number(w.n), w.value,
-                                  w.side == Side::kUpper ? ">" : "<", w.bound);
+                                  w.side == Side::kUpper ? ">" : "<", w.bound,
+                                  w.margin.empty() ? "" : ", by " + w.margin);
     return;
   }
   std::string checked = fmt::format("no violation at {} sizes up to {} bits",
@@ -119,7 +122,9 @@ void ClaimCheck::check_asymptotic(const std::vector<Size>& sizes) {
   for (const Target& target : targets) climb_ladder(target);
 
   ClaimComparison cmp = compare_claim(*derivation_, bound);
-  std::vector<Sample> all = targets.front().samples;
+  // Every side's samples: local search pushed each side's edge apart.
+  std::vector<Sample> all;
+  for (const Target& target : targets) all.insert(all.end(), target.samples.begin(), target.samples.end());
   switch (cmp.agreement) {
     case ClaimAgreement::kAgree:
     case ClaimAgreement::kHoldsLoosely:
@@ -213,7 +218,7 @@ void ClaimCheck::decide_numerically(const std::vector<Target>& targets) {
 
   auto reached_escape = [&](Side side) {
     for (const Witness& w : result_.witnesses) {
-      if (w.side == side && w.factor.size() >= 7) return true;  // c >= 10^6
+      if (w.side == side && !w.factor.empty() && BigInt(w.factor) >= 1000000) return true;
     }
     return false;
   };

@@ -28,6 +28,7 @@ struct Witness {
   std::string bound;     // the bound's value at n (c·g(n) or the explicit side)
   double ratio = 0;      // T(n)/g(n), approximate, for display
   std::string factor;    // for ladder rungs: "10", "100", ...; empty otherwise
+  std::string margin;    // explicit bounds: T(n) − bound (upper side) or bound − T(n), > 0
   std::string family;    // the size family that found n
 };
 

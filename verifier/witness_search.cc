@@ -19,12 +19,12 @@ void ClaimCheck::sample_sizes(const std::vector<Size>& sizes, std::vector<Target
         stopped_ = fmt::format("the search stopped before n = {}: 60% of the work budget "
                                "went to the size families", short_number(size.n));
       }
-      partial_scale_ = bit_length(size.n) - 1;
+      partial_scale_ = size.n == 0 ? 0 : bit_length(size.n) - 1;
       break;
     }
     std::optional<Value> t = value_at(size.n, true);
     if (!t) {
-      partial_scale_ = bit_length(size.n) - 1;
+      partial_scale_ = size.n == 0 ? 0 : bit_length(size.n) - 1;
       break;
     }
     bool all_done = true;
@@ -170,14 +170,28 @@ Witness ClaimCheck::witness_for(const Target& target, const Sample& s, const std
   w.side = target.side;
   Value t = known_value(s.n);
   w.value = t.str();
+  // What T(n) was compared with: the explicit side, or c·g(n) (upper) and
+  // g(n)/c (lower) for a ladder rung.
+  ExprPtr compared(ExprPtr(), target.reference);  // not owning: the claim outlives it
+  if (!factor.empty()) {
+    ExprKind op = target.side == Side::kUpper ? ExprKind::kMul : ExprKind::kDiv;
+    ExprPtr c = make_number(Rational(BigInt(factor)));
+    compared = op == ExprKind::kMul ? make_binary(op, c, compared) : make_binary(op, compared, c);
+  }
+  Value r = evaluator_.evaluate(*compared, claim_.bound.source, s.n);
+  w.bound = r.str();
+  w.ratio = factor.empty() ? std::exp2(t.log2_magnitude() - r.log2_magnitude())
+                           : std::exp2(s.log2_ratio);
   if (factor.empty()) {
-    Value r = evaluator_.evaluate(*target.reference, claim_.bound.source, s.n);
-    w.bound = r.str();
-    w.ratio = std::exp2(t.log2_magnitude() - r.log2_magnitude());
-  } else {
-    Value r = evaluator_.evaluate(*target.reference, claim_.bound.source, s.n);
-    w.bound = r.str();
-    w.ratio = std::exp2(s.log2_ratio);
+    // By how much the bound is broken, exactly (an interval when the bound
+    // is irrational): the certificate a reader can check at a glance.
+    ExprPtr over = target.side == Side::kUpper ? make_binary(ExprKind::kSub, t_of_n_, compared)
+                                               : make_binary(ExprKind::kSub, compared, t_of_n_);
+    try {
+      w.margin = evaluator_.evaluate(*over, claim_.bound.source, s.n).str();
+    } catch (const BudgetExceeded&) {
+      // The comparison was certified; only its display is lost.
+    }
   }
   w.factor = factor;
   w.family = s.family;
