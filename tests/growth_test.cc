@@ -37,6 +37,20 @@ TEST(GrowthRealNumber, LogarithmsAreCanonical) {
   EXPECT_LT(RealNumber::log(3, 5), RealNumber::log(2, 3));  // 1.4650 < 1.5850 (calc)
 }
 
+TEST(GrowthRealNumber, RationalRootsOfReduciblePolynomialsPrintAsFractions) {
+  // (3x - 50)(x^2 - 2) and (1000003x - 7)(x^2 - x - 1): the rational root is
+  // found whatever its place in the interval and the size of its denominator.
+  Polynomial a = Polynomial({Rational(-50), Rational(3)}) * Polynomial({Rational(-2), 0, Rational(1)});
+  EXPECT_EQ(RealNumber::algebraic(a, 10, 100).str(), "50/3");
+  Polynomial b = Polynomial({Rational(-7), Rational(1000003)}) *
+                 Polynomial({Rational(-1), Rational(-1), Rational(1)});
+  EXPECT_EQ(RealNumber::algebraic(b, 0, Rational(1, 2)).str(), "7/1000003");
+  // The irrational root of the same polynomial stays algebraic.
+  RealNumber root2 = RealNumber::algebraic(a, 1, 2);
+  EXPECT_FALSE(root2.is_rational());
+  EXPECT_EQ(root2.digits(), "1.414214…");
+}
+
 TEST(GrowthRealNumber, GoldenRatioIsExact) {
   RealNumber phi = RealNumber::algebraic(Polynomial({Rational(-1), Rational(-1), Rational(1)}), 1, 2);
   auto written = constant_value(*expr("(1 + sqrt(5))/2"));

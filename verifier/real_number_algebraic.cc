@@ -8,6 +8,7 @@
 
 #include <algorithm>
 #include <mutex>
+#include <optional>
 #include <stdexcept>
 #include <string>
 
@@ -24,6 +25,37 @@ using real_number_internal::kMaxPrecision;
 namespace {
 
 using Kind = RealNumber::Kind;
+
+// The fraction with the smallest denominator in [a, b], by continued
+// fractions (common practice: the Stern–Brocot descent). REQUIRES: a <= b.
+Rational simplest_between(const Rational& a, const Rational& b) {
+  BigInt whole = floor_of(a);
+  if (Rational(whole) == a) return a;
+  if (Rational(whole + 1) <= b) return Rational(whole + 1);
+  // a and b share the integer part: recurse on the reciprocals of the rest.
+  Rational inner = simplest_between(1 / (b - Rational(whole)), 1 / (a - Rational(whole)));
+  return Rational(whole) + 1 / inner;
+}
+
+// The root of sf in (lo, hi) when it is rational. Narrowing the interval
+// below 1/q^2 leaves p/q as the simplest fraction in it (two fractions with
+// denominators at most q are 1/q^2 apart), so denominators up to 2^64 are
+// found. REQUIRES: sf has exactly one root in (lo, hi), signs at both ends.
+std::optional<Rational> rational_root(const Polynomial& sf, Rational lo, Rational hi) {
+  int sign_lo = sf.sign_at(lo);
+  for (int bits : {8, 32, 128}) {
+    Rational width = Rational(1, BigInt(1) << bits);
+    while (hi - lo > width) {
+      Rational mid = (lo + hi) / 2;
+      int s = sf.sign_at(mid);
+      if (s == 0) return mid;
+      (s == sign_lo ? lo : hi) = mid;
+    }
+    Rational candidate = simplest_between(lo, hi);
+    if (sf.sign_at(candidate) == 0) return candidate;
+  }
+  return std::nullopt;
+}
 
 Interval hull(const Rational& lo, const Rational& hi, long prec) {
   Interval r(prec);
@@ -139,14 +171,8 @@ RealNumber RealNumber::algebraic(const Polynomial& p, const Rational& lo, const 
     }
     n->hi = h;
   }
-  // Small rational roots are caught here so that they print as rationals.
-  for (long d = 1; d <= 12; ++d) {
-    BigInt k = floor_of(lo * Rational(d)) + 1;
-    for (int tries = 0; tries < 4 && Rational(k, BigInt(d)) < n->hi; ++tries, ++k) {
-      Rational candidate(k, BigInt(d));
-      if (sf.sign_at(candidate) == 0) return RealNumber(candidate);
-    }
-  }
+  // A rational root prints as a fraction and compares without bisection.
+  if (std::optional<Rational> q = rational_root(sf, n->lo, n->hi)) return RealNumber(*q);
   return from_node(n);
 }
 
