@@ -154,14 +154,15 @@ TEST_F(Cli, MissingPathIsUsageError) {
 TEST_F(Cli, EffortBuysReachAndIsPartOfTheReplay) {
   // Two terms whose floors never collapse: each larger size costs more
   // subproblems, so the work budget, not --max-bits, sets the reach.
-  std::string file = write_file("select.toml", R"toml([[claim]]
+  const std::string claim = R"toml([[claim]]
 name = "select"
 recurrence = """
 T(n) = 1 if n <= 4
 T(n) = T(n/5) + T(7n/10) + n
 """
 bound = "Theta(n)"
-)toml");
+)toml";
+  std::string file = write_file("select.toml", claim);
   CommandResult base = run("check --max-bits 256 --format json " + file);
   CommandResult deep = run("check --max-bits 256 --effort 4 --format json " + file);
   ASSERT_EQ(base.status, 0) << base.out;
@@ -181,15 +182,7 @@ bound = "Theta(n)"
   EXPECT_EQ(run("check --effort 0 " + file).status, 2);
 
   // The claim's own effort multiplies the same budget.
-  std::string own = write_file("select-own.toml", R"toml([[claim]]
-name = "select"
-recurrence = """
-T(n) = 1 if n <= 4
-T(n) = T(n/5) + T(7n/10) + n
-"""
-bound = "Theta(n)"
-sizes = { effort = 4 }
-)toml");
+  std::string own = write_file("select-own.toml", claim + "sizes = { effort = 4 }\n");
   auto o = nlohmann::json::parse(run("check --max-bits 256 --format json " + own).out);
   EXPECT_EQ(o["claims"][0]["largest_bits"], d["claims"][0]["largest_bits"]);
   EXPECT_EQ(o["claims"][0]["sizes_checked"], d["claims"][0]["sizes_checked"]);

@@ -23,6 +23,12 @@ std::string reasons(const Derivation& d) {
   return s;
 }
 
+std::string steps_of(const Derivation& d) {
+  std::string s;
+  for (const auto& step : d.steps) s += step + "\n";
+  return s;
+}
+
 ClaimComparison against(const std::string& recurrence, const std::string& bound) {
   return compare_claim(derived(recurrence), parse_bound(SourceText::whole("<bound>", bound)));
 }
@@ -45,8 +51,7 @@ TEST(DeriveMaster, ZeroDrivingFunctionCostsOnlyTheLeaves) {
   Derivation d = derived("T(n) = 3T(ceil(n/2)); T(1) = 1");
   EXPECT_EQ(d.derived, "n^(lg 3)");
   EXPECT_EQ(d.method, "master theorem, case 1");
-  std::string steps;
-  for (const auto& s : d.steps) steps += s + "\n";
+  std::string steps = steps_of(d);
   EXPECT_NE(steps.find("f(n) = 0: only the n^p leaves cost"), std::string::npos) << steps;
   EXPECT_EQ(steps.find("ε"), std::string::npos) << "f = 0 has no ε to speak of:\n" << steps;
 }
@@ -82,8 +87,7 @@ TEST(DeriveAkraBazzi, PublishedExamples) {
   EXPECT_EQ(a.derived, "n") << reasons(a);
   EXPECT_EQ(a.method, "Akra–Bazzi");
   // The integral's exponent is shown as 1 - p before its digits.
-  std::string steps;
-  for (const auto& s : a.steps) steps += s + "\n";
+  std::string steps = steps_of(a);
   EXPECT_NE(steps.find("du = Θ(n^(1 - p)) = Θ(n^0.160220…)"), std::string::npos) << steps;
   EXPECT_EQ(derived("T(n) = T(n/2) + T(n/3) + T(n/6) + n; T(1) = 1").derived, "n lg n");
   // Leighton 1996 example (from memory): 2T(n/4) + 3T(n/6) + n lg n.
@@ -131,11 +135,6 @@ TEST(DeriveLinear, DominantRootAndItsCoefficient) {
 }
 
 TEST(DeriveLinear, DominanceIsCertifiedAndRepeatedRootsAreFound) {
-  auto steps_of = [](const Derivation& d) {
-    std::string s;
-    for (const auto& step : d.steps) s += step + "\n";
-    return s;
-  };
   // x^2 - x - 1 has roots 1.618… and −0.618… (from memory).
   Derivation fib = derived("T(n) = T(n-1) + T(n-2); T(0) = 0; T(1) = 1");
   EXPECT_NE(steps_of(fib).find("(certified: Pellet's theorem after Graeffe root-squaring)"),
