@@ -48,6 +48,7 @@ struct IntegerKernel::Line {
 struct IntegerKernel::Frame {
   size_t key;          // index into args_ of the size, or kRoot
   size_t parent_slot;  // known_[parent_slot] receives the value, or kRoot
+  size_t memo_size;    // when pushed, after the memo was asked for this size
   const Line* line = nullptr;
   size_t first_arg = 0;
 };
@@ -395,13 +396,15 @@ void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
     if (slot == kRoot) result = value;
     else known_[slot] = value;
   };
-  frames_.push_back({kRoot, kRoot});
+  frames_.push_back({kRoot, kRoot, memo_.size()});
   while (!frames_.empty()) {
     Frame& frame = frames_.back();
     mpz_srcptr m = key_of(frame, n);
     if (frame.line == nullptr) {
+      // Pushed by two parents, a size is evaluated once; unless something was
+      // remembered since it was pushed, the memo still lacks it.
       LimbView known;
-      if (memo_.find(m, known)) {  // pushed by two parents: evaluated once
+      if (memo_.size() != frame.memo_size && memo_.find(m, known)) {
         deliver(frame.parent_slot, known);
         frames_.pop_back();
         continue;
@@ -434,7 +437,7 @@ void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
         if (!memo_.find(args_[i]->z, known_[i])) known_[i] = LimbView{};
       }
       for (size_t i = first; i < arg_count; ++i) {
-        if (known_[i].limbs == nullptr) frames_.push_back({i, i});
+        if (known_[i].limbs == nullptr) frames_.push_back({i, i, memo_.size()});
       }
       continue;
     }

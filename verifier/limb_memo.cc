@@ -2,6 +2,7 @@
 
 #include <cstdlib>
 #include <cstring>
+#include <stdexcept>
 
 namespace thetagate {
 
@@ -10,6 +11,8 @@ constexpr size_t kInitialSlots = 1024;
 constexpr size_t kBlockLimbs = size_t{1} << 16;  // 512 KiB per arena block
 // Zero has no limbs; its pointer must still mark a slot as used.
 const mp_limb_t kNoLimbs[1] = {0};
+
+uint32_t tag_of(uint64_t hash) { return static_cast<uint32_t>(hash >> 32); }
 
 uint64_t mix(uint64_t h) {  // the splitmix64 finaliser
   h ^= h >> 30;
@@ -36,15 +39,17 @@ uint64_t LimbMemo::hash_of(mpz_srcptr key) {
 }
 
 size_t LimbMemo::slot_of(mpz_srcptr key, uint64_t hash) const {
-  // Linear probing over a table at most half full: most lookups are of new
+  // Linear probing over an index at most half full: most lookups are of new
   // sizes, and a miss costs about 2.5 probes there (8.5 at three quarters).
-  size_t mask = slots_.size() - 1;
+  size_t mask = index_.size() - 1;
   int n = std::abs(key->_mp_size);
   for (size_t i = static_cast<size_t>(hash) & mask;; i = (i + 1) & mask) {
-    const Slot& s = slots_[i];
-    if (s.key == nullptr) return i;
-    if (s.hash == hash && s.key_size == key->_mp_size &&
-        (n == 0 || mpn_cmp(s.key, key->_mp_d, n) == 0)) {
+    uint64_t word = index_[i];
+    if (word == 0) return i;
+    if ((word >> 32) != tag_of(hash)) continue;
+    const Entry& e = entries_[(word & 0xffffffffu) - 1];
+    if (e.hash == hash && e.key_size == key->_mp_size &&
+        (n == 0 || mpn_cmp(e.key, key->_mp_d, n) == 0)) {
       return i;
     }
   }
@@ -52,9 +57,10 @@ size_t LimbMemo::slot_of(mpz_srcptr key, uint64_t hash) const {
 
 bool LimbMemo::find(mpz_srcptr key, LimbView& value) const {
   if (size_ == 0) return false;
-  const Slot& s = slots_[slot_of(key, hash_of(key))];
-  if (s.key == nullptr) return false;
-  value = {s.value, s.value_size};
+  uint64_t word = index_[slot_of(key, hash_of(key))];
+  if (word == 0) return false;
+  const Entry& e = entries_[(word & 0xffffffffu) - 1];
+  value = {e.value, e.value_size};
   return true;
 }
 
@@ -73,33 +79,34 @@ const mp_limb_t* LimbMemo::store(mpz_srcptr x) {
 }
 
 LimbView LimbMemo::insert(mpz_srcptr key, mpz_srcptr value) {
-  if ((size_ + 1) * 2 > slots_.size()) grow();
+  if ((size_ + 1) * 2 > index_.size()) grow();
   uint64_t hash = hash_of(key);
-  Slot& s = slots_[slot_of(key, hash)];
-  if (s.key != nullptr) return {s.value, s.value_size};
-  s.hash = hash;
-  s.key = store(key);
-  s.key_size = key->_mp_size;
-  s.value = store(value);
-  s.value_size = value->_mp_size;
+  size_t slot = slot_of(key, hash);
+  if (index_[slot] != 0) {
+    const Entry& e = entries_[(index_[slot] & 0xffffffffu) - 1];
+    return {e.value, e.value_size};
+  }
+  if (entries_.size() >= 0xffffffffu) throw std::length_error("a memo of 2^32 entries");
+  entries_.push_back({store(key), store(value), key->_mp_size, value->_mp_size, hash});
+  index_[slot] = (static_cast<uint64_t>(tag_of(hash)) << 32) | entries_.size();
   ++size_;
-  return {s.value, s.value_size};
+  return {entries_.back().value, entries_.back().value_size};
 }
 
 void LimbMemo::grow() {
-  std::vector<Slot> old = std::move(slots_);
-  slots_.assign(old.empty() ? kInitialSlots : old.size() * 2, Slot{});
-  size_t mask = slots_.size() - 1;
-  for (const Slot& s : old) {
-    if (s.key == nullptr) continue;
-    size_t i = static_cast<size_t>(s.hash) & mask;
-    while (slots_[i].key != nullptr) i = (i + 1) & mask;
-    slots_[i] = s;
+  index_.assign(index_.empty() ? kInitialSlots : index_.size() * 2, 0);
+  size_t mask = index_.size() - 1;
+  for (size_t k = 0; k < entries_.size(); ++k) {
+    uint64_t hash = entries_[k].hash;
+    size_t i = static_cast<size_t>(hash) & mask;
+    while (index_[i] != 0) i = (i + 1) & mask;
+    index_[i] = (static_cast<uint64_t>(tag_of(hash)) << 32) | (k + 1);
   }
 }
 
 void LimbMemo::clear() {
-  slots_.clear();
+  entries_.clear();
+  index_.clear();
   size_ = 0;
   blocks_.clear();
   block_used_ = 0;

@@ -1,7 +1,9 @@
 // The integer kernel's memo: big-integer keys and values stored as raw GMP
-// limbs in an append-only arena, indexed by open addressing. No allocation
-// per entry (the arena grows in large blocks) and no shared ownership: a
-// lookup touches the slot and then the key's limbs.
+// limbs in an append-only arena, entries kept densely in insertion order, and
+// an open-addressing index of 8-byte words (a 32-bit hash tag and the entry's
+// number). No allocation per entry (the arena grows in large blocks) and no
+// shared ownership. Most lookups are of sizes not seen yet: they touch only
+// the compact index, which stays in cache far longer than the entries would.
 #ifndef THETAGATE_VERIFIER_LIMB_MEMO_H_
 #define THETAGATE_VERIFIER_LIMB_MEMO_H_
 
@@ -34,19 +36,21 @@ class LimbMemo {
   void clear();
 
  private:
-  struct Slot {
-    uint64_t hash = 0;
-    const mp_limb_t* key = nullptr;  // null: empty slot
-    const mp_limb_t* value = nullptr;
-    int key_size = 0;
-    int value_size = 0;
+  struct Entry {
+    const mp_limb_t* key;
+    const mp_limb_t* value;
+    int key_size;
+    int value_size;
+    uint64_t hash;  // growing never rereads the key
   };
   static uint64_t hash_of(mpz_srcptr key);
+  // The index slot holding key, or the empty slot where it would go.
   size_t slot_of(mpz_srcptr key, uint64_t hash) const;
   const mp_limb_t* store(mpz_srcptr x);
   void grow();
 
-  std::vector<Slot> slots_;
+  std::vector<Entry> entries_;
+  std::vector<uint64_t> index_;  // 0: empty; else (hash tag << 32) | (entry number + 1)
   size_t size_ = 0;
   std::vector<std::unique_ptr<mp_limb_t[]>> blocks_;
   size_t block_used_ = 0;
