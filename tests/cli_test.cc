@@ -195,6 +195,23 @@ TEST_F(Cli, SameSeedSameReportByteForByte) {
   EXPECT_EQ(a.out, b.out);
 }
 
+TEST_F(Cli, DemoLibraryRefutesExactlyItsDeliberatelyWrongClaims) {
+  // The bundled demo as the README runs it (default sizes, both cores):
+  // every claim named "deliberately wrong" is refuted, every other is not.
+  CommandResult r = run(std::string("check --jobs 2 --format json ") + THETAGATE_SOURCE_DIR + "/claims");
+  EXPECT_EQ(r.status, 1) << r.out;
+  auto json = nlohmann::json::parse(r.out);
+  int wrong = 0;
+  for (const auto& c : json["claims"]) {
+    std::string name = c["name"];
+    bool deliberately_wrong = name.find("deliberately wrong") != std::string::npos;
+    wrong += deliberately_wrong;
+    EXPECT_EQ(c["verdict"] == "refuted", deliberately_wrong) << name << ": " << c["message"];
+    EXPECT_NE(c["verdict"], "error") << name;
+  }
+  EXPECT_GE(wrong, 10);
+}
+
 TEST_F(Cli, DemoClaimsRunAndIncludeARefutation) {
   CommandResult r = run(std::string("check --max-bits 256 --format json ") + THETAGATE_SOURCE_DIR + "/claims");
   EXPECT_EQ(r.status, 1) << r.out;
