@@ -68,14 +68,15 @@ std::string number_cell(const std::string& full, const std::string& shown) {
 
 std::string witness_table(const ClaimResult& c) {
   std::string s = "<h3>Witnesses</h3>\n<table class=\"witnesses\">\n<tr><th>n</th><th>side</th>"
-                  "<th>T(n)/g(n)</th><th>T(n)</th><th>bound</th><th>family</th>"
-                  "<th>ladder c</th></tr>\n";
+                  "<th>T(n)/g(n)</th><th>T(n)</th><th>bound</th><th>broken by</th>"
+                  "<th>family</th><th>ladder c</th></tr>\n";
   for (const Witness& w : c.witnesses) {
     s += "<tr>" + number_cell(w.n.str(), short_decimal(w.n));
     s += std::string("<td>") + side_name(w.side) + "</td>";
     s += "<td class=\"num\">" + esc(format_ratio(w.ratio)) + "</td>";
     s += number_cell(w.value, short_value(w.value));
     s += number_cell(w.bound, short_value(w.bound));
+    s += number_cell(w.margin, short_value(w.margin));
     s += "<td>" + esc(w.family) + "</td><td class=\"num\">" + esc(w.factor) + "</td></tr>\n";
   }
   return s + "</table>\n";

@@ -48,6 +48,10 @@ std::string witness_block(const ClaimResult& c) {
     s += fmt::format("witness {}: n = {} ({} side)\n", i + 1, w.n.str(), side_name(w.side));
     if (!w.value.empty()) s += "  T(n) = " + w.value + "\n";
     if (!w.bound.empty()) s += "  bound = " + w.bound + "\n";
+    if (!w.margin.empty()) {
+      s += std::string(w.side == Side::kUpper ? "  T(n) - bound = " : "  bound - T(n) = ") +
+           w.margin + "\n";
+    }
     s += "  T(n)/g(n) = " + format_ratio(w.ratio) + "\n";
     if (!w.family.empty()) s += "  family = " + w.family + "\n";
     if (!w.factor.empty()) s += "  ladder c = " + w.factor + "\n";
