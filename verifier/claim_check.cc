@@ -59,9 +59,28 @@ std::vector<BandRow> BandBuilder::rows() const {
   return out;
 }
 
+namespace {
+
+// --effort times the claim's own effort.
+uint64_t effort_of(const Claim& claim, const CheckOptions& options) {
+  return std::max<uint64_t>(1, options.effort) * std::max<uint64_t>(1, claim.sizes.effort);
+}
+
+// The evaluator's limits grow with the effort: a deeper search may need
+// larger single sizes (the per-size limit), more steps in all, and more
+// time before the hang guard, which must never be what ends a search.
+Budget scaled(Budget b, uint64_t effort) {
+  b.max_steps *= effort;
+  if (b.max_steps_per_size != 0) b.max_steps_per_size *= effort;
+  b.max_seconds *= static_cast<double>(effort);
+  return b;
+}
+
+}  // namespace
+
 ClaimCheck::ClaimCheck(const Claim& claim, const CheckOptions& options, ClaimResult& result)
     : claim_(claim), options_(options), result_(result),
-      evaluator_(claim.recurrence, options.budget),
+      evaluator_(claim.recurrence, scaled(options.budget, effort_of(claim, options))),
       t_of_n_(make_call(claim.recurrence->main.name, {make_variable()})) {}
 
 void ClaimCheck::run() {
@@ -77,6 +96,10 @@ void ClaimCheck::run() {
     result_.notes.push_back(fmt::format(
         "{} exact comparisons stayed undecided even at the highest interval precision (both "
         "sides irrational and equal to many digits)", undecidable_));
+  }
+  if (skipped_comparisons_ > 0) {
+    result_.notes.push_back(fmt::format("{} exact comparisons were skipped, out of budget ({})",
+                                        skipped_comparisons_, first_skip_reason_));
   }
 }
 
@@ -112,9 +135,7 @@ uint64_t ClaimCheck::work_of(uint64_t steps, uint64_t bits) const {
 }
 
 uint64_t ClaimCheck::work_budget() const {
-  uint64_t effort =
-      std::max<uint64_t>(1, options_.effort) * std::max<uint64_t>(1, claim_.sizes.effort);
-  return std::max<uint64_t>(1, options_.work_budget * effort);
+  return std::max<uint64_t>(1, options_.work_budget * effort_of(claim_, options_));
 }
 
 double ClaimCheck::work_used() const {
@@ -151,8 +172,12 @@ std::optional<int> ClaimCheck::compare_at(const Expr& a, const SourceText& sa, c
                                           const SourceText& sb, const BigInt& n) {
   try {
     return evaluator_.compare_at(a, sa, b, sb, n);
-  } catch (const BudgetExceeded&) {
+  } catch (const PrecisionExhausted&) {
     ++undecidable_;
+    return std::nullopt;
+  } catch (const BudgetExceeded& e) {
+    // Steps or memory, e.g. T(n) recomputed after a memo clear.
+    if (skipped_comparisons_++ == 0) first_skip_reason_ = e.what();
     return std::nullopt;
   }
 }

@@ -123,12 +123,14 @@ class ClaimCheck {
   // certified break.
   void sample_sizes(const std::vector<Size>& sizes, std::vector<Target>& targets, bool is_explicit);
   // Local search for every target, each with an equal share of the work
-  // left below 85% of the budget.
+  // left below 85% of the budget, and of the whole budget for carrying.
   void search_targets(std::vector<Target>& targets, bool is_explicit);
   // Pushes each scale's band edge outward by local search from its extreme
   // sample, until the work reaches work_end. Each scale gets an equal share
   // of what is left when it starts, so cheap scales pass their work on.
-  void search_locally(Target& target, bool is_explicit, uint64_t work_end);
+  // Past work_end, each remaining scale still evaluates the size carried up
+  // from the scale below, until carry_end.
+  void search_locally(Target& target, bool is_explicit, uint64_t work_end, uint64_t carry_end);
   // Moves a certified violation toward the smallest size that still breaks
   // the bound: halve the distance to min_n while that keeps it broken, then
   // single steps (the shrinking RapidCheck does, on one integer).
@@ -169,7 +171,9 @@ class ClaimCheck {
   std::optional<Derivation> derivation_;
   BigInt min_n_ = 1;
   std::string stopped_;
-  uint64_t undecidable_ = 0;
+  uint64_t undecidable_ = 0;          // comparisons precision could not decide
+  uint64_t skipped_comparisons_ = 0;  // comparisons another budget stopped
+  std::string first_skip_reason_;
 };
 
 }  // namespace thetagate::checker_internal

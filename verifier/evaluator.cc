@@ -148,7 +148,7 @@ auto Evaluator::with_precision(F&& f) -> decltype(f()) {
       return f();
     } catch (const PrecisionShortfall& shortfall) {
       if (ctx_.precision_bits * 2 > budget_.max_precision_bits) {
-        throw BudgetExceeded(std::string("an interval stayed too wide to decide (") +
+        throw PrecisionExhausted(std::string("an interval stayed too wide to decide (") +
                              shortfall.what() + ") even at " +
                              std::to_string(ctx_.precision_bits) + " bits of precision");
       }
@@ -356,7 +356,9 @@ Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope
   if (const Value* value = memo_.find(m)) return *value;
   if (kernel_) {
     // Not through value_at(): that would restart the precision this
-    // expression's evaluation may be raising (with_precision).
+    // expression's evaluation may be raising (with_precision). The
+    // per-size step limit still counts from here, as for a size of its own.
+    call_start_steps_ = stats_.steps;
     if (std::optional<Value> fast = kernel_value(m.integer())) return std::move(*fast);
   }
   // Only reachable from evaluate() on an expression that calls T directly.

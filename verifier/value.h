@@ -33,6 +33,12 @@ struct BudgetExceeded : std::runtime_error {
   using std::runtime_error::runtime_error;
 };
 
+// The budget that ran out was interval precision: two sides agree to more
+// digits than the largest precision holds (they may be equal).
+struct PrecisionExhausted : BudgetExceeded {
+  using BudgetExceeded::BudgetExceeded;
+};
+
 // Precision and size limits for arithmetic on values.
 struct NumericContext {
   long precision_bits = 128;        // for intervals made from exact values

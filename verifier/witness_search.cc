@@ -48,13 +48,16 @@ void ClaimCheck::sample_sizes(const std::vector<Size>& sizes, std::vector<Target
 void ClaimCheck::search_targets(std::vector<Target>& targets, bool is_explicit) {
   uint64_t end = work_budget() / 100 * 85;
   for (size_t i = 0; i < targets.size(); ++i) {
-    uint64_t share = work_ < end ? (end - work_) / (targets.size() - i) : 0;
-    search_locally(targets[i], is_explicit, work_ + share);
+    uint64_t left = targets.size() - i;
+    uint64_t share = work_ < end ? (end - work_) / left : 0;
+    uint64_t carry = work_ < work_budget() ? (work_budget() - work_) / left : 0;
+    search_locally(targets[i], is_explicit, work_ + share, work_ + carry);
     if (is_explicit && targets[i].violation) shrink(targets[i]);
   }
 }
 
-void ClaimCheck::search_locally(Target& target, bool is_explicit, uint64_t work_end) {
+void ClaimCheck::search_locally(Target& target, bool is_explicit, uint64_t work_end,
+                                uint64_t carry_end) {
   std::vector<BandRow> rows = target.band.rows();
   LocalSearchOptions options;
   options.seed = options_.seed;
@@ -94,8 +97,8 @@ void ClaimCheck::search_locally(Target& target, bool is_explicit, uint64_t work_
     if (row.scale < 14) continue;
     // Past the search's share, each scale still gets its carried size: one
     // evaluation, and what keeps the high scales near the extreme. Only
-    // the whole budget ends that.
-    if (work_ >= work_budget()) return;
+    // this side's share of the whole budget ends that.
+    if (work_ >= carry_end) return;
     if (searching && work_ >= work_end) {
       result_.notes.push_back(fmt::format("local search stopped at {} bits: work budget",
                                           row.scale + 1));
