@@ -446,3 +446,29 @@ TEST(WitnessHunt, ShrinkingReachesTheSmallestWitness) {
 
 }  // namespace
 }  // namespace thetagate
+
+namespace thetagate {
+namespace {
+
+// Effort scales the evaluator's per-size limit with the work budget: with a
+// small limit and ample work, the limit alone ends the climb at effort 1,
+// and four times the effort climbs further.
+TEST(WitnessHunt, EffortRaisesThePerSizeLimitWithTheWork) {
+  const std::string toml =
+      claim_toml("T(n) = 1 if n <= 4\nT(n) = T(n/5) + T(7n/10) + n", "Theta(n)");
+  CheckOptions options = options_with(1, 160);
+  options.budget.max_steps_per_size = 3000;
+  options.work_budget = 600'000;
+  ClaimResult base = check_one(toml, options);
+  bool stopped_by_limit = false;
+  for (const std::string& note : base.notes) {
+    stopped_by_limit |= note.find("one size needs more than 3000 subproblems") != std::string::npos;
+  }
+  EXPECT_TRUE(stopped_by_limit) << base.message;
+  options.effort = 4;
+  ClaimResult deeper = check_one(toml, options);
+  EXPECT_GT(deeper.largest_bits, base.largest_bits);
+}
+
+}  // namespace
+}  // namespace thetagate
