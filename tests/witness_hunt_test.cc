@@ -472,3 +472,35 @@ TEST(WitnessHunt, EffortRaisesThePerSizeLimitWithTheWork) {
 
 }  // namespace
 }  // namespace thetagate
+
+namespace thetagate {
+namespace {
+
+// `--rounding both` (DESIGN.md §5): T(n) = 2T(n/2) + n, T(1) = 0 stays within
+// n lg n when n/2 is read as a floor [calc: by induction, T(n) <= n lg n],
+// but not as a ceiling: T(3) = 2T(2) + 3 = 7 > 3 lg 3 ≈ 4.75 [calc].
+TEST(WitnessHunt, RoundingBothNamesTheReadingThatFails) {
+  const std::string toml = claim_toml("T(n) = 2T(n/2) + n\nT(1) = 0", "T(n) <= n lg n for n >= 1");
+  CheckOptions options = options_with(1, 128);
+  options.rounding = Rounding::kFloor;
+  ClaimResult floor_only = check_one(toml, options);
+  EXPECT_EQ(floor_only.verdict, Verdict::kHolds) << floor_only.message;
+  options.rounding = Rounding::kCeil;
+  ClaimResult ceil_only = check_one(toml, options);
+  ASSERT_EQ(ceil_only.verdict, Verdict::kRefuted) << ceil_only.message;
+
+  options.rounding = Rounding::kBoth;
+  ClaimResult both = check_one(toml, options);
+  ASSERT_EQ(both.verdict, Verdict::kRefuted) << both.message;
+  EXPECT_NE(both.message.find("read as ceil (the floor reading does not break it)"),
+            std::string::npos)
+      << both.message;
+  ASSERT_EQ(both.witnesses.size(), 1u);
+  EXPECT_EQ(both.witnesses.front().n, 3);
+  EXPECT_EQ(both.witnesses.front().value, "7");
+  // Both readings ran, so both count.
+  EXPECT_EQ(both.sizes_checked, floor_only.sizes_checked + ceil_only.sizes_checked);
+}
+
+}  // namespace
+}  // namespace thetagate

@@ -1,5 +1,6 @@
 #include "verifier/checker.h"
 
+#include <algorithm>
 #include <set>
 
 #include "verifier/claim_check.h"
@@ -87,9 +88,14 @@ ClaimResult combine_readings(ClaimResult floor_result, ClaimResult ceil_result) 
   if (floor_result.verdict == Verdict::kError) return floor_result;
   if (ceil_result.verdict == Verdict::kError) return ceil_result;
   const char* both_note = "checked twice: quotients inside T(...) read as floor and as ceil";
+  // Whichever reading is reported, both were checked: count both.
+  uint64_t sizes = floor_result.sizes_checked + ceil_result.sizes_checked;
+  uint64_t bits = std::max(floor_result.largest_bits, ceil_result.largest_bits);
   auto labelled = [&](ClaimResult r, const std::string& reading) {
     r.message = "with quotients read as " + reading + ": " + r.message;
     r.notes.push_back(both_note);
+    r.sizes_checked = sizes;
+    r.largest_bits = bits;
     return r;
   };
   bool floor_refuted = floor_result.verdict == Verdict::kRefuted;
@@ -102,7 +108,8 @@ ClaimResult combine_readings(ClaimResult floor_result, ClaimResult ceil_result) 
     floor_result.message =
         "holds with quotients read as floor and as ceil: " + floor_result.message;
     floor_result.notes.push_back(both_note);
-    floor_result.sizes_checked += ceil_result.sizes_checked;
+    floor_result.sizes_checked = sizes;
+    floor_result.largest_bits = bits;
     return floor_result;
   }
   if (floor_result.verdict != Verdict::kHolds) return labelled(floor_result, "floor");
