@@ -22,12 +22,14 @@ using test_support::Mpz;
 // Recursive terms over n. Multiples p·n/q (q > p) do not collapse: each
 // level adds distinct subproblems, so they get smaller sizes below.
 const std::vector<std::string> kCollapsingCalls = {
-    "T(floor(n/2))", "T(ceil(n/2))", "T(n/2)", "T(n/3)", "T(ceil(n/4))", "T(floor(n/2) - 1)"};
+    "T(floor(n/2))", "T(ceil(n/2))", "T(n/2)", "T(n/3)", "T(ceil(n/4))", "T(floor(n/2) - 1)",
+    "T(floor(sqrt(n)))", "T(floor(lg(n + 1)))"};
 const std::vector<std::string> kSpreadingCalls = {"T(7n/10)", "T(ceil(2n/3))", "T(floor(3n/4))"};
 const std::vector<std::string> kDrivers = {
     "n",         "n^2",        "1",           "n mod 3",      "floor(n/2)",     "ceil(n/3)",
     "max(n, 7)", "min(n, 100)", "2n + 3",      "n^3 - n",      "(n mod 2) * n",  "-n",
-    "0",         "mod(n, 5)^2", "10^20 - n"};
+    "0",         "mod(n, 5)^2", "10^20 - n",    "floor(lg(n + 1))", "ceil(lg(n + 2))",
+    "ceil(sqrt(n)) * n", "floor(sqrt(3n + 1))"};
 
 struct Spec {
   std::string text;
@@ -71,7 +73,7 @@ Spec gen_spec() {
 }
 
 BigInt gen_size(bool spreading) {
-  int bits = *rc::gen::inRange(1, spreading ? 40 : 600);
+  int bits = *rc::gen::inRange(1, spreading ? 40 : 300);
   auto limbs = *rc::gen::container<std::vector<uint64_t>>(static_cast<size_t>(bits / 64 + 1),
                                                           rc::gen::arbitrary<uint64_t>());
   BigInt n = 0;
@@ -103,6 +105,10 @@ RC_GTEST_PROP(IntegerKernel, AgreesWithTheGeneralPathStepForStep, ()) {
     }
     RC_ASSERT(fast_value == general_value);
     if (fast_value.rfind("error", 0) == 0) return;  // step counts differ after a decline
+    // The general path reads lg and sqrt as intervals, and a floor it cannot
+    // decide is redone at doubled precision, charging its steps again; the
+    // kernel is exact and never retries. Otherwise the counts are equal.
+    if (general.stats().precision_retries > 0) continue;
     RC_ASSERT(fast.stats().steps == general.stats().steps);
     RC_ASSERT(fast.stats().memo_entries == general.stats().memo_entries);
   }
@@ -147,7 +153,8 @@ TEST(IntegerKernel, CompilesOnlyRecurrencesThatStayWhole) {
       {"T(n) = T(n/2) + 1 if n even\nT(n) = T(n - 1) + 1 if n odd\nT(0) = 0", true},
       {"T(n) = 2T(n/2) + n lg n", false},       // irrational driving function
       {"T(n) = 2T(n/2) + n/2", false},          // a bare quotient may be a fraction
-      {"T(n) = T(floor(sqrt(n))) + 1", false},  // a root inside the call
+      {"T(n) = T(floor(sqrt(n))) + ceil(lg n)", true},  // rounded roots and logarithms
+      {"T(n) = T(n/2) + sqrt(n)", false},       // an unrounded root
       {"T(n) = 2T(n/2) + 0.5", false},          // not a whole constant
       {"T(n) = 2T(n/2) + f(n)\nf(n) = n + 1", false},  // helpers stay general
   };

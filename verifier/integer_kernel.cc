@@ -11,6 +11,7 @@ namespace {
 enum class Op : uint8_t {
   kConst, kN, kSlot,
   kAdd, kSub, kMul, kNeg, kPow, kFloorDiv, kCeilDiv, kMod, kMin, kMax,
+  kFloorLg, kCeilLg, kFloorSqrt, kCeilSqrt,  // of an integer: whole again
   kEq, kNe, kLt, kLe, kGt, kGe, kAnd, kOr, kNot, kEven, kOdd,
 };
 
@@ -164,6 +165,16 @@ class IntegerKernel::Compiler {
       if (x.kind == ExprKind::kDiv) {
         return quotient(x, e.name == "floor" ? Op::kFloorDiv : Op::kCeilDiv);
       }
+      // lg and sqrt of an integer, rounded: bit lengths and integer roots.
+      bool lg = x.kind == ExprKind::kCall && (x.name == "lg" || x.name == "log2");
+      bool sqrt = x.kind == ExprKind::kCall && x.name == "sqrt";
+      if ((lg || sqrt) && x.args.size() == 1) {
+        std::optional<uint32_t> inner = value(*x.args[0]);
+        if (!inner) return std::nullopt;
+        bool floor = e.name == "floor";
+        Op op = lg ? (floor ? Op::kFloorLg : Op::kCeilLg) : (floor ? Op::kFloorSqrt : Op::kCeilSqrt);
+        return node(op, *inner);
+      }
       return value(x);  // the floor of an integer is itself
     }
     if (e.name == "mod" && e.args.size() == 2) return binary(Op::kMod, *e.args[0], *e.args[1]);
@@ -263,6 +274,26 @@ void IntegerKernel::eval(uint32_t id, mpz_ptr out, size_t depth) {
     case Op::kN:
     case Op::kSlot: mpz_set(out, operand(id, out, depth, view_a)); return;
     case Op::kNeg: mpz_neg(out, operand(x.a, out, depth, view_a)); return;
+    case Op::kFloorLg:
+    case Op::kCeilLg: {
+      mpz_srcptr v = operand(x.a, out, depth, view_a);
+      if (mpz_sgn(v) <= 0) throw KernelDeclines{};  // lg of 0 or less: the general path says so
+      // floor(lg v) = bits(v) - 1; ceil(lg v) = bits(v - 1), 0 at v = 1.
+      uint64_t bits = bits_of(v);
+      bool power_of_two = mpz_scan1(v, 0) == bits - 1;
+      uint64_t r = x.op == Op::kFloorLg || power_of_two ? bits - 1 : bits;
+      mpz_set_ui(out, static_cast<unsigned long>(r));
+      return;
+    }
+    case Op::kFloorSqrt:
+    case Op::kCeilSqrt: {
+      mpz_srcptr v = operand(x.a, out, depth, view_a);
+      if (mpz_sgn(v) < 0) throw KernelDeclines{};  // the root of a negative number
+      bool exact = mpz_perfect_square_p(v) != 0;
+      mpz_sqrt(out, v);
+      if (x.op == Op::kCeilSqrt && !exact) mpz_add_ui(out, out, 1);
+      return;
+    }
     case Op::kPow: {
       mpz_srcptr base = operand(x.a, out, depth, view_a);
       // Estimate first, as the general path does: a huge power is a budget

@@ -1,12 +1,14 @@
 // The evaluator's fast path for integer recurrences. When every case line
 // of the recurrence stays in the integers (n, whole constants, + - *, whole
-// constant powers, floor/ceil of quotients, quotients inside T(...), mod,
-// min, max, comparisons, even/odd; no helpers, logarithms or roots), it is
-// compiled into a small program over reused GMP registers, and subproblems
-// are remembered as raw limbs (LimbMemo). It expands exactly the subproblems
-// the general evaluator would, in the same way, so step counts, memo
-// accounting and therefore every report stay the same; it only avoids the
-// general path's allocation and shared ownership per operation.
+// constant powers, floor/ceil of quotients, of lg and of sqrt, quotients
+// inside T(...), mod, min, max, comparisons, even/odd; no helpers, bare
+// logarithms or roots), it is compiled into a small program over reused GMP
+// registers, and subproblems are remembered as raw limbs (LimbMemo). It
+// expands exactly the subproblems the general evaluator would, in the same
+// order, so step counts and memo accounting match the general path's
+// (except where that path redoes a size at higher interval precision: the
+// kernel is exact and never needs to); it avoids the general path's
+// allocation and shared ownership per operation.
 //
 // Anything unusual at run time (a call that does not shrink past the
 // default base case, no applicable line, mod or quotient by zero) throws
