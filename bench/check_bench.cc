@@ -18,9 +18,9 @@
 #include <string>
 #include <vector>
 
-#include "verifier/checker.h"
-#include "verifier/claim.h"
-#include "verifier/run.h"
+#include "verifier/checking/checker.h"
+#include "verifier/checking/run.h"
+#include "verifier/model/claim.h"
 
 namespace {
 
@@ -102,8 +102,10 @@ std::string claims_dir() {
 void CheckDemoLibrary(benchmark::State& state) {
   std::string dir = claims_dir();
   if (!std::filesystem::is_directory(dir)) {
-    state.SkipWithError(("no claims folder at '" + dir + "': run from the source root or set "
-                         "THETAGATE_CLAIMS_DIR").c_str());
+    state.SkipWithError(("no claims folder at '" + dir +
+                         "': run from the source root or set "
+                         "THETAGATE_CLAIMS_DIR")
+                            .c_str());
     return;
   }
   thetagate::RunRequest request;
@@ -122,7 +124,11 @@ void CheckDemoLibrary(benchmark::State& state) {
     state.counters["undecided"] = undecided;
   }
 }
-BENCHMARK(CheckDemoLibrary)->Arg(1)->Arg(2)->Unit(benchmark::kMillisecond)->Iterations(1)
+BENCHMARK(CheckDemoLibrary)
+    ->Arg(1)
+    ->Arg(2)
+    ->Unit(benchmark::kMillisecond)
+    ->Iterations(1)
     ->UseRealTime();
 
 }  // namespace

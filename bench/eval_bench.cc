@@ -8,14 +8,14 @@
 
 #include <vector>
 
-#include "verifier/evaluator.h"
-#include "verifier/recurrence.h"
+#include "verifier/evaluation/evaluator.h"
+#include "verifier/model/recurrence.h"
 
 namespace {
 
 using thetagate::BigInt;
-using thetagate::Evaluator;
 using thetagate::evaluate_size;
+using thetagate::Evaluator;
 using thetagate::recurrence_from_text;
 
 void evaluate_once(benchmark::State& state, const char* recurrence, const char* size) {
@@ -61,8 +61,8 @@ BENCHMARK(ThreeTermsTwoPrimes256Bits)->Unit(benchmark::kMillisecond);
 void MergeSortNearbySizes4096Bits(benchmark::State& state) {
   auto r = recurrence_from_text("T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1; T(1) = 0");
   BigInt power = BigInt(1) << 4096;
-  std::vector<BigInt> sizes = {power + 12345, power + 12346, power + 12344, power - 1, power + 1,
-                               power, power / 3, power / 3 + 1};
+  std::vector<BigInt> sizes = {power + 12345, power + 12346, power + 12344, power - 1,
+                               power + 1,     power,         power / 3,     power / 3 + 1};
   for (auto _ : state) {
     Evaluator evaluator(r);
     for (const BigInt& n : sizes) benchmark::DoNotOptimize(evaluator.value_at(n));

@@ -3,6 +3,7 @@
 // 0 no claim refuted, 1 at least one refuted, 2 bad input or usage.
 #include <unistd.h>
 
+#include <CLI/CLI.hpp>
 #include <chrono>
 #include <filesystem>
 #include <fstream>
@@ -10,20 +11,18 @@
 #include <random>
 #include <sstream>
 
-#include <CLI/CLI.hpp>
-
 #include "generators/size_family.h"
 #include "reports/baseline.h"
-#include "reports/drift.h"
 #include "reports/derivation_report.h"
+#include "reports/drift.h"
 #include "reports/html_report.h"
 #include "reports/json_report.h"
 #include "reports/junit_report.h"
 #include "reports/text_report.h"
-#include "verifier/derive.h"
-#include "verifier/evaluator.h"
-#include "verifier/recurrence.h"
-#include "verifier/run.h"
+#include "verifier/checking/run.h"
+#include "verifier/derivation/derive.h"
+#include "verifier/evaluation/evaluator.h"
+#include "verifier/model/recurrence.h"
 
 namespace {
 
@@ -159,13 +158,14 @@ int run_check(const CheckArguments& args) {
   if (baseline) drift = compare_runs(*baseline, run);
   const DriftReport* drift_ptr = drift ? &*drift : nullptr;
 
-  bool out_is_folder = !args.out.empty() &&
-                       (args.out.back() == '/' || std::filesystem::is_directory(args.out));
+  bool out_is_folder =
+      !args.out.empty() && (args.out.back() == '/' || std::filesystem::is_directory(args.out));
   if (out_is_folder) {
     std::filesystem::create_directories(args.out);
-    const std::pair<const char*, const char*> formats[] = {
-        {"text", "report.txt"}, {"json", "report.json"}, {"junit", "report.junit.xml"},
-        {"html", "report.html"}};
+    const std::pair<const char*, const char*> formats[] = {{"text", "report.txt"},
+                                                           {"json", "report.json"},
+                                                           {"junit", "report.junit.xml"},
+                                                           {"html", "report.html"}};
     for (const auto& [format, name] : formats) {
       std::string path = (std::filesystem::path(args.out) / name).string();
       if (!write_file(path, render(run, drift_ptr, format, false, args.undecided_fails))) {
@@ -212,7 +212,8 @@ int main(int argc, char** argv) {
   app.require_subcommand(1);
 
   CheckArguments check;
-  auto* check_command = app.add_subcommand("check", "check the claims in files or folders (default: claims/)");
+  auto* check_command =
+      app.add_subcommand("check", "check the claims in files or folders (default: claims/)");
   check_command->add_option("paths", check.paths, "claim files (.toml) or folders");
   check_command->add_option("--format", check.format, "report format: text, json, junit or html")
       ->check(CLI::IsMember({"text", "json", "junit", "html"}));
@@ -222,36 +223,43 @@ int main(int argc, char** argv) {
   check_command->add_option("--seed", check.seed, "seed for random sizes: a number, or 'random'");
   check_command->add_option("--max-bits", check.max_bits, "largest size in bits (default 4096)")
       ->check(CLI::Range(1, 65536));
-  check_command->add_option("--effort", check.effort,
-                            "search work per claim, a multiple of the default (about 0.2 s of one "
-                            "core): 10 or 100 for deeper nightly runs")
+  check_command
+      ->add_option("--effort", check.effort,
+                   "search work per claim, a multiple of the default (about 0.2 s of one "
+                   "core): 10 or 100 for deeper nightly runs")
       ->check(CLI::Range(1, 10000));
-  check_command->add_option("--claim", check.claims, "check only the claim with this name (repeatable)");
-  check_command->add_option("--rounding", check.rounding,
-                            "read n/b inside T(...) as floor, ceil, or both (overrides claims)")
+  check_command->add_option("--claim", check.claims,
+                            "check only the claim with this name (repeatable)");
+  check_command
+      ->add_option("--rounding", check.rounding,
+                   "read n/b inside T(...) as floor, ceil, or both (overrides claims)")
       ->check(CLI::IsMember({"floor", "ceil", "both"}));
   check_command->add_option("--jobs,-j", check.jobs, "claims checked in parallel (same report)")
       ->check(CLI::Range(1, 256));
   check_command->add_flag("--undecided-fails", check.undecided_fails,
                           "JUnit: report undecided claims as failures, not skipped");
-  check_command->add_flag("--list-families", check.list_families, "describe the size families and exit");
+  check_command->add_flag("--list-families", check.list_families,
+                          "describe the size families and exit");
   check_command->add_option("--baseline", check.baseline,
                             "an earlier JSON report: mark verdict changes, new or lost witnesses "
                             "and band moves");
-  check_command->add_option("--fail-on", check.fail_on,
-                            "what exits 1: refuted (default), undecided, drift; comma-separated")
+  check_command
+      ->add_option("--fail-on", check.fail_on,
+                   "what exits 1: refuted (default), undecided, drift; comma-separated")
       ->delimiter(',');
 
   std::string recurrence_text;
   std::string derive_format = "text";
   auto* derive_command = app.add_subcommand("derive", "the derived bound and the reasoning");
-  derive_command->add_option("recurrence", recurrence_text, "the recurrence; ';' separates lines")->required();
+  derive_command->add_option("recurrence", recurrence_text, "the recurrence; ';' separates lines")
+      ->required();
   derive_command->add_option("--format", derive_format, "text or json")
       ->check(CLI::IsMember({"text", "json"}));
 
   std::vector<std::string> sizes;
   auto* eval_command = app.add_subcommand("eval", "exact T(N), one 'N VALUE' line each");
-  eval_command->add_option("recurrence", recurrence_text, "the recurrence; ';' separates lines")->required();
+  eval_command->add_option("recurrence", recurrence_text, "the recurrence; ';' separates lines")
+      ->required();
   eval_command->add_option("sizes", sizes, "sizes N, e.g. 100 2^4096+7")->required();
 
   try {

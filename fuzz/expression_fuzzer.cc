@@ -6,9 +6,9 @@
 #include <cstdint>
 #include <string>
 
-#include "verifier/bound.h"
-#include "verifier/evaluator.h"
-#include "verifier/recurrence.h"
+#include "verifier/evaluation/evaluator.h"
+#include "verifier/model/bound.h"
+#include "verifier/model/recurrence.h"
 
 extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
   using namespace thetagate;

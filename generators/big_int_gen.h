@@ -12,7 +12,7 @@
 #include <vector>
 
 #include "generators/size_family.h"
-#include "verifier/number.h"
+#include "verifier/numbers/number.h"
 
 namespace thetagate {
 
@@ -36,15 +36,15 @@ inline std::vector<BigInt> shrinks_toward(const BigInt& n, const BigInt& target)
 // draw to the smallest (size+1)/101 of the list, so early cases are cheap.
 // REQUIRES: sizes non-empty, every element >= min_n.
 inline rc::Gen<BigInt> gen_size_from(std::vector<BigInt> sizes, BigInt min_n) {
-  return rc::Gen<BigInt>([sizes = std::move(sizes), min_n = std::move(min_n)](
-                             const rc::Random& random, int size) {
-    uint64_t scale = static_cast<uint64_t>(std::clamp(size, 0, rc::kNominalSize));
-    uint64_t reach = std::max<uint64_t>(1, sizes.size() * (scale + 1) / (rc::kNominalSize + 1));
-    uint64_t index = rc::Random(random).next() % reach;
-    return rc::shrinkable::shrinkRecur(sizes[index], [min_n](const BigInt& n) {
-      return rc::seq::fromContainer(shrinks_toward(n, min_n));
-    });
-  });
+  return rc::Gen<BigInt>(
+      [sizes = std::move(sizes), min_n = std::move(min_n)](const rc::Random& random, int size) {
+        uint64_t scale = static_cast<uint64_t>(std::clamp(size, 0, rc::kNominalSize));
+        uint64_t reach = std::max<uint64_t>(1, sizes.size() * (scale + 1) / (rc::kNominalSize + 1));
+        uint64_t index = rc::Random(random).next() % reach;
+        return rc::shrinkable::shrinkRecur(sizes[index], [min_n](const BigInt& n) {
+          return rc::seq::fromContainer(shrinks_toward(n, min_n));
+        });
+      });
 }
 
 // A generator over generate_sizes(plan). Throws as generate_sizes does.

@@ -11,8 +11,12 @@ namespace {
 class Climber {
  public:
   Climber(const BigInt& start, const SizeScore& score, const LocalSearchOptions& options)
-      : score_(score), options_(options), k_(bit_length(start) - 1),
-        low_(BigInt(1) << k_), high_(low_ << 1), best_(start) {}
+      : score_(score),
+        options_(options),
+        k_(bit_length(start) - 1),
+        low_(BigInt(1) << k_),
+        high_(low_ << 1),
+        best_(start) {}
 
   void begin() { best_value_ = evaluate(best_); }
 

@@ -24,7 +24,7 @@
 #include <functional>
 #include <optional>
 
-#include "verifier/number.h"
+#include "verifier/numbers/number.h"
 
 namespace thetagate {
 

@@ -7,7 +7,7 @@
 
 #include <cstdint>
 
-#include "verifier/number.h"
+#include "verifier/numbers/number.h"
 
 namespace thetagate {
 

@@ -5,7 +5,7 @@
 #include <utility>
 
 #include "generators/random_bits.h"
-#include "verifier/source.h"
+#include "verifier/syntax/source.h"
 
 namespace thetagate {
 namespace {
@@ -93,8 +93,7 @@ struct Family {
 const std::vector<Family>& families() {
   static const std::vector<Family> kFamilies = {
       {{"small", "every n from min_n to the exhaustive limit (10^4 by default)"}, small},
-      {{"powers",
-        "b^k for every divisor b: all-zero digits below the lead, every halving exact"},
+      {{"powers", "b^k for every divisor b: all-zero digits below the lead, every halving exact"},
        powers},
       {{"ones",
         "(b^(k+1) - 1)/(b - 1): all digits 1 in base b; for b = 2 every floor halving is odd"},

@@ -1,5 +1,5 @@
 // Size families: named, deterministic generators of the input sizes n at
-// which a claim is evaluated (DESIGN.md §5). A bound that holds at powers of
+// which a claim is evaluated (docs/design.md §5). A bound that holds at powers of
 // two can fail at 3·2^k, at odd chains or between two powers, so the search
 // looks at each of these shapes on purpose, and names the family that
 // produced every size so a report can say which one found a witness.
@@ -23,7 +23,7 @@
 #include <string>
 #include <vector>
 
-#include "verifier/number.h"
+#include "verifier/numbers/number.h"
 
 namespace thetagate {
 
@@ -32,10 +32,10 @@ struct SizePlan {
   // The b of every T(n/b) term, rounded to an integer by the caller (T(7n/10)
   // → 10, T(n/3) and T(2n/3) → 3). Each REQUIRES b >= 2. Empty means {2}.
   std::vector<BigInt> divisors;
-  uint64_t max_bits = 4096;         // every n < 2^max_bits. REQUIRES: >= 1.
-  BigInt min_n = 1;                 // every n >= min_n. REQUIRES: >= 0.
-  BigInt exhaustive_limit = 10000;  // "small" is every n in [min_n, this]
-  uint64_t seed = 0;                // the run's seed, printed in every report
+  uint64_t max_bits = 4096;           // every n < 2^max_bits. REQUIRES: >= 1.
+  BigInt min_n = 1;                   // every n >= min_n. REQUIRES: >= 0.
+  BigInt exhaustive_limit = 10000;    // "small" is every n in [min_n, this]
+  uint64_t seed = 0;                  // the run's seed, printed in every report
   std::vector<std::string> families;  // names from size_families(); empty = all
   uint64_t random_per_scale = 2;      // draws per scale for "random"
 };

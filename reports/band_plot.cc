@@ -1,9 +1,9 @@
 #include "reports/band_plot.h"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <cmath>
-
-#include <fmt/format.h>
 
 #include "reports/number_text.h"
 #include "reports/xml_escape.h"
@@ -54,7 +54,8 @@ std::string render_band_plot(const std::vector<BandRow>& band, const std::vector
     if (std::isnan(low)) low = high;
     if (std::isnan(high)) high = low;
     // x: bits of n (a size at scale k has k + 1 bits).
-    points.push_back({static_cast<double>(row.scale + 1), std::min(low, high), std::max(low, high)});
+    points.push_back(
+        {static_cast<double>(row.scale + 1), std::min(low, high), std::max(low, high)});
   }
   if (points.empty()) return "";
 
@@ -88,33 +89,37 @@ std::string render_band_plot(const std::vector<BandRow>& band, const std::vector
       "role=\"img\" aria-label=\"ratio band: log2 of T(n)/g(n) against size in bits\">\n"
       "<title>ratio band: log2 of T(n)/g(n) against size in bits</title>\n",
       kBandPlotWidth, kBandPlotHeight);
-  svg += fmt::format("<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{:.1f}\" height=\"{:.1f}\" "
-                     "class=\"frame\"/>\n",
-                     kLeft, kTop, plot_w, plot_h);
+  svg += fmt::format(
+      "<rect x=\"{:.1f}\" y=\"{:.1f}\" width=\"{:.1f}\" height=\"{:.1f}\" "
+      "class=\"frame\"/>\n",
+      kLeft, kTop, plot_w, plot_h);
 
   // Ticks and grid.
   // Sizes in bits are whole numbers: never a fractional tick.
   double x_step = std::max(1.0, nice_step(x_max - x_min, 6));
   for (double x = std::ceil(x_min / x_step) * x_step; x <= x_max + 1e-9; x += x_step) {
-    svg += fmt::format("<line class=\"grid\" x1=\"{0:.1f}\" y1=\"{1:.1f}\" x2=\"{0:.1f}\" "
-                       "y2=\"{2:.1f}\"/><text class=\"tick\" x=\"{0:.1f}\" y=\"{3:.1f}\" "
-                       "text-anchor=\"middle\">{4}</text>\n",
-                       sx(x), kTop, kTop + plot_h, kTop + plot_h + 14, fmt::format("{:g}", x));
+    svg += fmt::format(
+        "<line class=\"grid\" x1=\"{0:.1f}\" y1=\"{1:.1f}\" x2=\"{0:.1f}\" "
+        "y2=\"{2:.1f}\"/><text class=\"tick\" x=\"{0:.1f}\" y=\"{3:.1f}\" "
+        "text-anchor=\"middle\">{4}</text>\n",
+        sx(x), kTop, kTop + plot_h, kTop + plot_h + 14, fmt::format("{:g}", x));
   }
   double y_step = nice_step(y_max - y_min, 5);
   for (double y = std::ceil(y_min / y_step) * y_step; y <= y_max + 1e-9; y += y_step) {
-    svg += fmt::format("<line class=\"grid\" x1=\"{0:.1f}\" y1=\"{1:.1f}\" x2=\"{2:.1f}\" "
-                       "y2=\"{1:.1f}\"/><text class=\"tick\" x=\"{3:.1f}\" y=\"{4:.1f}\" "
-                       "text-anchor=\"end\">{5}</text>\n",
-                       kLeft, sy(y), kLeft + plot_w, kLeft - 4, sy(y) + 4,
-                       xml_escape_text(ratio_label(y)));
+    svg += fmt::format(
+        "<line class=\"grid\" x1=\"{0:.1f}\" y1=\"{1:.1f}\" x2=\"{2:.1f}\" "
+        "y2=\"{1:.1f}\"/><text class=\"tick\" x=\"{3:.1f}\" y=\"{4:.1f}\" "
+        "text-anchor=\"end\">{5}</text>\n",
+        kLeft, sy(y), kLeft + plot_w, kLeft - 4, sy(y) + 4, xml_escape_text(ratio_label(y)));
   }
-  svg += fmt::format("<text class=\"axis\" x=\"{:.1f}\" y=\"{:.1f}\" text-anchor=\"middle\">"
-                     "size n in bits</text>\n",
-                     kLeft + plot_w / 2, height - 6);
-  svg += fmt::format("<text class=\"axis\" transform=\"translate(14 {:.1f}) rotate(-90)\" "
-                     "text-anchor=\"middle\">T(n)/g(n), log scale</text>\n",
-                     kTop + plot_h / 2);
+  svg += fmt::format(
+      "<text class=\"axis\" x=\"{:.1f}\" y=\"{:.1f}\" text-anchor=\"middle\">"
+      "size n in bits</text>\n",
+      kLeft + plot_w / 2, height - 6);
+  svg += fmt::format(
+      "<text class=\"axis\" transform=\"translate(14 {:.1f}) rotate(-90)\" "
+      "text-anchor=\"middle\">T(n)/g(n), log scale</text>\n",
+      kTop + plot_h / 2);
 
   // The band, then its two edges.
   std::string band_points, low_points, high_points;
@@ -134,20 +139,21 @@ std::string render_band_plot(const std::vector<BandRow>& band, const std::vector
   svg += "<polyline class=\"edge\" points=\"" + low_points + "\"/>\n";
   if (points.size() <= kMaxMarkers) {
     for (const Point& p : points) {
-      svg += fmt::format("<circle class=\"mark\" cx=\"{0:.1f}\" cy=\"{1:.1f}\" r=\"2.5\"/>"
-                         "<circle class=\"mark\" cx=\"{0:.1f}\" cy=\"{2:.1f}\" r=\"2.5\"/>\n",
-                         sx(p.x), sy(p.high), sy(p.low));
+      svg += fmt::format(
+          "<circle class=\"mark\" cx=\"{0:.1f}\" cy=\"{1:.1f}\" r=\"2.5\"/>"
+          "<circle class=\"mark\" cx=\"{0:.1f}\" cy=\"{2:.1f}\" r=\"2.5\"/>\n",
+          sx(p.x), sy(p.high), sy(p.low));
     }
   }
 
   // Constant lines, labelled in the right margin.
   for (const PlotLine& line : lines) {
     double y = sy(std::log2(line.ratio));
-    svg += fmt::format("<line class=\"constant\" x1=\"{0:.1f}\" y1=\"{1:.1f}\" x2=\"{2:.1f}\" "
-                       "y2=\"{1:.1f}\"/><text class=\"constant-label\" x=\"{3:.1f}\" "
-                       "y=\"{4:.1f}\">{5}</text>\n",
-                       kLeft, y, kLeft + plot_w, kLeft + plot_w + 4, y + 4,
-                       xml_escape_text(line.label));
+    svg += fmt::format(
+        "<line class=\"constant\" x1=\"{0:.1f}\" y1=\"{1:.1f}\" x2=\"{2:.1f}\" "
+        "y2=\"{1:.1f}\"/><text class=\"constant-label\" x=\"{3:.1f}\" "
+        "y=\"{4:.1f}\">{5}</text>\n",
+        kLeft, y, kLeft + plot_w, kLeft + plot_w + 4, y + 4, xml_escape_text(line.label));
   }
   svg += "</svg>";
   return svg;

@@ -7,7 +7,7 @@
 #include <string>
 #include <vector>
 
-#include "verifier/result.h"
+#include "verifier/checking/result.h"
 
 namespace thetagate {
 

@@ -3,13 +3,12 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <nlohmann/json.hpp>
 #include <optional>
 #include <string_view>
 
-#include <nlohmann/json.hpp>
-
 #include "reports/json_report.h"
-#include "verifier/source.h"
+#include "verifier/syntax/source.h"
 
 namespace thetagate {
 
@@ -85,8 +84,8 @@ class PathFinder {
       string_token();
       return true;
     }
-    while (pos_ < text_.size() && std::string_view(",]} \n\t\r").find(text_[pos_]) ==
-                                      std::string_view::npos) {
+    while (pos_ < text_.size() &&
+           std::string_view(",]} \n\t\r").find(text_[pos_]) == std::string_view::npos) {
       ++pos_;
     }
     return true;
@@ -110,14 +109,17 @@ class ReportReader {
       // e.byte is 1-based: the byte the parser stopped at.
       std::string what = e.what();
       size_t detail = what.find("syntax error");
-      fail_at_offset(e.byte > 0 ? e.byte - 1 : 0,
-                     "not valid JSON: " + (detail == std::string::npos ? what : what.substr(detail)));
+      fail_at_offset(
+          e.byte > 0 ? e.byte - 1 : 0,
+          "not valid JSON: " + (detail == std::string::npos ? what : what.substr(detail)));
     }
     expect_object(root, "");
     const Json& version = require(root, "", "schema_version");
     if (!version.is_number_unsigned() || version.get<uint64_t>() != kJsonSchemaVersion) {
-      fail("schema_version", "schema_version " + version.dump() + " is not one this thetagate "
-                             "reads (it reads version " + std::to_string(kJsonSchemaVersion) + ")");
+      fail("schema_version", "schema_version " + version.dump() +
+                                 " is not one this thetagate "
+                                 "reads (it reads version " +
+                                 std::to_string(kJsonSchemaVersion) + ")");
     }
     RunResult run;
     run.seed = unsigned_at(root, "", "seed");
@@ -145,8 +147,10 @@ class ReportReader {
     if (line_end == std::string::npos) line_end = text_.size();
     Diagnostic d;
     d.where.file = name_;
-    d.where.line = 1 + static_cast<int>(std::count(text_.begin(), text_.begin() + line_start, '\n'));
-    d.where.column = 1 + utf8_columns(text_.substr(line_start, offset - line_start), offset - line_start);
+    d.where.line =
+        1 + static_cast<int>(std::count(text_.begin(), text_.begin() + line_start, '\n'));
+    d.where.column =
+        1 + utf8_columns(text_.substr(line_start, offset - line_start), offset - line_start);
     d.message = message;
     d.hint = kHint;
     d.source_line = text_.substr(line_start, line_end - line_start);
@@ -261,8 +265,9 @@ class ReportReader {
     for (Verdict v : {Verdict::kHolds, Verdict::kRefuted, Verdict::kUndecided, Verdict::kError}) {
       if (s == verdict_name(v)) return v;
     }
-    fail(path, "'" + path + "' is \"" + s + "\"; expected \"holds\", \"refuted\", \"undecided\" "
-               "or \"error\"");
+    fail(path, "'" + path + "' is \"" + s +
+                   "\"; expected \"holds\", \"refuted\", \"undecided\" "
+                   "or \"error\"");
   }
 
   Side side_value(const Json& j, const std::string& path) {
@@ -299,7 +304,8 @@ class ReportReader {
     r.scale = unsigned_at(j, path, "scale");
     r.low = ratio_value(require(j, path, "low"), join(path, "low"));
     r.high = ratio_value(require(j, path, "high"), join(path, "high"));
-    if (const Json* at = optional_key(j, "low_at")) r.low_at = size_value(*at, join(path, "low_at"));
+    if (const Json* at = optional_key(j, "low_at"))
+      r.low_at = size_value(*at, join(path, "low_at"));
     if (const Json* at = optional_key(j, "high_at")) {
       r.high_at = size_value(*at, join(path, "high_at"));
     }
@@ -330,8 +336,8 @@ class ReportReader {
     size_t second = first == std::string::npos ? first : text.find('\n', first + 1);
     if (second != std::string::npos) {
       size_t third = text.find('\n', second + 1);
-      std::string caret = text.substr(second + 1, third == std::string::npos ? third
-                                                                             : third - second - 1);
+      std::string caret =
+          text.substr(second + 1, third == std::string::npos ? third : third - second - 1);
       if (!caret.empty() && caret.back() == '^') {
         d.source_line = text.substr(first + 1, second - first - 1);
       }

@@ -5,7 +5,7 @@
 
 #include <string>
 
-#include "verifier/result.h"
+#include "verifier/checking/result.h"
 
 namespace thetagate {
 
@@ -13,7 +13,7 @@ namespace thetagate {
 // rendered from. `display_name` (the baseline's path) locates errors.
 //
 // Required keys: top level `schema_version` (must be 1), `seed`, `claims`;
-// per claim the DESIGN.md §6 keys `name`, `file`, `line`, `verdict`,
+// per claim the docs/design.md §6 keys `name`, `file`, `line`, `verdict`,
 // `claimed`, `derived`, `method`, `tight`, `witnesses`, `band`, `message`;
 // per witness `n`, `ratio`, `side`; per band row `scale`, `low`, `high`.
 // The other documented keys are read when present and default to "nothing

@@ -1,6 +1,7 @@
 #include "reports/derivation_report.h"
 
 #include <fmt/format.h>
+
 #include <nlohmann/json.hpp>
 
 namespace thetagate {

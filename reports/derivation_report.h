@@ -5,7 +5,7 @@
 
 #include <string>
 
-#include "verifier/derive.h"
+#include "verifier/derivation/derive.h"
 
 namespace thetagate {
 
@@ -15,7 +15,7 @@ std::string render_derivation_text(const Derivation& d);
 
 // {"derived", "method", "reasons": [...], "steps": [...], "not_applied": [...],
 //  "notes": [...]}: `reasons` holds the steps followed by the failed
-// hypotheses (DESIGN.md §6); the other arrays split them. Ends with a newline.
+// hypotheses (docs/design.md §6); the other arrays split them. Ends with a newline.
 std::string render_derivation_json(const Derivation& d);
 
 }  // namespace thetagate

@@ -1,17 +1,16 @@
 #include "reports/drift.h"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <cmath>
 #include <map>
+#include <nlohmann/json.hpp>
 #include <tuple>
 
-#include <fmt/format.h>
-#include <nlohmann/json.hpp>
-
 #include "reports/json_report.h"
-
 #include "reports/number_text.h"
-#include "verifier/source.h"
+#include "verifier/syntax/source.h"
 
 namespace thetagate {
 
@@ -103,8 +102,8 @@ void append_witnesses(std::string& out, const char* kind, const std::vector<Witn
     out += fmt::format("{}{} witness {}\n", kIndent, kind, witness_text(ws[i]));
   }
   if (ws.size() > kMaxDetailLines) {
-    out += fmt::format("{}… and {} more {} witnesses\n", kIndent, ws.size() - kMaxDetailLines,
-                       kind);
+    out +=
+        fmt::format("{}… and {} more {} witnesses\n", kIndent, ws.size() - kMaxDetailLines, kind);
   }
 }
 
@@ -126,8 +125,8 @@ std::string or_none(const std::string& derived) { return derived.empty() ? "none
 
 std::string claim_text(const ClaimDrift& d, const TextStyle& style) {
   std::string label = fmt::format("{:<11}", change_name(d));
-  std::string s = paint(style, "\033[33m", label) + d.name + "   " + d.file + ":" +
-                  std::to_string(d.line);
+  std::string s =
+      paint(style, "\033[33m", label) + d.name + "   " + d.file + ":" + std::to_string(d.line);
   if (d.is_new()) s += std::string("   ") + verdict_name(*d.after);
   if (d.is_lost()) s += std::string("   was ") + verdict_name(*d.before);
   s += "\n";
@@ -250,9 +249,10 @@ std::string render_drift_text(const DriftReport& drift, const TextStyle& style) 
                         drift.compared == 1 ? "" : "s");
   std::string s = "\n" + paint(style, "\033[1m", heading) + "\n";
   if (drift.baseline_seed != drift.current_seed) {
-    s += fmt::format("{}the seeds differ (baseline {}, this run {}): witnesses and band ends at "
-                     "random sizes may move for that reason alone\n",
-                     kIndent, drift.baseline_seed, drift.current_seed);
+    s += fmt::format(
+        "{}the seeds differ (baseline {}, this run {}): witnesses and band ends at "
+        "random sizes may move for that reason alone\n",
+        kIndent, drift.baseline_seed, drift.current_seed);
   }
   for (const ClaimDrift& d : drift.claims) s += claim_text(d, style);
   return s;

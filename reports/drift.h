@@ -10,7 +10,7 @@
 #include <vector>
 
 #include "reports/text_report.h"
-#include "verifier/result.h"
+#include "verifier/checking/result.h"
 
 namespace thetagate {
 
@@ -53,7 +53,7 @@ struct ClaimDrift {
 struct DriftReport {
   uint64_t baseline_seed = 0;
   uint64_t current_seed = 0;
-  size_t compared = 0;            // claims present in both runs
+  size_t compared = 0;             // claims present in both runs
   std::vector<ClaimDrift> claims;  // only claims with a change: this run's order, then lost ones
 
   bool any() const { return !claims.empty(); }

@@ -1,10 +1,10 @@
 #include "reports/html_report.h"
 
+#include <fmt/format.h>
+
 #include <array>
 #include <cmath>
 #include <cstdlib>
-
-#include <fmt/format.h>
 
 #include "reports/band_plot.h"
 #include "reports/number_text.h"
@@ -67,9 +67,10 @@ std::string number_cell(const std::string& full, const std::string& shown) {
 }
 
 std::string witness_table(const ClaimResult& c) {
-  std::string s = "<h3>Witnesses</h3>\n<table class=\"witnesses\">\n<tr><th>n</th><th>side</th>"
-                  "<th>T(n)/g(n)</th><th>T(n)</th><th>bound</th><th>broken by</th>"
-                  "<th>family</th><th>ladder c</th></tr>\n";
+  std::string s =
+      "<h3>Witnesses</h3>\n<table class=\"witnesses\">\n<tr><th>n</th><th>side</th>"
+      "<th>T(n)/g(n)</th><th>T(n)</th><th>bound</th><th>broken by</th>"
+      "<th>family</th><th>ladder c</th></tr>\n";
   for (const Witness& w : c.witnesses) {
     s += "<tr>" + number_cell(w.n.str(), short_decimal(w.n));
     s += std::string("<td>") + side_name(w.side) + "</td>";
@@ -106,18 +107,19 @@ std::vector<PlotLine> plot_lines(const ClaimResult& c) {
 }
 
 std::string claim_section(const ClaimResult& c, size_t index) {
-  std::string s = fmt::format("<section class=\"claim {}\" id=\"claim-{}\">\n",
-                              verdict_name(c.verdict), index);
+  std::string s =
+      fmt::format("<section class=\"claim {}\" id=\"claim-{}\">\n", verdict_name(c.verdict), index);
   s += "<h2>" + verdict_span(c.verdict) + " " + esc(c.name) + "</h2>\n";
-  if (!c.file.empty()) s += "<p class=\"where\">" + esc(c.file + ":" + std::to_string(c.line)) + "</p>\n";
+  if (!c.file.empty())
+    s += "<p class=\"where\">" + esc(c.file + ":" + std::to_string(c.line)) + "</p>\n";
   s += "<table class=\"bounds\">\n";
   s += "<tr><th>claimed</th><td>" + esc(c.claimed.empty() ? "\u2014" : c.claimed) + "</td></tr>\n";
   s += "<tr><th>derived</th><td>" + esc(derived_text(c)) + "</td></tr>\n";
   if (c.verdict == Verdict::kHolds && !c.tight) s += "<tr><th>tight</th><td>no</td></tr>\n";
   if (c.numeric_only) s += "<tr><th>decided by</th><td>the numbers alone</td></tr>\n";
   if (c.sizes_checked > 0) {
-    s += fmt::format("<tr><th>checked</th><td>{} sizes up to {} bits</td></tr>\n",
-                     c.sizes_checked, c.largest_bits);
+    s += fmt::format("<tr><th>checked</th><td>{} sizes up to {} bits</td></tr>\n", c.sizes_checked,
+                     c.largest_bits);
   }
   s += "</table>\n";
   if (!c.message.empty()) s += "<p class=\"message\">" + esc(c.message) + "</p>\n";
@@ -140,28 +142,28 @@ std::string claim_section(const ClaimResult& c, size_t index) {
 std::string render_html(const RunResult& run) {
   std::array<size_t, 4> count{};
   for (const ClaimResult& c : run.claims) ++count[static_cast<size_t>(c.verdict)];
-  std::string summary = fmt::format(
-      "{} claim{}: {} holds, {} refuted, {} undecided, {} error{}", run.claims.size(),
-      run.claims.size() == 1 ? "" : "s", count[0], count[1], count[2], count[3],
-      count[3] == 1 ? "" : "s");
+  std::string summary = fmt::format("{} claim{}: {} holds, {} refuted, {} undecided, {} error{}",
+                                    run.claims.size(), run.claims.size() == 1 ? "" : "s", count[0],
+                                    count[1], count[2], count[3], count[3] == 1 ? "" : "s");
 
   std::string s = "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n";
   s += "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n";
   s += fmt::format("<title>thetagate report, seed {}</title>\n", run.seed);
   s += std::string("<style>") + kStyle + "</style>\n</head>\n<body>\n";
   s += "<header>\n<h1>thetagate report</h1>\n";
-  s += fmt::format("<p>Seed <code>{0}</code>: rerun with <code>--seed {0}</code> to replay this "
-                   "run. {1}.</p>\n</header>\n",
-                   run.seed, esc(summary));
+  s += fmt::format(
+      "<p>Seed <code>{0}</code>: rerun with <code>--seed {0}</code> to replay this "
+      "run. {1}.</p>\n</header>\n",
+      run.seed, esc(summary));
   s += "<table class=\"summary\">\n<tr><th>verdict</th><th>claim</th><th>claimed</th>"
        "<th>derived</th></tr>\n";
   for (size_t i = 0; i < run.claims.size(); ++i) {
     const ClaimResult& c = run.claims[i];
-    s += fmt::format("<tr><td>{}</td><td><a href=\"#claim-{}\">{}</a></td><td>{}</td><td>{}</td>"
-                     "</tr>\n",
-                     verdict_span(c.verdict), i + 1, esc(c.name),
-                     esc(c.claimed.empty() ? "\u2014" : c.claimed),
-                     esc(c.derived.empty() ? "\u2014" : c.derived));
+    s += fmt::format(
+        "<tr><td>{}</td><td><a href=\"#claim-{}\">{}</a></td><td>{}</td><td>{}</td>"
+        "</tr>\n",
+        verdict_span(c.verdict), i + 1, esc(c.name), esc(c.claimed.empty() ? "\u2014" : c.claimed),
+        esc(c.derived.empty() ? "\u2014" : c.derived));
   }
   s += "</table>\n";
   for (size_t i = 0; i < run.claims.size(); ++i) s += claim_section(run.claims[i], i + 1);

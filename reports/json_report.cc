@@ -1,7 +1,6 @@
 #include "reports/json_report.h"
 
 #include <cmath>
-
 #include <nlohmann/json.hpp>
 
 namespace thetagate {
@@ -57,7 +56,7 @@ Json error_json(const std::optional<Diagnostic>& d) {
 
 Json claim_json(const ClaimResult& c) {
   Json j;
-  // The DESIGN.md §6 keys first, in that order.
+  // The docs/design.md §6 keys first, in that order.
   j["name"] = c.name;
   j["file"] = c.file;
   j["line"] = c.line;

@@ -1,14 +1,13 @@
 // The report for programs: one JSON object, schema documented in
-// docs/json-schema.md. The keys of DESIGN.md §6 are a contract; new keys may
+// docs/json-schema.md. The keys of docs/design.md §6 are a contract; new keys may
 // be added, none renamed or removed without bumping "schema_version".
 #ifndef THETAGATE_REPORTS_JSON_REPORT_H_
 #define THETAGATE_REPORTS_JSON_REPORT_H_
 
+#include <nlohmann/json.hpp>
 #include <string>
 
-#include <nlohmann/json.hpp>
-
-#include "verifier/result.h"
+#include "verifier/checking/result.h"
 
 namespace thetagate {
 

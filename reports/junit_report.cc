@@ -1,9 +1,9 @@
 #include "reports/junit_report.h"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <cstdint>
-
-#include <fmt/format.h>
 
 #include "reports/number_text.h"
 #include "reports/xml_escape.h"
@@ -138,8 +138,8 @@ std::string render_junit(const RunResult& run, const JunitOptions& options) {
     }
     out += "  <testsuite" + attr("name", suite) + counts.attributes() + ">\n";
     out += "    <properties>\n";
-    out += "      <property" + attr("name", "seed") + attr("value", std::to_string(run.seed)) +
-           "/>\n";
+    out +=
+        "      <property" + attr("name", "seed") + attr("value", std::to_string(run.seed)) + "/>\n";
     out += "    </properties>\n";
     for (const ClaimResult& c : run.claims) {
       if (suite_name(c) != suite) continue;

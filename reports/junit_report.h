@@ -14,7 +14,7 @@
 
 #include <string>
 
-#include "verifier/result.h"
+#include "verifier/checking/result.h"
 
 namespace thetagate {
 

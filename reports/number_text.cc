@@ -1,10 +1,10 @@
 #include "reports/number_text.h"
 
+#include <fmt/format.h>
+
 #include <cctype>
 #include <cmath>
 #include <optional>
-
-#include <fmt/format.h>
 
 namespace thetagate {
 
@@ -21,7 +21,7 @@ struct PowerForm {
   unsigned coefficient = 1;  // c in c*base^k
   unsigned base = 2;
   uint64_t exponent = 0;
-  BigInt offset;             // n - c*base^k
+  BigInt offset;  // n - c*base^k
 };
 
 std::string render(const PowerForm& p) {

@@ -5,7 +5,7 @@
 
 #include <string>
 
-#include "verifier/number.h"
+#include "verifier/numbers/number.h"
 
 namespace thetagate {
 

@@ -1,17 +1,16 @@
 #include "reports/text_report.h"
 
+#include <fmt/format.h>
 #include <unistd.h>
 
 #include <algorithm>
-#include <cctype>
 #include <array>
+#include <cctype>
 #include <cstdlib>
 #include <vector>
 
-#include <fmt/format.h>
-
 #include "reports/number_text.h"
-#include "verifier/source.h"
+#include "verifier/syntax/source.h"
 
 namespace thetagate {
 
@@ -26,10 +25,14 @@ const char* const kIndent = "    ";
 
 const char* verdict_colour(Verdict v) {
   switch (v) {
-    case Verdict::kHolds: return "\033[32m";
-    case Verdict::kRefuted: return "\033[1;31m";
-    case Verdict::kUndecided: return "\033[33m";
-    case Verdict::kError: return "\033[1;35m";
+    case Verdict::kHolds:
+      return "\033[32m";
+    case Verdict::kRefuted:
+      return "\033[1;31m";
+    case Verdict::kUndecided:
+      return "\033[33m";
+    case Verdict::kError:
+      return "\033[1;35m";
   }
   return "";
 }
@@ -128,8 +131,8 @@ std::string claim_line(const ClaimResult& c, int name_column, const Painter& pai
 }
 
 std::string witness_headline(const Witness& w) {
-  std::string s = "n = " + short_decimal(w.n) + "  (" + side_name(w.side) + " side, T(n)/g(n) = " +
-                  format_ratio(w.ratio);
+  std::string s = "n = " + short_decimal(w.n) + "  (" + side_name(w.side) +
+                  " side, T(n)/g(n) = " + format_ratio(w.ratio);
   if (!w.factor.empty()) s += ", ladder c = " + w.factor;
   if (!w.family.empty()) s += ", family " + w.family;
   return s + ")";
@@ -142,10 +145,13 @@ void append_witnesses(std::string& out, const ClaimResult& c) {
   for (size_t i = 0; i < shown; ++i) {
     const Witness& w = c.witnesses[i];
     out += kIndent + std::string("  ") + witness_headline(w) + "\n";
-    if (!w.value.empty()) out += kIndent + std::string("    T(n)  = ") + short_value(w.value) + "\n";
-    if (!w.bound.empty()) out += kIndent + std::string("    bound = ") + short_value(w.bound) + "\n";
+    if (!w.value.empty())
+      out += kIndent + std::string("    T(n)  = ") + short_value(w.value) + "\n";
+    if (!w.bound.empty())
+      out += kIndent + std::string("    bound = ") + short_value(w.bound) + "\n";
     if (!w.margin.empty()) {
-      out += kIndent + std::string(w.side == Side::kUpper ? "    T(n) − bound = " : "    bound − T(n) = ") +
+      out += kIndent +
+             std::string(w.side == Side::kUpper ? "    T(n) − bound = " : "    bound − T(n) = ") +
              short_value(w.margin) + "\n";
     }
   }
@@ -177,11 +183,13 @@ void append_band(std::string& out, const ClaimResult& c) {
     out += fmt::format(" ({} of {} scales)", rows.size(), c.band.size());
   }
   out += ":\n";
-  out += fmt::format("{}  {:>6}  {:>11}  {:>11}  {:>8}\n", kIndent, "bits", "low", "high", "samples");
+  out +=
+      fmt::format("{}  {:>6}  {:>11}  {:>11}  {:>8}\n", kIndent, "bits", "low", "high", "samples");
   for (size_t i : rows) {
     const BandRow& r = c.band[i];
-    out += fmt::format("{}  {:>6}  {:>11}  {:>11}  {:>8}\n", kIndent, r.scale + 1, format_band_ratio(r.low, r.low_log2),
-                       format_band_ratio(r.high, r.high_log2), r.samples);
+    out += fmt::format("{}  {:>6}  {:>11}  {:>11}  {:>8}\n", kIndent, r.scale + 1,
+                       format_band_ratio(r.low, r.low_log2), format_band_ratio(r.high, r.high_log2),
+                       r.samples);
   }
 }
 
@@ -197,7 +205,8 @@ void append_list(std::string& out, const char* heading, const std::vector<std::s
 std::string shell_quote(const std::string& word) {
   bool plain = !word.empty();
   for (char c : word) {
-    if (!(std::isalnum(static_cast<unsigned char>(c)) || std::string("-_./:=+,").find(c) != std::string::npos)) {
+    if (!(std::isalnum(static_cast<unsigned char>(c)) ||
+          std::string("-_./:=+,").find(c) != std::string::npos)) {
       plain = false;
     }
   }
@@ -230,15 +239,17 @@ void append_detail(std::string& out, const RunResult& run, const ClaimResult& c,
   if (!c.message.empty() && !(has_diagnostic && c.message == c.error->message)) {
     append_indented(out, kIndent, c.message);
   }
-  if (has_diagnostic) append_indented(out, kIndent, format_diagnostic(*c.error), /*wrap_lines=*/false);
+  if (has_diagnostic)
+    append_indented(out, kIndent, format_diagnostic(*c.error), /*wrap_lines=*/false);
   append_witnesses(out, c);
   append_band(out, c);
   append_list(out, "assumptions:", c.notes);
   if (!c.note.empty()) append_indented(out, kIndent, "note: " + c.note);
   append_list(out, "derivation:", c.reasons);
   if (c.sizes_checked > 0) {
-    out += kIndent + painter.dim(fmt::format("checked {} size{} up to {} bits", c.sizes_checked,
-                                             c.sizes_checked == 1 ? "" : "s", c.largest_bits)) +
+    out += kIndent +
+           painter.dim(fmt::format("checked {} size{} up to {} bits", c.sizes_checked,
+                                   c.sizes_checked == 1 ? "" : "s", c.largest_bits)) +
            "\n";
   }
   if (!c.file.empty() && c.verdict != Verdict::kError) {

@@ -6,7 +6,7 @@
 
 #include <string>
 
-#include "verifier/result.h"
+#include "verifier/checking/result.h"
 
 namespace thetagate {
 

@@ -1,8 +1,8 @@
 #include "reports/xml_escape.h"
 
-#include <cstdint>
-
 #include <fmt/format.h>
+
+#include <cstdint>
 
 namespace thetagate {
 
@@ -24,9 +24,9 @@ size_t allowed_sequence(const std::string& text, size_t i) {
     cp = (cp << 6) | (byte(i + k) & 0x3F);
   }
   static constexpr uint32_t kSmallest[] = {0, 0, 0x80, 0x800, 0x10000};
-  if (cp < kSmallest[length] || cp > 0x10FFFF) return 0;   // overlong or too large
-  if (cp >= 0xD800 && cp <= 0xDFFF) return 0;               // surrogates
-  if (cp == 0xFFFE || cp == 0xFFFF) return 0;               // not XML characters
+  if (cp < kSmallest[length] || cp > 0x10FFFF) return 0;  // overlong or too large
+  if (cp >= 0xD800 && cp <= 0xDFFF) return 0;             // surrogates
+  if (cp == 0xFFFE || cp == 0xFFFF) return 0;             // not XML characters
   return length;
 }
 

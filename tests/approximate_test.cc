@@ -1,15 +1,15 @@
 // The double-precision shortcut used for ratio bands must never round a
 // floor or ceiling the wrong way: where a double cannot be trusted it must
 // say so (nullopt) and leave the value to exact evaluation.
-#include "verifier/approximate.h"
+#include "verifier/evaluation/approximate.h"
 
 #include <gtest/gtest.h>
 
 #include <bit>
 #include <cmath>
 
-#include "verifier/expression_eval.h"
-#include "verifier/parser.h"
+#include "verifier/evaluation/expression_eval.h"
+#include "verifier/syntax/parser.h"
 
 namespace thetagate {
 namespace {
@@ -43,7 +43,7 @@ TEST(Approximate, FloorOfLgAgreesWithBitWidthOrAbstains) {
 
 TEST(Approximate, AbstainsOutsideItsReach) {
   EXPECT_FALSE(at("T(n/2) + n", 10).has_value());  // the recurrence itself
-  EXPECT_FALSE(at("lg n", 0).has_value());          // domain
+  EXPECT_FALSE(at("lg n", 0).has_value());         // domain
   EXPECT_FALSE(at("n", int64_t{1} << 50).has_value());
   EXPECT_FALSE(at("1/(n - 5)", 5).has_value());
 }
@@ -76,12 +76,23 @@ TEST(ApproximateLog2, AgreesWithCertifiedEvaluationAtThousandsOfBits) {
   // The reference is the evaluator's exact or interval arithmetic (GMP and
   // MPFR); the log domain must agree to 1e-12 in log2, well inside the
   // checker's 1e-9 margin for exact re-checks.
-  const char* shapes[] = {"n",           "n lg n",          "n lg^2 n",         "n^2 - n",
-                          "n^(lg 7)",    "n/lg n",          "n lg lg n",        "sqrt(n) + 3",
-                          "2n lg n - n", "n lg n - 0.9139 n + 1", "floor(n/2) + ceil(n/3)",
-                          "max(n, n lg n)", "log(3, n)^2 n", "n^1.5/ln n"};
+  const char* shapes[] = {"n",
+                          "n lg n",
+                          "n lg^2 n",
+                          "n^2 - n",
+                          "n^(lg 7)",
+                          "n/lg n",
+                          "n lg lg n",
+                          "sqrt(n) + 3",
+                          "2n lg n - n",
+                          "n lg n - 0.9139 n + 1",
+                          "floor(n/2) + ceil(n/3)",
+                          "max(n, n lg n)",
+                          "log(3, n)^2 n",
+                          "n^1.5/ln n"};
   for (int bits : {50, 64, 300, 1000, 4096}) {
-    for (BigInt n : {BigInt(1) << (bits - 1), (BigInt(1) << bits) - 1, (BigInt(3) << (bits - 2)) + 7}) {
+    for (BigInt n :
+         {BigInt(1) << (bits - 1), (BigInt(1) << bits) - 1, (BigInt(3) << (bits - 2)) + 7}) {
       for (const char* shape : shapes) {
         std::optional<double> approx = log2_at(shape, n);
         ASSERT_TRUE(approx.has_value()) << shape << " at " << bits << " bits";
@@ -94,12 +105,12 @@ TEST(ApproximateLog2, AgreesWithCertifiedEvaluationAtThousandsOfBits) {
 
 TEST(ApproximateLog2, AbstainsWhereDigitsAreLost) {
   const BigInt n = BigInt(1) << 1000;
-  EXPECT_FALSE(log2_at("n - n", n).has_value());               // zero: no logarithm
-  EXPECT_FALSE(log2_at("(n + 1) - n", n).has_value());         // cancellation
-  EXPECT_FALSE(log2_at("n mod 3 + 1", n).has_value());         // needs the exact value
-  EXPECT_FALSE(log2_at("T(n/2)", n).has_value());              // the recurrence itself
-  EXPECT_FALSE(log2_at("-n", n).has_value());                  // not positive
-  EXPECT_FALSE(log2_at("floor(lg n)", n - 1).has_value());     // a small value near a whole number
+  EXPECT_FALSE(log2_at("n - n", n).has_value());            // zero: no logarithm
+  EXPECT_FALSE(log2_at("(n + 1) - n", n).has_value());      // cancellation
+  EXPECT_FALSE(log2_at("n mod 3 + 1", n).has_value());      // needs the exact value
+  EXPECT_FALSE(log2_at("T(n/2)", n).has_value());           // the recurrence itself
+  EXPECT_FALSE(log2_at("-n", n).has_value());               // not positive
+  EXPECT_FALSE(log2_at("floor(lg n)", n - 1).has_value());  // a small value near a whole number
   EXPECT_EQ(log2_at("lg n", n), std::log2(1000.0));
 }
 

@@ -7,7 +7,7 @@
 #include <fstream>
 #include <set>
 
-#include "verifier/claim.h"
+#include "verifier/model/claim.h"
 
 namespace thetagate {
 namespace {
@@ -78,11 +78,12 @@ TEST(ClaimFile, UnknownKeyNamesTheKeyAndSuggestsTheClosestOne) {
   ASSERT_EQ(entries.size(), 1u);
   EXPECT_EQ(entries[0].name, "orchard::kd_build / visits");
   EXPECT_FALSE(entries[0].claim);
-  EXPECT_EQ(error_text(entries[0]),
-            "mem.toml:4:3: error: unknown key 'bounds' in [[claim]]\n"
-            "  bounds = \"Theta(n lg n)\"\n"
-            "  ^\n"
-            "  hint: did you mean 'bound'? allowed keys: name, recurrence, bound, note, sizes, rounding");
+  EXPECT_EQ(
+      error_text(entries[0]),
+      "mem.toml:4:3: error: unknown key 'bounds' in [[claim]]\n"
+      "  bounds = \"Theta(n lg n)\"\n"
+      "  ^\n"
+      "  hint: did you mean 'bound'? allowed keys: name, recurrence, bound, note, sizes, rounding");
 }
 
 TEST(ClaimFile, UnknownKeyInSizes) {

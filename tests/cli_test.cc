@@ -1,16 +1,15 @@
 // End-to-end tests: run the built thetagate binary on claim files and check
 // exit codes, JSON fields and error text. The top of the test pyramid; the
 // library is tested directly elsewhere.
+#include <gtest/gtest.h>
 #include <sys/wait.h>
 #include <unistd.h>
 
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
-#include <string>
-
-#include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
+#include <string>
 
 namespace {
 
@@ -139,7 +138,9 @@ bound = "O(lg n)"
 }
 
 TEST_F(Cli, OnlyErrorsExitTwo) {
-  std::string file = write_file("bad.toml", "[[claim]]\nname = \"x\"\nrecurrence = \"T(n) = T(n/2) + 1\"\nbound = \"O(lg n)\"\nbounds = \"typo\"\n");
+  std::string file = write_file("bad.toml",
+                                "[[claim]]\nname = \"x\"\nrecurrence = \"T(n) = T(n/2) + "
+                                "1\"\nbound = \"O(lg n)\"\nbounds = \"typo\"\n");
   CommandResult r = run("check " + file);
   EXPECT_EQ(r.status, 2) << r.out;
   EXPECT_NE(r.out.find("bad.toml:5:1"), std::string::npos) << r.out;
@@ -198,7 +199,8 @@ TEST_F(Cli, SameSeedSameReportByteForByte) {
 TEST_F(Cli, DemoLibraryRefutesExactlyItsDeliberatelyWrongClaims) {
   // The bundled demo as the README runs it (default sizes, both cores):
   // every claim named "deliberately wrong" is refuted, every other is not.
-  CommandResult r = run(std::string("check --jobs 2 --format json ") + THETAGATE_SOURCE_DIR + "/claims");
+  CommandResult r =
+      run(std::string("check --jobs 2 --format json ") + THETAGATE_SOURCE_DIR + "/claims");
   EXPECT_EQ(r.status, 1) << r.out;
   auto json = nlohmann::json::parse(r.out);
   int wrong = 0;
@@ -213,7 +215,8 @@ TEST_F(Cli, DemoLibraryRefutesExactlyItsDeliberatelyWrongClaims) {
 }
 
 TEST_F(Cli, DemoClaimsRunAndIncludeARefutation) {
-  CommandResult r = run(std::string("check --max-bits 256 --format json ") + THETAGATE_SOURCE_DIR + "/claims");
+  CommandResult r =
+      run(std::string("check --max-bits 256 --format json ") + THETAGATE_SOURCE_DIR + "/claims");
   EXPECT_EQ(r.status, 1) << r.out;
   auto json = nlohmann::json::parse(r.out);
   EXPECT_GE(json["claims"].size(), 12u);

@@ -1,16 +1,17 @@
 // Derivations checked against published worked examples (sources named
-// beside each check, as listed in /work/shared/SOURCES.md).
+// beside each check, as listed in docs/sources.md).
+#include "verifier/derivation/derive.h"
+
 #include <gtest/gtest.h>
 #include <rapidcheck/gtest.h>
 
 #include <cmath>
 
-#include "verifier/bound.h"
-#include "verifier/derive.h"
-#include "verifier/evaluator.h"
-#include "verifier/recurrence.h"
-#include "verifier/theorems/akra_bazzi.h"
-#include "verifier/theorems/linear.h"
+#include "verifier/derivation/theorems/akra_bazzi.h"
+#include "verifier/derivation/theorems/linear.h"
+#include "verifier/evaluation/evaluator.h"
+#include "verifier/model/bound.h"
+#include "verifier/model/recurrence.h"
 
 namespace thetagate {
 namespace {
@@ -76,13 +77,14 @@ TEST(DeriveMaster, PolylogExtension) {
   EXPECT_EQ(gap.derived, "n lg lg n");
   EXPECT_EQ(gap.method, "master theorem, case 2 (polylog extension, k = -1)");
   bool names_gap = false;
-  for (const auto& s : gap.steps) names_gap = names_gap || s.find("not by a factor n^ε") != std::string::npos;
+  for (const auto& s : gap.steps)
+    names_gap = names_gap || s.find("not by a factor n^ε") != std::string::npos;
   EXPECT_TRUE(names_gap);
   EXPECT_EQ(derived("T(n) = 2T(n/2) + n/lg^2 n; T(1) = 1; T(2) = 1").derived, "n");
 }
 
 TEST(DeriveAkraBazzi, PublishedExamples) {
-  // Akra, Bazzi 1998; values from SOURCES.md (certified root finding).
+  // Akra, Bazzi 1998; values from docs/sources.md (certified root finding).
   Derivation a = derived("T(n) = T(n/5) + T(7n/10) + n; T(1) = 1");
   EXPECT_EQ(a.derived, "n") << reasons(a);
   EXPECT_EQ(a.method, "Akra–Bazzi");
@@ -100,22 +102,25 @@ TEST(DeriveAkraBazzi, PublishedExamples) {
 
 TEST(DeriveAkraBazzi, CriticalExponentIsCertified) {
   RealNumber p = critical_exponent({{Rational(1), Rational(1, 5)}, {Rational(1), Rational(7, 10)}});
-  EXPECT_EQ(p.digits(), "0.839780…");  // SOURCES.md: p = 0.83978...
+  EXPECT_EQ(p.digits(), "0.839780…");  // docs/sources.md: p = 0.83978...
   EXPECT_LT(p, RealNumber(1L));
-  EXPECT_EQ(critical_exponent({{1, Rational(1, 2)}, {1, Rational(1, 3)}, {1, Rational(1, 6)}}), RealNumber(1L));
+  EXPECT_EQ(critical_exponent({{1, Rational(1, 2)}, {1, Rational(1, 3)}, {1, Rational(1, 6)}}),
+            RealNumber(1L));
 }
 
 TEST(DeriveChangeOfVariables, RootTerms) {
-  // SOURCES.md [calc]: T(2^(2^k)) = lg n (T(2) + lg lg n).
-  EXPECT_EQ(derived("T(n) = 2T(sqrt(n)) + lg n; T(2) = 1; T(1) = 1; T(3) = 1").derived, "lg n lg lg n");
-  EXPECT_EQ(derived("T(n) = T(floor(sqrt(n))) + 1; T(1) = 1; T(2) = 1; T(3) = 1").derived, "lg lg n");
+  // docs/sources.md [calc]: T(2^(2^k)) = lg n (T(2) + lg lg n).
+  EXPECT_EQ(derived("T(n) = 2T(sqrt(n)) + lg n; T(2) = 1; T(1) = 1; T(3) = 1").derived,
+            "lg n lg lg n");
+  EXPECT_EQ(derived("T(n) = T(floor(sqrt(n))) + 1; T(1) = 1; T(2) = 1; T(3) = 1").derived,
+            "lg lg n");
 }
 
 TEST(DeriveSubtract, CommonPractice) {
   // Graham, Knuth, Patashnik, Concrete Mathematics, ch. 1: 2^n - 1.
   EXPECT_EQ(derived("T(n) = 2T(n-1) + 1; T(0) = 0").derived, "2^n");
-  EXPECT_EQ(derived("T(n) = T(n-1) + n; T(0) = 0").derived, "n^2");  // common practice
-  EXPECT_EQ(derived("T(n) = 0.5T(n-1) + n; T(0) = 0").derived, "n");  // common practice
+  EXPECT_EQ(derived("T(n) = T(n-1) + n; T(0) = 0").derived, "n^2");             // common practice
+  EXPECT_EQ(derived("T(n) = 0.5T(n-1) + n; T(0) = 0").derived, "n");            // common practice
   EXPECT_EQ(derived("T(n) = 4T(n-2) + 1; T(0) = 1; T(1) = 1").derived, "2^n");  // 4^(n/2)
 }
 
@@ -123,12 +128,13 @@ TEST(DeriveLinear, DominantRootAndItsCoefficient) {
   // Fibonacci: Θ(φ^n) (Neapolitan, Naimipour, appendix B).
   Derivation fib = derived("T(n) = T(n-1) + T(n-2); T(0) = 0; T(1) = 1");
   EXPECT_EQ(fib.derived, "((1 + sqrt(5))/2)^n") << reasons(fib);
-  // SOURCES.md [calc]: 1 - 2^n + 2*3^n.
-  EXPECT_EQ(derived("T(n) = 6T(n-1) - 11T(n-2) + 6T(n-3); T(0) = 2; T(1) = 5; T(2) = 15").derived, "3^n");
-  // SOURCES.md [calc]: a_n = 1, the root 2 has coefficient 0.
+  // docs/sources.md [calc]: 1 - 2^n + 2*3^n.
+  EXPECT_EQ(derived("T(n) = 6T(n-1) - 11T(n-2) + 6T(n-3); T(0) = 2; T(1) = 5; T(2) = 15").derived,
+            "3^n");
+  // docs/sources.md [calc]: a_n = 1, the root 2 has coefficient 0.
   Derivation trap = derived("T(n) = 3T(n-1) - 2T(n-2); T(0) = 1; T(1) = 1");
   EXPECT_EQ(trap.derived, "1") << reasons(trap);
-  // SOURCES.md [calc]: a_n = -a_{n-2} has no Θ of the form n^j r^n.
+  // docs/sources.md [calc]: a_n = -a_{n-2} has no Θ of the form n^j r^n.
   Derivation oscillating = derived("T(n) = -T(n-2); T(0) = 1; T(1) = 1");
   EXPECT_FALSE(oscillating.derived_class());
   EXPECT_NE(reasons(oscillating).find("oscillates"), std::string::npos) << reasons(oscillating);
@@ -155,7 +161,7 @@ TEST(DeriveLinear, ActivePolynomialDropsCancelledRoots) {
 }
 
 TEST(DeriveRegularity, FailsWhereCaseThreeWouldBeWrong) {
-  // SOURCES.md [calc]: f(2^k) = 8^k for even k, 4^k for odd k; f = Ω(n^2) but
+  // docs/sources.md [calc]: f(2^k) = 8^k for even k, 4^k for odd k; f = Ω(n^2) but
   // T(n) >= n^3/4 at odd k, so Θ(f) is false.
   Derivation d = derived(
       "f(n) = n^3 if floor(lg n) mod 2 == 0; f(n) = n^2 otherwise;"
@@ -167,12 +173,15 @@ TEST(DeriveRegularity, FailsWhereCaseThreeWouldBeWrong) {
 }
 
 TEST(DeriveShape, ReasonsInAReviewersWords) {
-  EXPECT_NE(reasons(derived("T(n) = n T(n/2) + 1; T(1) = 1")).find("depends on n"), std::string::npos);
-  EXPECT_NE(reasons(derived("T(n) = T(n/2)^2 + 1; T(1) = 1")).find("not linear"), std::string::npos);
+  EXPECT_NE(reasons(derived("T(n) = n T(n/2) + 1; T(1) = 1")).find("depends on n"),
+            std::string::npos);
+  EXPECT_NE(reasons(derived("T(n) = T(n/2)^2 + 1; T(1) = 1")).find("not linear"),
+            std::string::npos);
   EXPECT_NE(reasons(derived("T(n) = 2T(n/2) + 1 if n even; T(n) = T(n-1) + 1 otherwise; T(1) = 1"))
                 .find("differ in their recursive part"),
             std::string::npos);
-  Derivation parity = derived("T(n) = 2T(n/2) + n if n even; T(n) = 2T(n/2) + n^2 otherwise; T(1) = 1");
+  Derivation parity =
+      derived("T(n) = 2T(n/2) + n if n even; T(n) = 2T(n/2) + n^2 otherwise; T(1) = 1");
   EXPECT_FALSE(parity.derived_class());
   EXPECT_NE(reasons(parity).find("different classes"), std::string::npos) << reasons(parity);
 }
@@ -189,8 +198,9 @@ TEST(DeriveClaim, ExactComparison) {
   ClaimComparison loose = against(gap, "O(n lg n)");
   EXPECT_EQ(loose.agreement, ClaimAgreement::kHoldsLoosely);
   EXPECT_FALSE(loose.tight);
-  EXPECT_EQ(against("T(n) = T(n-1) + T(n-2); T(0) = 0; T(1) = 1", "Theta(((1+sqrt(5))/2)^n)").agreement,
-            ClaimAgreement::kAgree);
+  EXPECT_EQ(
+      against("T(n) = T(n-1) + T(n-2); T(0) = 0; T(1) = 1", "Theta(((1+sqrt(5))/2)^n)").agreement,
+      ClaimAgreement::kAgree);
   EXPECT_EQ(against(strassen, "Theta(n mod 3)").agreement, ClaimAgreement::kCannotClassifyClaim);
 }
 
@@ -215,7 +225,8 @@ RC_GTEST_PROP(DeriveMaster, AgreesWithExactTrend, ()) {
   const long alpha = *rc::gen::inRange(0, 4);
   const long beta = *rc::gen::inRange(-2, 3);
   std::string f = "n^" + std::to_string(alpha) + " * lg(n)^(" + std::to_string(beta) + ")";
-  std::string text = "T(n) = " + std::to_string(a) + "T(n/" + std::to_string(b) + ") + " + f + "; T(1) = 1";
+  std::string text =
+      "T(n) = " + std::to_string(a) + "T(n/" + std::to_string(b) + ") + " + f + "; T(1) = 1";
   Derivation d = derive(*recurrence_from_text(text));
   if (!d.growth) RC_DISCARD("no class: " + reasons(d));  // lg lg lg n boundaries
   Evaluator ev(recurrence_from_text(text));
@@ -234,7 +245,8 @@ RC_GTEST_PROP(DeriveMaster, AgreesWithExactTrend, ()) {
   double drift = std::fabs(log_ratio(2 * k, 0) - log_ratio(k, 0));
   double drift_up = std::fabs(log_ratio(2 * k, 1) - log_ratio(k, 1));
   double drift_down = std::fabs(log_ratio(2 * k, -1) - log_ratio(k, -1));
-  RC_LOG() << text << " -> " << d.derived << " drift " << drift << " / " << drift_up << " / " << drift_down;
+  RC_LOG() << text << " -> " << d.derived << " drift " << drift << " / " << drift_up << " / "
+           << drift_down;
   RC_ASSERT(drift < drift_up);
   RC_ASSERT(drift < drift_down);
 }

@@ -1,15 +1,15 @@
 // Drift against a baseline: reading our own JSON report back, comparing a
 // run with a doctored copy of itself, the text and JSON drift writers, and
 // the --fail-on decision.
+#include "reports/drift.h"
+
 #include <gtest/gtest.h>
 
 #include <algorithm>
 #include <cmath>
-
 #include <nlohmann/json.hpp>
 
 #include "reports/baseline.h"
-#include "reports/drift.h"
 #include "reports/json_report.h"
 #include "tests/report_fixture.h"
 
@@ -99,7 +99,7 @@ TEST(DriftBaseline, MissingKeyIsNamedAndLocatedAtItsObject) {
   // The second claim object opens on the line after the first one closes.
   size_t second_name = text.find("\"name\": \"orchard::rope::concat");
   size_t object_line = std::count(text.begin(), text.begin() + second_name, '\n');  // 0-based
-  EXPECT_EQ(d.where.line, static_cast<int>(object_line));                          // 1-based '{'
+  EXPECT_EQ(d.where.line, static_cast<int>(object_line));                           // 1-based '{'
   EXPECT_EQ(d.source_line, "    {");
 }
 
@@ -115,9 +115,10 @@ TEST(DriftBaseline, WrongTypeIsNamedAndLocatedAtTheValue) {
 }
 
 TEST(DriftBaseline, RejectsOtherVersionsBadVerdictsAndBadSizes) {
-  Diagnostic version = diagnostic_of(
-      [] { read_json_report(R"({"schema_version": 2, "seed": 1, "claims": []})"); });
-  EXPECT_EQ(version.message, "schema_version 2 is not one this thetagate reads (it reads version 1)");
+  Diagnostic version =
+      diagnostic_of([] { read_json_report(R"({"schema_version": 2, "seed": 1, "claims": []})"); });
+  EXPECT_EQ(version.message,
+            "schema_version 2 is not one this thetagate reads (it reads version 1)");
   EXPECT_EQ(version.where.column, 20);
 
   Diagnostic missing = diagnostic_of([] { read_json_report(R"({"seed": 1, "claims": []})"); });
@@ -128,8 +129,9 @@ TEST(DriftBaseline, RejectsOtherVersionsBadVerdictsAndBadSizes) {
   Json j = Json::parse(render_json(sample_run()));
   j["claims"][0]["verdict"] = "passed";
   Diagnostic verdict = diagnostic_of([&] { read_json_report(j.dump(2)); });
-  EXPECT_EQ(verdict.message, "'claims[0].verdict' is \"passed\"; expected \"holds\", \"refuted\", "
-                             "\"undecided\" or \"error\"");
+  EXPECT_EQ(verdict.message,
+            "'claims[0].verdict' is \"passed\"; expected \"holds\", \"refuted\", "
+            "\"undecided\" or \"error\"");
 
   j = Json::parse(render_json(sample_run()));
   j["claims"][1]["witnesses"][2]["n"] = "2^4096";
@@ -152,23 +154,23 @@ TEST(DriftBaseline, TextThatIsNotJsonIsLocatedAtTheBadByte) {
 RunResult doctored_baseline() {
   Json j = Json::parse(render_json(sample_run()));
   Json& claims = j["claims"];
-  claims[0]["verdict"] = "refuted";             // stable_sort: refuted → holds today
-  claims[0]["derived"] = "Θ(n^2)";              // and a different derived class
+  claims[0]["verdict"] = "refuted";  // stable_sort: refuted → holds today
+  claims[0]["derived"] = "Θ(n^2)";   // and a different derived class
   Json& rope = claims[1];
-  rope["witnesses"].erase(0);                   // today's n = 2048 is new
+  rope["witnesses"].erase(0);  // today's n = 2048 is new
   Json extra = rope["witnesses"][0];
   extra["n"] = "4097";
-  rope["witnesses"].push_back(extra);           // n = 4097 is lost today
-  rope["band"][1]["high"] = 1.5;                // scale 2: today 3.5, log2 ratio 1.22: moved
+  rope["witnesses"].push_back(extra);  // n = 4097 is lost today
+  rope["band"][1]["high"] = 1.5;       // scale 2: today 3.5, log2 ratio 1.22: moved
   rope["band"][1]["high_log2"] = std::log2(1.5);
-  rope["band"][2]["low"] = 3.4;                 // scale 3: today 4, ratio 1.18: within tolerance
+  rope["band"][2]["low"] = 3.4;  // scale 3: today 4, ratio 1.18: within tolerance
   rope["band"][2]["low_log2"] = std::log2(3.4);
-  claims.erase(2);                              // lower_bound: new today
+  claims.erase(2);  // lower_bound: new today
   Json gone = claims[0];
   gone["name"] = "orchard::heap_sort / sift-downs";
   gone["line"] = 40;
   gone["verdict"] = "holds";
-  claims.push_back(gone);                       // lost today
+  claims.push_back(gone);  // lost today
   j["seed"] = 99;
   return read_json_report(j.dump(2), "old.json");
 }
@@ -217,7 +219,7 @@ TEST(Drift, FindsEveryKindOfChangeInADoctoredBaseline) {
 TEST(Drift, WitnessesMatchByNAndSide) {
   RunResult before = sample_run(), after = sample_run();
   after.claims[1].witnesses[0].side = Side::kLower;  // same n, other side
-  after.claims[1].witnesses[1].ratio = 7;             // same n and side: not drift
+  after.claims[1].witnesses[1].ratio = 7;            // same n and side: not drift
   after.claims[1].witnesses[1].factor = "100";
   DriftReport drift = compare_runs(before, after);
   ASSERT_EQ(drift.claims.size(), 1u);
@@ -231,9 +233,9 @@ TEST(Drift, BandEndsMoveBeyondTheToleranceOrWhenTheyStopBeingFinite) {
   RunResult before = sample_run(), after = sample_run();
   BandRow& row = after.claims[3].band[5];
   row.low_log2 = before.claims[3].band[5].low_log2 - 0.49;  // within 2^0.5
-  row.high = INFINITY;                                       // finite → not: moved
+  row.high = INFINITY;                                      // finite → not: moved
   row.high_log2 = NAN;
-  after.claims[3].band.pop_back();                           // a lost scale is no move
+  after.claims[3].band.pop_back();  // a lost scale is no move
   DriftReport drift = compare_runs(before, after);
   ASSERT_EQ(drift.claims.size(), 1u);
   ASSERT_EQ(drift.claims[0].band_moves.size(), 1u);

@@ -11,8 +11,8 @@
 #include <vector>
 
 #include "tests/test_support.h"
-#include "verifier/evaluator.h"
-#include "verifier/recurrence.h"
+#include "verifier/evaluation/evaluator.h"
+#include "verifier/model/recurrence.h"
 
 namespace thetagate {
 namespace {

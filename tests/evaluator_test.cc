@@ -1,8 +1,8 @@
 // The exact evaluator against published closed forms and reference
 // libraries. Each outside check names its source beside it (see
-// /work/shared/SOURCES.md); "[calc]" means the value follows from the stated
+// docs/sources.md); "[calc]" means the value follows from the stated
 // closed form by exact arithmetic.
-#include "verifier/evaluator.h"
+#include "verifier/evaluation/evaluator.h"
 
 #include <gmp.h>
 #include <gtest/gtest.h>
@@ -15,8 +15,8 @@
 #include <string>
 #include <vector>
 
-#include "verifier/recurrence.h"
-#include "verifier/source.h"
+#include "verifier/model/recurrence.h"
+#include "verifier/syntax/source.h"
 
 namespace thetagate {
 namespace {
@@ -362,7 +362,7 @@ TEST(Evaluator, SizesAreExactConstantExpressions) {
 namespace {
 
 TEST(EvaluatorWellFoundedness, NonShrinkingCallNamesTheFirstOffendingSize) {
-  // DESIGN.md §3: the error names the first offending n and call.
+  // docs/design.md §3: the error names the first offending n and call.
   try {
     thetagate::Evaluator ev(thetagate::recurrence_from_text("T(n) = T(n+1) + 1"));
     ev.value_at(thetagate::BigInt(3));

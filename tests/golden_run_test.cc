@@ -12,8 +12,8 @@
 #include "reports/junit_report.h"
 #include "reports/text_report.h"
 #include "tests/golden.h"
-#include "verifier/checker.h"
-#include "verifier/claim.h"
+#include "verifier/checking/checker.h"
+#include "verifier/model/claim.h"
 
 namespace thetagate {
 namespace {
@@ -52,8 +52,8 @@ TEST(GoldenRunReport, CoversEveryVerdict) {
   ASSERT_EQ(run.claims.size(), 7u);
   std::vector<std::string> verdicts;
   for (const ClaimResult& c : run.claims) verdicts.push_back(verdict_name(c.verdict));
-  EXPECT_EQ(verdicts, (std::vector<std::string>{"holds", "holds", "refuted", "refuted",
-                                                "undecided", "undecided", "error"}));
+  EXPECT_EQ(verdicts, (std::vector<std::string>{"holds", "holds", "refuted", "refuted", "undecided",
+                                                "undecided", "error"}));
   // (4n^2 - 1)/3 > n^2 from n = 2 on: T(2) = 5 > 4 [calc].
   ASSERT_FALSE(run.claims[2].witnesses.empty());
   EXPECT_EQ(run.claims[2].witnesses[0].n, 2);

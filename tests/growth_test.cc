@@ -1,15 +1,18 @@
 // Growth classes, exact real exponents and the classifier.
+#include "verifier/derivation/growth.h"
+
 #include <gtest/gtest.h>
 
-#include "verifier/classify.h"
-#include "verifier/growth.h"
-#include "verifier/parser.h"
-#include "verifier/real_number.h"
+#include "verifier/derivation/classify.h"
+#include "verifier/numbers/real_number.h"
+#include "verifier/syntax/parser.h"
 
 namespace thetagate {
 namespace {
 
-ExprPtr expr(const std::string& text) { return parse_expression(SourceText::whole("<test>", text)); }
+ExprPtr expr(const std::string& text) {
+  return parse_expression(SourceText::whole("<test>", text));
+}
 
 Classification classified(const std::string& text) { return classify(*expr(text)); }
 
@@ -40,7 +43,8 @@ TEST(GrowthRealNumber, LogarithmsAreCanonical) {
 TEST(GrowthRealNumber, RationalRootsOfReduciblePolynomialsPrintAsFractions) {
   // (3x - 50)(x^2 - 2) and (1000003x - 7)(x^2 - x - 1): the rational root is
   // found whatever its place in the interval and the size of its denominator.
-  Polynomial a = Polynomial({Rational(-50), Rational(3)}) * Polynomial({Rational(-2), 0, Rational(1)});
+  Polynomial a =
+      Polynomial({Rational(-50), Rational(3)}) * Polynomial({Rational(-2), 0, Rational(1)});
   EXPECT_EQ(RealNumber::algebraic(a, 10, 100).str(), "50/3");
   Polynomial b = Polynomial({Rational(-7), Rational(1000003)}) *
                  Polynomial({Rational(-1), Rational(-1), Rational(1)});
@@ -52,7 +56,8 @@ TEST(GrowthRealNumber, RationalRootsOfReduciblePolynomialsPrintAsFractions) {
 }
 
 TEST(GrowthRealNumber, GoldenRatioIsExact) {
-  RealNumber phi = RealNumber::algebraic(Polynomial({Rational(-1), Rational(-1), Rational(1)}), 1, 2);
+  RealNumber phi =
+      RealNumber::algebraic(Polynomial({Rational(-1), Rational(-1), Rational(1)}), 1, 2);
   auto written = constant_value(*expr("(1 + sqrt(5))/2"));
   ASSERT_TRUE(written);
   EXPECT_EQ(compare(phi, *written), 0);
@@ -72,7 +77,9 @@ TEST(GrowthClassOrder, LexicographicOnRhoAlphaBetaGamma) {
   GrowthClass n_lg_n = GrowthClass::polylog(1, 1);
   GrowthClass n_lglg = GrowthClass::polylog(1, 0, 1);
   EXPECT_LT(compare(n_lglg, n_lg_n), 0);
-  EXPECT_GT(compare(GrowthClass::polylog(RealNumber::log(2, 7)), GrowthClass::polylog(Rational(2807, 1000))), 0);
+  EXPECT_GT(compare(GrowthClass::polylog(RealNumber::log(2, 7)),
+                    GrowthClass::polylog(Rational(2807, 1000))),
+            0);
   EXPECT_GT(compare(GrowthClass::exponential(Rational(11, 10)), GrowthClass::polylog(100, 5)), 0);
 }
 
@@ -120,7 +127,8 @@ TEST(GrowthClassify, RefusesWithAReason) {
   EXPECT_NE(classified("n mod 3").reason.find("oscillates"), std::string::npos);
   EXPECT_NE(classified("n^2 - n^3").reason.find("negative"), std::string::npos);
   EXPECT_NE(classified("(-1)^n n").reason.find("alternates"), std::string::npos);
-  EXPECT_NE(classified("2^sqrt(n)").reason.find("between polynomial and exponential"), std::string::npos);
+  EXPECT_NE(classified("2^sqrt(n)").reason.find("between polynomial and exponential"),
+            std::string::npos);
   EXPECT_NE(classified("sqrt(n+1) - sqrt(n)").reason.find("cancel"), std::string::npos);
   EXPECT_NE(classified("n^n").reason.find("base and exponent"), std::string::npos);
   EXPECT_TRUE(classified("n - n").zero);

@@ -2,8 +2,9 @@
 // SVG band plot per claim with a band. The browser checks run Debian's
 // `chromium` headless (a fresh profile, no network) and skip with a message
 // where it is absent. THETAGATE_KEEP_SCREENSHOT=FILE.png keeps the screenshot.
-#include <gtest/gtest.h>
+#include "reports/html_report.h"
 
+#include <gtest/gtest.h>
 #include <sys/wait.h>
 #include <unistd.h>
 
@@ -14,10 +15,9 @@
 #include <fstream>
 #include <sstream>
 
-#include "tests/test_support.h"
 #include "reports/band_plot.h"
-#include "reports/html_report.h"
 #include "tests/report_fixture.h"
+#include "tests/test_support.h"
 
 namespace thetagate {
 namespace {
@@ -132,13 +132,15 @@ class HtmlReportBrowser : public ::testing::Test {
     std::ofstream(file, std::ios::binary) << page;
     std::string out = dir_ + "/stdout";
     std::string command =
-        "timeout 120 '" + browser_ + "' --headless --no-sandbox --disable-gpu --disable-quic "
+        "timeout 120 '" + browser_ +
+        "' --headless --no-sandbox --disable-gpu --disable-quic "
         "--no-first-run --disable-background-networking --disable-component-update --disable-sync "
-        "--hide-scrollbars --window-size=1280,2400 --user-data-dir='" + dir_ + "/profile' " +
-        action + " 'file://" + file + "' >'" + out + "' 2>'" + dir_ + "/stderr'";
+        "--hide-scrollbars --window-size=1280,2400 --user-data-dir='" +
+        dir_ + "/profile' " + action + " 'file://" + file + "' >'" + out + "' 2>'" + dir_ +
+        "/stderr'";
     int status = std::system(command.c_str());
-    EXPECT_TRUE(WIFEXITED(status) && WEXITSTATUS(status) == 0)
-        << command << "\n" << read_file(dir_ + "/stderr");
+    EXPECT_TRUE(WIFEXITED(status) && WEXITSTATUS(status) == 0) << command << "\n"
+                                                               << read_file(dir_ + "/stderr");
     return read_file(out);
   }
 
@@ -171,7 +173,8 @@ TEST_F(HtmlReportBrowser, HtmlReportDrawsSizedPlots) {
   ASSERT_NE(body_end, std::string::npos);
   std::string dom = run(html.substr(0, body_end) + kMeasure + html.substr(body_end), "--dump-dom");
   size_t start = dom.find("<pre id=\"measured\">");
-  ASSERT_NE(start, std::string::npos) << "the measuring script did not run:\n" << dom.substr(0, 400);
+  ASSERT_NE(start, std::string::npos) << "the measuring script did not run:\n"
+                                      << dom.substr(0, 400);
   start += std::string("<pre id=\"measured\">").size();
   std::string measured = dom.substr(start, dom.find("</pre>", start) - start);
   std::istringstream lines(measured);

@@ -10,9 +10,9 @@
 #include <vector>
 
 #include "tests/test_support.h"
-#include "verifier/evaluator.h"
-#include "verifier/recurrence.h"
-#include "verifier/source.h"
+#include "verifier/evaluation/evaluator.h"
+#include "verifier/model/recurrence.h"
+#include "verifier/syntax/source.h"
 
 namespace thetagate {
 namespace {
@@ -21,15 +21,34 @@ using test_support::Mpz;
 
 // Recursive terms over n. Multiples p·n/q (q > p) do not collapse: each
 // level adds distinct subproblems, so they get smaller sizes below.
-const std::vector<std::string> kCollapsingCalls = {
-    "T(floor(n/2))", "T(ceil(n/2))", "T(n/2)", "T(n/3)", "T(ceil(n/4))", "T(floor(n/2) - 1)",
-    "T(floor(sqrt(n)))", "T(floor(lg(n + 1)))"};
+const std::vector<std::string> kCollapsingCalls = {"T(floor(n/2))",
+                                                   "T(ceil(n/2))",
+                                                   "T(n/2)",
+                                                   "T(n/3)",
+                                                   "T(ceil(n/4))",
+                                                   "T(floor(n/2) - 1)",
+                                                   "T(floor(sqrt(n)))",
+                                                   "T(floor(lg(n + 1)))"};
 const std::vector<std::string> kSpreadingCalls = {"T(7n/10)", "T(ceil(2n/3))", "T(floor(3n/4))"};
-const std::vector<std::string> kDrivers = {
-    "n",         "n^2",        "1",           "n mod 3",      "floor(n/2)",     "ceil(n/3)",
-    "max(n, 7)", "min(n, 100)", "2n + 3",      "n^3 - n",      "(n mod 2) * n",  "-n",
-    "0",         "mod(n, 5)^2", "10^20 - n",    "floor(lg(n + 1))", "ceil(lg(n + 2))",
-    "ceil(sqrt(n)) * n", "floor(sqrt(3n + 1))"};
+const std::vector<std::string> kDrivers = {"n",
+                                           "n^2",
+                                           "1",
+                                           "n mod 3",
+                                           "floor(n/2)",
+                                           "ceil(n/3)",
+                                           "max(n, 7)",
+                                           "min(n, 100)",
+                                           "2n + 3",
+                                           "n^3 - n",
+                                           "(n mod 2) * n",
+                                           "-n",
+                                           "0",
+                                           "mod(n, 5)^2",
+                                           "10^20 - n",
+                                           "floor(lg(n + 1))",
+                                           "ceil(lg(n + 2))",
+                                           "ceil(sqrt(n)) * n",
+                                           "floor(sqrt(3n + 1))"};
 
 struct Spec {
   std::string text;
@@ -43,8 +62,8 @@ Spec gen_spec() {
   for (int i = 0; i < terms; ++i) {
     bool spread = *rc::gen::inRange(0, 4) == 0;
     s.spreading |= spread;
-    std::string call = spread ? *rc::gen::elementOf(kSpreadingCalls)
-                              : *rc::gen::elementOf(kCollapsingCalls);
+    std::string call =
+        spread ? *rc::gen::elementOf(kSpreadingCalls) : *rc::gen::elementOf(kCollapsingCalls);
     int coefficient = *rc::gen::inRange(1, 4);
     body += (i > 0 ? " + " : "") + (coefficient > 1 ? std::to_string(coefficient) : "") + call;
   }
@@ -56,8 +75,8 @@ Spec gen_spec() {
                "T(1) = " + std::to_string(*rc::gen::inRange(-3, 10))};
       break;
     case 1:  // a conditional base case
-      lines = {"T(n) = " + std::to_string(*rc::gen::inRange(0, 5)) + " if n <= " +
-                   std::to_string(*rc::gen::inRange(3, 7)),
+      lines = {"T(n) = " + std::to_string(*rc::gen::inRange(0, 5)) +
+                   " if n <= " + std::to_string(*rc::gen::inRange(3, 7)),
                "T(n) = " + body};
       break;
     case 2:  // parity lines: odd sizes step down by one, even sizes divide
@@ -127,10 +146,10 @@ std::string error_of(const std::string& text, const BigInt& n, EvaluationPath pa
 
 TEST(IntegerKernel, DeclinedSizesFailWithTheGeneralPathsLocatedError) {
   const std::vector<std::string> cases = {
-      "T(n) = T(n + 1) + 1",                          // does not shrink, beyond the default base
+      "T(n) = T(n + 1) + 1",                             // does not shrink, beyond the default base
       "T(n) = T(n/2) + 1 if n > 5\nT(n) = 1 if n == 0",  // no line applies at 1..5
-      "T(n) = T(n/2) + n mod (n - n)\nT(0) = 0",       // mod by zero
-      "T(n) = T(floor(n/(n - 3))) + 1\nT(0) = 0",      // reaches T(1), which calls T(-1)
+      "T(n) = T(n/2) + n mod (n - n)\nT(0) = 0",         // mod by zero
+      "T(n) = T(floor(n/(n - 3))) + 1\nT(0) = 0",        // reaches T(1), which calls T(-1)
   };
   for (const std::string& text : cases) {
     EXPECT_TRUE(Evaluator(recurrence_from_text(text)).uses_integer_kernel()) << text;
@@ -151,12 +170,12 @@ TEST(IntegerKernel, CompilesOnlyRecurrencesThatStayWhole) {
       {"T(n) = 1 if n <= 4\nT(n) = T(n/5) + T(7n/10) + n", true},
       {"T(n) = 7T(n/2) + n^2", true},
       {"T(n) = T(n/2) + 1 if n even\nT(n) = T(n - 1) + 1 if n odd\nT(0) = 0", true},
-      {"T(n) = 2T(n/2) + n lg n", false},       // irrational driving function
-      {"T(n) = 2T(n/2) + n/2", false},          // a bare quotient may be a fraction
+      {"T(n) = 2T(n/2) + n lg n", false},               // irrational driving function
+      {"T(n) = 2T(n/2) + n/2", false},                  // a bare quotient may be a fraction
       {"T(n) = T(floor(sqrt(n))) + ceil(lg n)", true},  // rounded roots and logarithms
-      {"T(n) = T(n/2) + sqrt(n)", false},       // an unrounded root
-      {"T(n) = 2T(n/2) + 0.5", false},          // not a whole constant
-      {"T(n) = 2T(n/2) + f(n)\nf(n) = n + 1", false},  // helpers stay general
+      {"T(n) = T(n/2) + sqrt(n)", false},               // an unrounded root
+      {"T(n) = 2T(n/2) + 0.5", false},                  // not a whole constant
+      {"T(n) = 2T(n/2) + f(n)\nf(n) = n + 1", false},   // helpers stay general
   };
   for (const Case& c : cases) {
     Evaluator ev(recurrence_from_text(c.text));

@@ -2,15 +2,15 @@
 // change, regenerate it with
 //   THETAGATE_UPDATE_GOLDEN=1 <build>/thetagate_tests --gtest_filter='JsonReport*'
 // and review the diff (and docs/json-schema.md if a key changed).
+#include "reports/json_report.h"
+
 #include <gtest/gtest.h>
 
 #include <cmath>
 #include <limits>
+#include <nlohmann/json.hpp>
 #include <vector>
 
-#include <nlohmann/json.hpp>
-
-#include "reports/json_report.h"
 #include "tests/golden.h"
 #include "tests/report_fixture.h"
 
@@ -39,11 +39,11 @@ TEST(JsonReport, TopLevelKeysInOrder) {
 
 TEST(JsonReport, ClaimKeysStartWithTheDesignKeys) {
   Json j = Json::parse(render_json(sample_run()));
-  // DESIGN.md §6 keys first and in that order, then the schema-1 additions.
+  // docs/design.md §6 keys first and in that order, then the schema-1 additions.
   std::vector<std::string> expected = {
-      "name",    "file",         "line",  "verdict", "claimed", "derived",       "method",
-      "tight",   "witnesses",    "band",  "message", "numeric_only", "notes",    "reasons",
-      "note",    "sizes_checked", "largest_bits", "error"};
+      "name",   "file",    "line",      "verdict",       "claimed",      "derived",
+      "method", "tight",   "witnesses", "band",          "message",      "numeric_only",
+      "notes",  "reasons", "note",      "sizes_checked", "largest_bits", "error"};
   for (const Json& claim : j["claims"]) EXPECT_EQ(keys_of(claim), expected);
 }
 
@@ -86,8 +86,8 @@ TEST(JsonReport, WitnessSizesAreFullDecimalStrings) {
     EXPECT_EQ(witnesses[i]["factor"], w.factor);
     EXPECT_DOUBLE_EQ(witnesses[i]["ratio"].get<double>(), w.ratio);
   }
-  EXPECT_EQ(keys_of(witnesses[0]),
-            (std::vector<std::string>{"n", "ratio", "side", "value", "bound", "family", "factor", "margin"}));
+  EXPECT_EQ(keys_of(witnesses[0]), (std::vector<std::string>{"n", "ratio", "side", "value", "bound",
+                                                             "family", "factor", "margin"}));
 }
 
 TEST(JsonReport, BandRowsCarryScaleEndsAndWhereFound) {
@@ -95,9 +95,8 @@ TEST(JsonReport, BandRowsCarryScaleEndsAndWhereFound) {
   Json j = Json::parse(render_json(run));
   const Json& band = j["claims"][3]["band"];
   ASSERT_EQ(band.size(), 40u);
-  EXPECT_EQ(keys_of(band[0]),
-            (std::vector<std::string>{"scale", "low", "high", "low_at", "high_at", "samples", "low_log2",
-                                      "high_log2"}));
+  EXPECT_EQ(keys_of(band[0]), (std::vector<std::string>{"scale", "low", "high", "low_at", "high_at",
+                                                        "samples", "low_log2", "high_log2"}));
   EXPECT_EQ(band[39]["scale"], 3901);
   EXPECT_EQ(band[39]["high_at"], run.claims[3].band[39].high_at.str());
   EXPECT_EQ(band[39]["samples"], 24);

@@ -3,8 +3,9 @@
 //   THETAGATE_UPDATE_GOLDEN=1 <build>/thetagate_tests --gtest_filter='JunitReport*'
 // and review the diff. The schema check needs `xmllint` (Debian package
 // libxml2-utils) and skips with a message where it is absent.
-#include <gtest/gtest.h>
+#include "reports/junit_report.h"
 
+#include <gtest/gtest.h>
 #include <sys/wait.h>
 #include <unistd.h>
 
@@ -12,11 +13,10 @@
 #include <fstream>
 #include <sstream>
 
-#include "tests/test_support.h"
-#include "reports/junit_report.h"
 #include "reports/xml_escape.h"
 #include "tests/golden.h"
 #include "tests/report_fixture.h"
+#include "tests/test_support.h"
 
 namespace thetagate {
 namespace {
@@ -161,12 +161,15 @@ TEST(XmlEscape, TextKeepsNewlinesAndQuotes) {
 
 TEST(XmlEscape, ForbiddenCharactersBecomeReplacement) {
   const std::string fffd = "\xEF\xBF\xBD";
-  EXPECT_EQ(xml_escape_text("a\x01" "b"), "a" + fffd + "b");      // C0 control
-  EXPECT_EQ(xml_escape_text("\xff"), fffd);                         // never valid in UTF-8
-  EXPECT_EQ(xml_escape_text("\xC0\x80"), fffd + fffd);              // overlong NUL
-  EXPECT_EQ(xml_escape_text("\xED\xA0\x80"), fffd + fffd + fffd);   // surrogate D800
-  EXPECT_EQ(xml_escape_text("\xEF\xBF\xBE"), fffd + fffd + fffd);   // U+FFFE
-  EXPECT_EQ(xml_escape_text("Θ(n lg n) ⌊n/2⌋ \xF0\x9F\x8C\xB3"), "Θ(n lg n) ⌊n/2⌋ \xF0\x9F\x8C\xB3");
+  EXPECT_EQ(xml_escape_text("a\x01"
+                            "b"),
+            "a" + fffd + "b");                                     // C0 control
+  EXPECT_EQ(xml_escape_text("\xff"), fffd);                        // never valid in UTF-8
+  EXPECT_EQ(xml_escape_text("\xC0\x80"), fffd + fffd);             // overlong NUL
+  EXPECT_EQ(xml_escape_text("\xED\xA0\x80"), fffd + fffd + fffd);  // surrogate D800
+  EXPECT_EQ(xml_escape_text("\xEF\xBF\xBE"), fffd + fffd + fffd);  // U+FFFE
+  EXPECT_EQ(xml_escape_text("Θ(n lg n) ⌊n/2⌋ \xF0\x9F\x8C\xB3"),
+            "Θ(n lg n) ⌊n/2⌋ \xF0\x9F\x8C\xB3");
 }
 
 }  // namespace

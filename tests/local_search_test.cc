@@ -21,7 +21,7 @@ double lg(const BigInt& n) {
 // (W(n) − n lg n)/n for the merge sort worst case without its 1/n term:
 // A(u) = 1 − {u} − 2^(1−{u}), u = lg n. Closed form from M. A. Suchenek,
 // "Elementary yet precise worst-case analysis of MergeSort", arXiv:1702.08443
-// (see SOURCES.md); its maximum −lg(ln 2) − 1/ln 2 = −0.913928667944… at
+// (see docs/sources.md); its maximum −lg(ln 2) − 1/ln 2 = −0.913928667944… at
 // n = 2 ln 2 · 2^⌊lg n⌋ and its minimum −1 at powers of two follow by calculus.
 std::optional<double> merge_sort_gap(const BigInt& n) {
   double u = lg(n);

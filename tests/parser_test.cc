@@ -1,7 +1,7 @@
 // Lexer, expression parser, recurrence and bound grammars, and the printer.
 // Trees are compared structurally (same_tree) against trees built by hand,
 // so a test of the parser does not lean on the printer.
-#include "verifier/parser.h"
+#include "verifier/syntax/parser.h"
 
 #include <gtest/gtest.h>
 #include <rapidcheck/gtest.h>
@@ -9,13 +9,13 @@
 #include <string>
 #include <vector>
 
-#include "verifier/bound.h"
-#include "verifier/definitions.h"
-#include "verifier/evaluator.h"
-#include "verifier/expr.h"
-#include "verifier/lexer.h"
-#include "verifier/recurrence.h"
-#include "verifier/source.h"
+#include "verifier/evaluation/evaluator.h"
+#include "verifier/model/bound.h"
+#include "verifier/model/definitions.h"
+#include "verifier/model/recurrence.h"
+#include "verifier/syntax/expr.h"
+#include "verifier/syntax/lexer.h"
+#include "verifier/syntax/source.h"
 
 namespace thetagate {
 namespace {

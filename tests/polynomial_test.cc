@@ -1,6 +1,6 @@
 // Root counting in a disk (Pellet's theorem after Graeffe root-squaring),
 // which certifies that a linear recurrence's dominant root dominates.
-#include "verifier/polynomial.h"
+#include "verifier/numbers/polynomial.h"
 
 #include <gtest/gtest.h>
 #include <rapidcheck/gtest.h>

@@ -6,14 +6,14 @@
 #ifndef THETAGATE_TESTS_REPORT_FIXTURE_H_
 #define THETAGATE_TESTS_REPORT_FIXTURE_H_
 
-#include "verifier/result.h"
 #include <cmath>
+
+#include "verifier/checking/result.h"
 
 namespace thetagate::test_support {
 
 // Claims, in order: 0 holds, 1 refuted, 2 holds (not tight), 3 undecided,
 // 4 error, 5 holds (name with XML specials). Seed 20240611.
-
 
 inline BigInt pow2(unsigned k) { return BigInt(1) << k; }
 
@@ -43,8 +43,9 @@ inline ClaimResult rope_concat() {
   c.claimed = "O(n)";
   c.derived = "Θ(n lg n)";
   c.method = "master theorem, case 2";
-  c.message = "the derived class Θ(n lg n) grows faster than the claimed O(n), and the witness "
-              "ladder confirms it up to c = 1000";
+  c.message =
+      "the derived class Θ(n lg n) grows faster than the claimed O(n), and the witness "
+      "ladder confirms it up to c = 1000";
   // T(n) = n lg n + n on these sizes: above c·n once lg n passes c - 1.
   Witness w1;
   w1.n = 2048;
@@ -111,8 +112,9 @@ inline ClaimResult kd_tree() {
   c.claimed = "Θ(sqrt(n))";
   c.method = "numeric";
   c.numeric_only = true;
-  c.message = "no theorem applies; T(n)/g(n) stays between 0.7 and 1.9 but its upper end "
-              "still rises slowly, so the numbers alone cannot decide";
+  c.message =
+      "no theorem applies; T(n)/g(n) stays between 0.7 and 1.9 but its upper end "
+      "still rises slowly, so the numbers alone cannot decide";
   c.notes = {"no base case covers n = 1: T(n) = 1 assumed where the argument would not shrink",
              "n/4 read as ⌊n/4⌋"};
   c.reasons = {"master theorem: T(n) = 2T(n/4) + T(n/2) + 1 has two kinds of subproblem",
@@ -167,15 +169,13 @@ inline ClaimResult karatsuba() {
   return c;
 }
 
-
 inline RunResult sample_run() {
   RunResult run;
   run.seed = 20240611;
-  run.claims = {stable_sort(), rope_concat(), binary_search(), kd_tree(), broken_quadtree(),
-                karatsuba()};
+  run.claims = {stable_sort(), rope_concat(),     binary_search(),
+                kd_tree(),     broken_quadtree(), karatsuba()};
   return run;
 }
-
 
 }  // namespace thetagate::test_support
 

@@ -7,7 +7,7 @@
 #include <set>
 
 #include "generators/random_bits.h"
-#include "verifier/source.h"
+#include "verifier/syntax/source.h"
 
 namespace thetagate {
 namespace {
@@ -64,7 +64,7 @@ TEST(SizeFamily, ScaleScheduleIsDenseThenGeometric) {
   EXPECT_EQ(s.back(), 4095u);
   EXPECT_TRUE(std::is_sorted(s.begin(), s.end()));
   EXPECT_EQ(std::adjacent_find(s.begin(), s.end()), s.end());
-    EXPECT_EQ(scales(1), (std::vector<uint64_t>{0}));
+  EXPECT_EQ(scales(1), (std::vector<uint64_t>{0}));
   EXPECT_EQ(scales(10).back(), 9u);
   EXPECT_EQ(scales(65).back(), 64u);
   EXPECT_EQ(scales(66).back(), 65u);
@@ -155,8 +155,7 @@ TEST(SizeFamily, FamilyMembersHaveThePromisedForm) {
     for (const BigInt& n : fam["powers"]) {
       auto d = digits(n, b);
       EXPECT_EQ(d.back(), 1) << n;
-      EXPECT_TRUE(std::all_of(d.begin(), d.end() - 1, [](const BigInt& x) { return x == 0; }))
-          << n;
+      EXPECT_TRUE(std::all_of(d.begin(), d.end() - 1, [](const BigInt& x) { return x == 0; })) << n;
     }
     for (const BigInt& n : fam["ones"]) {
       auto d = digits(n, b);

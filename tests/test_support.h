@@ -37,8 +37,7 @@ class Mpz {
 // Occurrences of `needle` in `text` (overlapping ones count).
 inline size_t count_of(const std::string& text, const std::string& needle) {
   size_t count = 0;
-  for (size_t at = text.find(needle); at != std::string::npos;
-       at = text.find(needle, at + 1)) {
+  for (size_t at = text.find(needle); at != std::string::npos; at = text.find(needle, at + 1)) {
     ++count;
   }
   return count;

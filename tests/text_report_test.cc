@@ -3,9 +3,10 @@
 // with
 //   THETAGATE_UPDATE_GOLDEN=1 <build>/thetagate_tests --gtest_filter='TextReport*'
 // and review the diff.
-#include <gtest/gtest.h>
+#include "reports/text_report.h"
 
 #include <fcntl.h>
+#include <gtest/gtest.h>
 #include <stdlib.h>
 #include <unistd.h>
 
@@ -15,7 +16,6 @@
 #include <vector>
 
 #include "reports/number_text.h"
-#include "reports/text_report.h"
 #include "tests/golden.h"
 #include "tests/report_fixture.h"
 
@@ -131,7 +131,8 @@ TEST(TextReport, HoldingClaimsHaveNoDetail) {
 }
 
 TEST(TextReport, SameInputSameBytes) {
-  EXPECT_EQ(render_text(sample_run(), TextStyle{false}), render_text(sample_run(), TextStyle{false}));
+  EXPECT_EQ(render_text(sample_run(), TextStyle{false}),
+            render_text(sample_run(), TextStyle{false}));
 }
 
 // Decimal shortening.

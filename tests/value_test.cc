@@ -1,7 +1,7 @@
 // Exact values, certified intervals and the number helpers under them.
 // Big-number results are checked against GMP's mpz functions called
 // directly (the reference library), machine-real results against <cmath>.
-#include "verifier/value.h"
+#include "verifier/numbers/value.h"
 
 #include <gmp.h>
 #include <gtest/gtest.h>
@@ -12,9 +12,9 @@
 #include <string>
 #include <vector>
 
-#include "verifier/interval.h"
-#include "verifier/number.h"
 #include "tests/test_support.h"
+#include "verifier/numbers/interval.h"
+#include "verifier/numbers/number.h"
 
 namespace thetagate {
 namespace {

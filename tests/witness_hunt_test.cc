@@ -16,9 +16,9 @@
 
 #include "generators/size_family.h"
 #include "reports/json_report.h"
-#include "verifier/checker.h"
-#include "verifier/claim.h"
-#include "verifier/evaluator.h"
+#include "verifier/checking/checker.h"
+#include "verifier/evaluation/evaluator.h"
+#include "verifier/model/claim.h"
 
 namespace thetagate {
 namespace {
@@ -81,7 +81,7 @@ int sign_minus_k_n_lg_n(const BigInt& x, const BigInt& k, const BigInt& n) {
 // Merge sort worst case: W(1) = 0, W(n) = W(⌈n/2⌉) + W(⌊n/2⌋) + n − 1 has the
 // closed form W(n) = n⌈lg n⌉ − 2^⌈lg n⌉ + 1 (M. A. Suchenek, "Elementary yet
 // precise worst-case analysis of MergeSort", arXiv:1702.08443, 2017; see
-// SOURCES.md). (W(n) − n lg n)/n = A(lg n) + 1/n with A(u) = 1 − {u} −
+// docs/sources.md). (W(n) − n lg n)/n = A(lg n) + 1/n with A(u) = 1 − {u} −
 // 2^(1−{u}), whose maximum is −lg(ln 2) − 1/ln 2 = −0.913928667944… [calc].
 const char* kMergeSort = "T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1\nT(1) = 0";
 
@@ -135,7 +135,8 @@ void expect_ladder_certified(const ClaimResult& r, bool f_odd_square) {
     ASSERT_FALSE(w.factor.empty());
     BigInt c(w.factor);
     EXPECT_GT(chain_value(w.n, f_odd_square), c * w.n);
-    if (w.factor.size() <= 4) EXPECT_EQ(w.n, smallest_above(c.convert_to<uint64_t>(), f_odd_square));
+    if (w.factor.size() <= 4)
+      EXPECT_EQ(w.n, smallest_above(c.convert_to<uint64_t>(), f_odd_square));
     EXPECT_EQ(w.value, chain_value(w.n, f_odd_square).str());
   }
 }
@@ -144,7 +145,7 @@ TEST(WitnessHunt, ModThreeDriverRefutedAtAMultipleOfThree) {
   ClaimResult r = check_one(claim_toml(kModThree, "Theta(n)"), options_with(7, 256));
   ASSERT_EQ(r.verdict, Verdict::kRefuted) << r.message;
   // No theorem applies (f has no single class and regularity fails), so the
-  // ladder must climb past 10^6 (DESIGN.md §4.5).
+  // ladder must climb past 10^6 (docs/design.md §4.5).
   EXPECT_NE(r.message.find("past a factor of 10^6"), std::string::npos) << r.message;
   expect_ladder_certified(r, /*f_odd_square=*/false);
   // calc: T(12) = 144 + 36 + 9 + 1 = 190 > 120, and T(n) <= 10n below 12.
@@ -153,10 +154,10 @@ TEST(WitnessHunt, ModThreeDriverRefutedAtAMultipleOfThree) {
   EXPECT_EQ(r.witnesses.front().family, "small");
   bool reached_million = false, from_multiples = false;
   for (const Witness& w : r.witnesses) {
-    EXPECT_TRUE(divisible(w.n, 3)) << "witness n = " << w.n << " (family " << w.family
-                                   << ") is not a multiple of 3";
+    EXPECT_TRUE(divisible(w.n, 3))
+        << "witness n = " << w.n << " (family " << w.family << ") is not a multiple of 3";
     reached_million |= w.factor.size() >= 7;
-    from_multiples |= w.family == "power-multiples";  // c·2^k with c = 3, 6 (DESIGN.md §5)
+    from_multiples |= w.family == "power-multiples";  // c·2^k with c = 3, 6 (docs/design.md §5)
   }
   EXPECT_TRUE(reached_million);
   EXPECT_TRUE(from_multiples) << "no rung beyond the exhaustive range came from c·2^k";
@@ -176,10 +177,12 @@ std::vector<std::string> sizes_listed(const std::string& reason) {
   size_t at = reason.find("at n = ");
   if (at == std::string::npos) return out;
   size_t end = reason.find(':', at);
-  std::string list = reason.substr(at + 7, end == std::string::npos ? std::string::npos : end - at - 7);
+  std::string list =
+      reason.substr(at + 7, end == std::string::npos ? std::string::npos : end - at - 7);
   for (size_t start = 0; start < list.size();) {
     size_t comma = list.find(", ", start);
-    out.push_back(list.substr(start, comma == std::string::npos ? std::string::npos : comma - start));
+    out.push_back(
+        list.substr(start, comma == std::string::npos ? std::string::npos : comma - start));
     if (comma == std::string::npos) break;
     start = comma + 2;
   }
@@ -195,8 +198,8 @@ TEST(WitnessHunt, OddSquareDriverRefutedOnAnOddChain) {
   EXPECT_EQ(r.witnesses.front().n, 11);
   bool from_odd_chain = false;
   for (const Witness& w : r.witnesses) {
-    EXPECT_FALSE(divisible(w.n, 2)) << "witness n = " << w.n << " (family " << w.family
-                                    << ") is even";
+    EXPECT_FALSE(divisible(w.n, 2))
+        << "witness n = " << w.n << " (family " << w.family << ") is even";
     from_odd_chain |= w.family == "ones";  // 2^k − 1: every halving odd
   }
   EXPECT_TRUE(from_odd_chain) << "no rung came from the odd-chain family";
@@ -222,15 +225,17 @@ TEST(WitnessHunt, OddSquareDriverRefutedOnAnOddChain) {
 // and breaks only inside a window about ±0.14% wide around 2 ln 2 · 2^k.
 
 TEST(WitnessHunt, MergeSortBoundJustAboveThePeakHolds) {
-  ClaimResult r = check_one(claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139 n + 1 for n >= 1000000"),
-                            options_with(7, 4096));
+  ClaimResult r =
+      check_one(claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139 n + 1 for n >= 1000000"),
+                options_with(7, 4096));
   EXPECT_EQ(r.verdict, Verdict::kHolds) << r.message;
   EXPECT_TRUE(r.witnesses.empty());
 }
 
 TEST(WitnessHunt, MergeSortBoundJustBelowThePeakRefutedInTheNarrowWindow) {
-  ClaimResult r = check_one(claim_toml(kMergeSort, "T(n) <= n lg n - 0.91393 n + 1 for n >= 1000000"),
-                            options_with(7, 4096));
+  ClaimResult r =
+      check_one(claim_toml(kMergeSort, "T(n) <= n lg n - 0.91393 n + 1 for n >= 1000000"),
+                options_with(7, 4096));
   ASSERT_EQ(r.verdict, Verdict::kRefuted) << r.message;
   ASSERT_EQ(r.witnesses.size(), 1u);
   const Witness& w = r.witnesses.front();
@@ -261,16 +266,18 @@ TEST(WitnessHunt, MergeSortBoundJustBelowThePeakRefutedInTheNarrowWindow) {
   ASSERT_GT(first, 0);
   EXPECT_EQ(bit_length(first), 21u);
   EXPECT_EQ(w.n, first) << "the witness (family " << w.family << ") is not the smallest "
-                         << "violation: a window of a smaller scale was missed";
+                        << "violation: a window of a smaller scale was missed";
 }
 
 TEST(WitnessHunt, MergeSortBoundsNearThePeakFromTwoToTheForty) {
-  ClaimResult holds = check_one(
-      claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139 n + 1 for n >= 1099511627776"), options_with(7, 4096));
+  ClaimResult holds =
+      check_one(claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139 n + 1 for n >= 1099511627776"),
+                options_with(7, 4096));
   EXPECT_EQ(holds.verdict, Verdict::kHolds) << holds.message;
 
-  ClaimResult r = check_one(
-      claim_toml(kMergeSort, "T(n) <= n lg n - 0.91393 n + 1 for n >= 1099511627776"), options_with(7, 4096));
+  ClaimResult r =
+      check_one(claim_toml(kMergeSort, "T(n) <= n lg n - 0.91393 n + 1 for n >= 1099511627776"),
+                options_with(7, 4096));
   ASSERT_EQ(r.verdict, Verdict::kRefuted) << r.message;
   ASSERT_EQ(r.witnesses.size(), 1u);
   const Witness& w = r.witnesses.front();
@@ -293,8 +300,8 @@ TEST(WitnessHunt, MergeSortBoundsNearThePeakBeyondTenToTheThirty) {
       claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139286 n for n >= 10^30"), CheckOptions{});
   EXPECT_EQ(holds.verdict, Verdict::kHolds) << holds.message;
 
-  ClaimResult r = check_one(
-      claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139287 n for n >= 10^30"), CheckOptions{});
+  ClaimResult r = check_one(claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139287 n for n >= 10^30"),
+                            CheckOptions{});
   ASSERT_EQ(r.verdict, Verdict::kRefuted) << r.message;
   ASSERT_EQ(r.witnesses.size(), 1u);
   const Witness& w = r.witnesses.front();
@@ -312,8 +319,9 @@ TEST(WitnessHunt, MergeSortBoundsNearThePeakBeyondTenToTheThirty) {
 // [calc: d/du of (A + 0.9139)/(u − 0.9139) vanishes where A' ≈ 1.4·10^-6],
 // so this is the issue's "band top within 10^-4 of the peak", exactly.
 TEST(WitnessHunt, MergeSortBandTopReachesThePeakAtEveryScale) {
-  ClaimResult r = check_one(claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139 n + 1 for n >= 1000000"),
-                            options_with(7, 4096));
+  ClaimResult r =
+      check_one(claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139 n + 1 for n >= 1000000"),
+                options_with(7, 4096));
   ASSERT_EQ(r.verdict, Verdict::kHolds) << r.message;
   std::vector<uint64_t> scales_seen, scales_short;
   for (const BandRow& row : r.band) {
@@ -333,7 +341,8 @@ TEST(WitnessHunt, MergeSortBandTopReachesThePeakAtEveryScale) {
   for (uint64_t s : scales_short) list += " " + std::to_string(s);
   EXPECT_TRUE(scales_short.empty()) << scales_short.size() << " of " << scales_seen.size()
                                     << " scales have a band top more than 10^-4 below the "
-                                       "peak:" << list;
+                                       "peak:"
+                                    << list;
 }
 
 // ---------------------------------------------------------------------------
@@ -344,8 +353,8 @@ TEST(WitnessHunt, MergeSortBandTopReachesThePeakAtEveryScale) {
 const char* kTwoHalves = "T(n) = 2T(n/2) + n\nT(1) = 1";
 
 TEST(WitnessHunt, EqualityAtPowersOfTwoIsNoWitness) {
-  ClaimResult r = check_one(claim_toml(kTwoHalves, "T(n) <= n lg n + n for n >= 1"),
-                            options_with(7, 512));
+  ClaimResult r =
+      check_one(claim_toml(kTwoHalves, "T(n) <= n lg n + n for n >= 1"), options_with(7, 512));
   EXPECT_EQ(r.verdict, Verdict::kHolds) << r.message;
   EXPECT_TRUE(r.witnesses.empty());
 
@@ -355,8 +364,8 @@ TEST(WitnessHunt, EqualityAtPowersOfTwoIsNoWitness) {
 }
 
 TEST(WitnessHunt, StrictBoundBreaksExactlyAtAPowerOfTwo) {
-  ClaimResult r = check_one(claim_toml(kTwoHalves, "T(n) < n lg n + n for n >= 5"),
-                            options_with(7, 512));
+  ClaimResult r =
+      check_one(claim_toml(kTwoHalves, "T(n) < n lg n + n for n >= 5"), options_with(7, 512));
   ASSERT_EQ(r.verdict, Verdict::kRefuted) << r.message;
   ASSERT_EQ(r.witnesses.size(), 1u);
   EXPECT_EQ(r.witnesses.front().n, 8);  // calc: T(8) = 32 = 8·3 + 8
@@ -365,8 +374,8 @@ TEST(WitnessHunt, StrictBoundBreaksExactlyAtAPowerOfTwo) {
   EXPECT_EQ(r.witnesses.front().margin, "0");  // a strict bound met with equality
 
   // Beyond the exhaustive range: the first power of two at or above 10^6.
-  ClaimResult far = check_one(claim_toml(kTwoHalves, "T(n) < n lg n + n for n >= 1000000"),
-                              options_with(7, 512));
+  ClaimResult far =
+      check_one(claim_toml(kTwoHalves, "T(n) < n lg n + n for n >= 1000000"), options_with(7, 512));
   ASSERT_EQ(far.verdict, Verdict::kRefuted) << far.message;
   ASSERT_EQ(far.witnesses.size(), 1u);
   EXPECT_EQ(far.witnesses.front().n, pow2(20));
@@ -389,7 +398,8 @@ std::vector<std::string> replay_claims() {
 RunResult run_all(uint64_t seed) {
   RunResult run;
   run.seed = seed;
-  for (const std::string& toml : replay_claims()) run.claims.push_back(check_one(toml, options_with(seed, 128)));
+  for (const std::string& toml : replay_claims())
+    run.claims.push_back(check_one(toml, options_with(seed, 128)));
   return run;
 }
 
@@ -421,7 +431,7 @@ TEST(WitnessHunt, OtherSeedsReachTheSameVerdicts) {
 // s₂ the binary digit sum [calc: Legendre's formula Σ_{j>=1} ⌊n/2^j⌋ =
 // n − s₂(n)]. T(n) − n = n − s₂(n) never decreases, so `T(n) <= n + 500000`
 // fails exactly from some N on, past the exhaustive range; N is found here
-// by scanning with std::popcount (a reference library, SOURCES.md).
+// by scanning with std::popcount (a reference library, docs/sources.md).
 TEST(WitnessHunt, ShrinkingReachesTheSmallestWitness) {
   uint64_t first = 1;
   while (first - std::popcount(first) <= 500000) ++first;
@@ -433,8 +443,9 @@ TEST(WitnessHunt, ShrinkingReachesTheSmallestWitness) {
   plan.seed = kSeed;
   for (const Size& s : generate_sizes(plan)) ASSERT_NE(s.n, first) << "family " << s.family;
 
-  ClaimResult r = check_one(claim_toml("T(n) = T(n/2) + n\nT(1) = 1", "T(n) <= n + 500000 for n >= 1"),
-                            options_with(kSeed, kMaxBits));
+  ClaimResult r =
+      check_one(claim_toml("T(n) = T(n/2) + n\nT(1) = 1", "T(n) <= n + 500000 for n >= 1"),
+                options_with(kSeed, kMaxBits));
   ASSERT_EQ(r.verdict, Verdict::kRefuted) << r.message;
   ASSERT_EQ(r.witnesses.size(), 1u);
   const Witness& w = r.witnesses.front();
@@ -476,7 +487,7 @@ TEST(WitnessHunt, EffortRaisesThePerSizeLimitWithTheWork) {
 namespace thetagate {
 namespace {
 
-// `--rounding both` (DESIGN.md §5): T(n) = 2T(n/2) + n, T(1) = 0 stays within
+// `--rounding both` (docs/design.md §5): T(n) = 2T(n/2) + n, T(1) = 0 stays within
 // n lg n when n/2 is read as a floor [calc: by induction, T(n) <= n lg n],
 // but not as a ceiling: T(3) = 2T(2) + 3 = 7 > 3 lg 3 ≈ 4.75 [calc].
 TEST(WitnessHunt, RoundingBothNamesTheReadingThatFails) {

@@ -24,8 +24,8 @@
 #include <string>
 #include <utility>
 
-#include "verifier/checker.h"
-#include "verifier/claim.h"
+#include "verifier/checking/checker.h"
+#include "verifier/model/claim.h"
 
 namespace thetagate {
 namespace {
@@ -66,8 +66,8 @@ std::optional<int> first_violation(int n0, int k, int d) {
 
 std::string bound_text(int n0, int k, int d) {
   std::string constant = d >= 0 ? " + " + std::to_string(d) : " - " + std::to_string(-d);
-  return "T(n) <= (" + std::to_string(k) + "/8) n lg n" + constant + " for n >= " +
-         std::to_string(n0);
+  return "T(n) <= (" + std::to_string(k) + "/8) n lg n" + constant +
+         " for n >= " + std::to_string(n0);
 }
 
 void merge_sort_bound_property() {
@@ -81,9 +81,11 @@ void merge_sort_bound_property() {
   std::string bound = bound_text(n0, k, d);
   RC_TAG(k >= 8 ? "c >= 1" : "c <= 7/8", d < 0 ? "d < 0" : "d >= 0");
 
-  std::string toml = "[[claim]]\nname = \"orchard::stable_sort / drawn bound\"\n"
-                     "recurrence = \"T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1\\nT(1) = 0\"\n"
-                     "bound = \"" + bound + "\"\n";
+  std::string toml =
+      "[[claim]]\nname = \"orchard::stable_sort / drawn bound\"\n"
+      "recurrence = \"T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1\\nT(1) = 0\"\n"
+      "bound = \"" +
+      bound + "\"\n";
   std::vector<ClaimEntry> entries = load_claim_text(toml, "drawn.toml");
   RC_ASSERT(entries.size() == 1u);
   RC_ASSERT(entries[0].claim.has_value());

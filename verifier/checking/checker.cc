@@ -1,0 +1,150 @@
+#include "verifier/checking/checker.h"
+
+#include <algorithm>
+#include <set>
+
+#include "verifier/checking/claim_check.h"
+
+namespace thetagate {
+
+namespace {
+
+void collect_divisors(const Expr& e, std::set<BigInt>& out) {
+  bool is_div = e.kind == ExprKind::kDiv;
+  bool is_mod = e.kind == ExprKind::kCall && e.name == "mod" && e.args.size() == 2;
+  if (is_div || is_mod) {
+    const Expr& d = *e.args[1];
+    if (d.kind == ExprKind::kNumber && denominator(d.number) == 1 && d.number >= 2 &&
+        d.number <= 1'000'000) {
+      out.insert(numerator(d.number));
+    }
+  }
+  for (const auto& a : e.args) collect_divisors(*a, out);
+}
+
+ClaimResult error_result(const ClaimResult& base, const Diagnostic& d) {
+  ClaimResult r = base;
+  r.verdict = Verdict::kError;
+  r.error = d;
+  r.message = d.message;
+  r.witnesses.clear();
+  r.band.clear();
+  return r;
+}
+
+}  // namespace
+
+Budget CheckOptions::default_check_budget() {
+  Budget b;
+  // A guard against hangs only: the work budget (deterministic) is what
+  // normally ends a search.
+  b.max_seconds = 60.0;
+  b.max_steps = 20'000'000;
+  // Sizes are tried in increasing order; one that needs this many
+  // subproblems (T(n/5) + T(7n/10) at thousands of bits) ends the climb.
+  b.max_steps_per_size = 50'000;
+  return b;
+}
+
+std::vector<BigInt> recurrence_divisors(const Recurrence& r) {
+  std::set<BigInt> found = {BigInt(2)};
+  for (const CaseLine* line : r.main.lines_in_order()) {
+    collect_divisors(*line->body, found);
+    if (line->condition) collect_divisors(*line->condition, found);
+  }
+  for (const auto& [name, helper] : r.helpers) {
+    for (const CaseLine* line : helper.lines_in_order()) {
+      collect_divisors(*line->body, found);
+      if (line->condition) collect_divisors(*line->condition, found);
+    }
+  }
+  return {found.begin(), found.end()};
+}
+
+namespace {
+
+ClaimResult check_one_reading(const Claim& claim, const CheckOptions& options) {
+  ClaimResult result;
+  result.name = claim.name;
+  result.file = claim.where.file;
+  result.line = claim.where.line;
+  result.claimed = claim.bound.text();
+  result.note = claim.note;
+  result.notes = claim.recurrence->notes;
+  try {
+    checker_internal::ClaimCheck(claim, options, result).run();
+  } catch (const InputError& e) {
+    return error_result(result, e.diagnostic());
+  } catch (const BudgetExceeded& e) {
+    result.verdict = Verdict::kUndecided;
+    result.message = std::string("out of budget: ") + e.what();
+  }
+  return result;
+}
+
+// rounding = both: the claim must hold with quotients read as floors and as
+// ceilings; the report says which reading fails.
+ClaimResult combine_readings(ClaimResult floor_result, ClaimResult ceil_result) {
+  if (floor_result.verdict == Verdict::kError) return floor_result;
+  if (ceil_result.verdict == Verdict::kError) return ceil_result;
+  const char* both_note = "checked twice: quotients inside T(...) read as floor and as ceil";
+  // Whichever reading is reported, both were checked: count both.
+  uint64_t sizes = floor_result.sizes_checked + ceil_result.sizes_checked;
+  uint64_t bits = std::max(floor_result.largest_bits, ceil_result.largest_bits);
+  auto labelled = [&](ClaimResult r, const std::string& reading) {
+    r.message = "with quotients read as " + reading + ": " + r.message;
+    r.notes.push_back(both_note);
+    r.sizes_checked = sizes;
+    r.largest_bits = bits;
+    return r;
+  };
+  bool floor_refuted = floor_result.verdict == Verdict::kRefuted;
+  bool ceil_refuted = ceil_result.verdict == Verdict::kRefuted;
+  if (floor_refuted && ceil_refuted) return labelled(floor_result, "floor (and also as ceil)");
+  if (floor_refuted) return labelled(floor_result, "floor (the ceil reading does not break it)");
+  if (ceil_refuted) return labelled(ceil_result, "ceil (the floor reading does not break it)");
+  if (floor_result.verdict == Verdict::kHolds && ceil_result.verdict == Verdict::kHolds) {
+    floor_result.tight = floor_result.tight && ceil_result.tight;
+    floor_result.message =
+        "holds with quotients read as floor and as ceil: " + floor_result.message;
+    floor_result.notes.push_back(both_note);
+    floor_result.sizes_checked = sizes;
+    floor_result.largest_bits = bits;
+    return floor_result;
+  }
+  if (floor_result.verdict != Verdict::kHolds) return labelled(floor_result, "floor");
+  return labelled(ceil_result, "ceil");
+}
+
+}  // namespace
+
+ClaimResult check_claim(const Claim& claim, const CheckOptions& options) {
+  Rounding rounding = options.rounding.value_or(claim.rounding.value_or(Rounding::kFloor));
+  if (rounding == Rounding::kFloor || !has_unrounded_calls(*claim.recurrence)) {
+    return check_one_reading(claim, options);
+  }
+  Claim ceil_claim = claim;
+  ceil_claim.recurrence = read_quotients_as_ceilings(*claim.recurrence);
+  if (rounding == Rounding::kCeil) return check_one_reading(ceil_claim, options);
+  return combine_readings(check_one_reading(claim, options),
+                          check_one_reading(ceil_claim, options));
+}
+
+RunResult check_entries(const std::vector<ClaimEntry>& entries, const CheckOptions& options) {
+  RunResult run;
+  run.seed = options.seed;
+  for (const ClaimEntry& entry : entries) {
+    if (entry.claim) {
+      run.claims.push_back(check_claim(*entry.claim, options));
+      continue;
+    }
+    ClaimResult base;
+    base.name = entry.name;
+    base.file = entry.where.file;
+    base.line = entry.where.line;
+    run.claims.push_back(error_result(base, entry.error.value_or(Diagnostic{})));
+  }
+  return run;
+}
+
+}  // namespace thetagate

@@ -1,0 +1,50 @@
+// Checks claims: evaluates the recurrence exactly over the size families,
+// tests explicit bounds at every size, builds the ratio band and witness
+// ladder for asymptotic bounds, and decides the verdict.
+#ifndef THETAGATE_VERIFIER_CHECKING_CHECKER_H_
+#define THETAGATE_VERIFIER_CHECKING_CHECKER_H_
+
+#include <cstdint>
+#include <optional>
+#include <vector>
+
+#include "verifier/checking/result.h"
+#include "verifier/evaluation/evaluator.h"
+#include "verifier/model/claim.h"
+
+namespace thetagate {
+
+struct CheckOptions {
+  uint64_t seed = 1;
+  std::optional<uint64_t> max_bits;  // overrides every claim's sizes.max_bits
+  BigInt exhaustive_limit = 10000;   // every n up to this is checked
+  std::optional<Rounding> rounding;  // overrides every claim's `rounding`
+  Budget budget = default_check_budget();
+  // Work per claim, in subproblems weighted by their bits and by the
+  // evaluation path (claim_check.cc, work_of). Deterministic, unlike time: the
+  // sizes phase stops at 60% of it, local search at 85%, so a run replays
+  // exactly under any load. The default is about 200 ms on one core of the
+  // reference machine (DEVELOPERS.md); --effort multiplies it.
+  uint64_t work_budget = kDefaultWorkBudget;
+  static constexpr uint64_t kDefaultWorkBudget = 400'000;
+  // Multiplies work_budget (--effort): nightly runs search deeper.
+  uint64_t effort = 1;
+
+  static Budget default_check_budget();
+};
+
+// Checks one claim. Never throws for bad input: an input error gives
+// verdict `error` with its Diagnostic; a budget that runs out gives
+// `undecided` (or stops the search early) with the reason.
+ClaimResult check_claim(const Claim& claim, const CheckOptions& options);
+
+// Checks every entry in order; entries that failed to load get `error`.
+RunResult check_entries(const std::vector<ClaimEntry>& entries, const CheckOptions& options);
+
+// The divisors b of the recurrence's T(n/b)-style calls and its mod
+// conditions: the bases the size families build on. Always contains 2.
+std::vector<BigInt> recurrence_divisors(const Recurrence& r);
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_VERIFIER_CHECKING_CHECKER_H_

@@ -1,0 +1,290 @@
+#include "verifier/derivation/derive.h"
+
+#include "verifier/derivation/classify.h"
+#include "verifier/derivation/shape.h"
+#include "verifier/derivation/theorems/akra_bazzi.h"
+#include "verifier/derivation/theorems/change_of_variables.h"
+#include "verifier/derivation/theorems/linear.h"
+#include "verifier/derivation/theorems/master.h"
+#include "verifier/derivation/theorems/subtract.h"
+#include "verifier/evaluation/evaluator.h"
+
+namespace thetagate {
+
+namespace {
+
+Budget derivation_budget() {
+  // The step limit is what ends a long evaluation: at most a few seconds
+  // even on the general path (intervals, ~10 µs a step), so the same
+  // recurrence always gets the same derivation. The time limit only guards
+  // against hangs, as in the checker.
+  Budget b;
+  b.max_seconds = 60.0;
+  b.max_steps = 400'000;
+  b.max_memo_entries = 200'000;
+  return b;
+}
+
+// Whether a case-line condition holds at n, by exact evaluation.
+bool holds(Evaluator& ev, const Expr& c, const SourceText& source, const BigInt& n) {
+  switch (c.kind) {
+    case ExprKind::kAnd:
+      return holds(ev, *c.args[0], source, n) && holds(ev, *c.args[1], source, n);
+    case ExprKind::kOr:
+      return holds(ev, *c.args[0], source, n) || holds(ev, *c.args[1], source, n);
+    case ExprKind::kNot:
+      return !holds(ev, *c.args[0], source, n);
+    case ExprKind::kEven:
+    case ExprKind::kOdd: {
+      Value v = ev.evaluate(*c.args[0], source, n);
+      bool even = v.is_integer() && floor_mod(v.integer(), 2) == 0;
+      return c.kind == ExprKind::kEven ? even : (v.is_integer() && !even);
+    }
+    default: {
+      int r = ev.compare_at(*c.args[0], source, *c.args[1], source, n);
+      switch (c.kind) {
+        case ExprKind::kEq:
+          return r == 0;
+        case ExprKind::kNe:
+          return r != 0;
+        case ExprKind::kLt:
+          return r < 0;
+        case ExprKind::kLe:
+          return r <= 0;
+        case ExprKind::kGt:
+          return r > 0;
+        default:
+          return r >= 0;
+      }
+    }
+  }
+}
+
+std::string when(const std::string& condition) {
+  return condition == "otherwise" ? condition : "when " + condition;
+}
+
+// The extremes of a driving function whose alternatives differ in class.
+void driving_extremes(const std::vector<ExprPtr>& alternatives, const HelperTable* helpers,
+                      DerivationInput& input) {
+  for (const auto& f : alternatives) {
+    if (!f) return;
+    Classification c = classify(*f, helpers);
+    if (!c) return;
+    if (!input.driving_lower || compare(*c.growth, *input.driving_lower) < 0)
+      input.driving_lower = c.growth;
+    if (!input.driving_upper || compare(*c.growth, *input.driving_upper) > 0)
+      input.driving_upper = c.growth;
+  }
+}
+
+void classify_driving(const Shape& shape, const Recurrence& rec, DerivationInput& input) {
+  const HelperTable* helpers = &rec.helpers;
+  if (shape.has_driving_cases()) {
+    std::vector<ExprPtr> alternatives;
+    std::vector<Classification> classes;
+    for (const auto& c : shape.driving_cases) {
+      alternatives.push_back(c.f);
+      classes.push_back(c.f ? classify(*c.f, helpers) : Classification{});
+      if (!c.f) classes.back().zero = true;
+    }
+    for (size_t i = 0; i < classes.size(); ++i) {
+      if (!classes[i]) {
+        input.driving.reason = "when " + shape.driving_cases[i].condition + ", f(n) = " +
+                               (shape.driving_cases[i].f ? print(*shape.driving_cases[i].f) : "0") +
+                               ": " + classes[i].reason;
+        return;
+      }
+    }
+    for (size_t i = 1; i < classes.size(); ++i) {
+      if (compare(*classes[i].growth, *classes[0].growth) != 0) {
+        input.driving.reason =
+            "the case lines give f(n) = " + print(*shape.driving_cases[0].f) + " " +
+            when(shape.driving_cases[0].condition) + " but " + print(*shape.driving_cases[i].f) +
+            " " + when(shape.driving_cases[i].condition) + ", of different classes (" +
+            to_string(*classes[0].growth) + " and " + to_string(*classes[i].growth) + ")";
+        driving_extremes(alternatives, helpers, input);
+        return;
+      }
+    }
+    input.driving.growth = classes[0].growth;
+    input.driving.coefficient_known = false;
+    return;
+  }
+  if (!shape.driving) {
+    input.driving.zero = true;
+    input.driving.reason = "f(n) = 0";
+    return;
+  }
+  input.driving = classify(*shape.driving, helpers);
+  if (!input.driving && !input.driving.zero && shape.driving->kind == ExprKind::kCall) {
+    // f(n) is one helper whose lines differ in class: their extremes still help case 3.
+    auto it = rec.helpers.find(shape.driving->name);
+    if (it != rec.helpers.end() && shape.driving->args.size() == 1) {
+      std::vector<ExprPtr> alternatives;
+      for (const CaseLine* line : it->second.lines_in_order()) {
+        if (line->point || (line->condition && condition_reach(*line->condition) < 0)) continue;
+        alternatives.push_back(substitute(line->body, shape.driving->args[0]));
+      }
+      driving_extremes(alternatives, helpers, input);
+    }
+  }
+}
+
+// "master theorem: needs exactly one ...", not "master theorem: the master
+// theorem needs exactly one ...".
+std::string outcome_reason(const TheoremOutcome& o) {
+  std::string failure = o.failure;
+  for (const std::string& lead : {"the " + o.theorem + " ", o.theorem + " "}) {
+    if (failure.rfind(lead, 0) == 0) {
+      failure = failure.substr(lead.size());
+      break;
+    }
+  }
+  return o.theorem + ": " + failure;
+}
+
+}  // namespace
+
+Derivation derive(const Recurrence& recurrence) {
+  Derivation d;
+  d.notes = recurrence.notes;
+  Shape shape = extract_shape(recurrence);
+  if (!shape.ok) {
+    d.reasons.push_back("no theorem's shape fits: " + shape.reason);
+    return d;
+  }
+  // A non-owning handle: the evaluator lives only inside this call.
+  std::shared_ptr<const Recurrence> handle(std::shared_ptr<const Recurrence>(), &recurrence);
+  auto evaluator = std::make_shared<Evaluator>(handle, derivation_budget());
+  DerivationInput input;
+  input.shape = &shape;
+  input.helpers = &recurrence.helpers;
+  classify_driving(shape, recurrence, input);
+  const SourceText& source = recurrence.source;
+  input.value_at = [evaluator](const BigInt& n) -> std::optional<Value> {
+    try {
+      return evaluator->value_at(n);
+    } catch (const std::exception&) {
+      return std::nullopt;
+    }
+  };
+  input.driving_at = [evaluator, &shape, &source](const BigInt& n) -> std::optional<Value> {
+    try {
+      if (shape.driving) return evaluator->evaluate(*shape.driving, source, n);
+      for (const auto& c : shape.driving_cases) {
+        if (c.test && !holds(*evaluator, *c.test, source, n)) continue;
+        return c.f ? evaluator->evaluate(*c.f, source, n) : Value(int64_t{0});
+      }
+    } catch (const std::exception&) {
+    }
+    return std::nullopt;
+  };
+  using Theorem = std::pair<const char*, TheoremOutcome (*)(const DerivationInput&)>;
+  std::vector<Theorem> theorems;
+  if (!shape.scaled.empty())
+    theorems = {{"master theorem", master_theorem}, {"Akra–Bazzi", akra_bazzi}};
+  else if (!shape.roots.empty())
+    theorems = {{"change of variables", change_of_variables}};
+  else if (!shape.subtractive.empty()) {
+    theorems = {{"subtract-and-conquer", subtract_and_conquer},
+                {"linear recurrence with constant coefficients", linear_recurrence}};
+  }
+  if (!shape.scaled.empty() && (!shape.subtractive.empty() || !shape.roots.empty())) {
+    d.reasons.push_back(
+        "the recurrence mixes T(b n) terms with T(n - c) or T(n^(1/k)) terms; no theorem here "
+        "covers that");
+  }
+  for (const auto& [name, theorem] : theorems) {
+    TheoremOutcome o;
+    try {
+      o = theorem(input);
+    } catch (const std::exception& e) {
+      o.failure = std::string("could not be decided: ") + e.what();
+    }
+    if (o.theorem.empty()) o.theorem = name;
+    d.outcomes.push_back(o);
+    if (!o.applies()) {
+      d.reasons.push_back(outcome_reason(o));
+      continue;
+    }
+    if (!d.growth) {
+      d.growth = o.growth;
+      d.method = o.method;
+      d.steps = o.steps;
+    } else if (compare(*d.growth, *o.growth) != 0) {
+      d.reasons.push_back("INTERNAL INCONSISTENCY: " + d.method + " gives Θ(" +
+                          to_string(*d.growth) + ") but " + o.method + " gives Θ(" +
+                          to_string(*o.growth) + ")");
+    }
+  }
+  if (d.growth) d.derived = to_string(*d.growth);
+  return d;
+}
+
+const char* claim_agreement_name(ClaimAgreement a) {
+  switch (a) {
+    case ClaimAgreement::kAgree:
+      return "agree";
+    case ClaimAgreement::kHoldsLoosely:
+      return "holds-loosely";
+    case ClaimAgreement::kContradicts:
+      return "contradict";
+    case ClaimAgreement::kCannotClassifyClaim:
+      return "cannot-classify-claim";
+    case ClaimAgreement::kNoDerivation:
+      return "no-derivation";
+    case ClaimAgreement::kNotAsymptotic:
+      return "not-asymptotic";
+  }
+  return "?";
+}
+
+ClaimComparison compare_claim(const Derivation& derivation, const Bound& bound) {
+  ClaimComparison r;
+  if (!bound.is_asymptotic()) {
+    r.agreement = ClaimAgreement::kNotAsymptotic;
+    r.message = "an explicit bound is checked by exact evaluation";
+    return r;
+  }
+  Classification g = classify(*bound.growth);
+  if (!g) {
+    r.agreement = ClaimAgreement::kCannotClassifyClaim;
+    r.message = "the claimed class " + print(*bound.growth) + " has no normal form: " + g.reason;
+    return r;
+  }
+  r.claimed = g.growth;
+  if (!derivation.growth) {
+    r.agreement = ClaimAgreement::kNoDerivation;
+    r.message = "no theorem applied; the claim rests on the numbers";
+    return r;
+  }
+  std::string claimed = to_string(*g.growth), derived = derivation.derived;
+  int c;
+  try {
+    c = compare(*g.growth, *derivation.growth);
+  } catch (const PrecisionShortfall& e) {
+    r.agreement = ClaimAgreement::kCannotClassifyClaim;
+    r.message = std::string("the claimed and derived classes could not be ordered: ") + e.what();
+    return r;
+  }
+  std::string kind = bound_kind_name(bound.kind);
+  std::string versus =
+      "claimed " + kind + "(" + claimed + "), derived Θ(" + derived + ") by " + derivation.method;
+  if (c == 0) {
+    r.agreement = ClaimAgreement::kAgree;
+    r.tight = true;
+    r.message = versus + ": the same class";
+  } else if ((bound.kind == BoundKind::kBigO && c > 0) ||
+             (bound.kind == BoundKind::kOmega && c < 0)) {
+    r.agreement = ClaimAgreement::kHoldsLoosely;
+    r.message = versus + ": the claim holds but is not tight";
+  } else {
+    r.agreement = ClaimAgreement::kContradicts;
+    r.message = versus + ": " +
+                (c < 0 ? claimed + " = o(" + derived + ")" : derived + " = o(" + claimed + ")");
+  }
+  return r;
+}
+
+}  // namespace thetagate

@@ -1,0 +1,62 @@
+// Deriving a recurrence's growth class from published theorems, with the
+// steps a reviewer can follow and, for every theorem that did not apply,
+// the hypothesis that failed. Pure: nothing here prints.
+#ifndef THETAGATE_VERIFIER_DERIVATION_DERIVE_H_
+#define THETAGATE_VERIFIER_DERIVATION_DERIVE_H_
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "verifier/derivation/growth.h"
+#include "verifier/derivation/theorems/outcome.h"
+#include "verifier/model/bound.h"
+#include "verifier/model/recurrence.h"
+
+namespace thetagate {
+
+struct Derivation {
+  std::optional<GrowthClass> growth;  // T(n) = Θ(growth) when a theorem applied
+  std::string derived;                // to_string(*growth), or "" when none applied
+  std::string method;                 // "master theorem, case 2", "Akra–Bazzi", ... or ""
+  std::vector<std::string> steps;     // the applying theorem's steps, in order (unnumbered)
+  // One entry per theorem that was tried and did not apply, as
+  // "THEOREM: failing hypothesis"; also shape problems and (loudly) any
+  // disagreement between two theorems that both applied.
+  std::vector<std::string> reasons;
+  std::vector<TheoremOutcome> outcomes;  // every theorem tried, in order
+  std::vector<std::string> notes;        // the model's notes (n/2 read as floor ...)
+
+  bool derived_class() const { return growth.has_value(); }
+};
+
+// REQUIRES: a model from build_recurrence. Evaluates T and f exactly where a
+// theorem needs numbers (initial values, regularity on size families) under
+// a small budget. Never throws for a valid model.
+Derivation derive(const Recurrence& recurrence);
+
+enum class ClaimAgreement {
+  kAgree,                // the claimed class equals the derived one (tight)
+  kHoldsLoosely,         // O(g) with g above, or Omega(g) with g below (tight = false)
+  kContradicts,          // the claim is false if the derivation is right
+  kCannotClassifyClaim,  // g has no growth class; message says why
+  kNoDerivation,         // no theorem applied
+  kNotAsymptotic,        // an explicit bound: decided by numbers, not here
+};
+
+struct ClaimComparison {
+  ClaimAgreement agreement = ClaimAgreement::kNoDerivation;
+  bool tight = false;
+  std::optional<GrowthClass> claimed;
+  std::string message;  // a reviewer's sentence
+};
+
+// Compares an asymptotic bound Theta/O/Omega(g) with the derivation exactly
+// (lg 7 is not 2.807; a lg lg n factor counts).
+ClaimComparison compare_claim(const Derivation& derivation, const Bound& bound);
+
+const char* claim_agreement_name(ClaimAgreement a);
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_VERIFIER_DERIVATION_DERIVE_H_

@@ -1,0 +1,353 @@
+#include "verifier/derivation/shape.h"
+
+#include <algorithm>
+
+#include "verifier/derivation/classify.h"
+
+namespace thetagate {
+
+namespace {
+
+struct ShapeError {
+  std::string reason;
+};
+
+bool contains_call(const ExprPtr& e, const std::string& function) {
+  std::vector<const Expr*> calls;
+  collect_calls(e, function, calls);
+  return !calls.empty();
+}
+
+Rational rational_constant(const Expr& e, const std::string& role) {
+  std::string reason;
+  auto v = constant_value(e, &reason);
+  if (!v) throw ShapeError{"the " + role + " '" + print(e) + "' is not a number: " + reason};
+  if (!v->is_rational())
+    throw ShapeError{"the " + role + " '" + print(e) +
+                     "' is irrational; only rational ones are supported"};
+  return v->rational();
+}
+
+// A T argument as b n + c + (extra summands) with rounding noted.
+struct LinearForm {
+  Rational b, c;
+  bool rounded = false;
+  std::vector<ExprPtr> extra;
+};
+
+LinearForm linear_form(const ExprPtr& e) {
+  LinearForm f;
+  if (!mentions_n(*e)) {
+    f.c = rational_constant(*e, "constant");
+    return f;
+  }
+  auto scale = [](LinearForm x, const Rational& s) {
+    x.b *= s;
+    x.c *= s;
+    return x;
+  };
+  auto sum = [](LinearForm x, const LinearForm& y) {
+    x.b += y.b;
+    x.c += y.c;
+    x.rounded = x.rounded || y.rounded;
+    x.extra.insert(x.extra.end(), y.extra.begin(), y.extra.end());
+    return x;
+  };
+  switch (e->kind) {
+    case ExprKind::kVariable:
+      f.b = 1;
+      return f;
+    case ExprKind::kAdd:
+      return sum(linear_form(e->args[0]), linear_form(e->args[1]));
+    case ExprKind::kSub:
+      return sum(linear_form(e->args[0]), scale(linear_form(e->args[1]), -1));
+    case ExprKind::kNeg:
+      return scale(linear_form(e->args[0]), -1);
+    case ExprKind::kMul:
+      if (!mentions_n(*e->args[0]))
+        return scale(linear_form(e->args[1]), rational_constant(*e->args[0], "factor"));
+      if (!mentions_n(*e->args[1]))
+        return scale(linear_form(e->args[0]), rational_constant(*e->args[1], "factor"));
+      break;
+    case ExprKind::kDiv:
+      if (!mentions_n(*e->args[1])) {
+        // Inside T(...) a quotient is read as its floor: a bounded perturbation.
+        LinearForm x =
+            scale(linear_form(e->args[0]), Rational(1) / rational_constant(*e->args[1], "divisor"));
+        x.rounded = true;
+        return x;
+      }
+      break;
+    case ExprKind::kCall:
+      if (e->name == "floor" || e->name == "ceil") {
+        LinearForm x = linear_form(e->args[0]);
+        x.rounded = true;
+        return x;
+      }
+      break;
+    default:
+      break;
+  }
+  f.extra.push_back(e);
+  return f;
+}
+
+// n^(1/k), sqrt(n), possibly inside floor/ceil: k, else 0.
+unsigned long root_index(const Expr& e, bool& rounded) {
+  const Expr* x = &e;
+  if (x->kind == ExprKind::kCall && (x->name == "floor" || x->name == "ceil")) {
+    rounded = true;
+    x = x->args[0].get();
+  }
+  if (x->kind == ExprKind::kCall && x->name == "sqrt" && x->args[0]->kind == ExprKind::kVariable)
+    return 2;
+  if (x->kind == ExprKind::kPow && x->args[0]->kind == ExprKind::kVariable &&
+      !mentions_n(*x->args[1])) {
+    auto v = constant_value(*x->args[1]);
+    if (v && v->is_rational() && numerator(v->rational()) == 1 && denominator(v->rational()) >= 2) {
+      return static_cast<unsigned long>(denominator(v->rational()));
+    }
+  }
+  return 0;
+}
+
+struct LineParts {
+  std::string condition;
+  ExprPtr test;
+  std::vector<ScaledTerm> scaled;
+  std::vector<SubtractiveTerm> subtractive;
+  std::vector<RootTerm> roots;
+  std::vector<ExprPtr> driving;
+};
+
+void add_term(LineParts& parts, const Rational& a, const Expr& call) {
+  const ExprPtr& arg = call.args[0];
+  bool rounded = false;
+  if (unsigned long k = root_index(*arg, rounded)) {
+    parts.roots.push_back({a, k, rounded, print(*arg)});
+    return;
+  }
+  LinearForm f = linear_form(arg);
+  std::string written = print(*arg);
+  std::optional<GrowthClass> extra_growth;
+  for (const auto& x : f.extra) {
+    Classification c = classify(*x);
+    if (!c) {
+      throw ShapeError{"the argument '" + written + "' is not of the form b*n + h(n): its part '" +
+                       print(*x) + "' has no growth class (" + c.reason + ")"};
+    }
+    if (!extra_growth || compare(*c.growth, *extra_growth) > 0) extra_growth = c.growth;
+  }
+  if (extra_growth && compare(*extra_growth, GrowthClass::polylog(1)) >= 0) {
+    throw ShapeError{"the argument '" + written +
+                     "' is not of the form b*n + h(n) with h = o(n): "
+                     "it contains a part of order " +
+                     to_string(*extra_growth)};
+  }
+  if (f.b == 1 && !extra_growth) {
+    if (f.c < 0 && denominator(f.c) == 1) {
+      parts.subtractive.push_back({a, -numerator(f.c)});
+      return;
+    }
+    throw ShapeError{"the argument '" + written + "' does not shrink by a whole constant"};
+  }
+  if (f.b <= 0 || f.b >= 1) {
+    throw ShapeError{"the argument '" + written + "' is not of the form b*n + h(n) with 0 < b < 1"};
+  }
+  ScaledTerm t;
+  t.a = a;
+  t.b = f.b;
+  t.argument = written;
+  if (extra_growth) {
+    t.perturbation = Perturbation::kGrowing;
+    t.perturbation_growth = extra_growth;
+  } else if (f.rounded || f.c != 0) {
+    t.perturbation = Perturbation::kBounded;
+  }
+  parts.scaled.push_back(t);
+}
+
+ExprPtr scaled_piece(const ExprPtr& e, const Rational& s) {
+  if (s == 1) return e;
+  if (s == -1) return make_unary(ExprKind::kNeg, e);
+  return make_binary(ExprKind::kMul, make_number(s), e);
+}
+
+void split(const ExprPtr& e, const Rational& scale, LineParts& parts, const std::string& name) {
+  if (!contains_call(e, name)) {
+    parts.driving.push_back(scaled_piece(e, scale));
+    return;
+  }
+  const std::string text = print(*e);
+  switch (e->kind) {
+    case ExprKind::kAdd:
+      split(e->args[0], scale, parts, name);
+      split(e->args[1], scale, parts, name);
+      return;
+    case ExprKind::kSub:
+      split(e->args[0], scale, parts, name);
+      split(e->args[1], -scale, parts, name);
+      return;
+    case ExprKind::kNeg:
+      split(e->args[0], -scale, parts, name);
+      return;
+    case ExprKind::kMul: {
+      bool left = contains_call(e->args[0], name), right = contains_call(e->args[1], name);
+      if (left && right)
+        throw ShapeError{"'" + text + "' multiplies two " + name +
+                         " terms: the recurrence is not linear in " + name};
+      const ExprPtr& inner = left ? e->args[0] : e->args[1];
+      const ExprPtr& factor = left ? e->args[1] : e->args[0];
+      if (mentions_n(*factor)) {
+        throw ShapeError{"the coefficient '" + print(*factor) + "' of " + print(*inner) +
+                         " depends on n"};
+      }
+      split(inner, scale * rational_constant(*factor, "coefficient"), parts, name);
+      return;
+    }
+    case ExprKind::kDiv:
+      if (contains_call(e->args[1], name))
+        throw ShapeError{"'" + text + "' divides by " + name + ": not linear in " + name};
+      if (mentions_n(*e->args[1])) {
+        throw ShapeError{"the coefficient 1/(" + print(*e->args[1]) + ") in '" + text +
+                         "' depends on n"};
+      }
+      split(e->args[0], scale / rational_constant(*e->args[1], "divisor"), parts, name);
+      return;
+    case ExprKind::kCall:
+      if (e->name == name) {
+        add_term(parts, scale, *e);
+        return;
+      }
+      throw ShapeError{name + " appears inside '" + text + "': the recurrence is not linear in " +
+                       name};
+    case ExprKind::kPow:
+      throw ShapeError{name + " appears inside the power '" + text +
+                       "': the recurrence is not linear in " + name};
+    default:
+      throw ShapeError{name + " appears inside '" + text + "'"};
+  }
+}
+
+std::string recursion_text(const LineParts& p, const std::string& name) {
+  std::string s;
+  auto add = [&](const Rational& a, const std::string& call) {
+    s += (s.empty() ? "" : " + ") + (a == 1 ? "" : to_string(a) + " ") + call;
+  };
+  for (const auto& t : p.scaled) add(t.a, name + "(" + t.argument + ")");
+  for (const auto& t : p.subtractive) add(t.a, name + "(n - " + t.c.str() + ")");
+  for (const auto& t : p.roots) add(t.a, name + "(" + t.argument + ")");
+  return s.empty() ? "no recursive call" : s;
+}
+
+bool same_recursion(LineParts x, LineParts y) {
+  if (x.scaled.size() != y.scaled.size() || x.subtractive.size() != y.subtractive.size() ||
+      x.roots.size() != y.roots.size()) {
+    return false;
+  }
+  auto by_b = [](const ScaledTerm& s, const ScaledTerm& t) {
+    return s.b < t.b || (s.b == t.b && s.a < t.a);
+  };
+  std::sort(x.scaled.begin(), x.scaled.end(), by_b);
+  std::sort(y.scaled.begin(), y.scaled.end(), by_b);
+  for (size_t i = 0; i < x.scaled.size(); ++i) {
+    if (x.scaled[i].a != y.scaled[i].a || x.scaled[i].b != y.scaled[i].b) return false;
+  }
+  auto by_c = [](const SubtractiveTerm& s, const SubtractiveTerm& t) { return s.c < t.c; };
+  std::sort(x.subtractive.begin(), x.subtractive.end(), by_c);
+  std::sort(y.subtractive.begin(), y.subtractive.end(), by_c);
+  for (size_t i = 0; i < x.subtractive.size(); ++i) {
+    if (x.subtractive[i].a != y.subtractive[i].a || x.subtractive[i].c != y.subtractive[i].c)
+      return false;
+  }
+  for (size_t i = 0; i < x.roots.size(); ++i) {
+    if (x.roots[i].a != y.roots[i].a || x.roots[i].k != y.roots[i].k) return false;
+  }
+  return true;
+}
+
+ExprPtr join_driving(const std::vector<ExprPtr>& pieces) {
+  ExprPtr f;
+  for (const auto& p : pieces) {
+    if (f && p->kind == ExprKind::kNeg)
+      f = make_binary(ExprKind::kSub, f, p->args[0]);
+    else
+      f = f ? make_binary(ExprKind::kAdd, f, p) : p;
+  }
+  return f;
+}
+
+bool same_driving(const ExprPtr& a, const ExprPtr& b) {
+  if (!a || !b) return !a && !b;
+  return same_tree(*a, *b);
+}
+
+}  // namespace
+
+Shape extract_shape(const Recurrence& recurrence) {
+  Shape shape;
+  const Function& main = recurrence.main;
+  std::vector<LineParts> lines;
+  try {
+    for (const CaseLine* line : main.lines_in_order()) {
+      if (line->point) {
+        shape.base_cases.push_back(line);
+        continue;
+      }
+      int reach = line->condition ? condition_reach(*line->condition) : 1;
+      if (reach < 0) {
+        shape.base_cases.push_back(line);
+        continue;
+      }
+      LineParts parts;
+      parts.condition = line->condition ? print(*line->condition) : "otherwise";
+      parts.test = line->condition;
+      split(line->body, 1, parts, main.name);
+      if (lines.empty()) shape.recursive_text = print(*line->body);
+      lines.push_back(std::move(parts));
+      if (reach > 0) break;
+    }
+    if (lines.empty()) throw ShapeError{main.name + " has no line for large n"};
+    for (size_t i = 1; i < lines.size(); ++i) {
+      if (!same_recursion(lines[0], lines[i])) {
+        throw ShapeError{"the case lines differ in their recursive part: when " +
+                         lines[0].condition + " it is " + recursion_text(lines[0], main.name) +
+                         ", when " + lines[i].condition + " it is " +
+                         recursion_text(lines[i], main.name)};
+      }
+    }
+  } catch (const ShapeError& e) {
+    shape.reason = e.reason;
+    return shape;
+  }
+  const LineParts& first = lines[0];
+  shape.scaled = first.scaled;
+  shape.subtractive = first.subtractive;
+  shape.roots = first.roots;
+  // Perturbations may differ between lines (n/2 when even, (n-1)/2 when odd):
+  // keep the largest.
+  for (size_t i = 1; i < lines.size(); ++i) {
+    for (auto& t : shape.scaled) {
+      for (const auto& u : lines[i].scaled) {
+        if (u.b != t.b || u.a != t.a) continue;
+        if (u.perturbation > t.perturbation) {
+          t.perturbation = u.perturbation;
+          t.perturbation_growth = u.perturbation_growth;
+        }
+      }
+    }
+  }
+  shape.driving = join_driving(first.driving);
+  bool all_same = true;
+  for (size_t i = 1; i < lines.size(); ++i)
+    all_same = all_same && same_driving(shape.driving, join_driving(lines[i].driving));
+  if (!all_same) {
+    for (const auto& l : lines)
+      shape.driving_cases.push_back({l.condition, join_driving(l.driving), l.test});
+    shape.driving = nullptr;
+  }
+  shape.ok = true;
+  return shape;
+}
+
+}  // namespace thetagate

@@ -1,0 +1,45 @@
+// What each theorem returns, and what it is given. Plain values: the
+// engine never prints; reports/ and the CLI render these.
+#ifndef THETAGATE_VERIFIER_DERIVATION_THEOREMS_OUTCOME_H_
+#define THETAGATE_VERIFIER_DERIVATION_THEOREMS_OUTCOME_H_
+
+#include <functional>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "verifier/derivation/classify.h"
+#include "verifier/derivation/growth.h"
+#include "verifier/derivation/shape.h"
+#include "verifier/numbers/value.h"
+
+namespace thetagate {
+
+struct TheoremOutcome {
+  std::string theorem;                // "master theorem", "Akra–Bazzi", ...
+  std::string method;                 // when it applies: "master theorem, case 2"
+  std::optional<GrowthClass> growth;  // T(n) = Θ(growth) when it applies
+  std::vector<std::string> steps;     // a reviewer's steps, in order (unnumbered)
+  std::string failure;                // when it does not apply: the failing hypothesis
+
+  bool applies() const { return growth.has_value(); }
+};
+
+// Everything the theorems read: the shape, the driving function's class,
+// and (when a theorem must look at numbers) exact values of f.
+struct DerivationInput {
+  const Shape* shape = nullptr;
+  const HelperTable* helpers = nullptr;
+  // f's class; when the case lines of T give f different classes this is
+  // unset, driving.reason says why, and lower/upper hold the extremes.
+  Classification driving;
+  std::optional<GrowthClass> driving_lower, driving_upper;
+  // f(n) exactly, or empty when it cannot be evaluated at n (may be null).
+  std::function<std::optional<Value>(const BigInt& n)> driving_at;
+  // T(n) exactly (may be null): for linear recurrences' initial values.
+  std::function<std::optional<Value>(const BigInt& n)> value_at;
+};
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_VERIFIER_DERIVATION_THEOREMS_OUTCOME_H_

@@ -1,0 +1,478 @@
+#include "verifier/evaluation/evaluator.h"
+
+#include <stdexcept>
+
+#include "verifier/evaluation/expression_eval.h"
+#include "verifier/syntax/parser.h"
+
+namespace thetagate {
+
+namespace {
+
+// c when the argument is exactly n - c with a whole c >= 1.
+std::optional<int64_t> subtractive_step(const Expr& argument) {
+  if (argument.kind != ExprKind::kSub) return std::nullopt;
+  const Expr& left = *argument.args[0];
+  const Expr& right = *argument.args[1];
+  if (left.kind != ExprKind::kVariable || right.kind != ExprKind::kNumber || !right.has_small) {
+    return std::nullopt;
+  }
+  if (right.small < 1 || right.small > 1'000'000) return std::nullopt;
+  return right.small;
+}
+
+// Beyond this size, a call that does not shrink is an error even when the
+// default base case applies: T(n + 1) is a mistake, not a base case.
+const BigInt kDefaultBaseLimit = BigInt(1) << 16;
+
+}  // namespace
+
+// Routes the recurrence's calls to the memo (top-down) or the window
+// (bottom-up).
+class Evaluator::Resolver : public CallResolver {
+ public:
+  explicit Resolver(Evaluator& owner) : owner_(owner) {}
+  Value resolve(const Expr& call, const Value& n, const EvalScope& scope) override {
+    return owner_.lookup(call, n, scope);
+  }
+
+ private:
+  Evaluator& owner_;
+};
+
+// The kernel's budget callbacks land in the evaluator's own accounting.
+class Evaluator::KernelLink : public KernelHooks {
+ public:
+  explicit KernelLink(Evaluator& owner) : owner_(owner) {}
+  void charge_step() override { owner_.charge_step(); }
+  void remembered(uint64_t key_bits, uint64_t value_bits, size_t) override {
+    owner_.account_memo(key_bits, value_bits);
+  }
+
+ private:
+  Evaluator& owner_;
+};
+
+Evaluator::Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget,
+                     EvaluationPath path)
+    : recurrence_(std::move(recurrence)), budget_(budget) {
+  ctx_.precision_bits = budget_.start_precision_bits;
+  ctx_.max_value_bits = budget_.max_value_bits;
+  deadline_ = std::chrono::steady_clock::now() +
+              std::chrono::microseconds(static_cast<int64_t>(budget_.max_seconds * 1e6));
+  resolver_ = std::make_unique<Resolver>(*this);
+  int64_t window = 0;
+  bool all_subtractive = true;
+  for (const CaseLine* line : recurrence_->main.lines_in_order()) {
+    for (const Expr* call : line->calls) {
+      auto step = subtractive_step(*call->args[0]);
+      if (!step)
+        all_subtractive = false;
+      else
+        window = std::max(window, *step);
+    }
+  }
+  window_ = all_subtractive ? window : 0;
+  if (window_ == 0 && path == EvaluationPath::kAuto) {
+    kernel_ = IntegerKernel::compile(*recurrence_, ctx_);
+    if (kernel_) kernel_link_ = std::make_unique<KernelLink>(*this);
+  }
+}
+
+Evaluator::~Evaluator() = default;
+
+EvalScope Evaluator::scope(const SourceText& source) {
+  EvalScope s;
+  s.source = &source;
+  s.ctx = &ctx_;
+  s.recurrence = recurrence_.get();
+  s.resolver = resolver_.get();
+  return s;
+}
+
+void Evaluator::charge_step() {
+  ++stats_.steps;
+  if (stats_.steps > budget_.max_steps) {
+    throw BudgetExceeded("more than " + std::to_string(budget_.max_steps) + " evaluation steps");
+  }
+  // Bottom-up sweeps continue from one size to the next; only the total
+  // budget applies to them.
+  if (budget_.max_steps_per_size != 0 && window_ == 0 &&
+      stats_.steps - call_start_steps_ > budget_.max_steps_per_size) {
+    throw BudgetExceeded("one size needs more than " + std::to_string(budget_.max_steps_per_size) +
+                         " subproblems");
+  }
+  if ((stats_.steps & 1023) == 0 && std::chrono::steady_clock::now() > deadline_) {
+    throw BudgetExceeded("the time budget of " + std::to_string(budget_.max_seconds) +
+                         " s ran out");
+  }
+}
+
+const Value* Evaluator::remember(const Value& m, const Value& v) {
+  auto [stored, inserted] = memo_.insert(m, v);
+  if (!inserted) return stored;
+  if (!v.is_exact()) memo_has_intervals_ = true;
+  account_memo(m.magnitude_bits(), v.magnitude_bits());
+  return stored;
+}
+
+size_t Evaluator::memo_size() const { return memo_.size() + (kernel_ ? kernel_->memo_size() : 0); }
+
+void Evaluator::account_memo(uint64_t key_bits, uint64_t value_bits) {
+  // A nominal cost per entry, the same on both paths, so the budget (and a
+  // report) does not depend on which path evaluated.
+  memo_bytes_ += (key_bits + value_bits) / 8 + 112;
+  size_t size = memo_size();
+  stats_.memo_entries = size;
+  if (size > budget_.max_memo_entries || memo_bytes_ > budget_.max_memo_bytes) {
+    throw BudgetExceeded("one evaluation needs more than " + std::to_string(size) +
+                         " remembered values (" + std::to_string(memo_bytes_ >> 20) + " MiB)");
+  }
+}
+
+void Evaluator::clear_memo() {
+  memo_.clear();
+  if (kernel_) kernel_->clear_memo();
+  memo_bytes_ = 0;
+  memo_has_intervals_ = false;
+  ring_.clear();
+  ring_errors_.clear();
+  next_ = 0;
+  ++stats_.memo_clears;
+}
+
+template <class F>
+auto Evaluator::with_precision(F&& f) -> decltype(f()) {
+  while (true) {
+    try {
+      return f();
+    } catch (const PrecisionShortfall& shortfall) {
+      if (ctx_.precision_bits * 2 > budget_.max_precision_bits) {
+        throw PrecisionExhausted(std::string("an interval stayed too wide to decide (") +
+                                 shortfall.what() + ") even at " +
+                                 std::to_string(ctx_.precision_bits) + " bits of precision");
+      }
+      ctx_.precision_bits *= 2;
+      ++stats_.precision_retries;
+      // Remembered intervals are still correct, but too wide; start over
+      // so every interval uses the new precision. Exact values stay.
+      if (memo_has_intervals_) clear_memo();
+    }
+  }
+}
+
+Value Evaluator::value_at(const BigInt& n) {
+  if (n < 0) throw std::invalid_argument("sizes are non-negative");
+  if (!probed_)
+    with_precision([&] {
+      probe_default_base();
+      return 0;
+    });
+  call_start_steps_ = stats_.steps;
+  if (memo_bytes_ > budget_.max_memo_bytes / 4 * 3 ||
+      memo_size() > budget_.max_memo_entries / 4 * 3) {
+    clear_memo();
+  }
+  // Each top-level call starts low; a floor or comparison that an interval
+  // cannot decide doubles the precision and retries.
+  ctx_.precision_bits = budget_.start_precision_bits;
+  Value v = with_precision([&] {
+    if (window_ > 0) return sweep_up(n);
+    if (kernel_) {
+      if (std::optional<Value> fast = kernel_value(n)) return std::move(*fast);
+    }
+    return top_down(canonical_integer(Value(n)));
+  });
+  stats_.precision_bits = std::max(stats_.precision_bits, ctx_.precision_bits);
+  return v;
+}
+
+Value Evaluator::default_base_value(const BigInt& n, const Expr& call, const BigInt& m) {
+  if (n >= kDefaultBaseLimit) not_shrinking(n, call, m);
+  return Value(int64_t{1});
+}
+
+[[noreturn]] void Evaluator::not_shrinking(const BigInt& n, const Expr& call, const BigInt& m) {
+  const Recurrence& r = *recurrence_;
+  std::string head =
+      print(call) + " at n = " + n.str() + " calls " + r.main.name + "(" + m.str() + "), ";
+  if (m >= n) {
+    fail_at(r.source, call.pos, head + "which does not shrink",
+            "each call must reach a smaller size, such as " + r.main.name + "(n/2) or " +
+                r.main.name + "(n-1)");
+  }
+  fail_at(r.source, call.pos, head + "which is not a size",
+          "add a base case such as " + r.main.name + "(" + n.str() +
+              ") = 1, or a line 'if n <= " + n.str() + "'");
+}
+
+void Evaluator::probe_default_base() {
+  // With no base case, T(n) = 1 where a call would not shrink; that is a
+  // base case only if large sizes do shrink. T(n + 1) is an error.
+  probed_ = true;
+  if (!recurrence_->default_base) return;
+  const Recurrence& r = *recurrence_;
+  EvalScope s = scope(r.source);
+  // The first size whose call does not shrink, if any.
+  auto offending = [&](const BigInt& n) -> std::optional<std::pair<const Expr*, BigInt>> {
+    Value nv(n);
+    const CaseLine& line = select_case(r.main, nv, s);
+    for (const Expr* call : line.calls) {
+      BigInt m = call_argument(*call, nv, s);
+      if (m < 0 || m >= n) return std::pair<const Expr*, BigInt>{call, m};
+    }
+    return std::nullopt;
+  };
+  for (const BigInt& n :
+       {kDefaultBaseLimit, BigInt(kDefaultBaseLimit + 1), BigInt(3 * kDefaultBaseLimit / 2)}) {
+    auto bad = offending(n);
+    if (!bad) continue;
+    // Name the first size where the same call fails (docs/design.md §3): T(n + 1)
+    // already fails at n = 0, not only at the probe.
+    for (BigInt first = 0; first <= 64; ++first) {
+      auto early = offending(first);
+      if (early && early->first == bad->first) not_shrinking(first, *early->first, early->second);
+    }
+    not_shrinking(n, *bad->first, bad->second);
+  }
+}
+
+const Value* Evaluator::remembered(const Value& m) const {
+  const Value* value = memo_.find(m);
+  if (value == nullptr) throw std::logic_error("a finished subproblem is not remembered");
+  return value;
+}
+
+std::optional<Value> Evaluator::kernel_value(const BigInt& n) {
+  try {
+    BigInt out;
+    kernel_->value_at(n.backend().data(), out.backend().data(), *kernel_link_);
+    return canonical_integer(std::move(out));
+  } catch (const KernelDeclines&) {
+    return std::nullopt;  // the general path redoes this size and names the problem
+  }
+}
+
+Value Evaluator::top_down(const Value& n) {
+  if (const Value* known_value = memo_.find(n)) return *known_value;
+  const Recurrence& r = *recurrence_;
+  EvalScope s = scope(r.source);
+  constexpr size_t kRoot = ~size_t{0};
+  struct Frame {
+    Value m;
+    size_t parent_slot = kRoot;  // known[parent_slot] receives this frame's value
+    const CaseLine* line = nullptr;
+    size_t first_arg = 0;  // its arguments are args[first_arg, ...)
+  };
+  // The arguments of expanded frames, stacked like the frames: a child's
+  // arguments are appended after its parent's and dropped when it is done.
+  // known[i] is args[i]'s remembered value once it is known.
+  std::vector<Frame> stack;
+  std::vector<Value> args;
+  std::vector<const Value*> known;
+  const Value* result = nullptr;
+  auto deliver = [&](size_t slot, const Value* value) {
+    if (slot == kRoot)
+      result = value;
+    else
+      known[slot] = value;
+  };
+  stack.push_back({n});
+  while (!stack.empty()) {
+    Frame& frame = stack.back();
+    if (frame.line == nullptr) {
+      // A size pushed twice (by two parents) is evaluated once.
+      if (const Value* value = memo_.find(frame.m)) {
+        deliver(frame.parent_slot, value);
+        stack.pop_back();
+        continue;
+      }
+      charge_step();
+      const CaseLine& line = select_case(r.main, frame.m, s);
+      frame.line = &line;
+      frame.first_arg = args.size();
+      bool base = false;
+      for (const Expr* call : line.calls) {
+        Value arg = call_argument_value(*call, frame.m, s);
+        if (arg.sign() < 0 || compare(arg, frame.m, ctx_) >= 0) {
+          BigInt m = frame.m.integer();
+          if (!r.default_base) not_shrinking(m, *call, arg.integer());
+          deliver(frame.parent_slot,
+                  remember(frame.m, default_base_value(m, *call, arg.integer())));
+          base = true;
+          break;
+        }
+        args.push_back(std::move(arg));
+      }
+      if (base) {
+        args.resize(stack.back().first_arg);
+        stack.pop_back();
+        continue;
+      }
+      // Push children after reading everything from `frame`: push_back
+      // may move the stack.
+      size_t first = frame.first_arg;
+      size_t end = args.size();
+      known.resize(end);
+      for (size_t i = first; i < end; ++i) known[i] = memo_.find(args[i]);
+      for (size_t i = first; i < end; ++i) {
+        if (known[i] == nullptr) stack.push_back({args[i], i});
+      }
+      continue;
+    }
+    Frame done = std::move(frame);
+    stack.pop_back();
+    for (size_t i = done.first_arg; i < args.size(); ++i) {
+      if (known[i] == nullptr) known[i] = remembered(args[i]);
+    }
+    current_calls_ = &done.line->calls;
+    current_values_ = known.data() + done.first_arg;
+    Value value;
+    try {
+      value = evaluate_expr(*done.line->body, done.m, s);
+    } catch (...) {
+      current_calls_ = nullptr;
+      current_values_ = nullptr;
+      throw;
+    }
+    current_calls_ = nullptr;
+    current_values_ = nullptr;
+    args.resize(done.first_arg);
+    known.resize(done.first_arg);
+    deliver(done.parent_slot, remember(done.m, value));
+  }
+  return result != nullptr ? *result : *remembered(n);
+}
+
+Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope) {
+  if (in_sweep_) {
+    // Every call is T(n - c) and n is the sweep's current size.
+    int64_t m = *n.small() - call.args[0]->args[1]->small;
+    if (m < 0 || m >= next_ || m < next_ - window_) {
+      throw std::logic_error("bottom-up window miss");
+    }
+    size_t slot = static_cast<size_t>(m % window_);
+    if (ring_errors_[slot]) throw InputError(*ring_errors_[slot]);
+    return *ring_[slot];
+  }
+  if (current_calls_ != nullptr) {
+    // Evaluating a frame's body: its arguments were computed on expansion.
+    for (size_t i = 0; i < current_calls_->size(); ++i) {
+      if ((*current_calls_)[i] == &call) return *current_values_[i];
+    }
+  }
+  Value m = call_argument_value(call, n, scope);
+  if (const Value* value = memo_.find(m)) return *value;
+  if (kernel_) {
+    // Not through value_at(): that would restart the precision this
+    // expression's evaluation may be raising (with_precision). The
+    // per-size step limit still counts from here, as for a size of its own.
+    call_start_steps_ = stats_.steps;
+    if (std::optional<Value> fast = kernel_value(m.integer())) return std::move(*fast);
+  }
+  // Only reachable from evaluate() on an expression that calls T directly.
+  return value_at(m.integer());
+}
+
+Value Evaluator::sweep_up(const BigInt& n) {
+  const Recurrence& r = *recurrence_;
+  if (!n.is_zero() && bit_length(n) > 62) {
+    throw BudgetExceeded("reaching n = " + n.str() + " one step at a time (calls " + r.main.name +
+                         "(n - c)) is out of reach");
+  }
+  int64_t target = static_cast<int64_t>(n);
+  if (ring_.empty() || target < next_ - window_) {
+    ring_.assign(static_cast<size_t>(window_), std::nullopt);
+    ring_errors_.assign(static_cast<size_t>(window_), std::nullopt);
+    next_ = 0;
+  }
+  uint64_t needed = static_cast<uint64_t>(std::max<int64_t>(0, target - next_ + 1));
+  if (stats_.steps + needed > budget_.max_steps) {
+    throw BudgetExceeded("reaching n = " + n.str() + " bottom-up needs " + std::to_string(needed) +
+                         " more steps, over the budget of " + std::to_string(budget_.max_steps));
+  }
+  EvalScope s = scope(r.source);
+  while (next_ <= target) {
+    charge_step();
+    int64_t m = next_;
+    Value mv(m);
+    size_t slot = static_cast<size_t>(m % window_);
+    // A size below the first base case may be undefined (T(0) when only
+    // T(1) is given): keep its error, raised only if a later size needs it.
+    try {
+      const CaseLine& line = select_case(r.main, mv, s);
+      std::optional<Value> value;
+      for (const Expr* call : line.calls) {
+        int64_t arg = m - call->args[0]->args[1]->small;
+        if (arg < 0) {
+          if (!r.default_base) not_shrinking(BigInt(m), *call, BigInt(arg));
+          value = default_base_value(BigInt(m), *call, BigInt(arg));
+          break;
+        }
+      }
+      if (!value) {
+        in_sweep_ = true;
+        try {
+          value = evaluate_expr(*line.body, mv, s);
+        } catch (...) {
+          in_sweep_ = false;
+          throw;
+        }
+        in_sweep_ = false;
+      }
+      ring_[slot] = std::move(*value);
+      ring_errors_[slot].reset();
+    } catch (const InputError& error) {
+      ring_[slot].reset();
+      ring_errors_[slot] = error.diagnostic();
+    }
+    ++next_;
+  }
+  size_t slot = static_cast<size_t>(target % window_);
+  if (ring_errors_[slot]) throw InputError(*ring_errors_[slot]);
+  return *ring_[slot];
+}
+
+Value Evaluator::evaluate(const Expr& e, const SourceText& source, const BigInt& n) {
+  ctx_.precision_bits = budget_.start_precision_bits;
+  return with_precision([&] { return evaluate_expr(e, Value(n), scope(source)); });
+}
+
+int Evaluator::compare_at(const Expr& a, const SourceText& sa, const Expr& b, const SourceText& sb,
+                          const BigInt& n) {
+  ctx_.precision_bits = budget_.start_precision_bits;
+  return with_precision([&] {
+    Value va = evaluate_expr(a, Value(n), scope(sa));
+    Value vb = evaluate_expr(b, Value(n), scope(sb));
+    return compare(va, vb, ctx_);
+  });
+}
+
+BigInt evaluate_size(const std::string& text, const std::string& origin) {
+  SourceText source = SourceText::whole(origin, text);
+  ExprPtr e = parse_expression(source);
+  if (mentions_n(*e)) {
+    fail_at(source, 0, "a size must be a number, not an expression in n", "for example 2^4096 + 7");
+  }
+  NumericContext ctx;
+  ctx.max_value_bits = 1u << 24;
+  EvalScope s;
+  s.source = &source;
+  s.ctx = &ctx;
+  Value v;
+  try {
+    v = evaluate_expr(*e, Value(int64_t{0}), s);
+  } catch (const BudgetExceeded& error) {
+    fail_at(source, 0, std::string("the size is too large: ") + error.what());
+  } catch (const PrecisionShortfall&) {
+    fail_at(source, 0, "the size is not a whole number", "sizes are whole numbers: 10^6, 3*2^50");
+  }
+  if (!v.is_integer()) {
+    fail_at(source, 0, "the size " + v.str() + " is not a whole number",
+            "sizes are whole numbers: 10^6, 3*2^50");
+  }
+  if (v.integer() < 0) fail_at(source, 0, "the size " + v.str() + " is negative", "sizes are >= 0");
+  return v.integer();
+}
+
+}  // namespace thetagate

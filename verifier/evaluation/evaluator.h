@@ -1,0 +1,132 @@
+// Exact evaluation of a recurrence: memoised over the distinct arguments
+// reached, iterative (an explicit work stack, never native recursion that
+// grows with n), with budgets. Recurrences whose calls are all T(n - c) are
+// evaluated bottom-up with a sliding window, so memory does not grow with n.
+#ifndef THETAGATE_VERIFIER_EVALUATION_EVALUATOR_H_
+#define THETAGATE_VERIFIER_EVALUATION_EVALUATOR_H_
+
+#include <chrono>
+#include <cstdint>
+#include <memory>
+#include <optional>
+#include <unordered_map>
+#include <vector>
+
+#include "verifier/evaluation/expression_eval.h"
+#include "verifier/evaluation/integer_kernel.h"
+#include "verifier/evaluation/memo_table.h"
+#include "verifier/model/recurrence.h"
+#include "verifier/numbers/value.h"
+
+namespace thetagate {
+
+// Per-claim limits. Running out throws BudgetExceeded with the reason.
+struct Budget {
+  uint64_t max_memo_entries = 2'000'000;
+  uint64_t max_memo_bytes = 512ull << 20;
+  uint64_t max_value_bits = 1u << 20;
+  uint64_t max_steps = 30'000'000;  // case lines evaluated, in total
+  uint64_t max_steps_per_size = 0;  // for one value_at(); 0: no separate limit
+  double max_seconds = 20.0;        // wall time from the evaluator's creation
+  long start_precision_bits = 128;  // intervals; doubled on a shortfall
+  long max_precision_bits = 1 << 16;
+};
+
+struct EvaluatorStats {
+  uint64_t steps = 0;
+  uint64_t memo_entries = 0;
+  uint64_t memo_clears = 0;
+  uint64_t precision_retries = 0;
+  long precision_bits = 0;
+};
+
+// kAuto uses the integer kernel (verifier/evaluation/integer_kernel.h) wherever the
+// recurrence compiles to it; kGeneral never does (tests compare the two).
+enum class EvaluationPath { kAuto, kGeneral };
+
+class Evaluator {
+ public:
+  explicit Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget = {},
+                     EvaluationPath path = EvaluationPath::kAuto);
+  ~Evaluator();
+  Evaluator(const Evaluator&) = delete;
+  Evaluator& operator=(const Evaluator&) = delete;
+
+  // T(n). REQUIRES: n >= 0. Throws InputError (a call that does not shrink,
+  // a domain error such as lg 0, no case line for n), BudgetExceeded.
+  Value value_at(const BigInt& n);
+
+  // An expression in n (a bound side, a growth function); T(...) calls in it
+  // are evaluated with this recurrence. `source` locates errors.
+  Value evaluate(const Expr& e, const SourceText& source, const BigInt& n);
+
+  // Compares a(n) with b(n) exactly, raising precision until decided.
+  // Returns -1, 0, +1. Throws BudgetExceeded if even the maximum precision
+  // cannot decide.
+  int compare_at(const Expr& a, const SourceText& sa, const Expr& b, const SourceText& sb,
+                 const BigInt& n);
+
+  const EvaluatorStats& stats() const { return stats_; }
+  const Recurrence& recurrence() const { return *recurrence_; }
+  // True when every recursive call is T(n - c): evaluated bottom-up.
+  bool bottom_up() const { return window_ > 0; }
+  // True when top-down sizes go through the integer kernel.
+  bool uses_integer_kernel() const { return kernel_ != nullptr; }
+
+ private:
+  class Resolver;
+  class KernelLink;
+  EvalScope scope(const SourceText& source);
+  Value top_down(const Value& n);
+  std::optional<Value> kernel_value(const BigInt& n);
+  Value sweep_up(const BigInt& n);
+  Value lookup(const Expr& call, const Value& n, const EvalScope& scope);
+  void probe_default_base();
+  Value default_base_value(const BigInt& n, const Expr& call, const BigInt& m);
+  [[noreturn]] void not_shrinking(const BigInt& n, const Expr& call, const BigInt& m);
+  void charge_step();
+  // Returns the remembered value (stable: memo_'s elements never move).
+  const Value* remember(const Value& m, const Value& v);
+  const Value* remembered(const Value& m) const;  // REQUIRES: m was remembered
+  // Counts one remembered value against the memo budget (both memos).
+  void account_memo(uint64_t key_bits, uint64_t value_bits);
+  size_t memo_size() const;
+  void clear_memo();
+  template <class F>
+  auto with_precision(F&& f) -> decltype(f());
+
+  std::shared_ptr<const Recurrence> recurrence_;
+  Budget budget_;
+  NumericContext ctx_;
+  EvaluatorStats stats_;
+  std::chrono::steady_clock::time_point deadline_;
+  std::unique_ptr<Resolver> resolver_;
+  // Keys are canonical integers (canonical_integer), shared with the frames
+  // that computed them: no limb copies on insert or lookup.
+  MemoTable memo_;
+  std::unique_ptr<IntegerKernel> kernel_;  // null: the general path only
+  std::unique_ptr<KernelLink> kernel_link_;
+  uint64_t memo_bytes_ = 0;
+  bool memo_has_intervals_ = false;
+  // Bottom-up state: window_ = largest c in T(n - c); the ring holds the
+  // values (or the errors) of the window_ sizes just below next_.
+  int64_t window_ = 0;
+  int64_t next_ = 0;
+  std::vector<std::optional<Value>> ring_;
+  std::vector<std::optional<Diagnostic>> ring_errors_;
+  bool in_sweep_ = false;
+  // While a top-down frame's body is evaluated: its calls and their values
+  // (pointers into memo_, whose elements never move).
+  const std::vector<const Expr*>* current_calls_ = nullptr;
+  const Value* const* current_values_ = nullptr;
+  bool probed_ = false;
+  uint64_t call_start_steps_ = 0;
+};
+
+// The value of a constant expression ("2^4096 + 7", "3*2^50"), exactly.
+// Throws InputError for a non-integer, negative, or n-dependent expression.
+BigInt evaluate_size(const std::string& text, const std::string& origin = "<size>");
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_VERIFIER_EVALUATION_EVALUATOR_H_

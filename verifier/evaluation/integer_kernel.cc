@@ -1,0 +1,575 @@
+#include "verifier/evaluation/integer_kernel.h"
+
+#include <algorithm>
+#include <stdexcept>
+#include <utility>
+
+namespace thetagate {
+
+namespace {
+
+enum class Op : uint8_t {
+  kConst,
+  kN,
+  kSlot,
+  kAdd,
+  kSub,
+  kMul,
+  kNeg,
+  kPow,
+  kFloorDiv,
+  kCeilDiv,
+  kMod,
+  kMin,
+  kMax,
+  kFloorLg,
+  kCeilLg,
+  kFloorSqrt,
+  kCeilSqrt,  // of an integer: whole again
+  kEq,
+  kNe,
+  kLt,
+  kLe,
+  kGt,
+  kGe,
+  kAnd,
+  kOr,
+  kNot,
+  kEven,
+  kOdd,
+};
+
+constexpr size_t kRoot = ~size_t{0};
+// As on the general path: past this size, a call that does not shrink is an
+// error, not the default base case.
+constexpr unsigned long kDefaultBaseLimit = 1ul << 16;
+// Whole constant exponents up to this are compiled; larger ones are left to
+// the general path's estimates.
+constexpr uint64_t kMaxExponent = 1u << 20;
+
+uint64_t bits_of(mpz_srcptr x) { return mpz_sgn(x) == 0 ? 0 : mpz_sizeinbase(x, 2); }
+
+}  // namespace
+
+struct IntegerKernel::Node {
+  Op op = Op::kConst;
+  uint32_t a = 0, b = 0;
+  // kConst: constant index; kSlot: call slot; kPow: exponent; with small_b:
+  // the right operand's value.
+  uint64_t k = 0;
+  bool small_b = false;  // b is a constant in [1, ULONG_MAX]: GMP's _ui forms
+  int shift = -1;        // with small_b: k = 2^shift, or -1
+};
+
+struct IntegerKernel::Line {
+  std::optional<uint32_t> point;      // constant index of a point case T(c) = ...
+  std::optional<uint32_t> condition;  // node
+  std::vector<uint32_t> args;         // one node per call, in the line's call order
+  uint32_t body = 0;
+};
+
+struct IntegerKernel::Frame {
+  size_t key;          // index into args_ of the size, or kRoot
+  size_t parent_slot;  // known_[parent_slot] receives the value, or kRoot
+  size_t memo_size;    // when pushed, after the memo was asked for this size
+  const Line* line = nullptr;
+  size_t first_arg = 0;
+};
+
+// Translates case lines into nodes; refuses (nullopt) anything that could
+// leave the integers.
+class IntegerKernel::Compiler {
+ public:
+  Compiler(IntegerKernel& kernel, const Recurrence& r) : k_(kernel), r_(r) {}
+
+  bool add_line(const CaseLine& source) {
+    Line line;
+    calls_ = &source.calls;
+    if (source.point) line.point = constant(*source.point);
+    if (source.condition) {
+      std::optional<uint32_t> c = condition(*source.condition);
+      if (!c) return false;
+      line.condition = c;
+    }
+    for (const Expr* call : source.calls) {
+      // T(n/2) reads the quotient as its floor, as call_argument_value does.
+      const Expr& x = *call->args[0];
+      std::optional<uint32_t> a = x.kind == ExprKind::kDiv ? quotient(x, Op::kFloorDiv) : value(x);
+      if (!a) return false;
+      line.args.push_back(*a);
+    }
+    std::optional<uint32_t> body = value(*source.body);
+    if (!body) return false;
+    line.body = *body;
+    k_.lines_.push_back(std::move(line));
+    return true;
+  }
+
+ private:
+  uint32_t node(Op op, uint32_t a = 0, uint32_t b = 0, uint64_t k = 0) {
+    Node n;
+    n.op = op;
+    n.a = a;
+    n.b = b;
+    n.k = k;
+    k_.nodes_.push_back(n);
+    return static_cast<uint32_t>(k_.nodes_.size() - 1);
+  }
+
+  uint32_t constant(const BigInt& c) {
+    k_.constants_.push_back(c);
+    return static_cast<uint32_t>(k_.constants_.size() - 1);
+  }
+
+  std::optional<uint32_t> binary(Op op, const Expr& a, const Expr& b) {
+    std::optional<uint32_t> x = value(a);
+    std::optional<uint32_t> y = x ? value(b) : std::nullopt;
+    if (!y) return std::nullopt;
+    uint32_t id = node(op, *x, *y);
+    bool arithmetic = op == Op::kAdd || op == Op::kSub || op == Op::kMul || op == Op::kFloorDiv ||
+                      op == Op::kCeilDiv || op == Op::kMod;
+    const Node& right = k_.nodes_[*y];
+    if (arithmetic && right.op == Op::kConst) {
+      mpz_srcptr c = k_.constants_[right.k].backend().data();
+      if (mpz_sgn(c) > 0 && mpz_fits_ulong_p(c)) {
+        Node& n = k_.nodes_[id];
+        n.small_b = true;
+        n.k = mpz_get_ui(c);
+        if ((n.k & (n.k - 1)) == 0) n.shift = __builtin_ctzll(n.k);
+      }
+    }
+    return id;
+  }
+
+  std::optional<uint32_t> quotient(const Expr& div, Op op) {
+    return binary(op, *div.args[0], *div.args[1]);
+  }
+
+  std::optional<uint32_t> value(const Expr& e) {
+    switch (e.kind) {
+      case ExprKind::kNumber: {
+        if (boost::multiprecision::denominator(e.number) != 1) return std::nullopt;
+        return node(Op::kConst, 0, 0, constant(boost::multiprecision::numerator(e.number)));
+      }
+      case ExprKind::kVariable:
+        return node(Op::kN);
+      case ExprKind::kAdd:
+        return binary(Op::kAdd, *e.args[0], *e.args[1]);
+      case ExprKind::kSub:
+        return binary(Op::kSub, *e.args[0], *e.args[1]);
+      case ExprKind::kMul:
+        return binary(Op::kMul, *e.args[0], *e.args[1]);
+      case ExprKind::kNeg: {
+        std::optional<uint32_t> x = value(*e.args[0]);
+        if (!x) return std::nullopt;
+        return node(Op::kNeg, *x);
+      }
+      case ExprKind::kPow: {
+        const Expr& y = *e.args[1];
+        if (y.kind != ExprKind::kNumber || !y.has_small || y.small < 0 ||
+            static_cast<uint64_t>(y.small) > kMaxExponent) {
+          return std::nullopt;
+        }
+        std::optional<uint32_t> x = value(*e.args[0]);
+        if (!x) return std::nullopt;
+        return node(Op::kPow, *x, 0, static_cast<uint64_t>(y.small));
+      }
+      case ExprKind::kCall:
+        return call(e);
+      default:
+        return std::nullopt;  // bare quotients may be fractions; conditions
+    }
+  }
+
+  std::optional<uint32_t> call(const Expr& e) {
+    if (e.name == r_.main.name) {
+      auto it = std::find(calls_->begin(), calls_->end(), &e);
+      if (it == calls_->end()) return std::nullopt;
+      return node(Op::kSlot, 0, 0, static_cast<uint64_t>(it - calls_->begin()));
+    }
+    if (r_.helpers.count(e.name) != 0) return std::nullopt;
+    if ((e.name == "floor" || e.name == "ceil") && e.args.size() == 1) {
+      const Expr& x = *e.args[0];
+      if (x.kind == ExprKind::kDiv) {
+        return quotient(x, e.name == "floor" ? Op::kFloorDiv : Op::kCeilDiv);
+      }
+      // lg and sqrt of an integer, rounded: bit lengths and integer roots.
+      bool lg = x.kind == ExprKind::kCall && (x.name == "lg" || x.name == "log2");
+      bool sqrt = x.kind == ExprKind::kCall && x.name == "sqrt";
+      if ((lg || sqrt) && x.args.size() == 1) {
+        std::optional<uint32_t> inner = value(*x.args[0]);
+        if (!inner) return std::nullopt;
+        bool floor = e.name == "floor";
+        Op op =
+            lg ? (floor ? Op::kFloorLg : Op::kCeilLg) : (floor ? Op::kFloorSqrt : Op::kCeilSqrt);
+        return node(op, *inner);
+      }
+      return value(x);  // the floor of an integer is itself
+    }
+    if (e.name == "mod" && e.args.size() == 2) return binary(Op::kMod, *e.args[0], *e.args[1]);
+    if ((e.name == "min" || e.name == "max") && !e.args.empty()) {
+      Op op = e.name == "min" ? Op::kMin : Op::kMax;
+      std::optional<uint32_t> best = value(*e.args[0]);
+      for (size_t i = 1; best && i < e.args.size(); ++i) {
+        std::optional<uint32_t> next = value(*e.args[i]);
+        best = next ? std::optional<uint32_t>(node(op, *best, *next)) : std::nullopt;
+      }
+      return best;
+    }
+    return std::nullopt;  // lg, ln, sqrt, log: irrational in general
+  }
+
+  std::optional<uint32_t> condition(const Expr& e) {
+    switch (e.kind) {
+      case ExprKind::kAnd:
+      case ExprKind::kOr: {
+        std::optional<uint32_t> x = condition(*e.args[0]);
+        std::optional<uint32_t> y = x ? condition(*e.args[1]) : std::nullopt;
+        if (!y) return std::nullopt;
+        return node(e.kind == ExprKind::kAnd ? Op::kAnd : Op::kOr, *x, *y);
+      }
+      case ExprKind::kNot:
+      case ExprKind::kEven:
+      case ExprKind::kOdd: {
+        std::optional<uint32_t> x =
+            e.kind == ExprKind::kNot ? condition(*e.args[0]) : value(*e.args[0]);
+        if (!x) return std::nullopt;
+        Op op = e.kind == ExprKind::kNot    ? Op::kNot
+                : e.kind == ExprKind::kEven ? Op::kEven
+                                            : Op::kOdd;
+        return node(op, *x);
+      }
+      case ExprKind::kEq:
+        return binary(Op::kEq, *e.args[0], *e.args[1]);
+      case ExprKind::kNe:
+        return binary(Op::kNe, *e.args[0], *e.args[1]);
+      case ExprKind::kLt:
+        return binary(Op::kLt, *e.args[0], *e.args[1]);
+      case ExprKind::kLe:
+        return binary(Op::kLe, *e.args[0], *e.args[1]);
+      case ExprKind::kGt:
+        return binary(Op::kGt, *e.args[0], *e.args[1]);
+      case ExprKind::kGe:
+        return binary(Op::kGe, *e.args[0], *e.args[1]);
+      default:
+        return std::nullopt;
+    }
+  }
+
+  IntegerKernel& k_;
+  const Recurrence& r_;
+  const std::vector<const Expr*>* calls_ = nullptr;
+};
+
+IntegerKernel::IntegerKernel() = default;
+IntegerKernel::~IntegerKernel() = default;
+
+std::unique_ptr<IntegerKernel> IntegerKernel::compile(const Recurrence& r,
+                                                      const NumericContext& ctx) {
+  std::unique_ptr<IntegerKernel> kernel(new IntegerKernel());
+  kernel->default_base_ = r.default_base;
+  kernel->ctx_ = ctx;
+  Compiler compiler(*kernel, r);
+  for (const CaseLine* line : r.main.lines_in_order()) {
+    if (!compiler.add_line(*line)) return nullptr;
+  }
+  mpz_set_ui(kernel->one_.z, 1);
+  return kernel;
+}
+
+mpz_ptr IntegerKernel::temp(size_t depth) {
+  while (temps_.size() <= depth) temps_.push_back(std::make_unique<Register>());
+  return temps_[depth]->z;
+}
+
+mpz_ptr IntegerKernel::arg_register(size_t index) {
+  while (args_.size() <= index) args_.push_back(std::make_unique<Register>());
+  return args_[index]->z;
+}
+
+void IntegerKernel::check_result_bits(mpz_srcptr x) const {
+  // The limb count bounds the bits from above: exact only near the limit.
+  if (mpz_size(x) * GMP_NUMB_BITS > ctx_.max_value_bits) check_bits(bits_of(x), ctx_);
+}
+
+mpz_srcptr IntegerKernel::operand(uint32_t id, mpz_ptr scratch, size_t depth, mpz_ptr view) {
+  const Node& x = nodes_[id];
+  switch (x.op) {
+    case Op::kConst:
+      return constants_[x.k].backend().data();
+    case Op::kN:
+      return current_n_;
+    case Op::kSlot:
+      return current_slots_[x.k].as_mpz(view);
+    default:
+      eval(id, scratch, depth);
+      return scratch;
+  }
+}
+
+void IntegerKernel::eval(uint32_t id, mpz_ptr out, size_t depth) {
+  const Node& x = nodes_[id];
+  mpz_t view_a, view_b;
+  switch (x.op) {
+    case Op::kConst:
+    case Op::kN:
+    case Op::kSlot:
+      mpz_set(out, operand(id, out, depth, view_a));
+      return;
+    case Op::kNeg:
+      mpz_neg(out, operand(x.a, out, depth, view_a));
+      return;
+    case Op::kFloorLg:
+    case Op::kCeilLg: {
+      mpz_srcptr v = operand(x.a, out, depth, view_a);
+      if (mpz_sgn(v) <= 0) throw KernelDeclines{};  // lg of 0 or less: the general path says so
+      // floor(lg v) = bits(v) - 1; ceil(lg v) = bits(v - 1), 0 at v = 1.
+      uint64_t bits = bits_of(v);
+      bool power_of_two = mpz_scan1(v, 0) == bits - 1;
+      uint64_t r = x.op == Op::kFloorLg || power_of_two ? bits - 1 : bits;
+      mpz_set_ui(out, static_cast<unsigned long>(r));
+      return;
+    }
+    case Op::kFloorSqrt:
+    case Op::kCeilSqrt: {
+      mpz_srcptr v = operand(x.a, out, depth, view_a);
+      if (mpz_sgn(v) < 0) throw KernelDeclines{};  // the root of a negative number
+      bool exact = mpz_perfect_square_p(v) != 0;
+      mpz_sqrt(out, v);
+      if (x.op == Op::kCeilSqrt && !exact) mpz_add_ui(out, out, 1);
+      return;
+    }
+    case Op::kPow: {
+      mpz_srcptr base = operand(x.a, out, depth, view_a);
+      // Estimate first, as the general path does: a huge power is a budget
+      // error, never an allocation failure.
+      if (mpz_cmpabs_ui(base, 1) > 0) {
+        uint64_t bits = bits_of(base);
+        check_bits((bits > 1 ? bits - 1 : 1) * x.k, ctx_);
+      }
+      mpz_pow_ui(out, base, x.k);
+      check_result_bits(out);
+      return;
+    }
+    default:
+      break;
+  }
+  mpz_srcptr a = operand(x.a, out, depth, view_a);
+  if (x.small_b) {  // a positive machine-word constant on the right
+    unsigned long k = x.k;
+    switch (x.op) {
+      case Op::kAdd:
+        mpz_add_ui(out, a, k);
+        break;
+      case Op::kSub:
+        mpz_sub_ui(out, a, k);
+        break;
+      case Op::kMul:
+        check_bits(bits_of(a) + (64 - static_cast<uint64_t>(__builtin_clzl(k))), ctx_);
+        mpz_mul_ui(out, a, k);
+        break;
+      case Op::kFloorDiv:
+        if (x.shift >= 0)
+          mpz_fdiv_q_2exp(out, a, static_cast<mp_bitcnt_t>(x.shift));
+        else
+          mpz_fdiv_q_ui(out, a, k);
+        break;
+      case Op::kCeilDiv:
+        if (x.shift >= 0)
+          mpz_cdiv_q_2exp(out, a, static_cast<mp_bitcnt_t>(x.shift));
+        else
+          mpz_cdiv_q_ui(out, a, k);
+        break;
+      case Op::kMod:
+        if (x.shift >= 0)
+          mpz_fdiv_r_2exp(out, a, static_cast<mp_bitcnt_t>(x.shift));
+        else
+          mpz_set_ui(out, mpz_fdiv_ui(a, k));
+        break;
+      default:
+        throw std::logic_error("a word constant on an operation that takes none");
+    }
+    check_result_bits(out);
+    return;
+  }
+  mpz_srcptr b = operand(x.b, temp(depth), depth + 1, view_b);
+  switch (x.op) {
+    case Op::kAdd:
+      mpz_add(out, a, b);
+      break;
+    case Op::kSub:
+      mpz_sub(out, a, b);
+      break;
+    case Op::kMul:
+      check_bits(bits_of(a) + bits_of(b), ctx_);
+      mpz_mul(out, a, b);
+      break;
+    case Op::kFloorDiv:
+    case Op::kCeilDiv:
+    case Op::kMod:
+      if (mpz_sgn(b) == 0) throw KernelDeclines{};  // the general path names the error
+      if (x.op == Op::kFloorDiv)
+        mpz_fdiv_q(out, a, b);
+      else if (x.op == Op::kCeilDiv)
+        mpz_cdiv_q(out, a, b);
+      else
+        mpz_fdiv_r(out, a, b);  // the sign of the divisor, as mod_value
+      break;
+    case Op::kMin:
+      mpz_set(out, mpz_cmp(b, a) < 0 ? b : a);
+      break;
+    case Op::kMax:
+      mpz_set(out, mpz_cmp(b, a) > 0 ? b : a);
+      break;
+    default:
+      throw std::logic_error("a condition compiled as a value");
+  }
+  check_result_bits(out);
+}
+
+bool IntegerKernel::test(uint32_t id, size_t depth) {
+  const Node& x = nodes_[id];
+  switch (x.op) {
+    case Op::kAnd:
+      return test(x.a, depth) && test(x.b, depth);
+    case Op::kOr:
+      return test(x.a, depth) || test(x.b, depth);
+    case Op::kNot:
+      return !test(x.a, depth);
+    case Op::kEven:
+    case Op::kOdd: {
+      mpz_t view;
+      mpz_srcptr v = operand(x.a, temp(depth), depth + 1, view);
+      return (mpz_even_p(v) != 0) == (x.op == Op::kEven);
+    }
+    default:
+      break;
+  }
+  mpz_t view_a, view_b;
+  mpz_srcptr a = operand(x.a, temp(depth), depth + 1, view_a);
+  mpz_srcptr b = operand(x.b, temp(depth + 1), depth + 2, view_b);
+  int order = mpz_cmp(a, b);
+  switch (x.op) {
+    case Op::kEq:
+      return order == 0;
+    case Op::kNe:
+      return order != 0;
+    case Op::kLt:
+      return order < 0;
+    case Op::kLe:
+      return order <= 0;
+    case Op::kGt:
+      return order > 0;
+    case Op::kGe:
+      return order >= 0;
+    default:
+      throw std::logic_error("a value compiled as a condition");
+  }
+}
+
+const IntegerKernel::Line* IntegerKernel::select(mpz_srcptr n) {
+  current_n_ = n;
+  for (const Line& line : lines_) {
+    if (line.point) {
+      if (mpz_cmp(n, constants_[*line.point].backend().data()) == 0) return &line;
+    } else if (!line.condition || test(*line.condition, 0)) {
+      return &line;
+    }
+  }
+  throw KernelDeclines{};  // no line applies: the general path says so
+}
+
+LimbView IntegerKernel::remember(mpz_srcptr key, mpz_srcptr value, KernelHooks& hooks) {
+  size_t before = memo_.size();
+  LimbView stored = memo_.insert(key, value);
+  if (memo_.size() != before) hooks.remembered(bits_of(key), bits_of(value), memo_.size());
+  return stored;
+}
+
+mpz_srcptr IntegerKernel::key_of(const Frame& f, mpz_srcptr root) const {
+  return f.key == kRoot ? root : args_[f.key]->z;
+}
+
+void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
+  // The same walk as Evaluator::top_down: a frame is expanded once (one
+  // step), its calls' arguments are computed, unknown ones are pushed, and
+  // the body is evaluated when they are all remembered.
+  LimbView result;
+  mpz_t view;
+  if (memo_.find(n, result)) {
+    mpz_set(out, result.as_mpz(view));
+    return;
+  }
+  frames_.clear();
+  known_.clear();
+  size_t arg_count = 0;
+  auto deliver = [&](size_t slot, LimbView value) {
+    if (slot == kRoot)
+      result = value;
+    else
+      known_[slot] = value;
+  };
+  frames_.push_back({kRoot, kRoot, memo_.size()});
+  while (!frames_.empty()) {
+    Frame& frame = frames_.back();
+    mpz_srcptr m = key_of(frame, n);
+    if (frame.line == nullptr) {
+      // Pushed by two parents, a size is evaluated once; unless something was
+      // remembered since it was pushed, the memo still lacks it.
+      LimbView known;
+      if (memo_.size() != frame.memo_size && memo_.find(m, known)) {
+        deliver(frame.parent_slot, known);
+        frames_.pop_back();
+        continue;
+      }
+      hooks.charge_step();
+      frame.line = select(m);
+      frame.first_arg = arg_count;
+      bool base = false;
+      for (uint32_t a : frame.line->args) {
+        mpz_ptr arg = arg_register(arg_count);
+        current_n_ = m;
+        eval(a, arg, 0);
+        if (mpz_sgn(arg) < 0 || mpz_cmp(arg, m) >= 0) {
+          if (!default_base_ || mpz_cmp_ui(m, kDefaultBaseLimit) >= 0) throw KernelDeclines{};
+          deliver(frame.parent_slot, remember(m, one_.z, hooks));
+          base = true;
+          break;
+        }
+        ++arg_count;
+      }
+      if (base) {
+        arg_count = frame.first_arg;
+        frames_.pop_back();
+        continue;
+      }
+      // Read everything from `frame` first: pushing may move the stack.
+      size_t first = frame.first_arg;
+      known_.resize(arg_count);
+      for (size_t i = first; i < arg_count; ++i) {
+        if (!memo_.find(args_[i]->z, known_[i])) known_[i] = LimbView{};
+      }
+      for (size_t i = first; i < arg_count; ++i) {
+        if (known_[i].limbs == nullptr) frames_.push_back({i, i, memo_.size()});
+      }
+      continue;
+    }
+    Frame done = frame;
+    frames_.pop_back();
+    for (size_t i = done.first_arg; i < arg_count; ++i) {
+      if (known_[i].limbs == nullptr && !memo_.find(args_[i]->z, known_[i])) {
+        throw std::logic_error("a finished subproblem is not remembered");
+      }
+    }
+    current_n_ = m;
+    current_slots_ = known_.data() + done.first_arg;
+    eval(done.line->body, value_.z, 0);
+    current_slots_ = nullptr;
+    deliver(done.parent_slot, remember(m, value_.z, hooks));
+    arg_count = done.first_arg;
+    known_.resize(arg_count);
+  }
+  mpz_set(out, result.as_mpz(view));
+}
+
+}  // namespace thetagate

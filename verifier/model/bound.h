@@ -1,0 +1,42 @@
+// Bound text: "Theta(n lg n)", "O(n^2)", "Omega(n)", or an explicit
+// inequality checked exactly: "T(n) <= 2n lg n for n >= 2",
+// "n - 1 <= T(n) <= n^2 for n >= 1", "T(n) = n ceil(lg n) - 2^ceil(lg n) + 1".
+#ifndef THETAGATE_VERIFIER_MODEL_BOUND_H_
+#define THETAGATE_VERIFIER_MODEL_BOUND_H_
+
+#include <string>
+
+#include "verifier/syntax/expr.h"
+#include "verifier/syntax/source.h"
+
+namespace thetagate {
+
+enum class BoundKind { kTheta, kBigO, kOmega, kExplicit };
+
+struct Bound {
+  BoundKind kind = BoundKind::kTheta;
+  SourceText source;
+  ExprPtr growth;  // g for Theta/O/Omega
+
+  // Explicit: lower <= T(n) <= upper for n >= n0 (either side may be null).
+  ExprPtr lower;
+  ExprPtr upper;
+  bool strict_lower = false;  // lower < T(n)
+  bool strict_upper = false;  // T(n) < upper
+  BigInt n0 = 1;
+
+  bool is_asymptotic() const { return kind != BoundKind::kExplicit; }
+  // "Θ(n lg n)"-style text as written by the user (trimmed).
+  std::string text() const;
+};
+
+// Parses bound text. `function` is the recurrence's name (usually "T"); an
+// explicit bound must mention function(n) exactly once per side.
+Bound parse_bound(const SourceText& source, const std::string& function = "T");
+
+// The kind's name as reports print it: "Theta", "O", "Omega", "explicit".
+const char* bound_kind_name(BoundKind kind);
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_VERIFIER_MODEL_BOUND_H_

@@ -1,0 +1,62 @@
+// Claims and claim files: one recurrence + one asserted bound, with a name.
+#ifndef THETAGATE_VERIFIER_MODEL_CLAIM_H_
+#define THETAGATE_VERIFIER_MODEL_CLAIM_H_
+
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "verifier/model/bound.h"
+#include "verifier/model/recurrence.h"
+#include "verifier/syntax/source.h"
+
+namespace thetagate {
+
+// The optional [claim.sizes] table: narrows or widens the search.
+struct SizeOptions {
+  std::optional<uint64_t> max_bits;   // largest size, in bits
+  std::vector<std::string> families;  // names of size families; empty = all
+  std::optional<BigInt> min_n;        // smallest size checked
+  uint64_t effort = 1;                // search work, a multiple of the default (times --effort)
+};
+
+// How a quotient inside T(...) that is not a whole number is read: as its
+// floor (the default), its ceiling, or both (the claim must hold for both).
+enum class Rounding { kFloor, kCeil, kBoth };
+const char* rounding_name(Rounding r);  // "floor", "ceil", "both"
+
+struct Claim {
+  std::string name;
+  Location where;  // the [[claim]] header
+  std::shared_ptr<const Recurrence> recurrence;
+  Bound bound;
+  std::string note;
+  SizeOptions sizes;
+  std::optional<Rounding> rounding;  // the claim's own `rounding` key
+};
+
+// One entry of a claim file: a claim, or the error that stopped it. A claim
+// with an error gets verdict `error`; the others go on.
+struct ClaimEntry {
+  std::string name;  // may be empty when the error is in the name itself
+  Location where;
+  std::optional<Claim> claim;
+  std::optional<Diagnostic> error;
+};
+
+// Reads one TOML claim file. Never throws for bad content: a file that is
+// not valid TOML yields one entry with the error; each malformed claim
+// yields an entry with its error. `display_name` is the path shown in
+// messages.
+std::vector<ClaimEntry> load_claim_file(const std::string& path);
+std::vector<ClaimEntry> load_claim_text(const std::string& text, const std::string& display_name);
+
+// Expands files and folders (folders: every *.toml below, sorted) into the
+// list of claim files, in a stable order. Throws InputError for a path that
+// does not exist.
+std::vector<std::string> find_claim_files(const std::vector<std::string>& paths);
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_VERIFIER_MODEL_CLAIM_H_

@@ -1,0 +1,71 @@
+// The recurrence model: the meaning of the definition lines. Which function
+// recurses, its base cases and case lines, helper functions, and the facts a
+// report must state (default base case, quotients read as floors).
+#ifndef THETAGATE_VERIFIER_MODEL_RECURRENCE_H_
+#define THETAGATE_VERIFIER_MODEL_RECURRENCE_H_
+
+#include <map>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "verifier/syntax/expr.h"
+#include "verifier/syntax/source.h"
+
+namespace thetagate {
+
+struct CaseLine {
+  std::optional<BigInt> point;  // a point case T(1) = 0
+  ExprPtr condition;            // null: no condition
+  ExprPtr body;
+  std::vector<const Expr*> calls;  // recursive calls in body, left to right
+  size_t pos = 0;                  // where the line's function name stands
+};
+
+struct Function {
+  std::string name;
+  std::vector<CaseLine> points;       // tried first
+  std::vector<CaseLine> conditional;  // then these, in the order written
+  std::optional<CaseLine> fallback;   // then the line without a condition
+  size_t pos = 0;
+
+  // The case line that applies at n is found by the evaluator (conditions
+  // may need exact arithmetic); these are the lines in the order tried.
+  std::vector<const CaseLine*> lines_in_order() const;
+};
+
+struct Recurrence {
+  SourceText source;
+  Function main;                            // the recursive function (first defined)
+  std::map<std::string, Function> helpers;  // f(n) = ... ; never recursive
+  // No base case was written: T(n) = 1 wherever the recursive line would
+  // not shrink its argument (docs/design.md §3). Reports state this.
+  bool default_base = false;
+  // Facts for the report, e.g. "inside T(...), n/2 is read as ⌊n/2⌋".
+  std::vector<std::string> notes;
+
+  // The text as the user wrote it (one line per definition).
+  std::string text() const { return source.text; }
+};
+
+// Parses and checks a recurrence. Throws InputError naming the offending
+// line and column: unknown functions, helpers that recurse or call the main
+// function, T inside T's argument, two default lines, duplicate points.
+std::shared_ptr<const Recurrence> build_recurrence(const SourceText& source);
+
+// True when some call of the recursive function has a quotient that is not
+// rounded explicitly (T(n/2), not T(floor(n/2))): the reading matters.
+bool has_unrounded_calls(const Recurrence& r);
+
+// The same recurrence with every such quotient read as its ceiling:
+// T(n/2) becomes T(ceil(n/2)). Explicit floors and ceilings stay.
+std::shared_ptr<const Recurrence> read_quotients_as_ceilings(const Recurrence& r);
+
+// A recurrence written on the command line: ';' separates lines.
+std::shared_ptr<const Recurrence> recurrence_from_text(const std::string& text,
+                                                       const std::string& origin = "<recurrence>");
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_VERIFIER_MODEL_RECURRENCE_H_

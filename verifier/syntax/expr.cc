@@ -1,0 +1,254 @@
+#include "verifier/syntax/expr.h"
+
+#include <cstdint>
+#include <map>
+
+namespace thetagate {
+
+ExprPtr make_number(Rational value, size_t pos) {
+  auto e = std::make_shared<Expr>();
+  e->kind = ExprKind::kNumber;
+  e->number = std::move(value);
+  if (denominator(e->number) == 1 && numerator(e->number) >= INT64_MIN + 1 &&
+      numerator(e->number) <= INT64_MAX) {
+    e->has_small = true;
+    e->small = static_cast<int64_t>(numerator(e->number));
+  }
+  e->pos = pos;
+  return e;
+}
+
+ExprPtr make_variable(size_t pos) {
+  auto e = std::make_shared<Expr>();
+  e->kind = ExprKind::kVariable;
+  e->name = "n";
+  e->pos = pos;
+  return e;
+}
+
+ExprPtr make_unary(ExprKind kind, ExprPtr a, size_t pos) {
+  auto e = std::make_shared<Expr>();
+  e->kind = kind;
+  e->args = {std::move(a)};
+  e->pos = pos;
+  return e;
+}
+
+ExprPtr make_binary(ExprKind kind, ExprPtr a, ExprPtr b, size_t pos) {
+  auto e = std::make_shared<Expr>();
+  e->kind = kind;
+  e->args = {std::move(a), std::move(b)};
+  e->pos = pos;
+  return e;
+}
+
+ExprPtr make_call(std::string name, std::vector<ExprPtr> args, size_t pos) {
+  auto e = std::make_shared<Expr>();
+  e->kind = ExprKind::kCall;
+  e->name = std::move(name);
+  e->args = std::move(args);
+  e->pos = pos;
+  return e;
+}
+
+bool same_tree(const Expr& a, const Expr& b) {
+  if (a.kind != b.kind || a.args.size() != b.args.size()) return false;
+  if (a.kind == ExprKind::kNumber && a.number != b.number) return false;
+  if ((a.kind == ExprKind::kCall || a.kind == ExprKind::kVariable) && a.name != b.name)
+    return false;
+  for (size_t i = 0; i < a.args.size(); ++i) {
+    if (!same_tree(*a.args[i], *b.args[i])) return false;
+  }
+  return true;
+}
+
+namespace {
+
+const std::map<std::string, int>& builtins() {
+  static const std::map<std::string, int> table = {
+      {"floor", 1}, {"ceil", 1}, {"lg", 1},   {"ln", 1},   {"log2", 1},
+      {"sqrt", 1},  {"log", 2},  {"min", -1}, {"max", -1}, {"mod", 2},
+  };
+  return table;
+}
+
+// Binding strength, loosest first; the parser uses the same ladder.
+enum Level {
+  kOrLevel = 1,
+  kAndLevel,
+  kNotLevel,
+  kCompareLevel,
+  kSumLevel,
+  kProductLevel,
+  kUnaryLevel,
+  kPowerLevel,
+  kAtomLevel
+};
+
+int level_of(const Expr& e) {
+  switch (e.kind) {
+    case ExprKind::kOr:
+      return kOrLevel;
+    case ExprKind::kAnd:
+      return kAndLevel;
+    case ExprKind::kNot:
+      return kNotLevel;
+    case ExprKind::kEq:
+    case ExprKind::kNe:
+    case ExprKind::kLt:
+    case ExprKind::kLe:
+    case ExprKind::kGt:
+    case ExprKind::kGe:
+    case ExprKind::kEven:
+    case ExprKind::kOdd:
+      return kCompareLevel;
+    case ExprKind::kAdd:
+    case ExprKind::kSub:
+      return kSumLevel;
+    case ExprKind::kMul:
+    case ExprKind::kDiv:
+      return kProductLevel;
+    case ExprKind::kCall:
+      return e.name == "mod" ? kProductLevel : kAtomLevel;
+    case ExprKind::kNeg:
+      return kUnaryLevel;
+    case ExprKind::kPow:
+      return kPowerLevel;
+    case ExprKind::kNumber:
+      return e.number < 0 ? kUnaryLevel : (denominator(e.number) == 1 ? kAtomLevel : kAtomLevel);
+    case ExprKind::kVariable:
+      return kAtomLevel;
+  }
+  return kAtomLevel;
+}
+
+std::string number_text(const Rational& q) {
+  BigInt num = numerator(q);
+  BigInt den = denominator(q);
+  if (den == 1) return num.str();
+  // Terminating decimals print as decimals so they parse back to one literal.
+  BigInt d = den;
+  unsigned twos = 0, fives = 0;
+  while (d % 2 == 0) {
+    d /= 2;
+    ++twos;
+  }
+  while (d % 5 == 0) {
+    d /= 5;
+    ++fives;
+  }
+  if (d == 1) {
+    unsigned digits = std::max(twos, fives);
+    BigInt scale = 1;
+    for (unsigned i = 0; i < digits; ++i) scale *= 10;
+    BigInt scaled = num * (scale / den);
+    bool negative = scaled < 0;
+    std::string s = (negative ? BigInt(-scaled) : scaled).str();
+    if (s.size() <= digits) s = std::string(digits + 1 - s.size(), '0') + s;
+    s.insert(s.size() - digits, ".");
+    return (negative ? "-" : "") + s;
+  }
+  return "(" + num.str() + "/" + den.str() + ")";
+}
+
+std::string wrap(const Expr& e, int min_level) {
+  std::string s = print(e);
+  return level_of(e) < min_level ? "(" + s + ")" : s;
+}
+
+const char* compare_text(ExprKind k) {
+  switch (k) {
+    case ExprKind::kEq:
+      return " == ";
+    case ExprKind::kNe:
+      return " != ";
+    case ExprKind::kLt:
+      return " < ";
+    case ExprKind::kLe:
+      return " <= ";
+    case ExprKind::kGt:
+      return " > ";
+    default:
+      return " >= ";
+  }
+}
+
+}  // namespace
+
+bool is_builtin(const std::string& name) { return builtins().count(name) != 0; }
+
+int builtin_arity(const std::string& name) {
+  auto it = builtins().find(name);
+  return it == builtins().end() ? 0 : it->second;
+}
+
+std::string print(const Expr& e) {
+  switch (e.kind) {
+    case ExprKind::kNumber:
+      return number_text(e.number);
+    case ExprKind::kVariable:
+      return "n";
+    case ExprKind::kAdd:
+      return wrap(*e.args[0], kSumLevel) + " + " + wrap(*e.args[1], kProductLevel);
+    case ExprKind::kSub:
+      return wrap(*e.args[0], kSumLevel) + " - " + wrap(*e.args[1], kProductLevel);
+    case ExprKind::kMul: {
+      const Expr& a = *e.args[0];
+      const Expr& b = *e.args[1];
+      // "2T(n/2)", "3n": a plain integer before a name reads naturally.
+      bool juxtapose =
+          a.kind == ExprKind::kNumber && a.number > 0 && denominator(a.number) == 1 &&
+          (b.kind == ExprKind::kVariable || (b.kind == ExprKind::kCall && b.name != "mod"));
+      if (juxtapose) return print(a) + print(b);
+      return wrap(a, kProductLevel) + "*" + wrap(b, kUnaryLevel);
+    }
+    case ExprKind::kDiv:
+      return wrap(*e.args[0], kProductLevel) + "/" + wrap(*e.args[1], kUnaryLevel);
+    case ExprKind::kPow:
+      return wrap(*e.args[0], kAtomLevel) + "^" + wrap(*e.args[1], kPowerLevel);
+    case ExprKind::kNeg:
+      return "-" + wrap(*e.args[0], kPowerLevel);
+    case ExprKind::kCall: {
+      if (e.name == "mod" && e.args.size() == 2) {
+        return wrap(*e.args[0], kProductLevel) + " mod " + wrap(*e.args[1], kUnaryLevel);
+      }
+      std::string s = e.name + "(";
+      for (size_t i = 0; i < e.args.size(); ++i) s += (i ? ", " : "") + print(*e.args[i]);
+      return s + ")";
+    }
+    case ExprKind::kEq:
+    case ExprKind::kNe:
+    case ExprKind::kLt:
+    case ExprKind::kLe:
+    case ExprKind::kGt:
+    case ExprKind::kGe:
+      return wrap(*e.args[0], kSumLevel) + compare_text(e.kind) + wrap(*e.args[1], kSumLevel);
+    case ExprKind::kEven:
+      return wrap(*e.args[0], kSumLevel) + " even";
+    case ExprKind::kOdd:
+      return wrap(*e.args[0], kSumLevel) + " odd";
+    case ExprKind::kNot:
+      return "not " + wrap(*e.args[0], kNotLevel);
+    case ExprKind::kAnd:
+      return wrap(*e.args[0], kAndLevel) + " and " + wrap(*e.args[1], kNotLevel);
+    case ExprKind::kOr:
+      return wrap(*e.args[0], kOrLevel) + " or " + wrap(*e.args[1], kAndLevel);
+  }
+  return "?";
+}
+
+void collect_calls(const ExprPtr& e, const std::string& function, std::vector<const Expr*>& out) {
+  if (!e) return;
+  for (const auto& a : e->args) collect_calls(a, function, out);
+  if (e->kind == ExprKind::kCall && e->name == function) out.push_back(e.get());
+}
+
+bool mentions_n(const Expr& e) {
+  if (e.kind == ExprKind::kVariable) return true;
+  for (const auto& a : e.args) {
+    if (mentions_n(*a)) return true;
+  }
+  return false;
+}
+
+}  // namespace thetagate

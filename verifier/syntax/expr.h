@@ -1,0 +1,78 @@
+// The syntax tree of the expression language: driving functions, call
+// arguments, conditions and bounds all share it.
+#ifndef THETAGATE_VERIFIER_SYNTAX_EXPR_H_
+#define THETAGATE_VERIFIER_SYNTAX_EXPR_H_
+
+#include <cstddef>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "verifier/numbers/number.h"
+
+namespace thetagate {
+
+enum class ExprKind {
+  kNumber,    // an exact literal (integer or terminating decimal)
+  kVariable,  // the size n
+  kAdd,
+  kSub,
+  kMul,
+  kDiv,
+  kPow,
+  kNeg,
+  kCall,  // builtin (floor, lg, ...), helper function, or the recurrence
+  // Conditions.
+  kEq,
+  kNe,
+  kLt,
+  kLe,
+  kGt,
+  kGe,
+  kAnd,
+  kOr,
+  kNot,
+  kEven,
+  kOdd,  // "x even", "x odd"
+};
+
+struct Expr;
+using ExprPtr = std::shared_ptr<const Expr>;
+
+struct Expr {
+  ExprKind kind = ExprKind::kNumber;
+  Rational number;         // kNumber
+  bool has_small = false;  // kNumber: the value fits in int64 (fast path)
+  int64_t small = 0;
+  std::string name;           // kVariable: "n"; kCall: the function name
+  std::vector<ExprPtr> args;  // operands, or call arguments
+  size_t pos = 0;             // byte offset in its SourceText
+
+  bool is_condition() const { return kind >= ExprKind::kEq; }
+};
+
+// Builders (pos defaults to 0 for synthesized trees).
+ExprPtr make_number(Rational value, size_t pos = 0);
+ExprPtr make_variable(size_t pos = 0);
+ExprPtr make_unary(ExprKind kind, ExprPtr a, size_t pos = 0);
+ExprPtr make_binary(ExprKind kind, ExprPtr a, ExprPtr b, size_t pos = 0);
+ExprPtr make_call(std::string name, std::vector<ExprPtr> args, size_t pos = 0);
+
+// Structural equality, ignoring positions.
+bool same_tree(const Expr& a, const Expr& b);
+
+// Canonical text that parses back to the same tree: "2T(n/2) + n*lg(n)".
+std::string print(const Expr& e);
+
+// Builtin functions and their arities (-1: two or more).
+bool is_builtin(const std::string& name);
+int builtin_arity(const std::string& name);
+
+// Calls to `function` anywhere in `e`, in evaluation (left-to-right) order.
+void collect_calls(const ExprPtr& e, const std::string& function, std::vector<const Expr*>& out);
+// True if `e` mentions the variable n.
+bool mentions_n(const Expr& e);
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_VERIFIER_SYNTAX_EXPR_H_

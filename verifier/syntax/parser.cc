@@ -1,0 +1,404 @@
+#include "verifier/syntax/parser.h"
+
+#include <set>
+
+namespace thetagate {
+
+namespace {
+
+const std::set<std::string>& keywords() {
+  static const std::set<std::string> words = {"if",  "otherwise", "and", "or", "not", "even",
+                                              "odd", "mod",       "for", "is", "all", "when"};
+  return words;
+}
+
+bool is_prefix_function(const std::string& name) {
+  return name == "lg" || name == "ln" || name == "log2" || name == "sqrt" || name == "log";
+}
+
+}  // namespace
+
+BigInt decimal_integer(const std::string& digits) {
+  // Always base 10: GMP would read a leading 0 as octal.
+  BigInt value;
+  mpz_set_str(value.backend().data(), digits.c_str(), 10);
+  return value;
+}
+
+namespace {
+
+Rational literal_value(const std::string& text) {
+  size_t dot = text.find('.');
+  if (dot == std::string::npos) return Rational(decimal_integer(text));
+  std::string digits = text.substr(0, dot) + text.substr(dot + 1);
+  BigInt scale = 1;
+  for (size_t i = dot + 1; i < text.size(); ++i) scale *= 10;
+  return Rational(decimal_integer(digits), scale);
+}
+
+ExprKind comparison_kind(TokenKind t) {
+  switch (t) {
+    case TokenKind::kEqual:
+    case TokenKind::kAssign:
+      return ExprKind::kEq;
+    case TokenKind::kNotEqual:
+      return ExprKind::kNe;
+    case TokenKind::kLess:
+      return ExprKind::kLt;
+    case TokenKind::kLessEqual:
+      return ExprKind::kLe;
+    case TokenKind::kGreater:
+      return ExprKind::kGt;
+    default:
+      return ExprKind::kGe;
+  }
+}
+
+bool is_comparison(TokenKind t) {
+  return t == TokenKind::kEqual || t == TokenKind::kAssign || t == TokenKind::kNotEqual ||
+         t == TokenKind::kLess || t == TokenKind::kLessEqual || t == TokenKind::kGreater ||
+         t == TokenKind::kGreaterEqual;
+}
+
+}  // namespace
+
+bool is_keyword(const std::string& word) { return keywords().count(word) != 0; }
+
+class Parser::Nesting {
+ public:
+  explicit Nesting(Parser& p) : parser_(p) {
+    if (++parser_.depth_ > kMaxDepth) {
+      parser_.fail(parser_.peek(), "the expression is nested too deeply",
+                   "more than " + std::to_string(kMaxDepth) + " levels of nesting; simplify it");
+    }
+  }
+  ~Nesting() { --parser_.depth_; }
+
+ private:
+  static constexpr int kMaxDepth = 400;
+  Parser& parser_;
+};
+
+Parser::Parser(const SourceText& source) : source_(source), tokens_(tokenize(source_)) {}
+
+const Token& Parser::peek(size_t ahead) const {
+  size_t i = std::min(cursor_ + ahead, tokens_.size() - 1);
+  return tokens_[i];
+}
+
+const Token& Parser::next() {
+  const Token& t = tokens_[cursor_];
+  if (cursor_ + 1 < tokens_.size()) ++cursor_;
+  return t;
+}
+
+const Token& Parser::previous() const { return tokens_[cursor_ == 0 ? 0 : cursor_ - 1]; }
+
+bool Parser::at_name(const char* name) const { return at(TokenKind::kName) && peek().text == name; }
+
+bool Parser::accept(TokenKind kind) {
+  if (!at(kind)) return false;
+  next();
+  return true;
+}
+
+bool Parser::accept_name(const char* name) {
+  if (!at_name(name)) return false;
+  next();
+  return true;
+}
+
+const Token& Parser::expect(TokenKind kind, const std::string& what, const std::string& hint) {
+  if (!at(kind)) fail_expected(what, hint);
+  return next();
+}
+
+void Parser::fail(const Token& at, std::string message, std::string hint) const {
+  fail_at(source_, at.pos, std::move(message), std::move(hint));
+}
+
+void Parser::fail_expected(const std::string& what, const std::string& hint) const {
+  std::string message = "expected " + what;
+  if (cursor_ > 0) message += " after " + describe(previous());
+  message += ", found " + describe(peek());
+  fail(peek(), message, hint);
+}
+
+ExprPtr Parser::parse_any() { return parse_or(); }
+
+ExprPtr Parser::parse_value() {
+  const Token& start = peek();
+  ExprPtr e = parse_or();
+  if (e->is_condition()) {
+    fail(start, "a condition stands where a number is expected",
+         "conditions go after 'if': T(n) = 1 if n <= 1");
+  }
+  return e;
+}
+
+ExprPtr Parser::parse_condition() {
+  const Token& start = peek();
+  ExprPtr e = parse_or();
+  if (!e->is_condition()) {
+    fail(start, "expected a condition, found the value '" + print(*e) + "'",
+         "conditions look like 'n even', 'n odd', 'n mod 3 == 1', 'n <= 4'");
+  }
+  return e;
+}
+
+ExprPtr Parser::parse_sum() {
+  ExprPtr left = parse_product();
+  while (at(TokenKind::kPlus) || at(TokenKind::kMinus)) {
+    const Token& op = next();
+    ExprPtr right = parse_product();
+    left = make_binary(op.kind == TokenKind::kPlus ? ExprKind::kAdd : ExprKind::kSub, left, right,
+                       op.pos);
+  }
+  return left;
+}
+
+ExprPtr Parser::parse_or() {
+  Nesting guard(*this);
+  ExprPtr left = parse_and();
+  while (at_name("or")) {
+    const Token& op = next();
+    left = make_binary(ExprKind::kOr, left, parse_and(), op.pos);
+  }
+  return left;
+}
+
+ExprPtr Parser::parse_and() {
+  ExprPtr left = parse_not();
+  while (at_name("and")) {
+    const Token& op = next();
+    left = make_binary(ExprKind::kAnd, left, parse_not(), op.pos);
+  }
+  return left;
+}
+
+ExprPtr Parser::parse_not() {
+  Nesting guard(*this);
+  if (at_name("not")) {
+    const Token& op = next();
+    return make_unary(ExprKind::kNot, parse_not(), op.pos);
+  }
+  return parse_comparison();
+}
+
+ExprPtr Parser::parse_comparison() {
+  ExprPtr left = parse_sum();
+  if (is_comparison(peek().kind)) {
+    const Token& op = next();
+    ExprPtr right = parse_sum();
+    if (is_comparison(peek().kind)) {
+      fail(peek(), "comparisons do not chain here", "join them with 'and': 1 <= n and n <= 5");
+    }
+    return make_binary(comparison_kind(op.kind), left, right, op.pos);
+  }
+  if (at_name("is") && (peek(1).text == "even" || peek(1).text == "odd")) next();
+  if (at_name("even") || at_name("odd")) {
+    const Token& op = next();
+    return make_unary(op.text == "even" ? ExprKind::kEven : ExprKind::kOdd, left, op.pos);
+  }
+  return left;
+}
+
+ExprPtr Parser::parse_product() {
+  ExprPtr left = parse_unary();
+  while (at(TokenKind::kStar) || at(TokenKind::kSlash) || at_name("mod")) {
+    const Token& op = next();
+    ExprPtr right = parse_unary();
+    if (op.kind == TokenKind::kStar)
+      left = make_binary(ExprKind::kMul, left, right, op.pos);
+    else if (op.kind == TokenKind::kSlash)
+      left = make_binary(ExprKind::kDiv, left, right, op.pos);
+    else
+      left = make_call("mod", {left, right}, op.pos);
+  }
+  return left;
+}
+
+ExprPtr Parser::parse_unary() {
+  Nesting guard(*this);
+  if (at(TokenKind::kMinus)) {
+    const Token& op = next();
+    return make_unary(ExprKind::kNeg, parse_unary(), op.pos);
+  }
+  if (at(TokenKind::kPlus)) {
+    next();
+    return parse_unary();
+  }
+  return parse_juxtaposition();
+}
+
+bool Parser::starts_atom(const Token& t) const {
+  switch (t.kind) {
+    case TokenKind::kName:
+      return !is_keyword(t.text);
+    case TokenKind::kLeftParen:
+    case TokenKind::kLeftFloor:
+    case TokenKind::kLeftCeil:
+    case TokenKind::kSqrt:
+      return true;
+    default:
+      return false;
+  }
+}
+
+ExprPtr Parser::parse_juxtaposition() {
+  ExprPtr left = parse_power();
+  while (starts_atom(peek())) {
+    size_t pos = peek().pos;
+    left = make_binary(ExprKind::kMul, left, parse_power(), pos);
+  }
+  if (at(TokenKind::kNumber)) {
+    fail(peek(), "a number directly after a factor",
+         "write the coefficient first (3n, not n3) or use '*' between factors");
+  }
+  return left;
+}
+
+ExprPtr Parser::parse_power() {
+  Nesting guard(*this);
+  ExprPtr base = parse_atom();
+  if (at(TokenKind::kCaret)) {
+    const Token& op = next();
+    return make_binary(ExprKind::kPow, base, parse_exponent(), op.pos);
+  }
+  return base;
+}
+
+ExprPtr Parser::parse_exponent() {
+  Nesting guard(*this);
+  if (at(TokenKind::kMinus)) {
+    const Token& op = next();
+    return make_unary(ExprKind::kNeg, parse_exponent(), op.pos);
+  }
+  return parse_power();
+}
+
+ExprPtr Parser::parse_atom() {
+  const Token& t = peek();
+  switch (t.kind) {
+    case TokenKind::kNumber:
+      next();
+      return make_number(literal_value(t.text), t.pos);
+    case TokenKind::kLeftParen: {
+      next();
+      ExprPtr inner = parse_any();
+      expect(TokenKind::kRightParen, "')'", "every '(' needs a matching ')'");
+      return inner;
+    }
+    case TokenKind::kLeftFloor: {
+      next();
+      ExprPtr inner = parse_value();
+      expect(TokenKind::kRightFloor, "'⌋'", "close ⌊ with ⌋");
+      return make_call("floor", {inner}, t.pos);
+    }
+    case TokenKind::kLeftCeil: {
+      next();
+      ExprPtr inner = parse_value();
+      expect(TokenKind::kRightCeil, "'⌉'", "close ⌈ with ⌉");
+      return make_call("ceil", {inner}, t.pos);
+    }
+    case TokenKind::kSqrt:
+      return parse_prefix_function(t);
+    case TokenKind::kName:
+      if (t.text == "mod" && peek(1).kind == TokenKind::kLeftParen) {
+        next();  // mod(a, b): the call form of the infix operator
+        return make_call("mod", parse_arguments(t), t.pos);
+      }
+      if (is_keyword(t.text)) {
+        fail(t, "expected a number, 'n' or a function, found the keyword '" + t.text + "'");
+      }
+      next();
+      return parse_name(t);
+    default:
+      fail_expected("a number, 'n', a function or '('",
+                    t.kind == TokenKind::kEnd || t.kind == TokenKind::kNewline
+                        ? "the expression stops too early"
+                        : "");
+  }
+}
+
+ExprPtr Parser::parse_name(const Token& name) {
+  if (name.text == "n") return make_variable(name.pos);
+  if (is_prefix_function(name.text)) return parse_prefix_function(name);
+  if (at(TokenKind::kLeftParen)) {
+    return make_call(name.text, parse_arguments(name), name.pos);
+  }
+  std::string hint = "the size is written 'n'; functions take parentheses: f(n)";
+  if (name.text.size() > 1 && name.text[0] == 'n') {
+    hint = "separate factors with spaces or '*': n lg n, n*n";
+  } else if (name.text == "Theta" || name.text == "O" || name.text == "Omega") {
+    hint = "asymptotic classes belong in 'bound', not in an expression";
+  }
+  fail(name, "unknown name '" + name.text + "'", hint);
+}
+
+std::vector<ExprPtr> Parser::parse_arguments(const Token& name) {
+  expect(TokenKind::kLeftParen, "'('");
+  std::vector<ExprPtr> args;
+  if (!at(TokenKind::kRightParen)) {
+    do {
+      args.push_back(parse_value());
+    } while (accept(TokenKind::kComma));
+  }
+  expect(TokenKind::kRightParen, "')'", "close the argument list of '" + name.text + "' with ')'");
+  int arity = builtin_arity(name.text);
+  if (arity > 0 && static_cast<int>(args.size()) != arity) {
+    std::string hint = name.text == "log"
+                           ? "log takes a base and a value: log(3, n); lg n is base 2"
+                           : name.text + " takes " + std::to_string(arity) +
+                                 (arity == 1 ? " argument" : " arguments");
+    fail(name,
+         "'" + name.text + "' given " + std::to_string(args.size()) + " argument" +
+             (args.size() == 1 ? "" : "s"),
+         hint);
+  }
+  if (arity < 0 && args.size() < 2) {
+    fail(name, "'" + name.text + "' needs at least two arguments", name.text + "(a, b)");
+  }
+  return args;
+}
+
+// lg n, lg^2 n, lg lg n, sqrt n, √n, and lg(n) as an ordinary call.
+ExprPtr Parser::parse_prefix_function(const Token& name) {
+  std::string function = name.kind == TokenKind::kSqrt ? "sqrt" : name.text;
+  if (name.kind == TokenKind::kSqrt) next();
+  ExprPtr exponent;
+  if (at(TokenKind::kCaret) && function != "sqrt") {
+    next();
+    exponent = parse_atom();
+  }
+  ExprPtr result;
+  if (at(TokenKind::kLeftParen) && name.kind != TokenKind::kSqrt) {
+    Token call_name = name;
+    call_name.text = function;
+    result = make_call(function, parse_arguments(call_name), name.pos);
+  } else {
+    if (function == "log") {
+      fail(name, "'log' needs its base", "write lg n (base 2), ln n (base e) or log(b, n)");
+    }
+    if (!starts_atom(peek()) && !at(TokenKind::kNumber)) {
+      fail_expected("the argument of '" + function + "'", "for example " + function + " n");
+    }
+    result = make_call(function, {parse_power()}, name.pos);
+  }
+  if (exponent) result = make_binary(ExprKind::kPow, result, exponent, name.pos);
+  return result;
+}
+
+ExprPtr parse_expression(const SourceText& source) {
+  Parser p(source);
+  while (p.accept(TokenKind::kNewline)) {
+  }
+  if (p.at(TokenKind::kEnd)) p.fail(p.peek(), "the expression is empty");
+  ExprPtr e = p.parse_value();
+  while (p.accept(TokenKind::kNewline)) {
+  }
+  if (!p.at(TokenKind::kEnd)) p.fail_expected("the end of the expression");
+  return e;
+}
+
+}  // namespace thetagate

@@ -1,0 +1,86 @@
+// The expression grammar: tokens -> syntax tree. The recurrence and bound
+// grammars (definitions.h, bound.h) build on this cursor.
+//
+// Binding, loosest first: or, and, not, comparisons and "x even"/"x odd",
+// + -, * / mod, unary minus, juxtaposition (2T(n/2), n lg n), ^ (right
+// associative), atoms. "lg n", "lg^2 n", "sqrt n", "√n" apply a function to
+// the power-level operand that follows; "lg(n)" with parentheses is a call.
+#ifndef THETAGATE_VERIFIER_SYNTAX_PARSER_H_
+#define THETAGATE_VERIFIER_SYNTAX_PARSER_H_
+
+#include <string>
+#include <vector>
+
+#include "verifier/syntax/expr.h"
+#include "verifier/syntax/lexer.h"
+#include "verifier/syntax/source.h"
+
+namespace thetagate {
+
+class Parser {
+ public:
+  explicit Parser(const SourceText& source);
+
+  const SourceText& source() const { return source_; }
+  const Token& peek(size_t ahead = 0) const;
+  const Token& next();
+  bool at(TokenKind kind) const { return peek().kind == kind; }
+  bool at_name(const char* name) const;
+  bool accept(TokenKind kind);
+  bool accept_name(const char* name);
+  // Consumes a token of `kind` or fails with "expected WHAT after ...".
+  const Token& expect(TokenKind kind, const std::string& what, const std::string& hint = "");
+  bool at_line_end() const { return at(TokenKind::kNewline) || at(TokenKind::kEnd); }
+  // The position just after the previous token, for "expected X after Y".
+  const Token& previous() const;
+
+  // Any expression, condition or value (the loosest level).
+  ExprPtr parse_any();
+  // A value expression; a condition here is an error.
+  ExprPtr parse_value();
+  // A condition; a plain value here is an error.
+  ExprPtr parse_condition();
+  // An additive-level value (no comparisons), for bound sides.
+  ExprPtr parse_sum();
+
+  [[noreturn]] void fail(const Token& at, std::string message, std::string hint = "") const;
+  [[noreturn]] void fail_expected(const std::string& what, const std::string& hint = "") const;
+
+ private:
+  ExprPtr parse_or();
+  ExprPtr parse_and();
+  ExprPtr parse_not();
+  ExprPtr parse_comparison();
+  ExprPtr parse_product();
+  ExprPtr parse_unary();
+  ExprPtr parse_juxtaposition();
+  ExprPtr parse_power();
+  ExprPtr parse_exponent();
+  ExprPtr parse_atom();
+  ExprPtr parse_name(const Token& name);
+  ExprPtr parse_prefix_function(const Token& name);
+  std::vector<ExprPtr> parse_arguments(const Token& name);
+  bool starts_atom(const Token& t) const;
+
+  // Nesting guard: parsing recurses, so depth is bounded (an input of
+  // 100,000 '(' is an error, not a stack overflow).
+  class Nesting;
+  SourceText source_;
+  std::vector<Token> tokens_;
+  size_t cursor_ = 0;
+  int depth_ = 0;
+};
+
+// Words that end an expression and are never names: if, otherwise, and, or,
+// not, even, odd, mod, for, is.
+bool is_keyword(const std::string& word);
+
+// A string of decimal digits as an integer (never octal: "010" is 10).
+BigInt decimal_integer(const std::string& digits);
+
+// Parses the whole of `source` as one value expression ("2^4096 + 7").
+ExprPtr parse_expression(const SourceText& source);
+
+}  // namespace thetagate
+
+#endif  // THETAGATE_VERIFIER_SYNTAX_PARSER_H_
