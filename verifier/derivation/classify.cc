@@ -266,6 +266,7 @@ ExprPtr substitute(const ExprPtr& e, const ExprPtr& argument) {
   if (e->args.empty()) return e;
   auto copy = std::make_shared<Expr>(*e);
   for (auto& a : copy->args) a = substitute(a, argument);
+  update_depth(*copy);
   return copy;
 }
 

@@ -1,5 +1,6 @@
 #include "verifier/syntax/expr.h"
 
+#include <algorithm>
 #include <cstdint>
 #include <map>
 
@@ -31,6 +32,7 @@ ExprPtr make_unary(ExprKind kind, ExprPtr a, size_t pos) {
   e->kind = kind;
   e->args = {std::move(a)};
   e->pos = pos;
+  update_depth(*e);
   return e;
 }
 
@@ -39,6 +41,7 @@ ExprPtr make_binary(ExprKind kind, ExprPtr a, ExprPtr b, size_t pos) {
   e->kind = kind;
   e->args = {std::move(a), std::move(b)};
   e->pos = pos;
+  update_depth(*e);
   return e;
 }
 
@@ -48,7 +51,14 @@ ExprPtr make_call(std::string name, std::vector<ExprPtr> args, size_t pos) {
   e->name = std::move(name);
   e->args = std::move(args);
   e->pos = pos;
+  update_depth(*e);
   return e;
+}
+
+void update_depth(Expr& e) {
+  size_t deepest = 0;
+  for (const ExprPtr& a : e.args) deepest = std::max(deepest, a->depth);
+  e.depth = deepest + 1;
 }
 
 bool same_tree(const Expr& a, const Expr& b) {
@@ -127,20 +137,20 @@ std::string number_text(const Rational& q) {
   BigInt den = denominator(q);
   if (den == 1) return num.str();
   // Terminating decimals print as decimals so they parse back to one literal.
+  // GMP counts the factors 2 and 5 at once (dividing one factor at a time
+  // is quadratic in the length of a long literal).
   BigInt d = den;
-  unsigned twos = 0, fives = 0;
-  while (d % 2 == 0) {
-    d /= 2;
-    ++twos;
-  }
-  while (d % 5 == 0) {
-    d /= 5;
-    ++fives;
-  }
+  mpz_ptr dz = d.backend().data();
+  unsigned long twos = mpz_scan1(dz, 0);
+  mpz_fdiv_q_2exp(dz, dz, twos);
+  mpz_t five;
+  mpz_init_set_ui(five, 5);
+  unsigned long fives = mpz_remove(dz, dz, five);
+  mpz_clear(five);
   if (d == 1) {
-    unsigned digits = std::max(twos, fives);
-    BigInt scale = 1;
-    for (unsigned i = 0; i < digits; ++i) scale *= 10;
+    unsigned long digits = std::max(twos, fives);
+    BigInt scale;
+    mpz_ui_pow_ui(scale.backend().data(), 10, digits);
     BigInt scaled = num * (scale / den);
     bool negative = scaled < 0;
     std::string s = (negative ? BigInt(-scaled) : scaled).str();

@@ -47,9 +47,19 @@ struct Expr {
   std::string name;           // kVariable: "n"; kCall: the function name
   std::vector<ExprPtr> args;  // operands, or call arguments
   size_t pos = 0;             // byte offset in its SourceText
+  // Levels of the tree below and including this node (a leaf is 1). The
+  // builders keep it; every walker may recurse to this depth, so the parser
+  // refuses trees deeper than kMaxTreeDepth whatever their shape.
+  size_t depth = 1;
 
   bool is_condition() const { return kind >= ExprKind::kEq; }
 };
+
+// The deepest tree any input may build: a flat chain "n + n + ... + n" of
+// k terms is k levels deep, like k nested parentheses. Tree walks recurse,
+// so this bounds their stack use (a few hundred KiB even under
+// AddressSanitizer).
+inline constexpr size_t kMaxTreeDepth = 1000;
 
 // Builders (pos defaults to 0 for synthesized trees).
 ExprPtr make_number(Rational value, size_t pos = 0);
@@ -57,6 +67,9 @@ ExprPtr make_variable(size_t pos = 0);
 ExprPtr make_unary(ExprKind kind, ExprPtr a, size_t pos = 0);
 ExprPtr make_binary(ExprKind kind, ExprPtr a, ExprPtr b, size_t pos = 0);
 ExprPtr make_call(std::string name, std::vector<ExprPtr> args, size_t pos = 0);
+
+// 1 + the deepest of `e`'s operands: call after replacing operands of a copy.
+void update_depth(Expr& e);
 
 // Structural equality, ignoring positions.
 bool same_tree(const Expr& a, const Expr& b);

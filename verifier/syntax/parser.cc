@@ -6,6 +6,9 @@ namespace thetagate {
 
 namespace {
 
+// 2^65536, the largest size, has 19,729 digits.
+constexpr size_t kMaxLiteralDigits = 100000;
+
 const std::set<std::string>& keywords() {
   static const std::set<std::string> words = {"if",  "otherwise", "and", "or", "not", "even",
                                               "odd", "mod",       "for", "is", "all", "when"};
@@ -31,8 +34,8 @@ Rational literal_value(const std::string& text) {
   size_t dot = text.find('.');
   if (dot == std::string::npos) return Rational(decimal_integer(text));
   std::string digits = text.substr(0, dot) + text.substr(dot + 1);
-  BigInt scale = 1;
-  for (size_t i = dot + 1; i < text.size(); ++i) scale *= 10;
+  BigInt scale;  // 10^(digits after the point), by GMP, not digit by digit
+  mpz_ui_pow_ui(scale.backend().data(), 10, text.size() - dot - 1);
   return Rational(decimal_integer(digits), scale);
 }
 
@@ -63,6 +66,16 @@ bool is_comparison(TokenKind t) {
 }  // namespace
 
 bool is_keyword(const std::string& word) { return keywords().count(word) != 0; }
+
+ExprPtr Parser::bounded(ExprPtr e) const {
+  if (e->depth > kMaxTreeDepth) {
+    fail_at(source_, e->pos, "the expression is nested too deeply",
+            "more than " + std::to_string(kMaxTreeDepth) +
+                " levels: a chain of terms counts one level per operator, like parentheses; "
+                "split it with a helper function or simplify it");
+  }
+  return e;
+}
 
 class Parser::Nesting {
  public:
@@ -151,8 +164,8 @@ ExprPtr Parser::parse_sum() {
   while (at(TokenKind::kPlus) || at(TokenKind::kMinus)) {
     const Token& op = next();
     ExprPtr right = parse_product();
-    left = make_binary(op.kind == TokenKind::kPlus ? ExprKind::kAdd : ExprKind::kSub, left, right,
-                       op.pos);
+    left = bounded(make_binary(op.kind == TokenKind::kPlus ? ExprKind::kAdd : ExprKind::kSub, left,
+                               right, op.pos));
   }
   return left;
 }
@@ -162,7 +175,7 @@ ExprPtr Parser::parse_or() {
   ExprPtr left = parse_and();
   while (at_name("or")) {
     const Token& op = next();
-    left = make_binary(ExprKind::kOr, left, parse_and(), op.pos);
+    left = bounded(make_binary(ExprKind::kOr, left, parse_and(), op.pos));
   }
   return left;
 }
@@ -171,7 +184,7 @@ ExprPtr Parser::parse_and() {
   ExprPtr left = parse_not();
   while (at_name("and")) {
     const Token& op = next();
-    left = make_binary(ExprKind::kAnd, left, parse_not(), op.pos);
+    left = bounded(make_binary(ExprKind::kAnd, left, parse_not(), op.pos));
   }
   return left;
 }
@@ -180,7 +193,7 @@ ExprPtr Parser::parse_not() {
   Nesting guard(*this);
   if (at_name("not")) {
     const Token& op = next();
-    return make_unary(ExprKind::kNot, parse_not(), op.pos);
+    return bounded(make_unary(ExprKind::kNot, parse_not(), op.pos));
   }
   return parse_comparison();
 }
@@ -193,12 +206,12 @@ ExprPtr Parser::parse_comparison() {
     if (is_comparison(peek().kind)) {
       fail(peek(), "comparisons do not chain here", "join them with 'and': 1 <= n and n <= 5");
     }
-    return make_binary(comparison_kind(op.kind), left, right, op.pos);
+    return bounded(make_binary(comparison_kind(op.kind), left, right, op.pos));
   }
   if (at_name("is") && (peek(1).text == "even" || peek(1).text == "odd")) next();
   if (at_name("even") || at_name("odd")) {
     const Token& op = next();
-    return make_unary(op.text == "even" ? ExprKind::kEven : ExprKind::kOdd, left, op.pos);
+    return bounded(make_unary(op.text == "even" ? ExprKind::kEven : ExprKind::kOdd, left, op.pos));
   }
   return left;
 }
@@ -209,11 +222,11 @@ ExprPtr Parser::parse_product() {
     const Token& op = next();
     ExprPtr right = parse_unary();
     if (op.kind == TokenKind::kStar)
-      left = make_binary(ExprKind::kMul, left, right, op.pos);
+      left = bounded(make_binary(ExprKind::kMul, left, right, op.pos));
     else if (op.kind == TokenKind::kSlash)
-      left = make_binary(ExprKind::kDiv, left, right, op.pos);
+      left = bounded(make_binary(ExprKind::kDiv, left, right, op.pos));
     else
-      left = make_call("mod", {left, right}, op.pos);
+      left = bounded(make_call("mod", {left, right}, op.pos));
   }
   return left;
 }
@@ -222,7 +235,7 @@ ExprPtr Parser::parse_unary() {
   Nesting guard(*this);
   if (at(TokenKind::kMinus)) {
     const Token& op = next();
-    return make_unary(ExprKind::kNeg, parse_unary(), op.pos);
+    return bounded(make_unary(ExprKind::kNeg, parse_unary(), op.pos));
   }
   if (at(TokenKind::kPlus)) {
     next();
@@ -249,7 +262,7 @@ ExprPtr Parser::parse_juxtaposition() {
   ExprPtr left = parse_power();
   while (starts_atom(peek())) {
     size_t pos = peek().pos;
-    left = make_binary(ExprKind::kMul, left, parse_power(), pos);
+    left = bounded(make_binary(ExprKind::kMul, left, parse_power(), pos));
   }
   if (at(TokenKind::kNumber)) {
     fail(peek(), "a number directly after a factor",
@@ -263,7 +276,7 @@ ExprPtr Parser::parse_power() {
   ExprPtr base = parse_atom();
   if (at(TokenKind::kCaret)) {
     const Token& op = next();
-    return make_binary(ExprKind::kPow, base, parse_exponent(), op.pos);
+    return bounded(make_binary(ExprKind::kPow, base, parse_exponent(), op.pos));
   }
   return base;
 }
@@ -272,7 +285,7 @@ ExprPtr Parser::parse_exponent() {
   Nesting guard(*this);
   if (at(TokenKind::kMinus)) {
     const Token& op = next();
-    return make_unary(ExprKind::kNeg, parse_exponent(), op.pos);
+    return bounded(make_unary(ExprKind::kNeg, parse_exponent(), op.pos));
   }
   return parse_power();
 }
@@ -281,6 +294,10 @@ ExprPtr Parser::parse_atom() {
   const Token& t = peek();
   switch (t.kind) {
     case TokenKind::kNumber:
+      if (t.text.size() > kMaxLiteralDigits) {
+        fail(t, "a number with more than " + std::to_string(kMaxLiteralDigits) + " digits",
+             "write large numbers as powers: 10^100000, 2^65536 + 7");
+      }
       next();
       return make_number(literal_value(t.text), t.pos);
     case TokenKind::kLeftParen: {
@@ -293,20 +310,20 @@ ExprPtr Parser::parse_atom() {
       next();
       ExprPtr inner = parse_value();
       expect(TokenKind::kRightFloor, "'⌋'", "close ⌊ with ⌋");
-      return make_call("floor", {inner}, t.pos);
+      return bounded(make_call("floor", {inner}, t.pos));
     }
     case TokenKind::kLeftCeil: {
       next();
       ExprPtr inner = parse_value();
       expect(TokenKind::kRightCeil, "'⌉'", "close ⌈ with ⌉");
-      return make_call("ceil", {inner}, t.pos);
+      return bounded(make_call("ceil", {inner}, t.pos));
     }
     case TokenKind::kSqrt:
       return parse_prefix_function(t);
     case TokenKind::kName:
       if (t.text == "mod" && peek(1).kind == TokenKind::kLeftParen) {
         next();  // mod(a, b): the call form of the infix operator
-        return make_call("mod", parse_arguments(t), t.pos);
+        return bounded(make_call("mod", parse_arguments(t), t.pos));
       }
       if (is_keyword(t.text)) {
         fail(t, "expected a number, 'n' or a function, found the keyword '" + t.text + "'");
@@ -325,7 +342,7 @@ ExprPtr Parser::parse_name(const Token& name) {
   if (name.text == "n") return make_variable(name.pos);
   if (is_prefix_function(name.text)) return parse_prefix_function(name);
   if (at(TokenKind::kLeftParen)) {
-    return make_call(name.text, parse_arguments(name), name.pos);
+    return bounded(make_call(name.text, parse_arguments(name), name.pos));
   }
   std::string hint = "the size is written 'n'; functions take parentheses: f(n)";
   if (name.text.size() > 1 && name.text[0] == 'n') {
@@ -375,7 +392,7 @@ ExprPtr Parser::parse_prefix_function(const Token& name) {
   if (at(TokenKind::kLeftParen) && name.kind != TokenKind::kSqrt) {
     Token call_name = name;
     call_name.text = function;
-    result = make_call(function, parse_arguments(call_name), name.pos);
+    result = bounded(make_call(function, parse_arguments(call_name), name.pos));
   } else {
     if (function == "log") {
       fail(name, "'log' needs its base", "write lg n (base 2), ln n (base e) or log(b, n)");
@@ -383,9 +400,9 @@ ExprPtr Parser::parse_prefix_function(const Token& name) {
     if (!starts_atom(peek()) && !at(TokenKind::kNumber)) {
       fail_expected("the argument of '" + function + "'", "for example " + function + " n");
     }
-    result = make_call(function, {parse_power()}, name.pos);
+    result = bounded(make_call(function, {parse_power()}, name.pos));
   }
-  if (exponent) result = make_binary(ExprKind::kPow, result, exponent, name.pos);
+  if (exponent) result = bounded(make_binary(ExprKind::kPow, result, exponent, name.pos));
   return result;
 }
 

@@ -61,6 +61,8 @@ class Parser {
   ExprPtr parse_prefix_function(const Token& name);
   std::vector<ExprPtr> parse_arguments(const Token& name);
   bool starts_atom(const Token& t) const;
+  // `e`, or a located error when its tree is deeper than kMaxTreeDepth.
+  ExprPtr bounded(ExprPtr e) const;
 
   // Nesting guard: parsing recurses, so depth is bounded (an input of
   // 100,000 '(' is an error, not a stack overflow).
