@@ -1,5 +1,7 @@
 #include "verifier/checking/run.h"
 
+#include <mpfr.h>
+
 #include <atomic>
 #include <map>
 #include <mutex>
@@ -84,14 +86,24 @@ ClaimResult check_entry(const ClaimEntry& entry, const CheckOptions& options) {
 
 }  // namespace
 
+unsigned workers_for(const RunRequest& request, size_t claims) {
+  uint64_t per_claim = std::max<uint64_t>(1, request.options.budget.max_memo_bytes);
+  uint64_t by_memory = std::max<uint64_t>(1, request.memory_limit / per_claim);
+  uint64_t jobs = std::min<uint64_t>({request.jobs, claims, by_memory});
+  return static_cast<unsigned>(std::max<uint64_t>(1, jobs));
+}
+
 RunResult run_check(const RunRequest& request) {
   std::vector<std::string> paths =
       request.paths.empty() ? std::vector<std::string>{"claims"} : request.paths;
   std::vector<ClaimEntry> entries;
-  for (const std::string& file : find_claim_files(paths)) {
+  // An unreadable entry below a folder is an error of its own; the rest is checked.
+  std::vector<ClaimEntry> unreadable;
+  for (const std::string& file : find_claim_files(paths, &unreadable)) {
     std::vector<ClaimEntry> loaded = load_claim_file(file);
     entries.insert(entries.end(), loaded.begin(), loaded.end());
   }
+  entries.insert(entries.end(), unreadable.begin(), unreadable.end());
   mark_duplicate_names(entries);
   entries = select_claims(entries, request.claim_names);
 
@@ -106,16 +118,18 @@ RunResult run_check(const RunRequest& request) {
   auto worker = [&] {
     while (true) {
       size_t i = next.fetch_add(1);
-      if (i >= entries.size()) return;
+      if (i >= entries.size()) break;
       run.claims[i] = check_entry(entries[i], request.options);
       if (request.progress) {
         std::lock_guard<std::mutex> lock(progress_lock);
         request.progress(++done, entries.size(), entries[i].name);
       }
     }
+    // MPFR keeps per-thread caches (constants such as log 2); a worker
+    // thread that ends without freeing them leaks them.
+    mpfr_free_cache();
   };
-  unsigned jobs =
-      std::max(1u, std::min<unsigned>(request.jobs, static_cast<unsigned>(entries.size())));
+  unsigned jobs = workers_for(request, entries.size());
   std::vector<std::thread> threads;
   for (unsigned j = 1; j < jobs; ++j) threads.emplace_back(worker);
   worker();

@@ -17,7 +17,12 @@ struct RunRequest {
   std::vector<std::string> paths;        // files or folders; empty means "claims"
   std::vector<std::string> claim_names;  // only these claims (exact names); empty = all
   CheckOptions options;
-  unsigned jobs = 1;  // claims checked at once
+  unsigned jobs = 1;  // claims checked at once, at most (see memory_limit)
+  // The memory all workers may hold together. Each claim may use up to its
+  // budget's max_memo_bytes, so at most memory_limit / max_memo_bytes claims
+  // (and at least one) are checked at once, whatever `jobs` says. Only the
+  // number of threads changes: the report is the same.
+  uint64_t memory_limit = uint64_t{2} << 30;
   // Called after each claim finishes, from the thread that checked it,
   // serialised: (claims done, claims in total, the claim's name).
   std::function<void(size_t, size_t, const std::string&)> progress;
@@ -27,6 +32,9 @@ struct RunRequest {
 // no file defines (with the closest names as a hint). Bad claims become
 // `error` results; the others are checked.
 RunResult run_check(const RunRequest& request);
+
+// The number of claims run_check checks at once for `claims` claims.
+unsigned workers_for(const RunRequest& request, size_t claims);
 
 }  // namespace thetagate
 

@@ -54,8 +54,12 @@ std::vector<ClaimEntry> load_claim_text(const std::string& text, const std::stri
 
 // Expands files and folders (folders: every *.toml below, sorted) into the
 // list of claim files, in a stable order. Throws InputError for a path that
-// does not exist.
-std::vector<std::string> find_claim_files(const std::vector<std::string>& paths);
+// does not exist or cannot be reached. Inside a folder, an entry that cannot
+// be read (an unlistable folder, a link loop) becomes an error entry in
+// `unreadable` and the rest is still found; without `unreadable`, the first
+// such entry throws.
+std::vector<std::string> find_claim_files(const std::vector<std::string>& paths,
+                                          std::vector<ClaimEntry>* unreadable = nullptr);
 
 }  // namespace thetagate
 

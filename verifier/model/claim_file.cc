@@ -5,16 +5,14 @@
 
 #include <algorithm>
 #include <cctype>
-#include <cerrno>
 #include <cstring>
 #include <filesystem>
-#include <fstream>
 #include <map>
-#include <sstream>
 
 #include "generators/size_family.h"
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/model/claim.h"
+#include "verifier/syntax/input_file.h"
 #include "verifier/syntax/spelling.h"
 
 namespace thetagate {
@@ -490,7 +488,22 @@ std::vector<ClaimEntry> load_claim_text(const std::string& text, const std::stri
   auto file = std::make_shared<const SourceFile>(SourceFile{display_name, text});
   toml::table root;
   try {
+    SourceText whole;
+    whole.file = file;
+    whole.text = file->text;
+    if (text.size() > kMaxClaimFileBytes) {
+      fail_at(whole, 0,
+              "the claim file is too large: " + std::to_string(text.size()) +
+                  " bytes, the limit is " + std::to_string(kMaxClaimFileBytes >> 20) + " MiB",
+              "split it into several files");
+    }
+    check_toml_limits(whole);
     root = toml::parse(file->text, std::string_view(display_name));
+  } catch (const InputError& e) {
+    ClaimEntry entry;
+    entry.error = e.diagnostic();
+    entry.where = entry.error->where;
+    return {entry};
   } catch (const toml::parse_error& e) {
     ClaimEntry entry;
     entry.error = toml_error(e, *file);
@@ -501,26 +514,67 @@ std::vector<ClaimEntry> load_claim_text(const std::string& text, const std::stri
 }
 
 std::vector<ClaimEntry> load_claim_file(const std::string& path) {
-  std::error_code ec;
-  if (std::filesystem::is_directory(path, ec)) {
-    return {file_error(path, "'" + path + "' is a folder, not a claim file",
-                       "find_claim_files expands folders into their *.toml files")};
+  std::string text;
+  try {
+    text =
+        read_input_file(path, kMaxClaimFileBytes, "claim file",
+                        "check the path; claim files are TOML files such as claims/sorting.toml");
+  } catch (const InputError& e) {
+    ClaimEntry entry;
+    entry.error = e.diagnostic();
+    entry.where = entry.error->where;
+    return {entry};
   }
-  std::ifstream in(path, std::ios::binary);
-  if (!in) {
-    return {file_error(path, "cannot read the claim file: " + std::string(std::strerror(errno)),
-                       "check the path; claim files are TOML files such as claims/sorting.toml")};
-  }
-  std::ostringstream text;
-  text << in.rdbuf();
-  if (in.bad()) {
-    return {
-        file_error(path, "cannot read the claim file: " + std::string(std::strerror(errno)), "")};
-  }
-  return load_claim_text(text.str(), path);
+  return load_claim_text(text, path);
 }
 
-std::vector<std::string> find_claim_files(const std::vector<std::string>& paths) {
+namespace {
+
+// Every *.toml below `folder` (not following links to folders), and an
+// error entry for each part of the tree that cannot be read: an unlistable
+// folder, a link loop or dangling link named *.toml. The rest is still found.
+void walk_folder(const std::string& folder, std::vector<std::string>& found,
+                 std::vector<ClaimEntry>& problems) {
+  namespace fs = std::filesystem;
+  auto problem = [&problems](const fs::path& where, const std::string& what,
+                             const std::error_code& ec) {
+    problems.push_back(file_error(where.string(), what + ": " + ec.message(),
+                                  "fix or remove this entry; the other claim files are checked"));
+  };
+  std::vector<fs::path> pending{fs::path(folder)};
+  while (!pending.empty()) {
+    fs::path dir = std::move(pending.back());
+    pending.pop_back();
+    std::error_code ec;
+    fs::directory_iterator it(dir, ec);
+    if (ec) {
+      problem(dir, "cannot list the folder '" + dir.string() + "'", ec);
+      continue;
+    }
+    for (; it != fs::directory_iterator(); it.increment(ec)) {
+      const fs::directory_entry& entry = *it;
+      std::error_code kind_ec;
+      fs::file_status own = entry.symlink_status(kind_ec);
+      if (!kind_ec && fs::is_directory(own)) {
+        pending.push_back(entry.path());
+        continue;
+      }
+      if (entry.path().extension() != ".toml") continue;
+      fs::file_status target = entry.status(kind_ec);
+      if (kind_ec) {
+        problem(entry.path(), "cannot read '" + entry.path().string() + "'", kind_ec);
+      } else if (fs::is_regular_file(target)) {
+        found.push_back(entry.path().string());
+      }
+    }
+    if (ec) problem(dir, "cannot list the folder '" + dir.string() + "'", ec);
+  }
+}
+
+}  // namespace
+
+std::vector<std::string> find_claim_files(const std::vector<std::string>& paths,
+                                          std::vector<ClaimEntry>* unreadable) {
   namespace fs = std::filesystem;
   std::vector<std::string> files;
   auto add = [&files](const std::string& f) {
@@ -529,6 +583,11 @@ std::vector<std::string> find_claim_files(const std::vector<std::string>& paths)
   for (const std::string& path : paths) {
     std::error_code ec;
     fs::file_status status = fs::status(path, ec);
+    if (ec && ec != std::errc::no_such_file_or_directory) {
+      throw InputError(Diagnostic{Location{path, 1, 1},
+                                  "cannot reach '" + path + "': " + ec.message(),
+                                  "check the permissions of the folders on the way to it", ""});
+    }
     if (!fs::exists(status)) {
       throw InputError(Diagnostic{Location{path, 1, 1}, "no such file or folder: '" + path + "'",
                                   "give claim files (*.toml) or folders holding them; the default "
@@ -540,16 +599,14 @@ std::vector<std::string> find_claim_files(const std::vector<std::string>& paths)
       continue;
     }
     std::vector<std::string> found;
-    try {
-      for (const fs::directory_entry& e : fs::recursive_directory_iterator(path)) {
-        if (e.is_regular_file() && e.path().extension() == ".toml")
-          found.push_back(e.path().string());
-      }
-    } catch (const fs::filesystem_error& e) {
-      throw InputError(Diagnostic{Location{path, 1, 1},
-                                  "cannot list the folder: " + std::string(e.what()),
-                                  "check the folder's permissions", ""});
+    std::vector<ClaimEntry> problems;
+    walk_folder(path, found, problems);
+    if (found.empty() && problems.empty()) {
+      problems.push_back(file_error(path, "no claim files (*.toml) in the folder '" + path + "'",
+                                    "give a folder holding claim files, or the files themselves"));
     }
+    if (!problems.empty() && !unreadable) throw InputError(*problems.front().error);
+    if (unreadable) unreadable->insert(unreadable->end(), problems.begin(), problems.end());
     std::sort(found.begin(), found.end());
     for (const std::string& f : found) add(f);
   }
