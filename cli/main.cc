@@ -1,9 +1,11 @@
 // The thetagate command line: picks a subcommand, turns arguments into
 // calls of the library, and turns outcomes into exit codes:
-// 0 no claim refuted, 1 at least one refuted, 2 bad input or usage.
+// 0 no claim refuted, 1 at least one refuted, 2 bad input or usage (bad
+// input wins: a run with a refutation and an input error exits 2).
 #include <unistd.h>
 
 #include <CLI/CLI.hpp>
+#include <algorithm>
 #include <chrono>
 #include <filesystem>
 #include <fstream>
@@ -18,11 +20,14 @@
 #include "reports/html_report.h"
 #include "reports/json_report.h"
 #include "reports/junit_report.h"
+#include "reports/report_file.h"
 #include "reports/text_report.h"
 #include "verifier/checking/run.h"
 #include "verifier/derivation/derive.h"
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/model/recurrence.h"
+#include "verifier/syntax/input_file.h"
+#include "verifier/syntax/spelling.h"
 
 namespace {
 
@@ -45,6 +50,8 @@ struct CheckArguments {
   bool undecided_fails = false;
   std::string baseline;
   std::vector<std::string> fail_on;
+  std::optional<double> clock_limit;
+  uint64_t memory_mib = 2048;
 };
 
 uint64_t parse_seed(const std::string& text) {
@@ -56,17 +63,6 @@ uint64_t parse_seed(const std::string& text) {
   uint64_t seed = std::stoull(text, &used);
   if (used != text.size() || text.empty() || text[0] == '-') throw std::invalid_argument(text);
   return seed;
-}
-
-bool write_file(const std::string& path, const std::string& text) {
-  std::ofstream file(path, std::ios::binary);
-  file << text;
-  file.close();
-  if (!file) {
-    std::cerr << "thetagate: cannot write " << path << '\n';
-    return false;
-  }
-  return true;
 }
 
 std::string render(const RunResult& run, const DriftReport* drift, const std::string& format,
@@ -81,18 +77,10 @@ std::string render(const RunResult& run, const DriftReport* drift, const std::st
   return text;
 }
 
-std::string read_file(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in) {
-    Diagnostic d;
-    d.where = {path, 1, 1};
-    d.message = "cannot read the baseline report";
-    d.hint = "give the JSON report of an earlier run: thetagate check --format json --out OLD.json";
-    throw InputError(d);
-  }
-  std::stringstream buffer;
-  buffer << in.rdbuf();
-  return buffer.str();
+std::string read_baseline(const std::string& path) {
+  return read_input_file(
+      path, kMaxReportFileBytes, "baseline report",
+      "give the JSON report of an earlier run: thetagate check --format json --out OLD.json");
 }
 
 // A progress line on stderr, only on a terminal and only once a run has
@@ -133,7 +121,14 @@ int run_check(const CheckArguments& args) {
     return kExitBadInput;
   }
   std::optional<RunResult> baseline;
-  if (!args.baseline.empty()) baseline = read_json_report(read_file(args.baseline), args.baseline);
+  if (!args.baseline.empty()) {
+    baseline = read_json_report(read_baseline(args.baseline), args.baseline);
+  }
+  // Where the reports go is checked before any claim is: a bad --out must
+  // not cost the run.
+  bool out_is_folder =
+      !args.out.empty() && (args.out.back() == '/' || std::filesystem::is_directory(args.out));
+  if (!args.out.empty()) check_output_location(args.out, out_is_folder);
   RunRequest request;
   try {
     request.options.seed = parse_seed(args.seed);
@@ -142,6 +137,7 @@ int run_check(const CheckArguments& args) {
     return kExitBadInput;
   }
   request.options.max_bits = args.max_bits;
+  if (args.clock_limit) request.options.budget.max_seconds = *args.clock_limit;
   request.options.effort = args.effort;
   if (args.rounding == "floor") request.options.rounding = Rounding::kFloor;
   if (args.rounding == "ceil") request.options.rounding = Rounding::kCeil;
@@ -149,6 +145,7 @@ int run_check(const CheckArguments& args) {
   request.paths = args.paths;
   request.claim_names = args.claims;
   request.jobs = args.jobs;
+  request.memory_limit = args.memory_mib << 20;
   Progress progress;
   request.progress = [&progress](size_t done, size_t total, const std::string& name) {
     progress.update(done, total, name);
@@ -158,37 +155,40 @@ int run_check(const CheckArguments& args) {
   if (baseline) drift = compare_runs(*baseline, run);
   const DriftReport* drift_ptr = drift ? &*drift : nullptr;
 
-  bool out_is_folder =
-      !args.out.empty() && (args.out.back() == '/' || std::filesystem::is_directory(args.out));
+  std::vector<std::pair<std::string, std::string>> files;
   if (out_is_folder) {
-    std::filesystem::create_directories(args.out);
     const std::pair<const char*, const char*> formats[] = {{"text", "report.txt"},
                                                            {"json", "report.json"},
                                                            {"junit", "report.junit.xml"},
                                                            {"html", "report.html"}};
     for (const auto& [format, name] : formats) {
-      std::string path = (std::filesystem::path(args.out) / name).string();
-      if (!write_file(path, render(run, drift_ptr, format, false, args.undecided_fails))) {
-        return kExitBadInput;
-      }
+      files.emplace_back((std::filesystem::path(args.out) / name).string(),
+                         render(run, drift_ptr, format, false, args.undecided_fails));
     }
   } else {
     bool colour = args.out.empty() && args.format == "text" && want_colour(STDOUT_FILENO);
     std::string text = render(run, drift_ptr, args.format, colour, args.undecided_fails);
     if (args.out.empty()) {
       std::cout << text;
-    } else if (!write_file(args.out, text)) {
-      return kExitBadInput;
+    } else {
+      files.emplace_back(args.out, std::move(text));
     }
   }
-  bool any_error = false;
-  for (const auto& c : run.claims) any_error |= c.verdict == Verdict::kError;
-  if (should_fail(run, drift_ptr, fail_on)) return kExitRefuted;
-  return any_error ? kExitBadInput : 0;
+  if (std::string failure = write_files_whole(files); !failure.empty()) {
+    std::cerr << "thetagate: " << failure << '\n';
+    return kExitBadInput;
+  }
+  // Bad input shows in the exit code whatever else happened; the other
+  // claims are still in the report.
+  for (const auto& c : run.claims) {
+    if (c.verdict == Verdict::kError) return kExitBadInput;
+  }
+  return should_fail(run, drift_ptr, fail_on) ? kExitRefuted : 0;
 }
 
 int run_derive(const std::string& recurrence_text, const std::string& format) {
   auto recurrence = recurrence_from_text(recurrence_text);
+  check_calls_shrink(*recurrence);  // as eval and check do before evaluating
   Derivation d = derive(*recurrence);
   std::cout << (format == "json" ? render_derivation_json(d) : render_derivation_text(d));
   return 0;
@@ -199,8 +199,18 @@ int run_eval(const std::string& recurrence_text, const std::vector<std::string>&
   std::vector<BigInt> ns;
   for (const auto& s : sizes) ns.push_back(evaluate_size(s, "<size>"));
   Evaluator evaluator(recurrence);
-  for (const auto& n : ns) {
-    std::cout << n.str() << ' ' << evaluator.value_at(n).str() << '\n';
+  for (size_t i = 0; i < ns.size(); ++i) {
+    try {
+      Value value = evaluator.value_at(ns[i]);  // before printing: no half line on an error
+      std::cout << ns[i].str() << ' ' << value.str() << '\n';
+    } catch (const BudgetExceeded& e) {
+      // Located at the size given, the argument that asked for too much.
+      SourceText size = SourceText::whole("<size>", sizes[i]);
+      Diagnostic d{size.locate(0),
+                   recurrence->main.name + "(" + sizes[i] + ") is out of budget: " + e.what(),
+                   "evaluate smaller sizes; check bounds the work per claim by itself", sizes[i]};
+      throw InputError(d);
+    }
   }
   return 0;
 }
@@ -228,6 +238,11 @@ int main(int argc, char** argv) {
                    "search work per claim, a multiple of the default (about 0.2 s of one "
                    "core): 10 or 100 for deeper nightly runs")
       ->check(CLI::Range(1, 10000));
+  check_command
+      ->add_option("--clock-limit", check.clock_limit,
+                   "wall-clock guard per claim against hangs, in seconds (default 60 x effort); "
+                   "0: none, so only the work budgets end a search")
+      ->check(CLI::Range(0.0, 1e6));
   check_command->add_option("--claim", check.claims,
                             "check only the claim with this name (repeatable)");
   check_command
@@ -236,6 +251,11 @@ int main(int argc, char** argv) {
       ->check(CLI::IsMember({"floor", "ceil", "both"}));
   check_command->add_option("--jobs,-j", check.jobs, "claims checked in parallel (same report)")
       ->check(CLI::Range(1, 256));
+  check_command
+      ->add_option("--memory", check.memory_mib,
+                   "MiB all workers may hold together (default 2048); each claim may use 512, "
+                   "so this caps --jobs")
+      ->check(CLI::Range(1, 1 << 24));
   check_command->add_flag("--undecided-fails", check.undecided_fails,
                           "JUnit: report undecided claims as failures, not skipped");
   check_command->add_flag("--list-families", check.list_families,
@@ -262,6 +282,21 @@ int main(int argc, char** argv) {
       ->required();
   eval_command->add_option("sizes", sizes, "sizes N, e.g. 100 2^4096+7")->required();
 
+  // CLI11 would say "a subcommand is required" for a misspelt one.
+  if (argc > 1 && argv[1][0] != '-') {
+    std::string word = argv[1];
+    const std::vector<std::string> commands = {"check", "derive", "eval"};
+    if (std::find(commands.begin(), commands.end(), word) == commands.end()) {
+      std::string closest = commands.front();
+      for (const std::string& c : commands) {
+        if (edit_distance(word, c) < edit_distance(word, closest)) closest = c;
+      }
+      std::cerr << "thetagate: unknown command '" << word << "'\n  hint: "
+                << (edit_distance(word, closest) <= 2 ? "did you mean '" + closest + "'? " : "")
+                << "commands: check, derive, eval (thetagate --help)\n";
+      return kExitBadInput;
+    }
+  }
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
@@ -277,6 +312,9 @@ int main(int argc, char** argv) {
     return kExitBadInput;
   } catch (const BudgetExceeded& e) {
     std::cerr << "thetagate: out of budget: " << e.what() << '\n';
+    return kExitBadInput;
+  } catch (const std::filesystem::filesystem_error& e) {
+    std::cerr << "thetagate: " << e.what() << '\n';
     return kExitBadInput;
   }
   return 0;

@@ -268,7 +268,17 @@ std::string summary_line(const RunResult& run) {
 
 }  // namespace
 
-std::string render_text(const RunResult& run, const TextStyle& style) {
+std::string render_text(const RunResult& raw_run, const TextStyle& style) {
+  // Names and notes come from claim files: their control bytes (escape
+  // sequences, NUL) are shown escaped, never sent to the terminal.
+  RunResult run = raw_run;
+  for (ClaimResult& c : run.claims) {
+    c.name = escape_controls(c.name);
+    c.file = escape_controls(c.file);
+    c.note = escape_controls(c.note);
+    c.message = escape_controls(c.message);
+    if (c.error) c.error->message = escape_controls(c.error->message);
+  }
   Painter painter(style);
   std::string out = painter.dim(
       fmt::format("seed {} (rerun with {} to replay this run)", run.seed, replay_options(run)));

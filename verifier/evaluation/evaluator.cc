@@ -1,5 +1,6 @@
 #include "verifier/evaluation/evaluator.h"
 
+#include <algorithm>
 #include <stdexcept>
 
 #include "verifier/evaluation/expression_eval.h"
@@ -44,7 +45,7 @@ class Evaluator::Resolver : public CallResolver {
 class Evaluator::KernelLink : public KernelHooks {
  public:
   explicit KernelLink(Evaluator& owner) : owner_(owner) {}
-  void charge_step() override { owner_.charge_step(); }
+  void charge_step(uint64_t pending_bytes) override { owner_.charge_step(pending_bytes); }
   void remembered(uint64_t key_bits, uint64_t value_bits, size_t) override {
     owner_.account_memo(key_bits, value_bits);
   }
@@ -58,8 +59,9 @@ Evaluator::Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget
     : recurrence_(std::move(recurrence)), budget_(budget) {
   ctx_.precision_bits = budget_.start_precision_bits;
   ctx_.max_value_bits = budget_.max_value_bits;
-  deadline_ = std::chrono::steady_clock::now() +
-              std::chrono::microseconds(static_cast<int64_t>(budget_.max_seconds * 1e6));
+  deadline_ =
+      std::chrono::steady_clock::now() +
+      std::chrono::microseconds(static_cast<int64_t>(std::min(budget_.max_seconds, 1e9) * 1e6));
   resolver_ = std::make_unique<Resolver>(*this);
   int64_t window = 0;
   bool all_subtractive = true;
@@ -90,7 +92,16 @@ EvalScope Evaluator::scope(const SourceText& source) {
   return s;
 }
 
-void Evaluator::charge_step() {
+void Evaluator::charge_step(uint64_t pending_bytes) {
+  // The work stack of a deep descent (T(n/2) from 10^100000) holds every
+  // pending size at once: it counts against the memory budget with the memo.
+  if (pending_bytes > budget_.max_memo_bytes ||
+      memo_bytes_ > budget_.max_memo_bytes - pending_bytes) {
+    throw BudgetExceeded(
+        "the sizes waiting to be evaluated and the remembered values need more "
+        "than " +
+        std::to_string(budget_.max_memo_bytes >> 20) + " MiB");
+  }
   ++stats_.steps;
   if (stats_.steps > budget_.max_steps) {
     throw BudgetExceeded("more than " + std::to_string(budget_.max_steps) + " evaluation steps");
@@ -102,7 +113,10 @@ void Evaluator::charge_step() {
     throw BudgetExceeded("one size needs more than " + std::to_string(budget_.max_steps_per_size) +
                          " subproblems");
   }
-  if ((stats_.steps & 1023) == 0 && std::chrono::steady_clock::now() > deadline_) {
+  // max_seconds <= 0: no clock at all, so only the work budgets (the same on
+  // every machine) can stop an evaluation; tests run that way.
+  if (budget_.max_seconds > 0 && (stats_.steps & 1023) == 0 &&
+      std::chrono::steady_clock::now() > deadline_) {
     throw BudgetExceeded("the time budget of " + std::to_string(budget_.max_seconds) +
                          " s ran out");
   }
@@ -163,11 +177,7 @@ auto Evaluator::with_precision(F&& f) -> decltype(f()) {
 
 Value Evaluator::value_at(const BigInt& n) {
   if (n < 0) throw std::invalid_argument("sizes are non-negative");
-  if (!probed_)
-    with_precision([&] {
-      probe_default_base();
-      return 0;
-    });
+  probe();
   call_start_steps_ = stats_.steps;
   if (memo_bytes_ > budget_.max_memo_bytes / 4 * 3 ||
       memo_size() > budget_.max_memo_entries / 4 * 3) {
@@ -206,11 +216,12 @@ Value Evaluator::default_base_value(const BigInt& n, const Expr& call, const Big
               ") = 1, or a line 'if n <= " + n.str() + "'");
 }
 
-void Evaluator::probe_default_base() {
-  // With no base case, T(n) = 1 where a call would not shrink; that is a
-  // base case only if large sizes do shrink. T(n + 1) is an error.
+void Evaluator::probe_calls() {
+  // Every call must reach a smaller size at large n: T(n) = T(n) + 1 and
+  // T(n + 1) are errors for every command, found here before any evaluation
+  // (and before a derivation). With no base case, T(n) = 1 where a call
+  // would not shrink; that is a base case only if large sizes do shrink.
   probed_ = true;
-  if (!recurrence_->default_base) return;
   const Recurrence& r = *recurrence_;
   EvalScope s = scope(r.source);
   // The first size whose call does not shrink, if any.
@@ -225,16 +236,41 @@ void Evaluator::probe_default_base() {
   };
   for (const BigInt& n :
        {kDefaultBaseLimit, BigInt(kDefaultBaseLimit + 1), BigInt(3 * kDefaultBaseLimit / 2)}) {
-    auto bad = offending(n);
+    std::optional<std::pair<const Expr*, BigInt>> bad;
+    try {
+      bad = offending(n);
+    } catch (const InputError&) {
+      continue;  // no line applies at n, or a domain error: evaluation reports it where it happens
+    }
     if (!bad) continue;
     // Name the first size where the same call fails (docs/design.md §3): T(n + 1)
     // already fails at n = 0, not only at the probe.
     for (BigInt first = 0; first <= 64; ++first) {
-      auto early = offending(first);
+      std::optional<std::pair<const Expr*, BigInt>> early;
+      try {
+        early = offending(first);
+      } catch (const InputError&) {
+        continue;  // no line applies there, or a domain error: not this call's fault
+      }
       if (early && early->first == bad->first) not_shrinking(first, *early->first, early->second);
     }
     not_shrinking(n, *bad->first, bad->second);
   }
+}
+
+void check_calls_shrink(const Recurrence& recurrence) {
+  // A non-owning handle: the evaluator lives only inside this call.
+  std::shared_ptr<const Recurrence> handle(&recurrence, [](const Recurrence*) {});
+  Evaluator evaluator(handle, Budget{}, EvaluationPath::kGeneral);
+  evaluator.probe();
+}
+
+void Evaluator::probe() {
+  if (probed_) return;
+  with_precision([&] {
+    probe_calls();
+    return 0;
+  });
 }
 
 const Value* Evaluator::remembered(const Value& m) const {
@@ -270,6 +306,13 @@ Value Evaluator::top_down(const Value& n) {
   std::vector<Frame> stack;
   std::vector<Value> args;
   std::vector<const Value*> known;
+  // Bytes held by args (a frame's size shares its argument's storage).
+  uint64_t pending_bytes = 0;
+  auto bytes_of = [](const Value& v) { return v.magnitude_bits() / 8 + sizeof(Value) + 16; };
+  auto drop_args = [&](size_t from) {
+    for (size_t i = from; i < args.size(); ++i) pending_bytes -= bytes_of(args[i]);
+    args.resize(from);
+  };
   const Value* result = nullptr;
   auto deliver = [&](size_t slot, const Value* value) {
     if (slot == kRoot)
@@ -287,7 +330,7 @@ Value Evaluator::top_down(const Value& n) {
         stack.pop_back();
         continue;
       }
-      charge_step();
+      charge_step(pending_bytes + stack.size() * sizeof(Frame));
       const CaseLine& line = select_case(r.main, frame.m, s);
       frame.line = &line;
       frame.first_arg = args.size();
@@ -302,10 +345,11 @@ Value Evaluator::top_down(const Value& n) {
           base = true;
           break;
         }
+        pending_bytes += bytes_of(arg);
         args.push_back(std::move(arg));
       }
       if (base) {
-        args.resize(stack.back().first_arg);
+        drop_args(stack.back().first_arg);
         stack.pop_back();
         continue;
       }
@@ -337,7 +381,7 @@ Value Evaluator::top_down(const Value& n) {
     }
     current_calls_ = nullptr;
     current_values_ = nullptr;
-    args.resize(done.first_arg);
+    drop_args(done.first_arg);
     known.resize(done.first_arg);
     deliver(done.parent_slot, remember(done.m, value));
   }

@@ -27,7 +27,8 @@ struct Budget {
   uint64_t max_value_bits = 1u << 20;
   uint64_t max_steps = 30'000'000;  // case lines evaluated, in total
   uint64_t max_steps_per_size = 0;  // for one value_at(); 0: no separate limit
-  double max_seconds = 20.0;        // wall time from the evaluator's creation
+  double max_seconds = 20.0;        // wall time from the evaluator's creation; 0: no clock
+  // max_memo_bytes also bounds the sizes waiting on the work stack.
   long start_precision_bits = 128;  // intervals; doubled on a shortfall
   long max_precision_bits = 1 << 16;
 };
@@ -66,6 +67,11 @@ class Evaluator {
   int compare_at(const Expr& a, const SourceText& sa, const Expr& b, const SourceText& sb,
                  const BigInt& n);
 
+  // The check every command runs before evaluating or deriving: each call
+  // of the recurrence reaches a smaller size at large n. Throws InputError
+  // at the call (T(n) = T(n) + 1, T(n + 1)). value_at() runs it once.
+  void probe();
+
   const EvaluatorStats& stats() const { return stats_; }
   const Recurrence& recurrence() const { return *recurrence_; }
   // True when every recursive call is T(n - c): evaluated bottom-up.
@@ -81,10 +87,12 @@ class Evaluator {
   std::optional<Value> kernel_value(const BigInt& n);
   Value sweep_up(const BigInt& n);
   Value lookup(const Expr& call, const Value& n, const EvalScope& scope);
-  void probe_default_base();
+  void probe_calls();
   Value default_base_value(const BigInt& n, const Expr& call, const BigInt& m);
   [[noreturn]] void not_shrinking(const BigInt& n, const Expr& call, const BigInt& m);
-  void charge_step();
+  // One subproblem expanded; `pending_bytes` are held by the sizes waiting
+  // on a work stack, counted with the memo against max_memo_bytes.
+  void charge_step(uint64_t pending_bytes = 0);
   // Returns the remembered value (stable: memo_'s elements never move).
   const Value* remember(const Value& m, const Value& v);
   const Value* remembered(const Value& m) const;  // REQUIRES: m was remembered
@@ -122,6 +130,9 @@ class Evaluator {
   bool probed_ = false;
   uint64_t call_start_steps_ = 0;
 };
+
+// Evaluator::probe() for a recurrence not otherwise evaluated (derive).
+void check_calls_shrink(const Recurrence& recurrence);
 
 // The value of a constant expression ("2^4096 + 7", "3*2^50"), exactly.
 // Throws InputError for a non-integer, negative, or n-dependent expression.

@@ -11,6 +11,13 @@ namespace {
 [[noreturn]] void domain_failure(const DomainError& error, const Expr& at, const Value& n,
                                  const EvalScope& scope) {
   std::string hint = "add a base case for the small sizes where this is undefined, e.g. T(1) = 1";
+  // A divisor that does not depend on n is zero at every size: no base case helps.
+  bool divides = at.kind == ExprKind::kDiv || (at.kind == ExprKind::kCall && at.name == "mod");
+  if (divides && at.args.size() == 2 && !mentions_n(*at.args[1])) {
+    hint = "the divisor '" + print(*at.args[1]) +
+           "' does not depend on n: it is zero at every "
+           "size; fix the expression";
+  }
   fail_at(*scope.source, at.pos,
           std::string(error.what()) + " at n = " + n.str() + " (in '" + print(at) + "')", hint);
 }
@@ -156,9 +163,10 @@ bool test_condition(const Expr& c, const Value& n, const EvalScope& scope) {
 
 const CaseLine& select_case(const Function& f, const Value& n, const EvalScope& scope) {
   if (!f.points.empty() && n.is_integer()) {
-    for (const CaseLine& line : f.points) {
-      if (equals_integer(n, *line.point)) return line;
-    }
+    // An index, not a scan: a claim may list tens of thousands of points.
+    BigInt scratch;
+    auto it = f.point_at.find(n.integer_ref(scratch));
+    if (it != f.point_at.end()) return f.points[it->second];
   }
   for (const CaseLine& line : f.conditional) {
     if (test_condition(*line.condition, n, scope)) return line;

@@ -503,6 +503,13 @@ void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
   frames_.clear();
   known_.clear();
   size_t arg_count = 0;
+  // Bytes held by the pending arguments, counted against the memory budget.
+  uint64_t pending_bytes = 0;
+  auto bytes_of = [](mpz_srcptr z) { return mpz_size(z) * sizeof(mp_limb_t) + 32; };
+  auto drop_args = [&](size_t from) {
+    for (size_t i = from; i < arg_count; ++i) pending_bytes -= bytes_of(args_[i]->z);
+    arg_count = from;
+  };
   auto deliver = [&](size_t slot, LimbView value) {
     if (slot == kRoot)
       result = value;
@@ -522,7 +529,7 @@ void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
         frames_.pop_back();
         continue;
       }
-      hooks.charge_step();
+      hooks.charge_step(pending_bytes + frames_.size() * sizeof(Frame));
       frame.line = select(m);
       frame.first_arg = arg_count;
       bool base = false;
@@ -536,10 +543,11 @@ void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
           base = true;
           break;
         }
+        pending_bytes += bytes_of(arg);
         ++arg_count;
       }
       if (base) {
-        arg_count = frame.first_arg;
+        drop_args(frame.first_arg);
         frames_.pop_back();
         continue;
       }
@@ -566,7 +574,7 @@ void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
     eval(done.line->body, value_.z, 0);
     current_slots_ = nullptr;
     deliver(done.parent_slot, remember(m, value_.z, hooks));
-    arg_count = done.first_arg;
+    drop_args(done.first_arg);
     known_.resize(arg_count);
   }
   mpz_set(out, result.as_mpz(view));

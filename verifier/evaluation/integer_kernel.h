@@ -37,8 +37,10 @@ struct KernelDeclines {};
 class KernelHooks {
  public:
   virtual ~KernelHooks() = default;
-  // One subproblem expanded. May throw BudgetExceeded.
-  virtual void charge_step() = 0;
+  // One subproblem expanded, while `pending_bytes` are held by the sizes
+  // waiting on the work stack (counted against the memory budget). May
+  // throw BudgetExceeded.
+  virtual void charge_step(uint64_t pending_bytes) = 0;
   // One value remembered; memo_size counts them. May throw BudgetExceeded.
   virtual void remembered(uint64_t key_bits, uint64_t value_bits, size_t memo_size) = 0;
 };

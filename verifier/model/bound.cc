@@ -183,6 +183,8 @@ Bound parse_bound(const SourceText& source, const std::string& function) {
     try {
       value = evaluate_expr(*n0, Value(int64_t{0}), scope);
     } catch (const BudgetExceeded&) {
+      p.fail(start, "the starting size is too large: more than 65536 bits",
+             "sizes go up to 2^65536; for n >= 2^4000, for n >= 10^6");
     } catch (const PrecisionShortfall&) {
     }
     if (!value || !value->is_integer() || value->sign() < 0) {

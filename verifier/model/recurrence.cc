@@ -98,11 +98,9 @@ void add_line(Function& f, const Definition& d, const SourceText& source) {
       fail_at(source, d.condition->pos, "a base case at a single point takes no condition",
               "write " + f.name + "(1) = 0, or " + f.name + "(n) = 0 if n <= 1");
     }
-    for (const CaseLine& other : f.points) {
-      if (*other.point == *d.point) {
-        fail_at(source, d.name_pos, f.name + "(" + d.point->str() + ") is defined twice",
-                "keep one definition per point");
-      }
+    if (!f.point_at.emplace(*d.point, f.points.size()).second) {
+      fail_at(source, d.name_pos, f.name + "(" + d.point->str() + ") is defined twice",
+              "keep one definition per point");
     }
     f.points.push_back(std::move(line));
   } else if (d.condition) {
@@ -221,6 +219,7 @@ ExprPtr ceil_calls(const ExprPtr& e, const std::string& function) {
   if (e->args.empty()) return e;
   auto copy = std::make_shared<Expr>(*e);
   for (auto& a : copy->args) a = ceil_calls(a, function);
+  update_depth(*copy);
   return copy;
 }
 }  // namespace

@@ -26,6 +26,7 @@ struct CaseLine {
 struct Function {
   std::string name;
   std::vector<CaseLine> points;       // tried first
+  std::map<BigInt, size_t> point_at;  // point -> its index in `points`
   std::vector<CaseLine> conditional;  // then these, in the order written
   std::optional<CaseLine> fallback;   // then the line without a condition
   size_t pos = 0;

@@ -7,15 +7,26 @@
 #include <limits>
 #include <utility>
 
+#include "verifier/numbers/value.h"
+
 namespace thetagate {
 
 namespace {
+// Endpoints beyond 2^(2^20) are not turned into exact rationals.
+constexpr long kMaxExactExponentBits = 1L << 20;
+
 long joint_precision(const Interval& a, const Interval& b) {
   return std::max(a.precision(), b.precision());
 }
 
 Rational rational_of(mpfr_srcptr x) {
-  // mpfr_get_q is exact for finite values.
+  // mpfr_get_q is exact for finite values, and as long as the value's
+  // exponent: 2^(10^10) would need 1.25 GB. Such a number is a budget
+  // error, not an allocation that takes the machine down.
+  if (mpfr_regular_p(x) && std::abs(mpfr_get_exp(x)) > kMaxExactExponentBits) {
+    throw BudgetExceeded("a number near 2^" + std::to_string(mpfr_get_exp(x)) +
+                         " is too large to handle exactly");
+  }
   Rational q;
   mpfr_get_q(q.backend().data(), x);
   return q;

@@ -5,6 +5,7 @@
 // a rational evaluates the polynomial's sign exactly; two algebraic numbers
 // bisect together; anything else is refined with intervals until decided.
 #include <mpfi.h>
+#include <mpfr.h>
 
 #include <algorithm>
 #include <mutex>
@@ -83,8 +84,9 @@ void bisect_locked(const Node& n) {
 int compare_by_intervals(const RealNumber& a, const RealNumber& b) {
   for (long prec = 64; prec <= kMaxPrecision; prec *= 2) {
     Interval x = a.enclose(prec), y = b.enclose(prec);
-    if (x.upper() < y.lower()) return -1;
-    if (x.lower() > y.upper()) return 1;
+    // On the endpoints themselves: exact, and no rational of 2^(10^10).
+    if (mpfr_cmp(&x.raw()->right, &y.raw()->left) < 0) return -1;
+    if (mpfr_cmp(&x.raw()->left, &y.raw()->right) > 0) return 1;
   }
   throw PrecisionShortfall("two real numbers agree to " + std::to_string(kMaxPrecision) +
                            " bits and cannot be told apart: " + a.str() + " and " + b.str());

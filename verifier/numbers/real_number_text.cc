@@ -27,6 +27,11 @@ std::string RealNumber::digits(int decimals) const {
   BigInt scale = boost::multiprecision::pow(BigInt(10), static_cast<unsigned>(decimals));
   for (long prec = 64; prec <= kMaxPrecision; prec *= 2) {
     Interval x = enclose(prec);
+    // A number such as 2^(10^10) has no digits worth printing: its interval.
+    if (!mpfi_bounded_p(x.raw()) || mpfr_get_exp(&x.raw()->right) > 4096 ||
+        mpfr_get_exp(&x.raw()->left) > 4096) {
+      break;
+    }
     BigInt lo = floor_of(x.lower() * Rational(scale) + Rational(1, 2));
     BigInt hi = floor_of(x.upper() * Rational(scale) + Rational(1, 2));
     if (lo != hi) continue;

@@ -38,6 +38,8 @@ Location SourceText::locate(size_t pos) const {
   }
   const std::string& all = file->text;
   size_t at = std::min(file_offset(*this, pos), all.size());
+  // The end of a CRLF line is its CR, where the caret of an LF line stands.
+  if (at > 0 && at < all.size() && all[at] == '\n' && all[at - 1] == '\r') --at;
   size_t line_start = all.rfind('\n', at == 0 ? std::string::npos : at - 1);
   line_start = (line_start == std::string::npos || at == 0) ? 0 : line_start + 1;
   if (at > 0 && all[at - 1] == '\n') line_start = at;
@@ -60,29 +62,81 @@ std::string SourceText::line_at(size_t pos) const {
   return line;
 }
 
+std::string escape_controls(const std::string& s) {
+  std::string out;
+  for (char ch : s) {
+    unsigned char c = static_cast<unsigned char>(ch);
+    if (c < 0x20 || c == 0x7f) {
+      static const char* const kDigits = "0123456789abcdef";
+      out += "\\x";
+      out += kDigits[c >> 4];
+      out += kDigits[c & 15];
+    } else {
+      out += ch;
+    }
+  }
+  return out;
+}
+
+namespace {
+
+// Byte offset of code point `column` (1-based) of `s`, or s.size().
+size_t byte_of_column(const std::string& s, int column) {
+  int seen = 0;
+  for (size_t i = 0; i < s.size(); ++i) {
+    if ((static_cast<unsigned char>(s[i]) & 0xC0) != 0x80 && ++seen == column) return i;
+  }
+  return s.size();
+}
+
+constexpr int kShownColumns = 120;  // of a long source line, around the caret
+
+}  // namespace
+
 std::string format_diagnostic(const Diagnostic& d) {
-  std::string out = d.where.file + ":" + std::to_string(d.where.line) + ":" +
-                    std::to_string(d.where.column) + ": error: " + d.message;
+  std::string out = escape_controls(d.where.file) + ":" + std::to_string(d.where.line) + ":" +
+                    std::to_string(d.where.column) + ": error: " + escape_controls(d.message);
   if (!d.source_line.empty()) {
-    out += "\n" + d.source_line + "\n";
+    // A long line shows a window around the caret, marked with "...".
+    std::string line = d.source_line;
+    int column = d.where.column;
+    int total = utf8_columns(line, line.size());
+    if (total > kShownColumns) {
+      int first = std::max(1, std::min(column - kShownColumns / 2, total - kShownColumns + 1));
+      size_t from = byte_of_column(line, first);
+      size_t to = byte_of_column(line, first + kShownColumns);
+      std::string window = line.substr(from, to - from);
+      column -= first - 1;
+      if (first > 1) {
+        window = "..." + window;
+        column += 3;
+      }
+      if (to < line.size()) window += "...";
+      line = window;
+    }
+    // One character for each control byte, so the caret stays in place.
+    for (char& c : line) {
+      if ((static_cast<unsigned char>(c) < 0x20 && c != '\t') || c == 0x7f) c = '?';
+    }
+    out += "\n" + line + "\n";
     // Keep tabs so the caret lines up under tab-indented text.
-    int column = 1;
+    int at = 1;
     size_t i = 0;
-    while (column < d.where.column && i < d.source_line.size()) {
-      unsigned char c = static_cast<unsigned char>(d.source_line[i]);
+    while (at < column && i < line.size()) {
+      unsigned char c = static_cast<unsigned char>(line[i]);
       if ((c & 0xC0) != 0x80) {
         out += c == '\t' ? '\t' : ' ';
-        ++column;
+        ++at;
       }
       ++i;
     }
-    while (column < d.where.column) {
+    while (at < column) {
       out += ' ';
-      ++column;
+      ++at;
     }
     out += "^";
   }
-  if (!d.hint.empty()) out += "\n  hint: " + d.hint;
+  if (!d.hint.empty()) out += "\n  hint: " + escape_controls(d.hint);
   return out;
 }
 

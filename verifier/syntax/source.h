@@ -70,6 +70,10 @@ class InputError : public std::runtime_error {
 [[noreturn]] void fail_at(const SourceText& source, size_t pos, std::string message,
                           std::string hint = "");
 
+// `s` with control bytes (escape sequences, NUL, line breaks) written as
+// \xNN, for text that reaches a terminal.
+std::string escape_controls(const std::string& s);
+
 // Number of UTF-8 code points in the first `bytes` bytes of `s`.
 int utf8_columns(const std::string& s, size_t bytes);
 
