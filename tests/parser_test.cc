@@ -427,7 +427,8 @@ TEST(ParserDiagnostic, UnknownFunction) {
 TEST(ParserDiagnostic, CallThatDoesNotShrink) {
   auto r = recurrence_from_text("T(n) = T(n+1) + 1; T(0) = 0");
   EXPECT_EQ(diagnostic_of([&] { Evaluator(r).value_at(BigInt(5)); }),
-            "<recurrence>:1:8: error: T(n + 1) at n = 5 calls T(6), which does not shrink\n"
+            // Found before evaluating, at the first size past the base case.
+            "<recurrence>:1:8: error: T(n + 1) at n = 1 calls T(2), which does not shrink\n"
             "T(n) = T(n+1) + 1; T(0) = 0\n"
             "       ^\n"
             "  hint: each call must reach a smaller size, such as T(n/2) or T(n-1)");

@@ -1,0 +1,177 @@
+// Adversarial input, end to end: exit codes, what is still reported, and
+// where output goes when something is wrong (issue "Hardening").
+#include <gtest/gtest.h>
+#include <sys/wait.h>
+#include <unistd.h>
+
+#include <cstdio>
+#include <filesystem>
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <string>
+
+namespace {
+
+namespace fs = std::filesystem;
+
+struct Outcome {
+  int status = -1;
+  std::string out;
+};
+
+// Runs a shell command line; "$TG" in it is the thetagate binary.
+Outcome shell(const std::string& line) {
+  std::string command = "TG='" + std::string(THETAGATE_BINARY) + "'; " + line + " 2>&1";
+  Outcome r;
+  FILE* pipe = popen(command.c_str(), "r");
+  if (pipe == nullptr) return r;
+  char buffer[4096];
+  size_t got;
+  while ((got = fread(buffer, 1, sizeof buffer, pipe)) > 0) r.out.append(buffer, got);
+  int raw = pclose(pipe);
+  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
+  return r;
+}
+
+class HardeningCli : public ::testing::Test {
+ protected:
+  void SetUp() override {
+    dir_ = fs::temp_directory_path() /
+           ("thetagate-hcli-" + std::to_string(::getpid()) + "-" +
+            ::testing::UnitTest::GetInstance()->current_test_info()->name());
+    fs::remove_all(dir_);
+    fs::create_directories(dir_);
+  }
+  void TearDown() override { fs::remove_all(dir_); }
+  std::string write(const std::string& name, const std::string& text) {
+    fs::create_directories((dir_ / name).parent_path());
+    std::ofstream(dir_ / name, std::ios::binary) << text;
+    return (dir_ / name).string();
+  }
+  std::string read(const std::string& name) {
+    std::ifstream in(dir_ / name, std::ios::binary);
+    return std::string(std::istreambuf_iterator<char>(in), {});
+  }
+  fs::path dir_;
+};
+
+// Refuted at n = 2 already: 2 lg 2 - 2 = 0 < T(2) = 1.
+const char* kRefuted = R"toml([[claim]]
+name = "too tight"
+recurrence = "T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1; T(1) = 0"
+bound = "T(n) <= n lg n - n for n >= 2"
+)toml";
+
+const char* kHolds = R"toml([[claim]]
+name = "halving"
+recurrence = "T(n) = T(n/2) + 1; T(1) = 1"
+bound = "Theta(lg n)"
+)toml";
+
+const char* kBroken = R"toml([[claim]]
+name = "broken"
+recurrence = "T(n) = T(n/2 +"
+bound = "O(lg n)"
+)toml";
+
+// 10. Input errors show in the exit code even beside a refutation.
+TEST_F(HardeningCli, InputErrorsWinOverARefutation) {
+  std::string file = write("mixed.toml", std::string(kRefuted) + "\n" + kBroken);
+  Outcome r = shell("$TG check --max-bits 64 --clock-limit 0 --format json " + file);
+  EXPECT_EQ(r.status, 2) << r.out;
+  auto json = nlohmann::json::parse(r.out.substr(0, r.out.rfind('}') + 1));
+  ASSERT_EQ(json["claims"].size(), 2u);
+  EXPECT_EQ(json["claims"][0]["verdict"], "refuted");
+  EXPECT_EQ(json["claims"][1]["verdict"], "error");
+}
+
+// 11. A link loop below a folder is one error; the other claims are checked.
+TEST_F(HardeningCli, ALinkLoopInAFolderCostsOnlyItself) {
+  write("claims/good.toml", kHolds);
+  fs::create_symlink("loop.toml", dir_ / "claims" / "loop.toml");
+  Outcome r =
+      shell("$TG check --max-bits 64 --clock-limit 0 --format json " + (dir_ / "claims").string());
+  EXPECT_EQ(r.status, 2) << r.out;
+  auto json = nlohmann::json::parse(r.out.substr(0, r.out.rfind('}') + 1));
+  ASSERT_EQ(json["claims"].size(), 2u) << r.out;
+  EXPECT_EQ(json["claims"][0]["name"], "halving");
+  EXPECT_EQ(json["claims"][0]["verdict"], "holds");
+  EXPECT_EQ(json["claims"][1]["verdict"], "error");
+  EXPECT_EQ(json["claims"][1]["file"], (dir_ / "claims" / "loop.toml").string());
+}
+
+// 13. An empty folder is an error, not "0 claims".
+TEST_F(HardeningCli, AnEmptyFolderIsAnError) {
+  fs::create_directories(dir_ / "none");
+  Outcome r = shell("$TG check " + (dir_ / "none").string());
+  EXPECT_EQ(r.status, 2) << r.out;
+  EXPECT_NE(r.out.find("no claim files (*.toml) in the folder"), std::string::npos) << r.out;
+}
+
+// 12. derive validates like eval and check.
+TEST_F(HardeningCli, DeriveRejectsCallsThatDoNotShrink) {
+  for (const char* recurrence : {"T(n) = T(n) + 1", "T(n) = T(n+1) + 1; T(1) = 1"}) {
+    Outcome d = shell(std::string("$TG derive '") + recurrence + "'");
+    Outcome e = shell(std::string("$TG eval '") + recurrence + "' 10");
+    EXPECT_EQ(d.status, 2) << d.out;
+    EXPECT_EQ(e.status, 2) << e.out;
+    EXPECT_NE(d.out.find("which does not shrink"), std::string::npos) << d.out;
+  }
+}
+
+// 3. A bad --out is found before any claim is checked, and does not abort.
+TEST_F(HardeningCli, BadOutputLocationsAreFoundFirst) {
+  std::string claims = write("ok.toml", kHolds);
+  std::string plain = write("plain.txt", "x");
+  for (const std::string& out : {plain + "/report.json", plain + "/reports/"}) {
+    Outcome r = shell("$TG check --clock-limit 0 --out " + out + " " + claims);
+    EXPECT_EQ(r.status, 2) << r.out;
+    EXPECT_EQ(r.out.find("terminate"), std::string::npos) << r.out;
+    EXPECT_EQ(r.out.rfind(out + ":1:1: error: ", 0), 0u) << r.out;
+  }
+}
+
+// 14. A write that fails midway (here: a file size limit) leaves the old
+// report whole and says why.
+TEST_F(HardeningCli, AFailedWriteKeepsTheOldReportAndGivesTheReason) {
+  std::string claims = write("ok.toml", kHolds);
+  std::string old_report = R"({"old": "complete"})";
+  write("out/report.json", old_report);
+  // ulimit -f counts 512-byte blocks: 4 KiB, less than any JSON report.
+  Outcome r = shell("trap '' XFSZ; ulimit -f 8; $TG check --max-bits 64 --clock-limit 0 --out " +
+                    (dir_ / "out").string() + "/ " + claims);
+  EXPECT_EQ(r.status, 2) << r.out;
+  EXPECT_NE(r.out.find("File too large"), std::string::npos) << r.out;
+  EXPECT_EQ(read("out/report.json"), old_report);
+  for (const auto& e : fs::directory_iterator(dir_ / "out")) {
+    EXPECT_EQ(e.path().filename(), "report.json");  // no temporary files left behind
+  }
+}
+
+// 15. Messages.
+TEST_F(HardeningCli, MessagesNameTheRealProblem) {
+  Outcome typo = shell("$TG chekc claims");
+  EXPECT_EQ(typo.status, 2);
+  EXPECT_NE(typo.out.find("unknown command 'chekc'"), std::string::npos) << typo.out;
+  EXPECT_NE(typo.out.find("did you mean 'check'?"), std::string::npos) << typo.out;
+
+  std::string claims = write("ok.toml", kHolds);
+  Outcome baseline = shell("$TG check --baseline " + dir_.string() + " " + claims);
+  EXPECT_EQ(baseline.status, 2);
+  EXPECT_NE(baseline.out.find("is a folder, not a baseline report"), std::string::npos)
+      << baseline.out;
+
+  // A path that cannot be reached is not "no such file".
+  fs::create_symlink("loop", dir_ / "loop");
+  Outcome unreachable = shell("$TG check " + (dir_ / "loop" / "x.toml").string());
+  EXPECT_EQ(unreachable.status, 2);
+  EXPECT_NE(unreachable.out.find("cannot reach"), std::string::npos) << unreachable.out;
+
+  // A budget that runs out names the size that asked for too much.
+  Outcome budget = shell("$TG eval 'T(n) = T(n-1) + 1; T(0) = 0' 10 10^12");
+  EXPECT_EQ(budget.status, 2);
+  EXPECT_NE(budget.out.find("<size>:1:1: error: T(10^12) is out of budget"), std::string::npos)
+      << budget.out;
+}
+
+}  // namespace
