@@ -273,6 +273,15 @@ std::unique_ptr<IntegerKernel> IntegerKernel::compile(const Recurrence& r,
   for (const CaseLine* line : r.main.lines_in_order()) {
     if (!compiler.add_line(*line)) return nullptr;
   }
+  // Point cases come first and exclude each other: sorted by their point,
+  // select() finds one by binary search (a claim may list tens of thousands).
+  auto& lines = kernel->lines_;
+  auto points_end = std::partition_point(lines.begin(), lines.end(),
+                                         [](const Line& l) { return l.point.has_value(); });
+  const std::vector<BigInt>& constants = kernel->constants_;
+  std::sort(lines.begin(), points_end, [&constants](const Line& a, const Line& b) {
+    return constants[*a.point] < constants[*b.point];
+  });
   mpz_set_ui(kernel->one_.z, 1);
   return kernel;
 }
@@ -469,12 +478,14 @@ bool IntegerKernel::test(uint32_t id, size_t depth) {
 
 const IntegerKernel::Line* IntegerKernel::select(mpz_srcptr n) {
   current_n_ = n;
-  for (const Line& line : lines_) {
-    if (line.point) {
-      if (mpz_cmp(n, constants_[*line.point].backend().data()) == 0) return &line;
-    } else if (!line.condition || test(*line.condition, 0)) {
-      return &line;
-    }
+  auto points_end = std::partition_point(lines_.begin(), lines_.end(),
+                                         [](const Line& l) { return l.point.has_value(); });
+  auto at = std::lower_bound(lines_.begin(), points_end, n, [this](const Line& l, mpz_srcptr x) {
+    return mpz_cmp(constants_[*l.point].backend().data(), x) < 0;
+  });
+  if (at != points_end && mpz_cmp(constants_[*at->point].backend().data(), n) == 0) return &*at;
+  for (auto it = points_end; it != lines_.end(); ++it) {
+    if (!it->condition || test(*it->condition, 0)) return &*it;
   }
   throw KernelDeclines{};  // no line applies: the general path says so
 }

@@ -25,7 +25,7 @@ Rational rational_of(mpfr_srcptr x) {
   // error, not an allocation that takes the machine down.
   if (mpfr_regular_p(x) && std::abs(mpfr_get_exp(x)) > kMaxExactExponentBits) {
     throw BudgetExceeded("a number near 2^" + std::to_string(mpfr_get_exp(x)) +
-                         " is too large to handle exactly");
+                         " has too many bits to handle exactly");
   }
   Rational q;
   mpfr_get_q(q.backend().data(), x);
