@@ -112,6 +112,17 @@ class ReportReader {
       fail_at_offset(
           e.byte > 0 ? e.byte - 1 : 0,
           "not valid JSON: " + (detail == std::string::npos ? what : what.substr(detail)));
+    } catch (const Json::exception& e) {
+      // A number beyond a double (1e3081) is out_of_range, not a parse
+      // error; it carries no byte, so find the number it names.
+      std::string what = e.what();
+      size_t quote = what.find('\'');
+      std::string number =
+          quote == std::string::npos ? "" : what.substr(quote + 1, what.rfind('\'') - quote - 1);
+      size_t at = number.empty() ? std::string::npos : text_.find(number);
+      std::string shown = number.size() > 24 ? number.substr(0, 24) + "..." : number;
+      fail_at_offset(at == std::string::npos ? 0 : at,
+                     "not valid JSON here: the number " + shown + " is out of range");
     }
     expect_object(root, "");
     const Json& version = require(root, "", "schema_version");

@@ -9,6 +9,7 @@
 #include <functional>
 #include <string>
 
+#include "reports/baseline.h"
 #include "reports/report_file.h"
 #include "reports/text_report.h"
 #include "verifier/checking/checker.h"
@@ -351,6 +352,19 @@ TEST(Hardening, WorkersAreCappedByTheSharedMemoryLimit) {
   EXPECT_EQ(workers_for(request, 20), 1u);
   request.memory_limit = uint64_t{1} << 40;
   EXPECT_EQ(workers_for(request, 20), 20u);
+}
+
+// Found by mutation fuzzing of the baseline reader: a number beyond a
+// double ended in an uncaught nlohmann::json out_of_range (abort).
+TEST(Hardening, BaselineNumbersOutOfRangeAreALocatedError) {
+  try {
+    read_json_report("{\"schema_version\": 1,\n \"seed\": 1e3081}", "old.json");
+    ADD_FAILURE() << "accepted 1e3081";
+  } catch (const InputError& e) {
+    EXPECT_EQ(e.diagnostic().message, "not valid JSON here: the number 1e3081 is out of range");
+    EXPECT_EQ(e.diagnostic().where.line, 2);
+    EXPECT_EQ(e.diagnostic().where.column, 10);
+  }
 }
 
 }  // namespace
