@@ -126,10 +126,13 @@ class ReportReader {
     }
     expect_object(root, "");
     const Json& version = require(root, "", "schema_version");
-    if (!version.is_number_unsigned() || version.get<uint64_t>() != kJsonSchemaVersion) {
+    // Version 2 only added keys (and made "holds" require a proof): a
+    // version-1 baseline compares just as well.
+    if (!version.is_number_unsigned() || version.get<uint64_t>() < 1 ||
+        version.get<uint64_t>() > kJsonSchemaVersion) {
       fail("schema_version", "schema_version " + version.dump() +
                                  " is not one this thetagate "
-                                 "reads (it reads version " +
+                                 "reads (it reads versions 1 to " +
                                  std::to_string(kJsonSchemaVersion) + ")");
     }
     RunResult run;
@@ -356,6 +359,113 @@ class ReportReader {
     return d;
   }
 
+  EdgeReading edge(const Json& j, const std::string& path) {
+    expect_object(j, path);
+    EdgeReading e;
+    std::string d = string_at(j, path, "direction");
+    for (Direction x : {Direction::kSteady, Direction::kRising, Direction::kFalling,
+                        Direction::kEscapes, Direction::kUnclear}) {
+      if (d == direction_name(x)) e.direction = x;
+    }
+    e.slope = ratio_value(require(j, path, "slope"), join(path, "slope"));
+    e.change_log2 = ratio_value(require(j, path, "change_log2"), join(path, "change_log2"));
+    e.envelope_log2 = ratio_value(require(j, path, "envelope_log2"), join(path, "envelope_log2"));
+    e.monotone = boolean_value(require(j, path, "monotone"), join(path, "monotone"));
+    e.first_scale = unsigned_at(j, path, "first_scale");
+    e.last_scale = unsigned_at(j, path, "last_scale");
+    return e;
+  }
+
+  // The basis of a version-2 report; a version-1 report has none.
+  VerdictBasis basis(const Json& o, const std::string& outer) {
+    VerdictBasis b;
+    const Json* jp = optional_key(o, "basis");
+    if (!jp) return b;
+    const Json& j = *jp;
+    std::string path = join(outer, "basis");
+    expect_object(j, path);
+    std::string kind = string_at(j, path, "kind");
+    for (BasisKind k :
+         {BasisKind::kDerivationAgrees, BasisKind::kInduction, BasisKind::kDerivationContradicts,
+          BasisKind::kCertifiedBreak, BasisKind::kNumericTrend, BasisKind::kBudgetReached,
+          BasisKind::kInternalInconsistency, BasisKind::kInputError}) {
+      if (kind == basis_name(k)) b.kind = k;
+    }
+    std::string unproved = string_at(j, path, "unproved");
+    for (Unproved u :
+         {Unproved::kNone, Unproved::kNoDerivation, Unproved::kSideUnclassified,
+          Unproved::kDerivedOutgrowsSide, Unproved::kInductionFailed, Unproved::kNumbersOnly,
+          Unproved::kTrendUnsettled, Unproved::kClaimUnclassified, Unproved::kEvaluatorLimit}) {
+      if (unproved == unproved_name(u)) b.unproved = u;
+    }
+    b.detail = string_at(j, path, "detail");
+    if (const Json* t = optional_key(j, "theorem"); t && !t->is_null()) {
+      std::string at = join(path, "theorem");
+      expect_object(*t, at);
+      TheoremEvidence e;
+      e.method = string_at(*t, at, "method");
+      e.derived = string_at(*t, at, "derived");
+      e.claimed = string_at(*t, at, "claimed");
+      e.kind = string_at(*t, at, "kind");
+      std::string a = string_at(*t, at, "agreement");
+      e.agreement = a == "same"    ? Agreement::kSame
+                    : a == "loose" ? Agreement::kLoose
+                                   : Agreement::kContradicts;
+      e.claimed_below = optional_key(*t, "claimed_below") &&
+                        boolean_value(require(*t, at, "claimed_below"), join(at, "claimed_below"));
+      b.theorem = e;
+    }
+    if (const Json* in = optional_key(j, "induction"); in && !in->is_null()) {
+      std::string at = join(path, "induction");
+      expect_object(*in, at);
+      InductionProof p;
+      const Json& sides = require(*in, at, "sides");
+      expect_array(sides, join(at, "sides"));
+      for (size_t i = 0; i < sides.size(); ++i) {
+        p.sides.push_back(side_value(sides[i], join(at, "sides") + "[" + std::to_string(i) + "]"));
+      }
+      p.bound = string_at(*in, at, "bound");
+      p.strengthening = string_at(*in, at, "strengthening");
+      p.checked_from = size_value(require(*in, at, "checked_from"), join(at, "checked_from"));
+      p.checked_to = size_value(require(*in, at, "checked_to"), join(at, "checked_to"));
+      p.modulus = unsigned_at(*in, at, "modulus");
+      p.tail_log2 = unsigned_at(*in, at, "tail_log2");
+      p.blocks = unsigned_at(*in, at, "blocks");
+      p.identity = boolean_value(require(*in, at, "identity"), join(at, "identity"));
+      b.induction = p;
+    }
+    if (const Json* tr = optional_key(j, "trend"); tr && !tr->is_null()) {
+      std::string at = join(path, "trend");
+      expect_object(*tr, at);
+      TrendEvidence t;
+      const Json& up = require(*tr, at, "upper");
+      const Json& lo = require(*tr, at, "lower");
+      t.upper_matters = !up.is_null();
+      t.lower_matters = !lo.is_null();
+      if (t.upper_matters) t.upper = edge(up, join(at, "upper"));
+      if (t.lower_matters) t.lower = edge(lo, join(at, "lower"));
+      const Json& esc = require(*tr, at, "escapes");
+      if (!esc.is_null()) t.escapes = side_value(esc, join(at, "escapes"));
+      b.trend = t;
+    }
+    if (const Json* d = optional_key(j, "disagreement")) {
+      std::string at = join(path, "disagreement");
+      expect_array(*d, at);
+      for (size_t i = 0; i < d->size(); ++i) {
+        std::string item = at + "[" + std::to_string(i) + "]";
+        EdgeDisagreement e;
+        e.reading = edge((*d)[i], item);
+        e.edge = side_value(require((*d)[i], item, "edge"), join(item, "edge"));
+        b.disagreement.push_back(e);
+      }
+    }
+    b.reading = optional_string(j, path, "reading");
+    if (const Json* other = optional_key(j, "other_reading"); other && !other->is_null()) {
+      b.other_reading = verdict_value(*other, join(path, "other_reading"));
+    }
+    return b;
+  }
+
   ClaimResult claim(const Json& j, const std::string& path) {
     expect_object(j, path);
     ClaimResult c;
@@ -379,16 +489,24 @@ class ReportReader {
     for (size_t i = 0; i < band.size(); ++i) {
       c.band.push_back(band_row(band[i], at + "[" + std::to_string(i) + "]"));
     }
-    c.message = string_at(j, path, "message");
+    string_at(j, path, "message");  // required; the sentence is recomposed, not kept
     if (const Json* n = optional_key(j, "numeric_only")) {
       c.numeric_only = boolean_value(*n, join(path, "numeric_only"));
     }
     c.notes = optional_strings(j, path, "notes");
-    c.reasons = optional_strings(j, path, "reasons");
+    if (optional_key(j, "steps")) {
+      c.steps = optional_strings(j, path, "steps");
+      c.failed_hypotheses = optional_strings(j, path, "failed_hypotheses");
+    } else {
+      c.steps = optional_strings(j, path, "reasons");
+    }
     c.note = optional_string(j, path, "note");
     c.sizes_checked = optional_unsigned(j, path, "sizes_checked");
     c.largest_bits = optional_unsigned(j, path, "largest_bits");
     c.error = error(j, path);
+    c.basis = basis(j, path);
+    if (const Json* f = optional_key(j, "function"))
+      c.function = string_value(*f, join(path, "function"));
     return c;
   }
 

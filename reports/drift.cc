@@ -60,7 +60,7 @@ std::vector<BandMove> band_moves(const std::vector<BandRow>& before,
   return out;
 }
 
-ClaimDrift compare_claim(const ClaimResult& before, const ClaimResult& after) {
+ClaimDrift drift_of_claim(const ClaimResult& before, const ClaimResult& after) {
   ClaimDrift d;
   d.name = after.name;
   d.file = after.file;
@@ -210,7 +210,7 @@ DriftReport compare_runs(const RunResult& baseline, const RunResult& current) {
       continue;
     }
     ++report.compared;
-    ClaimDrift d = compare_claim(baseline.claims[it->second], c);
+    ClaimDrift d = drift_of_claim(baseline.claims[it->second], c);
     unmatched.erase(it);
     if (drifted(d)) report.claims.push_back(std::move(d));
   }

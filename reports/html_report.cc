@@ -8,6 +8,7 @@
 
 #include "reports/band_plot.h"
 #include "reports/number_text.h"
+#include "reports/verdict_text.h"
 #include "reports/xml_escape.h"
 
 namespace thetagate {
@@ -117,15 +118,19 @@ std::string claim_section(const ClaimResult& c, size_t index) {
   s += "<tr><th>derived</th><td>" + esc(derived_text(c)) + "</td></tr>\n";
   if (c.verdict == Verdict::kHolds && !c.tight) s += "<tr><th>tight</th><td>no</td></tr>\n";
   if (c.numeric_only) s += "<tr><th>decided by</th><td>the numbers alone</td></tr>\n";
+  if (std::string proof = proof_name(c); !proof.empty())
+    s += "<tr><th>proof</th><td>" + esc(proof) + "</td></tr>\n";
   if (c.sizes_checked > 0) {
     s += fmt::format("<tr><th>checked</th><td>{} sizes up to {} bits</td></tr>\n", c.sizes_checked,
                      c.largest_bits);
   }
   s += "</table>\n";
-  if (!c.message.empty()) s += "<p class=\"message\">" + esc(c.message) + "</p>\n";
+  std::string message = verdict_message(c);
+  if (!message.empty()) s += "<p class=\"message\">" + esc(message) + "</p>\n";
   if (c.error) s += "<pre class=\"diagnostic\">" + esc(format_diagnostic(*c.error)) + "</pre>\n";
   if (!c.note.empty()) s += "<p class=\"note\">Note: " + esc(c.note) + "</p>\n";
-  s += list("Derivation", "ol", c.reasons);
+  s += list("Derivation", "ol", c.steps);
+  s += list("Theorems that do not apply", "ul", c.failed_hypotheses);
   s += list("Assumptions", "ul", c.notes);
   if (!c.witnesses.empty()) s += witness_table(c);
   std::string plot = render_band_plot(c.band, plot_lines(c));

@@ -3,6 +3,8 @@
 #include <cmath>
 #include <nlohmann/json.hpp>
 
+#include "reports/verdict_text.h"
+
 namespace thetagate {
 
 namespace {
@@ -54,6 +56,75 @@ Json error_json(const std::optional<Diagnostic>& d) {
   return j;
 }
 
+Json edge_json(const EdgeReading& e) {
+  Json j;
+  j["direction"] = direction_name(e.direction);
+  j["slope"] = ratio(e.slope);
+  j["change_log2"] = ratio(e.change_log2);
+  j["envelope_log2"] = ratio(e.envelope_log2);
+  j["monotone"] = e.monotone;
+  j["first_scale"] = e.first_scale;
+  j["last_scale"] = e.last_scale;
+  return j;
+}
+
+Json basis_json(const VerdictBasis& b) {
+  Json j;
+  j["kind"] = basis_name(b.kind);
+  j["unproved"] = unproved_name(b.unproved);
+  j["detail"] = b.detail;
+  if (b.theorem) {
+    const TheoremEvidence& t = *b.theorem;
+    Json th;
+    th["method"] = t.method;
+    th["derived"] = t.derived;
+    th["claimed"] = t.claimed;
+    th["kind"] = t.kind;
+    th["agreement"] = t.agreement == Agreement::kSame    ? "same"
+                      : t.agreement == Agreement::kLoose ? "loose"
+                                                         : "contradicts";
+    th["claimed_below"] = t.claimed_below;
+    j["theorem"] = th;
+  } else {
+    j["theorem"] = nullptr;
+  }
+  if (b.induction) {
+    const InductionProof& p = *b.induction;
+    Json in;
+    in["sides"] = Json::array();
+    for (Side s : p.sides) in["sides"].push_back(side_name(s));
+    in["bound"] = p.bound;
+    in["strengthening"] = p.strengthening;
+    in["checked_from"] = p.checked_from.str();
+    in["checked_to"] = p.checked_to.str();
+    in["modulus"] = p.modulus;
+    in["tail_log2"] = p.tail_log2;
+    in["blocks"] = p.blocks;
+    in["identity"] = p.identity;
+    j["induction"] = in;
+  } else {
+    j["induction"] = nullptr;
+  }
+  if (b.trend) {
+    Json tr;
+    tr["upper"] = b.trend->upper_matters ? edge_json(b.trend->upper) : Json(nullptr);
+    tr["lower"] = b.trend->lower_matters ? edge_json(b.trend->lower) : Json(nullptr);
+    tr["escapes"] = b.trend->escapes ? Json(side_name(*b.trend->escapes)) : Json(nullptr);
+    j["trend"] = tr;
+  } else {
+    j["trend"] = nullptr;
+  }
+  j["disagreement"] = Json::array();
+  for (const EdgeDisagreement& d : b.disagreement) {
+    Json e = edge_json(d.reading);
+    e["edge"] = side_name(d.edge);
+    j["disagreement"].push_back(e);
+  }
+  j["reading"] = b.reading;
+  j["other_reading"] = b.other_reading ? Json(verdict_name(*b.other_reading)) : Json(nullptr);
+  return j;
+}
+
 Json claim_json(const ClaimResult& c) {
   Json j;
   // The docs/design.md §6 keys first, in that order.
@@ -69,15 +140,23 @@ Json claim_json(const ClaimResult& c) {
   for (const Witness& w : c.witnesses) j["witnesses"].push_back(witness_to_json(w));
   j["band"] = Json::array();
   for (const BandRow& r : c.band) j["band"].push_back(band_row_to_json(r));
-  j["message"] = c.message;
+  j["message"] = verdict_message(c);
   // Added in schema version 1.
   j["numeric_only"] = c.numeric_only;
   j["notes"] = c.notes;
-  j["reasons"] = c.reasons;
+  std::vector<std::string> reasons = c.steps;
+  reasons.insert(reasons.end(), c.failed_hypotheses.begin(), c.failed_hypotheses.end());
+  j["reasons"] = reasons;
   j["note"] = c.note;
   j["sizes_checked"] = c.sizes_checked;
   j["largest_bits"] = c.largest_bits;
   j["error"] = error_json(c.error);
+  // Added in schema version 2.
+  j["function"] = c.function;
+  j["proof"] = proof_name(c);
+  j["basis"] = basis_json(c.basis);
+  j["steps"] = c.steps;
+  j["failed_hypotheses"] = c.failed_hypotheses;
   return j;
 }
 

@@ -6,6 +6,7 @@
 #include <cstdint>
 
 #include "reports/number_text.h"
+#include "reports/verdict_text.h"
 #include "reports/xml_escape.h"
 
 namespace thetagate {
@@ -60,27 +61,27 @@ std::string witness_block(const ClaimResult& c) {
 }
 
 std::string outcome_element(const ClaimResult& c, const JunitOptions& options) {
+  std::string message = verdict_message(c);
   switch (c.verdict) {
     case Verdict::kHolds:
       return "";
     case Verdict::kRefuted: {
       std::string body = claim_headline(c);
-      if (!c.message.empty()) body += c.message + "\n";
+      if (!message.empty()) body += message + "\n";
       body += witness_block(c);
-      return "      <failure" + attr("message", c.message) + attr("type", "refuted") + ">" +
+      return "      <failure" + attr("message", message) + attr("type", "refuted") + ">" +
              xml_escape_text(body) + "</failure>\n";
     }
     case Verdict::kUndecided: {
       if (!options.undecided_fails) {
-        return "      <skipped" + attr("message", c.message) + "/>\n";
+        return "      <skipped" + attr("message", message) + "/>\n";
       }
-      std::string body = claim_headline(c) + (c.message.empty() ? "" : c.message + "\n");
-      return "      <failure" + attr("message", c.message) + attr("type", "undecided") + ">" +
+      std::string body = claim_headline(c) + (message.empty() ? "" : message + "\n");
+      return "      <failure" + attr("message", message) + attr("type", "undecided") + ">" +
              xml_escape_text(body) + "</failure>\n";
     }
     case Verdict::kError: {
-      std::string message = c.error ? c.error->message : c.message;
-      std::string body = c.error ? format_diagnostic(*c.error) + "\n" : c.message + "\n";
+      std::string body = c.error ? format_diagnostic(*c.error) + "\n" : message + "\n";
       return "      <error" + attr("message", message) + attr("type", "input") + ">" +
              xml_escape_text(body) + "</error>\n";
     }
@@ -91,10 +92,11 @@ std::string outcome_element(const ClaimResult& c, const JunitOptions& options) {
 // The derivation and assumptions, for a reader who opens the test case.
 std::string system_out(const ClaimResult& c) {
   std::string s;
-  if (c.verdict == Verdict::kHolds) s += claim_headline(c);
+  if (c.verdict == Verdict::kHolds) s += claim_headline(c) + "proof: " + proof_name(c) + "\n";
   for (const std::string& note : c.notes) s += "assumption: " + note + "\n";
   if (!c.note.empty()) s += "note: " + c.note + "\n";
-  for (const std::string& reason : c.reasons) s += "derivation: " + reason + "\n";
+  for (const std::string& step : c.steps) s += "derivation: " + step + "\n";
+  for (const std::string& h : c.failed_hypotheses) s += "not applicable: " + h + "\n";
   if (c.sizes_checked > 0) {
     s += fmt::format("checked {} sizes up to {} bits\n", c.sizes_checked, c.largest_bits);
   }

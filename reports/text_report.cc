@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "reports/number_text.h"
+#include "reports/verdict_text.h"
 #include "verifier/syntax/source.h"
 
 namespace thetagate {
@@ -113,6 +114,7 @@ std::string claim_summary(const ClaimResult& c) {
     if (!c.derived.empty() && !c.method.empty() && c.method != "numeric") s += " by " + c.method;
   }
   if (c.verdict == Verdict::kHolds && !c.tight) s += " \u00b7 not tight";
+  if (c.verdict == Verdict::kHolds) s += " \u00b7 proof: " + proof_name(c);
   if (c.numeric_only) s += " \u00b7 numeric only";
   return s;
 }
@@ -236,16 +238,20 @@ void append_detail(std::string& out, const RunResult& run, const ClaimResult& c,
   if (!has_diagnostic && !c.file.empty()) {
     out += kIndent + painter.dim("at " + c.file + ":" + std::to_string(c.line)) + "\n";
   }
-  if (!c.message.empty() && !(has_diagnostic && c.message == c.error->message)) {
-    append_indented(out, kIndent, c.message);
+  std::string message = verdict_message(c);
+  if (!message.empty() && !(has_diagnostic && message == c.error->message)) {
+    append_indented(out, kIndent, message);
   }
+  std::string proof = proof_name(c);
+  if (!proof.empty()) append_indented(out, kIndent, "proof: " + proof);
   if (has_diagnostic)
     append_indented(out, kIndent, format_diagnostic(*c.error), /*wrap_lines=*/false);
   append_witnesses(out, c);
   append_band(out, c);
   append_list(out, "assumptions:", c.notes);
   if (!c.note.empty()) append_indented(out, kIndent, "note: " + c.note);
-  append_list(out, "derivation:", c.reasons);
+  append_list(out, "derivation:", c.steps);
+  append_list(out, "not applicable:", c.failed_hypotheses);
   if (c.sizes_checked > 0) {
     out += kIndent +
            painter.dim(fmt::format("checked {} size{} up to {} bits", c.sizes_checked,

@@ -31,7 +31,8 @@ std::string steps_of(const Derivation& d) {
 }
 
 ClaimComparison against(const std::string& recurrence, const std::string& bound) {
-  return compare_claim(derived(recurrence), parse_bound(SourceText::whole("<bound>", bound)));
+  return compare_with_derivation(derived(recurrence),
+                                 parse_bound(SourceText::whole("<bound>", bound)));
 }
 
 TEST(DeriveMaster, CaseTwo) {

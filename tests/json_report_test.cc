@@ -11,6 +11,7 @@
 #include <nlohmann/json.hpp>
 #include <vector>
 
+#include "reports/verdict_text.h"
 #include "tests/golden.h"
 #include "tests/report_fixture.h"
 
@@ -32,18 +33,20 @@ TEST(JsonReport, MatchesGolden) { expect_matches_golden("report.json", render_js
 TEST(JsonReport, TopLevelKeysInOrder) {
   Json j = Json::parse(render_json(sample_run()));
   EXPECT_EQ(keys_of(j), (std::vector<std::string>{"schema_version", "seed", "claims"}));
-  EXPECT_EQ(j["schema_version"], 1);
+  EXPECT_EQ(j["schema_version"], 2);
   EXPECT_EQ(j["seed"], 20240611u);
   EXPECT_EQ(j["claims"].size(), 6u);
 }
 
 TEST(JsonReport, ClaimKeysStartWithTheDesignKeys) {
   Json j = Json::parse(render_json(sample_run()));
-  // docs/design.md §6 keys first and in that order, then the schema-1 additions.
+  // docs/design.md §6 keys first and in that order, then the schema-1 and
+  // schema-2 additions.
   std::vector<std::string> expected = {
-      "name",   "file",    "line",      "verdict",       "claimed",      "derived",
-      "method", "tight",   "witnesses", "band",          "message",      "numeric_only",
-      "notes",  "reasons", "note",      "sizes_checked", "largest_bits", "error"};
+      "name",     "file",    "line",      "verdict",       "claimed",          "derived",
+      "method",   "tight",   "witnesses", "band",          "message",          "numeric_only",
+      "notes",    "reasons", "note",      "sizes_checked", "largest_bits",     "error",
+      "function", "proof",   "basis",     "steps",         "failed_hypotheses"};
   for (const Json& claim : j["claims"]) EXPECT_EQ(keys_of(claim), expected);
 }
 
@@ -60,7 +63,10 @@ TEST(JsonReport, ClaimValuesRoundTrip) {
   EXPECT_EQ(refuted["method"], "master theorem, case 2");
   EXPECT_EQ(refuted["tight"], true);
   EXPECT_EQ(refuted["numeric_only"], false);
-  EXPECT_EQ(refuted["message"], run.claims[1].message);
+  EXPECT_EQ(refuted["message"], verdict_message(run.claims[1]));
+  EXPECT_EQ(refuted["basis"]["kind"], "derivation_contradicts");
+  EXPECT_EQ(refuted["proof"], "");
+  EXPECT_EQ(j["claims"][0]["proof"], "master theorem, case 2");
   EXPECT_TRUE(refuted["error"].is_null());
   EXPECT_EQ(j["claims"][2]["tight"], false);
   EXPECT_EQ(j["claims"][3]["verdict"], "undecided");
@@ -148,7 +154,7 @@ TEST(JsonReport, InvalidUtf8IsReplacedNotThrown) {
 
 TEST(JsonReport, PrettyPrintedWithTwoSpacesAndFinalNewline) {
   std::string text = render_json(sample_run());
-  EXPECT_EQ(text.substr(0, 24), "{\n  \"schema_version\": 1,");
+  EXPECT_EQ(text.substr(0, 24), "{\n  \"schema_version\": 2,");
   EXPECT_EQ(text.back(), '\n');
 }
 

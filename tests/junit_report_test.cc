@@ -13,6 +13,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "reports/verdict_text.h"
 #include "reports/xml_escape.h"
 #include "tests/golden.h"
 #include "tests/report_fixture.h"
@@ -89,7 +90,9 @@ TEST(JunitReport, HostileTextStaysWellFormedAndValid) {
   }
   RunResult run = sample_run();
   run.claims[1].name = "a]]><b>&amp;\"'\x01\xff\xC0\x80 end";
-  run.claims[1].message = "line one\nline two\r\n<![CDATA[ x ]]>";
+  run.claims[1].basis.kind = BasisKind::kBudgetReached;
+  run.claims[1].basis.unproved = Unproved::kSideUnclassified;
+  run.claims[1].basis.detail = "line one\nline two\r\n<![CDATA[ x ]]>";
   run.claims[1].file = "claims/we\"ird & <odd>.toml";
   EXPECT_EQ(validate(xmllint, render_junit(run, JunitOptions{}), "junit_hostile.xml"), 0);
 }
@@ -110,8 +113,9 @@ TEST(JunitReport, OneSuitePerFileOneCasePerClaim) {
 TEST(JunitReport, RefutationCarriesEveryDigitOfTheWitness) {
   RunResult run = sample_run();
   std::string xml = render_junit(run, JunitOptions{});
-  EXPECT_NE(xml.find("<failure message=\"" + run.claims[1].message + "\" type=\"refuted\">"),
-            std::string::npos);
+  EXPECT_NE(
+      xml.find("<failure message=\"" + verdict_message(run.claims[1]) + "\" type=\"refuted\">"),
+      std::string::npos);
   for (const Witness& w : run.claims[1].witnesses) {
     EXPECT_NE(xml.find("n = " + w.n.str() + " (upper side)"), std::string::npos);
     EXPECT_NE(xml.find("T(n) = " + w.value + "\n"), std::string::npos);
@@ -130,12 +134,16 @@ TEST(JunitReport, ErrorCarriesTheDiagnostic) {
 TEST(JunitReport, UndecidedIsSkippedUnlessOptionSaysFail) {
   RunResult run = sample_run();
   std::string lenient = render_junit(run, JunitOptions{false});
-  EXPECT_NE(lenient.find("<skipped message=\"no theorem applies;"), std::string::npos);
+  EXPECT_NE(lenient.find(
+                "<skipped message=\"numbers only (no theorem applied), and they do not settle it:"),
+            std::string::npos);
   EXPECT_EQ(lenient.find("type=\"undecided\""), std::string::npos);
 
   std::string strict = render_junit(run, JunitOptions{true});
   EXPECT_EQ(strict.find("<skipped"), std::string::npos);
-  EXPECT_NE(strict.find("<failure message=\"no theorem applies;"), std::string::npos);
+  EXPECT_NE(strict.find(
+                "<failure message=\"numbers only (no theorem applied), and they do not settle it:"),
+            std::string::npos);
   EXPECT_NE(strict.find("type=\"undecided\""), std::string::npos);
   EXPECT_NE(strict.find("tests=\"6\" failures=\"2\" errors=\"1\" skipped=\"0\""),
             std::string::npos);

@@ -26,9 +26,12 @@ inline ClaimResult stable_sort() {
   c.claimed = "Θ(n lg n)";
   c.derived = "Θ(n lg n)";
   c.method = "master theorem, case 2";
-  c.reasons = {"a = 2, b = 2: critical exponent lg 2 = 1",
-               "f(n) = n - 1 is Θ(n^1 lg^0 n): case 2 with k = 0 gives Θ(n lg n)",
-               "Akra–Bazzi with Leighton's condition covers ⌈n/2⌉ and ⌊n/2⌋"};
+  c.basis.kind = BasisKind::kDerivationAgrees;
+  c.basis.theorem = TheoremEvidence{"master theorem, case 2", "n lg n", "n lg n", "Theta",
+                                    Agreement::kSame,         false};
+  c.steps = {"a = 2, b = 2: critical exponent lg 2 = 1",
+             "f(n) = n - 1 is Θ(n^1 lg^0 n): case 2 with k = 0 gives Θ(n lg n)",
+             "Akra–Bazzi with Leighton's condition covers ⌈n/2⌉ and ⌊n/2⌋"};
   c.sizes_checked = 5120;
   c.largest_bits = 4096;
   return c;
@@ -43,9 +46,9 @@ inline ClaimResult rope_concat() {
   c.claimed = "O(n)";
   c.derived = "Θ(n lg n)";
   c.method = "master theorem, case 2";
-  c.message =
-      "the derived class Θ(n lg n) grows faster than the claimed O(n), and the witness "
-      "ladder confirms it up to c = 1000";
+  c.basis.kind = BasisKind::kDerivationContradicts;
+  c.basis.theorem =
+      TheoremEvidence{"master theorem, case 2", "n lg n", "n", "O", Agreement::kContradicts, true};
   // T(n) = n lg n + n on these sizes: above c·n once lg n passes c - 1.
   Witness w1;
   w1.n = 2048;
@@ -81,7 +84,7 @@ inline ClaimResult rope_concat() {
     r.samples = 1u << k;
     c.band.push_back(r);
   }
-  c.reasons = {"a = 2, b = 2, f(n) = n: case 2 of the master theorem gives Θ(n lg n)"};
+  c.steps = {"a = 2, b = 2, f(n) = n: case 2 of the master theorem gives Θ(n lg n)"};
   c.sizes_checked = 4800;
   c.largest_bits = 4096;
   return c;
@@ -97,7 +100,9 @@ inline ClaimResult binary_search() {
   c.derived = "Θ(lg n)";
   c.method = "master theorem, case 2";
   c.tight = false;
-  c.message = "O(n) is above the derived Θ(lg n): it holds, but it is not tight";
+  c.basis.kind = BasisKind::kDerivationAgrees;
+  c.basis.theorem =
+      TheoremEvidence{"master theorem, case 2", "lg n", "n", "O", Agreement::kLoose, false};
   c.sizes_checked = 3000;
   c.largest_bits = 4096;
   return c;
@@ -112,14 +117,26 @@ inline ClaimResult kd_tree() {
   c.claimed = "Θ(sqrt(n))";
   c.method = "numeric";
   c.numeric_only = true;
-  c.message =
-      "no theorem applies; T(n)/g(n) stays between 0.7 and 1.9 but its upper end "
-      "still rises slowly, so the numbers alone cannot decide";
+  c.basis.kind = BasisKind::kNumericTrend;
+  c.basis.unproved = Unproved::kTrendUnsettled;
+  TrendEvidence trend;
+  trend.upper_matters = trend.lower_matters = true;
+  trend.upper.direction = Direction::kRising;
+  trend.upper.slope = 0.12;
+  trend.upper.change_log2 = 0.5;
+  trend.upper.first_scale = 101;
+  trend.upper.last_scale = 3901;
+  trend.lower.direction = Direction::kSteady;
+  trend.lower.slope = 0.01;
+  trend.lower.change_log2 = 0.06;
+  trend.lower.first_scale = 101;
+  trend.lower.last_scale = 3901;
+  c.basis.trend = trend;
   c.notes = {"no base case covers n = 1: T(n) = 1 assumed where the argument would not shrink",
              "n/4 read as ⌊n/4⌋"};
-  c.reasons = {"master theorem: T(n) = 2T(n/4) + T(n/2) + 1 has two kinds of subproblem",
-               "Akra–Bazzi: the driving function is constant but the critical exponent\n"
-               "p with 2·4^(-p) + 2^(-p) = 1 has no closed form we compare exactly"};
+  c.failed_hypotheses = {"master theorem: T(n) = 2T(n/4) + T(n/2) + 1 has two kinds of subproblem",
+                         "Akra–Bazzi: the driving function is constant but the critical exponent\n"
+                         "p with 2·4^(-p) + 2^(-p) = 1 has no closed form we compare exactly"};
   c.note = "visits at most two children per level";
   for (uint64_t k = 0; k < 40; ++k) {
     BandRow r;
@@ -150,7 +167,7 @@ inline ClaimResult broken_quadtree() {
   d.hint = "close the call: T(n/4)";
   d.source_line = "recurrence = \"T(n) = 4T(n/4 + 1\"";
   c.error = d;
-  c.message = d.message;
+  c.basis.kind = BasisKind::kInputError;
   return c;
 }
 
@@ -163,6 +180,9 @@ inline ClaimResult karatsuba() {
   c.claimed = "Θ(n^(lg 3))";
   c.derived = "Θ(n^(lg 3))";
   c.method = "master theorem, case 1";
+  c.basis.kind = BasisKind::kDerivationAgrees;
+  c.basis.theorem = TheoremEvidence{"master theorem, case 1", "n^(lg 3)", "n^(lg 3)", "Theta",
+                                    Agreement::kSame,         false};
   c.note = "limbs, not bits; <32 limbs use the schoolbook loop";
   c.sizes_checked = 4400;
   c.largest_bits = 4096;

@@ -73,7 +73,8 @@ TEST(TextReport, ClaimLineShowsClaimedAndDerived) {
   std::string text = render_text(sample_run(), TextStyle{false});
   EXPECT_NE(text.find("claimed O(n) · derived Θ(n lg n) by master theorem, case 2\n"),
             std::string::npos);
-  EXPECT_NE(text.find("claimed O(n) · derived Θ(lg n) by master theorem, case 2 · not tight\n"),
+  EXPECT_NE(text.find("claimed O(n) · derived Θ(lg n) by master theorem, case 2 · not tight · "
+                      "proof: master theorem, case 2\n"),
             std::string::npos);
   EXPECT_NE(text.find("claimed Θ(sqrt(n)) · derived — · numeric only\n"), std::string::npos);
 }

@@ -26,7 +26,8 @@ ClaimResult error_result(const ClaimResult& base, const Diagnostic& d) {
   ClaimResult r = base;
   r.verdict = Verdict::kError;
   r.error = d;
-  r.message = d.message;
+  r.basis = VerdictBasis{};
+  r.basis.kind = BasisKind::kInputError;
   r.witnesses.clear();
   r.band.clear();
   return r;
@@ -77,7 +78,10 @@ ClaimResult check_one_reading(const Claim& claim, const CheckOptions& options) {
     return error_result(result, e.diagnostic());
   } catch (const BudgetExceeded& e) {
     result.verdict = Verdict::kUndecided;
-    result.message = std::string("out of budget: ") + e.what();
+    result.basis = VerdictBasis{};
+    result.basis.kind = BasisKind::kBudgetReached;
+    result.basis.unproved = Unproved::kEvaluatorLimit;
+    result.basis.detail = e.what();
   }
   return result;
 }
@@ -91,8 +95,9 @@ ClaimResult combine_readings(ClaimResult floor_result, ClaimResult ceil_result) 
   // Whichever reading is reported, both were checked: count both.
   uint64_t sizes = floor_result.sizes_checked + ceil_result.sizes_checked;
   uint64_t bits = std::max(floor_result.largest_bits, ceil_result.largest_bits);
-  auto labelled = [&](ClaimResult r, const std::string& reading) {
-    r.message = "with quotients read as " + reading + ": " + r.message;
+  auto labelled = [&](ClaimResult r, const std::string& reading, const ClaimResult& other) {
+    r.basis.reading = reading;
+    r.basis.other_reading = other.verdict;
     r.notes.push_back(both_note);
     r.sizes_checked = sizes;
     r.largest_bits = bits;
@@ -100,20 +105,18 @@ ClaimResult combine_readings(ClaimResult floor_result, ClaimResult ceil_result) 
   };
   bool floor_refuted = floor_result.verdict == Verdict::kRefuted;
   bool ceil_refuted = ceil_result.verdict == Verdict::kRefuted;
-  if (floor_refuted && ceil_refuted) return labelled(floor_result, "floor (and also as ceil)");
-  if (floor_refuted) return labelled(floor_result, "floor (the ceil reading does not break it)");
-  if (ceil_refuted) return labelled(ceil_result, "ceil (the floor reading does not break it)");
+  if (floor_refuted) return labelled(floor_result, "floor", ceil_result);
+  if (ceil_refuted) return labelled(ceil_result, "ceil", floor_result);
   if (floor_result.verdict == Verdict::kHolds && ceil_result.verdict == Verdict::kHolds) {
     floor_result.tight = floor_result.tight && ceil_result.tight;
-    floor_result.message =
-        "holds with quotients read as floor and as ceil: " + floor_result.message;
+    floor_result.basis.reading = "floor and ceil";
     floor_result.notes.push_back(both_note);
     floor_result.sizes_checked = sizes;
     floor_result.largest_bits = bits;
     return floor_result;
   }
-  if (floor_result.verdict != Verdict::kHolds) return labelled(floor_result, "floor");
-  return labelled(ceil_result, "ceil");
+  if (floor_result.verdict != Verdict::kHolds) return labelled(floor_result, "floor", ceil_result);
+  return labelled(ceil_result, "ceil", floor_result);
 }
 
 }  // namespace

@@ -83,7 +83,8 @@ ClaimCheck::ClaimCheck(const Claim& claim, const CheckOptions& options, ClaimRes
       options_(options),
       result_(result),
       evaluator_(claim.recurrence, scaled(options.budget, effort_of(claim, options))),
-      t_of_n_(make_call(claim.recurrence->main.name, {make_variable()})) {}
+      t_of_n_(make_call(claim.recurrence->main.name, {make_variable()})),
+      effort_(effort_of(claim, options)) {}
 
 void ClaimCheck::run() {
   derive_bound();
@@ -115,8 +116,9 @@ void ClaimCheck::derive_bound() {
   }
   if (!derivation_->derived.empty()) result_.derived = "Theta(" + derivation_->derived + ")";
   result_.method = derivation_->method;
-  result_.reasons = derivation_->steps;
-  for (const auto& r : derivation_->reasons) result_.reasons.push_back(r);
+  result_.function = claim_.recurrence->main.name;
+  result_.steps = derivation_->steps;
+  result_.failed_hypotheses = derivation_->reasons;
 }
 
 std::vector<Size> ClaimCheck::plan_sizes() {

@@ -19,6 +19,7 @@
 #include "verifier/checking/checker.h"
 #include "verifier/checking/result.h"
 #include "verifier/derivation/derive.h"
+#include "verifier/derivation/induction.h"
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/numbers/value.h"
 
@@ -146,6 +147,13 @@ class ClaimCheck {
   // Explicit bounds: a certified break refutes; otherwise the derived class
   // must fit between the sides for the claim to hold.
   void check_explicit(const std::vector<Size>& sizes);
+  // An explicit bound without a certified break: a proof by induction, the
+  // exact checks of its ranges done here (docs/design.md, "Proofs").
+  InductionOutcome try_induction(const Bound& bound);
+  // Theta/O/Omega without a theorem: a direct bound c·g(n) (upper) and
+  // g(n)/c (lower), c a power of two past the band, proved by induction from
+  // n = 16. True (and the verdict set) when it is.
+  bool try_direct_bound();
   // Theta/O/Omega: a derived class decides when the exact values agree with
   // it (and a drift between them is reported as an internal inconsistency);
   // without a derivation, or when g has no class, the numbers alone decide.
@@ -154,11 +162,13 @@ class ClaimCheck {
   // n with T(n) > c·g(n) (upper) or T(n) < g(n)/c (lower), certified exactly.
   void climb_ladder(const Target& target);
   // The exact numbers must agree with the derivation: T(n)/derived(n) stays
-  // in a band that does not drift. Returns a description of the drift, or
-  // "" when they agree.
-  std::string consistency(const std::vector<Sample>& samples);
-  // The verdict from the trend of the band and the ladder alone.
-  void decide_numerically(const std::vector<Target>& targets);
+  // in a band that does not move. Returns the edges that move (empty when
+  // they agree).
+  std::vector<EdgeDisagreement> consistency(const std::vector<Sample>& samples);
+  // The verdict from the trend of the band and the ladder alone: refuted
+  // when an edge escapes with certified rungs, otherwise undecided (numbers
+  // are evidence, not a proof). `claim_unclassified`: g has no normal form.
+  void decide_numerically(const std::vector<Target>& targets, bool claim_unclassified);
 
   const Claim& claim_;
   const CheckOptions& options_;
@@ -166,6 +176,7 @@ class ClaimCheck {
   Evaluator evaluator_;
   ExprPtr t_of_n_;
   uint64_t work_ = 0;
+  uint64_t effort_ = 1;
   std::optional<uint64_t> partial_scale_;  // where the size families stopped, if they did
   std::unordered_map<BigInt, Value, BigIntHash> values_;  // every T(n) value_at() gave
   std::optional<Derivation> derivation_;

@@ -12,6 +12,7 @@
 #include "verifier/checking/claim_check.h"
 #include "verifier/checking/trend.h"
 #include "verifier/derivation/classify.h"
+#include "verifier/derivation/induction.h"
 
 namespace thetagate::checker_internal {
 
@@ -50,56 +51,79 @@ void ClaimCheck::check_explicit(const std::vector<Size>& sizes) {
     if (target.violation) result_.witnesses.push_back(witness_for(target, *target.violation));
   }
   if (!result_.witnesses.empty()) {
-    const Witness& w = result_.witnesses.front();
     result_.verdict = Verdict::kRefuted;
-    result_.message = fmt::format(
-        "{} bound broken at n = {} (family {}): {}({}) = {} {} {}{}", side_name(w.side),
-        short_number(w.n), w.family, claim_.recurrence->main.name, short_number(w.n), w.value,
-        w.side == Side::kUpper ? ">" : "<", w.bound, w.margin.empty() ? "" : ", by " + w.margin);
-    return;
-  }
-  std::string checked = fmt::format("no violation at {} sizes up to {} bits", result_.sizes_checked,
-                                    result_.largest_bits);
-  if (!derivation_->growth) {
-    result_.verdict = Verdict::kUndecided;
-    result_.numeric_only = true;
-    result_.message = checked +
-                      "; no theorem derives the class, so the numbers cannot cover "
-                      "every n";
-    return;
-  }
-  // The derived class must fit under the upper side and over the lower.
-  const GrowthClass& derived = *derivation_->growth;
-  bool fits = true, tight = true;
-  std::string why;
-  for (const Target& target : targets) {
-    Classification c = classify(*target.reference, &claim_.recurrence->helpers);
-    if (!c.growth) {
-      fits = false;
-      why = fmt::format("the {} side has no growth class ({})", side_name(target.side), c.reason);
-      break;
-    }
-    int order = compare(derived, *c.growth);
-    if (order != 0) tight = false;
-    if ((target.side == Side::kUpper && order > 0) || (target.side == Side::kLower && order < 0)) {
-      fits = false;
-      why = fmt::format(
-          "T(n) = Θ({}) grows {} than the {} side Θ({}), so the bound must "
-          "break beyond the sizes checked",
-          derivation_->derived, target.side == Side::kUpper ? "faster" : "slower",
-          side_name(target.side), to_string(*c.growth));
-    }
-  }
-  if (fits) {
-    result_.verdict = Verdict::kHolds;
-    result_.tight = tight;
-    result_.message =
-        checked + fmt::format("; {} derives Θ({}), which the bound's class {}", derivation_->method,
-                              derivation_->derived, tight ? "matches" : "contains");
+    result_.basis.kind = BasisKind::kCertifiedBreak;
     return;
   }
   result_.verdict = Verdict::kUndecided;
-  result_.message = checked + "; " + why;
+  result_.basis.kind = BasisKind::kBudgetReached;
+  // What the derivation says about the bound's class: it must fit under
+  // the upper side and over the lower for a proof to be possible.
+  std::optional<TheoremEvidence> theorem;
+  bool tight = true;
+  if (derivation_->growth) {
+    const GrowthClass& derived = *derivation_->growth;
+    for (const Target& target : targets) {
+      Classification c = classify(*target.reference, &claim_.recurrence->helpers);
+      if (!c.growth) {
+        tight = false;
+        continue;
+      }
+      int order = compare(derived, *c.growth);
+      if (order != 0) tight = false;
+      if ((target.side == Side::kUpper && order > 0) ||
+          (target.side == Side::kLower && order < 0)) {
+        result_.basis.unproved = Unproved::kDerivedOutgrowsSide;
+        result_.basis.theorem =
+            TheoremEvidence{derivation_->method,    derivation_->derived,    to_string(*c.growth),
+                            side_name(target.side), Agreement::kContradicts, order > 0};
+        return;
+      }
+    }
+    theorem = TheoremEvidence{derivation_->method,
+                              derivation_->derived,
+                              "",
+                              "explicit",
+                              tight ? Agreement::kSame : Agreement::kLoose,
+                              false};
+  }
+  InductionOutcome induction = try_induction(claim_.bound);
+  if (induction.proof) {
+    result_.verdict = Verdict::kHolds;
+    result_.tight = tight;
+    result_.basis.kind = BasisKind::kInduction;
+    result_.basis.induction = induction.proof;
+    result_.basis.theorem = theorem;
+    return;
+  }
+  result_.numeric_only = !derivation_->growth;
+  result_.basis.unproved = Unproved::kInductionFailed;
+  result_.basis.theorem = theorem;
+  result_.basis.detail = induction.failure;
+}
+
+InductionOutcome ClaimCheck::try_induction(const Bound& bound) {
+  InductionRequest request;
+  request.recurrence = claim_.recurrence.get();
+  request.bound = &bound;
+  request.work_budget = 4000 * effort_;
+  const SourceText& rs = claim_.recurrence->source;
+  request.check_range = [&](const ExprPtr& candidate, Side side, bool strict, const BigInt& lo,
+                            const BigInt& hi) {
+    try {
+      for (BigInt n = lo; n <= hi; ++n) {
+        std::optional<int> order = compare_at(*t_of_n_, rs, *candidate, claim_.bound.source, n);
+        if (!order) return false;
+        bool ok = side == Side::kUpper ? (strict ? *order < 0 : *order <= 0)
+                                       : (strict ? *order > 0 : *order >= 0);
+        if (!ok) return false;
+      }
+      return true;
+    } catch (const BudgetExceeded&) {
+      return false;
+    }
+  };
+  return prove_by_induction(request);
 }
 
 void ClaimCheck::check_asymptotic(const std::vector<Size>& sizes) {
@@ -122,7 +146,7 @@ void ClaimCheck::check_asymptotic(const std::vector<Size>& sizes) {
   result_.band = merged.rows();
   for (const Target& target : targets) climb_ladder(target);
 
-  ClaimComparison cmp = compare_claim(*derivation_, bound);
+  ClaimComparison cmp = compare_with_derivation(*derivation_, bound);
   // Every side's samples: local search pushed each side's edge apart.
   std::vector<Sample> all;
   for (const Target& target : targets)
@@ -131,30 +155,87 @@ void ClaimCheck::check_asymptotic(const std::vector<Size>& sizes) {
     case ClaimAgreement::kAgree:
     case ClaimAgreement::kHoldsLoosely:
     case ClaimAgreement::kContradicts: {
-      std::string drift = consistency(all);
-      if (!drift.empty()) {
+      TheoremEvidence evidence{derivation_->method,
+                               derivation_->derived,
+                               to_string(*cmp.claimed),
+                               bound_kind_name(bound.kind),
+                               cmp.agreement == ClaimAgreement::kAgree ? Agreement::kSame
+                               : cmp.agreement == ClaimAgreement::kHoldsLoosely
+                                   ? Agreement::kLoose
+                                   : Agreement::kContradicts,
+                               cmp.claimed_below};
+      result_.basis.theorem = evidence;
+      std::vector<EdgeDisagreement> disagreement = consistency(all);
+      if (!disagreement.empty()) {
         result_.verdict = Verdict::kUndecided;
-        result_.message = "INTERNAL INCONSISTENCY: " + derivation_->method + " derives Θ(" +
-                          derivation_->derived + "), but the exact values disagree: " + drift +
-                          ". This is a bug or a misapplied theorem; please report it.";
+        result_.basis.kind = BasisKind::kInternalInconsistency;
+        result_.basis.disagreement = std::move(disagreement);
         return;
       }
       if (cmp.agreement == ClaimAgreement::kContradicts) {
         result_.verdict = Verdict::kRefuted;
-        result_.message = cmp.message + "; the exact values agree with the derivation";
+        result_.basis.kind = BasisKind::kDerivationContradicts;
         return;
       }
       result_.verdict = Verdict::kHolds;
+      result_.basis.kind = BasisKind::kDerivationAgrees;
       result_.tight = cmp.agreement == ClaimAgreement::kAgree;
       result_.witnesses.clear();
-      result_.message = cmp.message + "; the exact values agree";
       return;
     }
+    case ClaimAgreement::kCannotClassifyClaim:
+      result_.basis.detail = cmp.detail;
+      break;
+    case ClaimAgreement::kNoDerivation:
+      // No theorem: a direct bound c·g(n) proved by induction still proves
+      // the claim (and says so).
+      if (try_direct_bound()) return;
+      break;
     default:
       break;
   }
-  if (!cmp.message.empty()) result_.reasons.push_back(cmp.message);
-  decide_numerically(targets);
+  decide_numerically(targets, cmp.agreement == ClaimAgreement::kCannotClassifyClaim);
+}
+
+bool ClaimCheck::try_direct_bound() {
+  const Bound& bound = claim_.bound;
+  std::vector<BandRow> rows = complete_scales(result_.band);
+  if (rows.empty()) return false;
+  double high = rows.front().high_log2, low = rows.front().low_log2;
+  for (const BandRow& r : rows) {
+    high = std::max(high, r.high_log2);
+    low = std::min(low, r.low_log2);
+  }
+  bool upper = bound.kind == BoundKind::kTheta || bound.kind == BoundKind::kBigO;
+  bool lower = bound.kind == BoundKind::kTheta || bound.kind == BoundKind::kOmega;
+  if (upper && (!std::isfinite(high) || high > 60)) return false;
+  if (lower && (!std::isfinite(low) || low < -60)) return false;
+  // Constants with room beyond the band: powers of two.
+  Bound direct;
+  direct.kind = BoundKind::kExplicit;
+  direct.source = bound.source;
+  direct.n0 = 16;
+  if (upper) {
+    Rational c = Rational(BigInt(1) << static_cast<unsigned>(std::ceil(high) + 1 + 64)) /
+                 Rational(BigInt(1) << 64);
+    direct.upper = make_binary(ExprKind::kMul, make_number(c), bound.growth);
+  }
+  if (lower) {
+    Rational c = Rational(BigInt(1) << static_cast<unsigned>(std::floor(low) - 1 + 64)) /
+                 Rational(BigInt(1) << 64);
+    direct.lower = make_binary(ExprKind::kMul, make_number(c), bound.growth);
+  }
+  InductionOutcome induction = try_induction(direct);
+  if (!induction.proof) {
+    result_.basis.detail = "no direct bound c·g(n) was proved by induction: " + induction.failure;
+    return false;
+  }
+  result_.verdict = Verdict::kHolds;
+  result_.method = "induction";
+  result_.basis.kind = BasisKind::kInduction;
+  result_.basis.induction = induction.proof;
+  result_.witnesses.clear();
+  return true;
 }
 
 void ClaimCheck::climb_ladder(const Target& target) {
@@ -187,8 +268,8 @@ void ClaimCheck::climb_ladder(const Target& target) {
   }
 }
 
-std::string ClaimCheck::consistency(const std::vector<Sample>& samples) {
-  if (!derivation_->growth) return "";
+std::vector<EdgeDisagreement> ClaimCheck::consistency(const std::vector<Sample>& samples) {
+  if (!derivation_->growth) return {};
   BandBuilder band;
   for (const Sample& s : samples) {
     Value t = known_value(s.n);
@@ -196,28 +277,35 @@ std::string ClaimCheck::consistency(const std::vector<Sample>& samples) {
     if (!lg || sign_of(t) <= 0) continue;
     band.add(s.n, t.log2_magnitude() - *lg);
   }
-  if (band.empty()) return "";
+  if (band.empty()) return {};
   TrendReading trend = read_trend(complete_scales(band.rows()));
-  std::vector<std::string> drift;
-  for (const auto& [edge, name] : {std::pair{trend.high, "upper"}, std::pair{trend.low, "lower"}}) {
-    bool moves = edge.drift == Drift::kRising || edge.drift == Drift::kFalling;
-    if (edge.drift == Drift::kEscapes || (moves && std::fabs(edge.slope) > 0.5)) {
-      drift.push_back(describe_edge(edge, name));
+  std::vector<EdgeDisagreement> moving;
+  for (const auto& [edge, side] :
+       {std::pair{trend.high, Side::kUpper}, std::pair{trend.low, Side::kLower}}) {
+    bool moves = edge.direction == Direction::kRising || edge.direction == Direction::kFalling;
+    if (edge.direction == Direction::kEscapes || (moves && std::fabs(edge.slope) > 0.5)) {
+      moving.push_back({side, edge});
     }
   }
-  std::string joined;
-  for (const auto& d : drift) joined += (joined.empty() ? "" : "; ") + d;
-  return joined;
+  return moving;
 }
 
-void ClaimCheck::decide_numerically(const std::vector<Target>& targets) {
+void ClaimCheck::decide_numerically(const std::vector<Target>& targets, bool claim_unclassified) {
   BoundKind kind = claim_.bound.kind;
   bool upper_matters = kind == BoundKind::kTheta || kind == BoundKind::kBigO;
   bool lower_matters = kind == BoundKind::kTheta || kind == BoundKind::kOmega;
   TrendReading trend = read_trend(complete_scales(result_.band));
   result_.method = "numeric";
   result_.numeric_only = true;
+  result_.basis.kind = BasisKind::kNumericTrend;
+  TrendEvidence evidence;
+  evidence.upper_matters = upper_matters;
+  evidence.lower_matters = lower_matters;
+  evidence.upper = trend.high;
+  evidence.lower = trend.low;
 
+  // The ladder must have certified rungs up to the escape factor: T(n) >
+  // c·g(n) checked exactly at sizes found for growing c.
   auto reached_escape = [&](Side side) {
     for (const Witness& w : result_.witnesses) {
       if (w.side == side && !w.factor.empty() && BigInt(w.factor) >= 1000000) return true;
@@ -225,37 +313,33 @@ void ClaimCheck::decide_numerically(const std::vector<Target>& targets) {
     return false;
   };
   bool upper_escapes =
-      upper_matters && trend.high.drift == Drift::kEscapes && reached_escape(Side::kUpper);
+      upper_matters && trend.high.direction == Direction::kEscapes && reached_escape(Side::kUpper);
   bool lower_escapes =
-      lower_matters && trend.low.drift == Drift::kEscapes && reached_escape(Side::kLower);
-  std::string joined;
-  if (upper_matters) joined = describe_edge(trend.high, "upper");
-  if (lower_matters) joined += (joined.empty() ? "" : "; ") + describe_edge(trend.low, "lower");
-
+      lower_matters && trend.low.direction == Direction::kEscapes && reached_escape(Side::kLower);
   if (upper_escapes || lower_escapes) {
+    evidence.escapes = upper_escapes ? Side::kUpper : Side::kLower;
     result_.verdict = Verdict::kRefuted;
-    result_.message = fmt::format(
-        "numbers only (no theorem applied): T(n)/g(n) {} past a factor "
-        "of 10^6 with a monotone trend; {}",
-        upper_escapes ? "climbs" : "falls", joined);
+    result_.basis.trend = evidence;
     return;
   }
-  bool upper_ok = !upper_matters || trend.high.drift == Drift::kSteady ||
-                  (kind == BoundKind::kBigO && trend.high.drift == Drift::kFalling);
-  bool lower_ok = !lower_matters || trend.low.drift == Drift::kSteady ||
-                  (kind == BoundKind::kOmega && trend.low.drift == Drift::kRising);
+  bool upper_ok = !upper_matters || trend.high.direction == Direction::kSteady ||
+                  (kind == BoundKind::kBigO && trend.high.direction == Direction::kFalling);
+  bool lower_ok = !lower_matters || trend.low.direction == Direction::kSteady ||
+                  (kind == BoundKind::kOmega && trend.low.direction == Direction::kRising);
   bool any = false;
   for (const Target& t : targets) any |= !t.samples.empty();
+  result_.verdict = Verdict::kUndecided;
+  result_.basis.trend = evidence;
+  // A steady band is evidence, not a proof: without a theorem the claim
+  // stays undecided however well the numbers agree.
   if (upper_ok && lower_ok && any) {
-    result_.verdict = Verdict::kHolds;
-    result_.tight = !((kind == BoundKind::kBigO && trend.high.drift == Drift::kFalling) ||
-                      (kind == BoundKind::kOmega && trend.low.drift == Drift::kRising));
+    result_.basis.unproved =
+        claim_unclassified ? Unproved::kClaimUnclassified : Unproved::kNumbersOnly;
     result_.witnesses.clear();
-    result_.message = "numbers only (no theorem applied): " + joined;
     return;
   }
-  result_.verdict = Verdict::kUndecided;
-  result_.message = "numbers only (no theorem applied), and they do not settle it: " + joined;
+  result_.basis.unproved =
+      claim_unclassified ? Unproved::kClaimUnclassified : Unproved::kTrendUnsettled;
 }
 
 }  // namespace thetagate::checker_internal

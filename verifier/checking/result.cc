@@ -18,6 +18,68 @@ const char* verdict_name(Verdict v) {
 
 const char* side_name(Side s) { return s == Side::kUpper ? "upper" : "lower"; }
 
+const char* direction_name(Direction d) {
+  switch (d) {
+    case Direction::kSteady:
+      return "steady";
+    case Direction::kRising:
+      return "rising";
+    case Direction::kFalling:
+      return "falling";
+    case Direction::kEscapes:
+      return "escaping";
+    case Direction::kUnclear:
+      return "unclear";
+  }
+  return "?";
+}
+
+const char* basis_name(BasisKind k) {
+  switch (k) {
+    case BasisKind::kDerivationAgrees:
+      return "derivation_agrees";
+    case BasisKind::kInduction:
+      return "induction";
+    case BasisKind::kDerivationContradicts:
+      return "derivation_contradicts";
+    case BasisKind::kCertifiedBreak:
+      return "certified_break";
+    case BasisKind::kNumericTrend:
+      return "numeric_trend";
+    case BasisKind::kBudgetReached:
+      return "budget_reached";
+    case BasisKind::kInternalInconsistency:
+      return "internal_inconsistency";
+    case BasisKind::kInputError:
+      return "input_error";
+  }
+  return "?";
+}
+
+const char* unproved_name(Unproved u) {
+  switch (u) {
+    case Unproved::kNone:
+      return "";
+    case Unproved::kNoDerivation:
+      return "no_derivation";
+    case Unproved::kSideUnclassified:
+      return "side_unclassified";
+    case Unproved::kDerivedOutgrowsSide:
+      return "derived_outgrows_side";
+    case Unproved::kInductionFailed:
+      return "induction_failed";
+    case Unproved::kNumbersOnly:
+      return "numbers_only";
+    case Unproved::kTrendUnsettled:
+      return "trend_unsettled";
+    case Unproved::kClaimUnclassified:
+      return "claim_unclassified";
+    case Unproved::kEvaluatorLimit:
+      return "evaluator_limit";
+  }
+  return "?";
+}
+
 bool RunResult::any_refuted() const {
   for (const auto& c : claims) {
     if (c.verdict == Verdict::kRefuted) return true;

@@ -44,11 +44,117 @@ struct BandRow {
   uint64_t samples = 0;
 };
 
+// Which way one edge of the ratio band T(n)/g(n) moves across scales.
+enum class Direction {
+  kSteady,   // no trend over the upper half of the scales
+  kRising,   // grows, but not (yet) past the escape factor
+  kFalling,  // shrinks, but not (yet) past the escape factor
+  kEscapes,  // moves past the escape factor (10^6), monotonically or by its running extreme
+  kUnclear,  // too few scales, or no consistent direction
+};
+const char* direction_name(Direction d);  // "steady", "rising", ...
+
+// One edge of the band read across scales (verifier/checking/trend.h).
+struct EdgeReading {
+  Direction direction = Direction::kUnclear;
+  double slope = 0;        // d log2(edge) / d log2(scale) over the upper half
+  double change_log2 = 0;  // log2(edge at largest scale / edge at first scale >= 8)
+  // log2 of how far the running extreme (maximum of the upper edge, minimum
+  // of the lower) got from the first scale's value: the envelope, whatever
+  // the edge does in between.
+  double envelope_log2 = 0;
+  bool monotone = false;  // most steps go the same way
+  uint64_t first_scale = 0;
+  uint64_t last_scale = 0;
+};
+
+// Why a verdict is what it is. Every kind names the evidence that decides.
+enum class BasisKind {
+  kDerivationAgrees,       // holds: proof by theorem, all its hypotheses verified
+  kInduction,              // holds: induction certificate for an explicit bound
+  kDerivationContradicts,  // refuted: a theorem's class excludes the claim
+  kCertifiedBreak,         // refuted: an exactly checked size breaks the bound
+  kNumericTrend,           // the numbers alone: refuted by an escaping edge, else undecided
+  kBudgetReached,          // undecided: no violation where checked, and no proof
+  kInternalInconsistency,  // undecided: a theorem and the exact values disagree (a bug)
+  kInputError,             // error: the claim is malformed
+};
+const char* basis_name(BasisKind k);  // "derivation_agrees", "induction", ...
+
+// Why no proof was found, when none was.
+enum class Unproved {
+  kNone,
+  kNoDerivation,         // no theorem derives the class
+  kSideUnclassified,     // an explicit side has no growth class (detail: why)
+  kDerivedOutgrowsSide,  // the derived class lies beyond a side: it must break further out
+  kInductionFailed,      // the class fits, but no induction certificate was found (detail)
+  kNumbersOnly,          // only numbers: a steady band is evidence, not a proof
+  kTrendUnsettled,       // only numbers, and they do not settle it
+  kClaimUnclassified,    // the claimed class has no normal form (detail)
+  kEvaluatorLimit,       // an evaluator limit ended the run (detail: which)
+};
+const char* unproved_name(Unproved u);
+
+// How the claim compares with a derived class (asymptotic bounds).
+enum class Agreement { kSame, kLoose, kContradicts };
+
+struct TheoremEvidence {
+  std::string method;   // "master theorem, case 2"
+  std::string derived;  // the derived class, "n lg n"
+  std::string claimed;  // the claim's class in normal form
+  std::string kind;     // "Theta", "O", "Omega"
+  Agreement agreement = Agreement::kSame;
+  bool claimed_below = false;  // for kContradicts: the claimed class is the smaller one
+};
+
+// A proof of an explicit bound by induction on n (the substitution method).
+struct InductionProof {
+  std::vector<Side> sides;    // the sides proved
+  std::string bound;          // the bound carried through the step, as printed
+  std::string strengthening;  // the term the claim's bound was strengthened by, "" if none
+  BigInt checked_from;        // T(n) checked exactly against it for checked_from <= n <= checked_to
+  BigInt checked_to;          // M: the step is proved for every n > M
+  uint64_t modulus = 1;       // the step was proved per residue of n mod this
+  uint64_t tail_log2 = 0;     // beyond 2^tail_log2 the leading term of the slack dominates
+  uint64_t blocks = 0;        // interval blocks between M and 2^tail_log2
+  bool identity = false;      // the step's slack vanishes identically
+};
+
+// The trend evidence of a numbers-only verdict.
+struct TrendEvidence {
+  bool upper_matters = false, lower_matters = false;
+  EdgeReading upper, lower;
+  std::optional<Side> escapes;  // the side whose edge escaped (refutations)
+};
+
+// One edge of T(n)/derived(n) that moves although a theorem says it should not.
+struct EdgeDisagreement {
+  Side edge = Side::kUpper;
+  EdgeReading reading;
+};
+
+struct VerdictBasis {
+  BasisKind kind = BasisKind::kBudgetReached;
+  Unproved unproved = Unproved::kNone;
+  std::string
+      detail;  // the decisive fact in the deciding stage's words (a failed hypothesis, a limit)
+  std::optional<TheoremEvidence> theorem;
+  std::optional<InductionProof> induction;
+  std::optional<TrendEvidence> trend;
+  std::vector<EdgeDisagreement> disagreement;  // kInternalInconsistency
+  // rounding = both: the reading the verdict comes from ("floor", "ceil",
+  // "floor and ceil"), and the other reading's verdict when only one is reported.
+  std::string reading;
+  std::optional<Verdict> other_reading;
+};
+
 struct ClaimResult {
   std::string name;
   std::string file;
   int line = 0;
+  std::string function = "T";  // the recursive function's name
   Verdict verdict = Verdict::kUndecided;
+  VerdictBasis basis;
   std::string claimed;        // the bound as written
   std::string derived;        // the derived class, "" when none
   std::string method;         // theorem used, or "numeric"
@@ -56,11 +162,11 @@ struct ClaimResult {
   bool numeric_only = false;  // decided from the numbers alone
   std::vector<Witness> witnesses;
   std::vector<BandRow> band;
-  std::string message;               // one or two sentences: why this verdict
-  std::vector<std::string> notes;    // assumptions stated for the reader
-  std::vector<std::string> reasons;  // derivation steps, failed hypotheses
-  std::optional<Diagnostic> error;   // verdict error: the located input error
-  std::string note;                  // the claim's own `note`, copied
+  std::vector<std::string> notes;              // assumptions stated for the reader
+  std::vector<std::string> steps;              // the applying theorem's derivation steps
+  std::vector<std::string> failed_hypotheses;  // "THEOREM: the hypothesis that fails"
+  std::optional<Diagnostic> error;             // verdict error: the located input error
+  std::string note;                            // the claim's own `note`, copied
   uint64_t sizes_checked = 0;
   uint64_t largest_bits = 0;  // bits of the largest size evaluated
 };

@@ -55,18 +55,31 @@ EdgeReading read_edge(const std::vector<BandRow>& band, bool upper) {
     r.slope = slopes[slopes.size() / 2];
   }
 
+  // The envelope: how far the running extreme got from the first value,
+  // reached in the upper half of the scales (a wobbling edge escapes by its
+  // envelope even when half its steps go back).
+  size_t extreme = 0;
+  for (size_t i = 1; i < y.size(); ++i) {
+    if (upper ? y[i] > y[extreme] : y[i] < y[extreme]) extreme = i;
+  }
+  r.envelope_log2 = y[extreme] - y.front();
+  bool envelope_late = extreme >= y.size() / 2;
+  r.monotone = monotone >= 0.8;
+
   double escape = escape_log2();
   bool away = upper ? r.change_log2 >= escape : r.change_log2 <= -escape;
-  if (away && monotone >= 0.8) {
-    r.drift = Drift::kEscapes;
+  bool envelope_away =
+      envelope_late && (upper ? r.envelope_log2 >= escape : r.envelope_log2 <= -escape);
+  if ((away && r.monotone) || envelope_away) {
+    r.direction = Direction::kEscapes;
   } else if (std::fabs(r.slope) < kSteadySlope) {
-    r.drift = Drift::kSteady;
+    r.direction = Direction::kSteady;
   } else if (r.slope > 0 && monotone >= 0.7) {
-    r.drift = upper ? Drift::kRising : Drift::kRising;
+    r.direction = upper ? Direction::kRising : Direction::kRising;
   } else if (r.slope < 0 && (upper ? monotone <= 0.3 : monotone >= 0.7)) {
-    r.drift = Drift::kFalling;
+    r.direction = Direction::kFalling;
   } else {
-    r.drift = r.slope > 0 ? Drift::kRising : Drift::kFalling;
+    r.direction = r.slope > 0 ? Direction::kRising : Direction::kFalling;
   }
   return r;
 }
@@ -75,51 +88,13 @@ EdgeReading read_edge(const std::vector<BandRow>& band, bool upper) {
 
 double escape_log2() { return 6.0 * std::log2(10.0); }
 
-const char* drift_name(Drift d) {
-  switch (d) {
-    case Drift::kSteady:
-      return "steady";
-    case Drift::kRising:
-      return "rising";
-    case Drift::kFalling:
-      return "falling";
-    case Drift::kEscapes:
-      return "escaping";
-    case Drift::kUnclear:
-      return "unclear";
-  }
-  return "?";
-}
-
 TrendReading read_trend(const std::vector<BandRow>& band) {
   TrendReading t;
   t.high = read_edge(band, true);
   t.low = read_edge(band, false);
-  if (t.low.drift == Drift::kEscapes && t.low.change_log2 > 0) t.low.drift = Drift::kRising;
+  if (t.low.direction == Direction::kEscapes && t.low.change_log2 > 0)
+    t.low.direction = Direction::kRising;
   return t;
-}
-
-std::string describe_edge(const EdgeReading& e, const char* edge_name) {
-  if (e.drift == Drift::kUnclear) {
-    return fmt::format("the {} edge of T(n)/g(n) has too few scales to read a trend", edge_name);
-  }
-  double factor = std::exp2(e.change_log2);
-  std::string change = std::fabs(e.change_log2) < 60 ? fmt::format("×{:.3g}", factor)
-                                                     : fmt::format("×2^{:.0f}", e.change_log2);
-  std::string like;
-  if (e.drift != Drift::kSteady) {
-    if (std::fabs(e.slope - 1) < 0.25)
-      like = ": like a factor lg n";
-    else if (std::fabs(e.slope + 1) < 0.25)
-      like = ": like a factor 1/lg n";
-    else if (std::fabs(e.slope) < 0.35)
-      like = ": like a factor lg lg n or a slowly converging term";
-    else if (e.slope > 3)
-      like = ": faster than any power of lg n";
-  }
-  return fmt::format(
-      "the {} edge of T(n)/g(n) is {} ({} from 2^{} to 2^{}; slope {:.2f} against lg n){}",
-      edge_name, drift_name(e.drift), change, e.first_scale, e.last_scale, e.slope, like);
 }
 
 }  // namespace thetagate

@@ -240,49 +240,40 @@ const char* claim_agreement_name(ClaimAgreement a) {
   return "?";
 }
 
-ClaimComparison compare_claim(const Derivation& derivation, const Bound& bound) {
+ClaimComparison compare_with_derivation(const Derivation& derivation, const Bound& bound) {
   ClaimComparison r;
   if (!bound.is_asymptotic()) {
     r.agreement = ClaimAgreement::kNotAsymptotic;
-    r.message = "an explicit bound is checked by exact evaluation";
     return r;
   }
   Classification g = classify(*bound.growth);
   if (!g) {
     r.agreement = ClaimAgreement::kCannotClassifyClaim;
-    r.message = "the claimed class " + print(*bound.growth) + " has no normal form: " + g.reason;
+    r.detail = "the claimed class " + print(*bound.growth) + " has no normal form: " + g.reason;
     return r;
   }
   r.claimed = g.growth;
   if (!derivation.growth) {
     r.agreement = ClaimAgreement::kNoDerivation;
-    r.message = "no theorem applied; the claim rests on the numbers";
     return r;
   }
-  std::string claimed = to_string(*g.growth), derived = derivation.derived;
   int c;
   try {
     c = compare(*g.growth, *derivation.growth);
   } catch (const PrecisionShortfall& e) {
     r.agreement = ClaimAgreement::kCannotClassifyClaim;
-    r.message = std::string("the claimed and derived classes could not be ordered: ") + e.what();
+    r.detail = std::string("the claimed and derived classes could not be ordered: ") + e.what();
     return r;
   }
-  std::string kind = bound_kind_name(bound.kind);
-  std::string versus =
-      "claimed " + kind + "(" + claimed + "), derived Θ(" + derived + ") by " + derivation.method;
   if (c == 0) {
     r.agreement = ClaimAgreement::kAgree;
     r.tight = true;
-    r.message = versus + ": the same class";
   } else if ((bound.kind == BoundKind::kBigO && c > 0) ||
              (bound.kind == BoundKind::kOmega && c < 0)) {
     r.agreement = ClaimAgreement::kHoldsLoosely;
-    r.message = versus + ": the claim holds but is not tight";
   } else {
     r.agreement = ClaimAgreement::kContradicts;
-    r.message = versus + ": " +
-                (c < 0 ? claimed + " = o(" + derived + ")" : derived + " = o(" + claimed + ")");
+    r.claimed_below = c < 0;
   }
   return r;
 }

@@ -48,12 +48,15 @@ struct ClaimComparison {
   ClaimAgreement agreement = ClaimAgreement::kNoDerivation;
   bool tight = false;
   std::optional<GrowthClass> claimed;
-  std::string message;  // a reviewer's sentence
+  // kCannotClassifyClaim: why the claimed class has no normal form (or could
+  // not be ordered); empty otherwise. reports/ composes the sentences.
+  std::string detail;
+  bool claimed_below = false;  // kContradicts: the claimed class is the smaller one
 };
 
 // Compares an asymptotic bound Theta/O/Omega(g) with the derivation exactly
 // (lg 7 is not 2.807; a lg lg n factor counts).
-ClaimComparison compare_claim(const Derivation& derivation, const Bound& bound);
+ClaimComparison compare_with_derivation(const Derivation& derivation, const Bound& bound);
 
 const char* claim_agreement_name(ClaimAgreement a);
 

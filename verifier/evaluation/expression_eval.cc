@@ -4,9 +4,51 @@
 
 #include <stdexcept>
 
+#include "verifier/derivation/classify.h"
+#include "verifier/numbers/real_number_node.h"
+
 namespace thetagate {
 
 namespace {
+
+// b^x exactly, for a rational b that is an integer power of the base g of
+// a constant exponent x = q + c log_g(a) (such as 4^(lg 3) = 9): then
+// b^x = g^(e q) a^(e c), rational when e q and e c are integers. Bounds
+// like 3 (n - 1)^(lg 3) meet T(n) with equality at such n, which no
+// interval can decide.
+std::optional<Value> exact_log_power(const Rational& b, const Expr& exponent) {
+  if (b <= 0 || mentions_n(exponent)) return std::nullopt;
+  std::optional<RealNumber> x = constant_value(exponent);
+  if (!x || x->kind() != RealNumber::Kind::kLog) return std::nullopt;
+  const RealNumber::Node& node = x->node();
+  if (denominator(node.g) != 1 || denominator(b) != 1 && numerator(b) != 1) return std::nullopt;
+  // b = g^e or 1/g^e.
+  BigInt whole = denominator(b) == 1 ? numerator(b) : denominator(b);
+  BigInt g = numerator(node.g);
+  long e = 0;
+  while (whole > 1 && whole % g == 0 && e < 100000) {
+    whole /= g;
+    ++e;
+  }
+  if (whole != 1) return std::nullopt;
+  if (denominator(b) != 1) e = -e;
+  Rational eq = node.q * e, ec = node.c * e;
+  if (denominator(eq) != 1 || denominator(ec) != 1) return std::nullopt;
+  auto int_pow = [](Rational base, BigInt k) {
+    Rational r = 1;
+    if (k < 0) {
+      base = Rational(1) / base;
+      k = -k;
+    }
+    if (k > 65536) return std::optional<Rational>();
+    for (BigInt i = 0; i < k; ++i) r *= base;
+    return std::optional<Rational>(r);
+  };
+  std::optional<Rational> p1 = int_pow(node.g, numerator(eq));
+  std::optional<Rational> p2 = int_pow(node.a, numerator(ec));
+  if (!p1 || !p2) return std::nullopt;
+  return Value(*p1 * *p2);
+}
 
 [[noreturn]] void domain_failure(const DomainError& error, const Expr& at, const Value& n,
                                  const EvalScope& scope) {
@@ -81,8 +123,14 @@ Value evaluate_expr(const Expr& e, const Value& n, const EvalScope& scope) {
         return mul(evaluate_expr(*e.args[0], n, scope), evaluate_expr(*e.args[1], n, scope), ctx);
       case ExprKind::kDiv:
         return div(evaluate_expr(*e.args[0], n, scope), evaluate_expr(*e.args[1], n, scope), ctx);
-      case ExprKind::kPow:
-        return power(evaluate_expr(*e.args[0], n, scope), evaluate_expr(*e.args[1], n, scope), ctx);
+      case ExprKind::kPow: {
+        Value base = evaluate_expr(*e.args[0], n, scope);
+        Value exponent = evaluate_expr(*e.args[1], n, scope);
+        if (base.is_exact() && !exponent.is_exact()) {
+          if (std::optional<Value> v = exact_log_power(base.exact(), *e.args[1])) return *v;
+        }
+        return power(base, exponent, ctx);
+      }
       case ExprKind::kNeg:
         return neg(evaluate_expr(*e.args[0], n, scope));
       case ExprKind::kCall: {

@@ -1,0 +1,137 @@
+// "holds" means proved (issue 11): explicit bounds proved by induction, a
+// false bound whose failure lies beyond 2^4096 left undecided, and a
+// wobbling ratio refuted by its envelope. Each check recomputes what it relies on by
+// an independent route (closed forms, integer loops).
+#include <gtest/gtest.h>
+
+#include <cstdint>
+#include <string>
+#include <vector>
+
+#include "reports/verdict_text.h"
+#include "verifier/checking/checker.h"
+#include "verifier/model/claim.h"
+#include "verifier/model/recurrence.h"
+
+namespace thetagate {
+namespace {
+
+ClaimResult check_text(const std::string& recurrence, const std::string& bound,
+                       uint64_t max_bits = 1024) {
+  std::string toml = "[[claim]]\nname = \"orchard::proof\"\nrecurrence = \"\"\"\n" + recurrence +
+                     "\n\"\"\"\nbound = \"" + bound + "\"\n";
+  std::vector<ClaimEntry> entries = load_claim_text(toml, "proof.toml");
+  if (entries.size() != 1 || !entries[0].claim) {
+    ADD_FAILURE() << "the claim did not load";
+    return ClaimResult{};
+  }
+  CheckOptions options;
+  options.seed = 3;
+  options.max_bits = max_bits;
+  return check_claim(*entries[0].claim, options);
+}
+
+// ---------------------------------------------------------------------------
+// Induction certificates.
+
+// The substitution method for the median of medians (common practice): with
+// T(n) <= 10n below, 10 floor(n/5) + 10 floor(7n/10) + n <= 10n; floors are
+// exact on each residue of n mod 10.
+TEST(Induction, MedianOfMediansTenNIsProved) {
+  ClaimResult r =
+      check_text("T(n) = 1 if n <= 4\nT(n) = T(n/5) + T(7n/10) + n", "T(n) <= 10n for n >= 1", 64);
+  ASSERT_EQ(r.verdict, Verdict::kHolds) << verdict_message(r);
+  ASSERT_EQ(r.basis.kind, BasisKind::kInduction);
+  const InductionProof& p = *r.basis.induction;
+  EXPECT_EQ(p.modulus, 10u);
+  EXPECT_EQ(p.strengthening, "");
+  EXPECT_NE(proof_name(r).find("induction from n = "), std::string::npos) << proof_name(r);
+  // Independently: the step's inequality at every residue (integer loop),
+  // and T(n) <= 10n up to the checked end by direct evaluation.
+  for (int64_t n = 5; n < 5000; ++n) EXPECT_LE(10 * (n / 5) + 10 * (7 * n / 10) + n, 10 * n);
+  std::vector<int64_t> t(static_cast<size_t>(p.checked_to) + 1, 1);
+  for (int64_t n = 5; n <= static_cast<int64_t>(p.checked_to); ++n) {
+    t[static_cast<size_t>(n)] =
+        t[static_cast<size_t>(n / 5)] + t[static_cast<size_t>(7 * n / 10)] + n;
+    EXPECT_LE(t[static_cast<size_t>(n)], 10 * n);
+  }
+}
+
+// Karatsuba's three half-size products (A. Karatsuba, Yu. Ofman,
+// "Multiplication of many-digital numbers by automatic computers", 1962):
+// T(n) = 3T(ceil(n/2)), T(1) = 1 is 3^ceil(lg n) (calc). The bound
+// 3 n^(lg 3) does not carry through the step itself (at odd n the slack is
+// -3 lg 3 n^(lg 3 - 1) + ...); the shifted bound 3 (n - 1)^(lg 3) does.
+TEST(Induction, KaratsubaProductsNeedTheShiftedBound) {
+  ClaimResult r = check_text("T(n) = 3T(ceil(n/2))\nT(1) = 1", "T(n) <= 3 n^(lg 3) for n >= 1", 64);
+  ASSERT_EQ(r.verdict, Verdict::kHolds) << verdict_message(r);
+  ASSERT_EQ(r.basis.kind, BasisKind::kInduction);
+  EXPECT_EQ(r.basis.induction->strengthening, "the shift n -> n - 1");
+  EXPECT_NE(proof_name(r).find("strengthened by the shift"), std::string::npos) << proof_name(r);
+  // Independently (calc): 3^ceil(lg n) <= 3 (n - 1)^(lg 3) iff
+  // 2^(ceil(lg n) - 1) <= n - 1, an integer inequality, for n >= 2.
+  for (uint64_t n = 2; n < 100000; ++n) {
+    uint64_t c = 64 - static_cast<uint64_t>(__builtin_clzll(n - 1));  // ceil(lg n)
+    EXPECT_LE(uint64_t{1} << (c - 1), n - 1) << n;
+  }
+}
+
+// Towers of Hanoi (Graham, Knuth, Patashnik, Concrete Mathematics, ch. 1):
+// T(n) = 2T(n - 1) + 1, T(0) = 0 is 2^n - 1; the step's slack vanishes.
+TEST(Induction, HanoiClosedFormIsAnIdentity) {
+  ClaimResult r = check_text("T(n) = 2T(n - 1) + 1\nT(0) = 0", "T(n) = 2^n - 1 for n >= 0", 10);
+  ASSERT_EQ(r.verdict, Verdict::kHolds) << verdict_message(r);
+  ASSERT_EQ(r.basis.kind, BasisKind::kInduction);
+  EXPECT_TRUE(r.basis.induction->identity);
+  EXPECT_EQ(r.basis.induction->sides.size(), 2u);
+  EXPECT_NE(proof_name(r).find("T(n) = "), std::string::npos) << proof_name(r);
+}
+
+// A bound of the right class with a slightly small leading coefficient and a
+// larger lower-order term: (4999/5000) n lg n + n. Merge sort's worst case
+// W(n) = n ceil(lg n) - 2^ceil(lg n) + 1 (Suchenek, arXiv:1702.08443) stays
+// below it up to 2^4096 and beyond, but at n = 2^10000 (calc):
+// W = 9999·2^10000 + 1 > (4999/5000)·10000·2^10000 + 2^10000 = 9999·2^10000.
+TEST(Induction, FalseBoundFailingBeyond2To4096IsNotHolds) {
+  ClaimResult r = check_text("T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1\nT(1) = 0",
+                             "T(n) <= (4999/5000) n lg n + n for n >= 1", 4096);
+  EXPECT_NE(r.verdict, Verdict::kHolds) << verdict_message(r);
+  EXPECT_EQ(r.verdict, Verdict::kUndecided) << verdict_message(r);
+  EXPECT_EQ(r.basis.unproved, Unproved::kInductionFailed);
+  EXPECT_NE(verdict_message(r).find("not proved"), std::string::npos) << verdict_message(r);
+  EXPECT_EQ(proof_name(r), "");
+  // The failure is real: the closed form at k = 10000, in integers.
+  BigInt n = BigInt(1) << 10000;
+  BigInt w = n * 10000 - n + 1;
+  BigInt bound_times_5000 = BigInt(4999) * 10000 * n + 5000 * n;
+  EXPECT_GT(w * 5000, bound_times_5000);
+}
+
+// ---------------------------------------------------------------------------
+// A wobbling ratio. T(n) = 2T(n/4) + f(n) with f(n) = n on scales of even
+// floor(lg n) and sqrt(n) on odd ones: no theorem applies (f has no class).
+// On odd scales n/4 stays odd-scaled and T(n)/sqrt(n) grows like lg n; on
+// even scales T(n) >= n, so T(n)/sqrt(n) >= sqrt(n) (calc). Against
+// O(sqrt(n)) the band's upper edge zigzags with the parity of floor(lg n)
+// while its envelope escapes.
+TEST(NumericTrend, WobblingRatioIsRefutedByItsEnvelope) {
+  ClaimResult r = check_text(
+      "T(n) = 1 if n < 4\nT(n) = 2T(n/4) + f(n)\nf(n) = n if floor(lg n) even\nf(n) = sqrt(n) "
+      "otherwise",
+      "O(sqrt(n))", 256);
+  ASSERT_EQ(r.verdict, Verdict::kRefuted) << verdict_message(r);
+  ASSERT_EQ(r.basis.kind, BasisKind::kNumericTrend);
+  ASSERT_TRUE(r.basis.trend && r.basis.trend->escapes);
+  // Rungs certified at growing c, and each rung's size is an even scale
+  // where T(n) >= n >= c sqrt(n) once n >= c^2 (calc).
+  int rungs = 0;
+  for (const Witness& w : r.witnesses) {
+    if (w.factor.empty()) continue;
+    ++rungs;
+    EXPECT_GT(w.ratio, std::stod(w.factor));
+  }
+  EXPECT_GE(rungs, 6);
+}
+
+}  // namespace
+}  // namespace thetagate
