@@ -1,6 +1,7 @@
 // "holds" means proved (issue 11): explicit bounds proved by induction, a
-// false bound whose failure lies beyond 2^4096 left undecided, and a
-// wobbling ratio refuted by its envelope. Each check recomputes what it relies on by
+// false bound whose failure lies beyond 2^4096 left undecided, regularity of
+// an oscillating driver shown failing on an infinite family, and a wobbling
+// ratio refuted by its envelope. Each check recomputes what it relies on by
 // an independent route (closed forms, integer loops).
 #include <gtest/gtest.h>
 
@@ -10,6 +11,7 @@
 
 #include "reports/verdict_text.h"
 #include "verifier/checking/checker.h"
+#include "verifier/derivation/regularity.h"
 #include "verifier/model/claim.h"
 #include "verifier/model/recurrence.h"
 
@@ -105,6 +107,49 @@ TEST(Induction, FalseBoundFailingBeyond2To4096IsNotHolds) {
   BigInt w = n * 10000 - n + 1;
   BigInt bound_times_5000 = BigInt(4999) * 10000 * n + 5000 * n;
   EXPECT_GT(w * 5000, bound_times_5000);
+}
+
+// ---------------------------------------------------------------------------
+// Regularity of an oscillating driver.
+
+// f(n) = n for even n, n^2 for odd n, with a = 1, b = 2 (p = 0, so f is
+// polynomially larger than n^p and case 3 is the candidate): at every
+// n = 2 (mod 4), floor(n/2) is odd and f(floor(n/2)) = n^2/4 >= n = f(n)
+// (calc), so no c < 1 gives f(n/2) <= c f(n) for all large n.
+TEST(Regularity, OscillatingDriverFailsOnAnInfiniteFamily) {
+  const char* text = "T(n) = T(n/2) + f(n)\nf(n) = n if n even\nf(n) = n^2 otherwise\nT(1) = 1";
+  auto r = recurrence_from_text(
+      "T(n) = T(n/2) + f(n); f(n) = n if n even; f(n) = n^2 otherwise; T(1) = 1");
+  auto family = regularity_failure_family(*make_call("f", {make_variable()}), Rational(1),
+                                          Rational(1, 2), &r->helpers);
+  ASSERT_TRUE(family.has_value());
+  EXPECT_EQ(family->modulus % 4, 0u);
+  auto f = [](const BigInt& n) { return n % 2 == 0 ? n : BigInt(n * n); };
+  // Every member checked in integers, up to large sizes.
+  for (BigInt n = family->from; n < family->from + 40 * family->modulus; ++n) {
+    if (n % family->modulus != family->residue) continue;
+    EXPECT_GE(f(n / 2), f(n)) << n;
+  }
+  BigInt big = (BigInt(1) << 3000) + family->residue;
+  EXPECT_GE(f(big / 2), f(big));
+  // The report carries the family in the master theorem's failed hypothesis.
+  ClaimResult c = check_text(text, "Theta(n)", 64);
+  bool mentioned = false;
+  for (const std::string& h : c.failed_hypotheses) {
+    mentioned |=
+        h.find("infinite family") != std::string::npos && h.find("(mod ") != std::string::npos;
+  }
+  EXPECT_TRUE(mentioned);
+}
+
+// A driver with one class: 2 (n/2)^2 = n^2/2 < n^2, regularity holds, and no
+// family may be reported.
+TEST(Regularity, NoFamilyWhereRegularityHolds) {
+  auto r = recurrence_from_text("T(n) = 2T(n/2) + n^2; T(1) = 1");
+  EXPECT_FALSE(regularity_failure_family(
+                   *make_binary(ExprKind::kPow, make_variable(), make_number(Rational(2))),
+                   Rational(2), Rational(1, 2), &r->helpers)
+                   .has_value());
 }
 
 // ---------------------------------------------------------------------------

@@ -1,5 +1,7 @@
 #include "verifier/derivation/theorems/master.h"
 
+#include "verifier/derivation/regularity.h"
+
 namespace thetagate {
 
 namespace {
@@ -216,6 +218,41 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
         out.failure =
             "case 3 needs the regularity condition, which cannot be checked without values of f";
         return out;
+      }
+      // An infinite family of sizes where regularity fails, proved per residue.
+      if (s.driving) {
+        if (std::optional<RegularityFamily> family =
+                regularity_failure_family(*s.driving, t.a, t.b, input.helpers)) {
+          std::vector<std::string> members;
+          NumericContext ctx;
+          for (BigInt n = family->from;
+               members.size() < 3 && n < family->from + 4 * family->modulus + 4; ++n) {
+            if (floor_mod(n, BigInt(family->modulus)) != BigInt(family->residue)) continue;
+            auto fn = input.driving_at(n);
+            auto fm = input.driving_at(floor_of(Rational(n) * t.b));
+            if (!fn || !fm) continue;
+            try {
+              if (compare(mul(Value(t.a), *fm, ctx), *fn, ctx) >= 0) members.push_back(n.str());
+            } catch (const PrecisionShortfall&) {
+            }
+          }
+          std::string list;
+          for (const auto& m : members) list += (list.empty() ? "" : ", ") + m;
+          std::string family_text = family->modulus == 1
+                                        ? "every n >= " + family->from.str()
+                                        : "every n ≡ " + std::to_string(family->residue) +
+                                              " (mod " + std::to_string(family->modulus) +
+                                              ") from n = " + family->from.str();
+          out.failure =
+              "case 3 needs the regularity condition a f(n/b) <= c f(n) with c < 1, but a "
+              "f(floor(n/b)) >= f(n) at " +
+              family_text +
+              " (an infinite family, proved with certified expansions of f on that residue "
+              "class)" +
+              (list.empty() ? "" : "; checked exactly at n = " + list) +
+              ": case 3 is refused (its conclusion T(n) = Θ(f(n)) would be false)";
+          return out;
+        }
       }
       std::vector<std::string> failing;
       int tested = 0;
