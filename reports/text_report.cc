@@ -238,7 +238,7 @@ void append_detail(std::string& out, const RunResult& run, const ClaimResult& c,
   if (!has_diagnostic && !c.file.empty()) {
     out += kIndent + painter.dim("at " + c.file + ":" + std::to_string(c.line)) + "\n";
   }
-  std::string message = verdict_message(c);
+  std::string message = escape_controls(verdict_message(c));
   if (!message.empty() && !(has_diagnostic && message == c.error->message)) {
     append_indented(out, kIndent, message);
   }
@@ -282,7 +282,7 @@ std::string render_text(const RunResult& raw_run, const TextStyle& style) {
     c.name = escape_controls(c.name);
     c.file = escape_controls(c.file);
     c.note = escape_controls(c.note);
-    c.message = escape_controls(c.message);
+    c.basis.detail = escape_controls(c.basis.detail);
     if (c.error) c.error->message = escape_controls(c.error->message);
   }
   Painter painter(style);

@@ -230,7 +230,8 @@ std::vector<Candidate> candidates(const ExprPtr& b, Side side) {
   std::vector<Candidate> out{{b, ""}};
   ExprPtr n = make_variable();
   auto shifted = [&](long by) {
-    return substitute(b, make_binary(ExprKind::kAdd, n, make_number(Rational(by))));
+    return substitute(b, make_binary(by < 0 ? ExprKind::kSub : ExprKind::kAdd, n,
+                                     make_number(Rational(by < 0 ? -by : by))));
   };
   auto moved = [&](const ExprPtr& h) {
     return make_binary(side == Side::kUpper ? ExprKind::kSub : ExprKind::kAdd, b, h);
