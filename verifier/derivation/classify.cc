@@ -84,6 +84,9 @@ class Classifier {
         return power(e);
       case ExprKind::kCall:
         return call(e);
+      case ExprKind::kSum:
+      case ExprKind::kBound:
+        throw Refusal{"'" + print(e) + "' is a sum, whose growth class is not derived here"};
       default:
         throw Refusal{"'" + print(e) + "' is a condition, not a value"};
     }

@@ -36,6 +36,9 @@ class Evaluator::Resolver : public CallResolver {
   Value resolve(const Expr& call, const Value& n, const EvalScope& scope) override {
     return owner_.lookup(call, n, scope);
   }
+  Value sum(const Expr& sum, const Value& n, const EvalScope& scope) override {
+    return owner_.sum_value(sum, n, scope);
+  }
 
  private:
   Evaluator& owner_;
@@ -75,7 +78,11 @@ Evaluator::Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget
     }
   }
   window_ = all_subtractive ? window : 0;
-  if (window_ == 0 && path == EvaluationPath::kAuto) {
+  if (recurrence_->full_history) {
+    history_ = true;
+    window_ = 0;
+  }
+  if (window_ == 0 && !history_ && path == EvaluationPath::kAuto) {
     kernel_ = IntegerKernel::compile(*recurrence_, ctx_);
     if (kernel_) kernel_link_ = std::make_unique<KernelLink>(*this);
   }
@@ -108,7 +115,7 @@ void Evaluator::charge_step(uint64_t pending_bytes) {
   }
   // Bottom-up sweeps continue from one size to the next; only the total
   // budget applies to them.
-  if (budget_.max_steps_per_size != 0 && window_ == 0 &&
+  if (budget_.max_steps_per_size != 0 && window_ == 0 && !history_ &&
       stats_.steps - call_start_steps_ > budget_.max_steps_per_size) {
     throw BudgetExceeded("one size needs more than " + std::to_string(budget_.max_steps_per_size) +
                          " subproblems");
@@ -130,7 +137,9 @@ const Value* Evaluator::remember(const Value& m, const Value& v) {
   return stored;
 }
 
-size_t Evaluator::memo_size() const { return memo_.size() + (kernel_ ? kernel_->memo_size() : 0); }
+size_t Evaluator::memo_size() const {
+  return memo_.size() + (kernel_ ? kernel_->memo_size() : 0) + history_values_.size();
+}
 
 void Evaluator::account_memo(uint64_t key_bits, uint64_t value_bits) {
   // A nominal cost per entry, the same on both paths, so the budget (and a
@@ -151,6 +160,9 @@ void Evaluator::clear_memo() {
   memo_has_intervals_ = false;
   ring_.clear();
   ring_errors_.clear();
+  history_values_.clear();
+  history_errors_.clear();
+  prefix_.clear();
   next_ = 0;
   ++stats_.memo_clears;
 }
@@ -179,14 +191,16 @@ Value Evaluator::value_at(const BigInt& n) {
   if (n < 0) throw std::invalid_argument("sizes are non-negative");
   probe();
   call_start_steps_ = stats_.steps;
-  if (memo_bytes_ > budget_.max_memo_bytes / 4 * 3 ||
-      memo_size() > budget_.max_memo_entries / 4 * 3) {
+  // A full history cannot be dropped and rebuilt larger: its budget ends it.
+  if (!history_ && (memo_bytes_ > budget_.max_memo_bytes / 4 * 3 ||
+                    memo_size() > budget_.max_memo_entries / 4 * 3)) {
     clear_memo();
   }
   // Each top-level call starts low; a floor or comparison that an interval
   // cannot decide doubles the precision and retries.
   ctx_.precision_bits = budget_.start_precision_bits;
   Value v = with_precision([&] {
+    if (history_) return sweep_history(n);
     if (window_ > 0) return sweep_up(n);
     if (kernel_) {
       if (std::optional<Value> fast = kernel_value(n)) return std::move(*fast);
@@ -389,6 +403,7 @@ Value Evaluator::top_down(const Value& n) {
 }
 
 Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope) {
+  if (history_) return history_lookup(call, n, scope);
   if (in_sweep_) {
     // Every call is T(n - c) and n is the sweep's current size.
     int64_t m = *n.small() - call.args[0]->args[1]->small;
@@ -475,6 +490,151 @@ Value Evaluator::sweep_up(const BigInt& n) {
   size_t slot = static_cast<size_t>(target % window_);
   if (ring_errors_[slot]) throw InputError(*ring_errors_[slot]);
   return *ring_[slot];
+}
+
+// Running sums: F(m) = body(base) + ... + body(m), F(base - 1) = 0, kept at
+// every kStride-th m (checkpoints) and at the two most recent ends asked for
+// (cursors: one follows the upper limits, one the lower). A sweep's upper
+// limit moves one step per size, so each size adds O(1) terms.
+struct Evaluator::PrefixSums {
+  static constexpr int64_t kStride = 64;
+  int64_t base = 0;
+  std::vector<Value> checkpoints;  // checkpoints[i] = F(base - 1 + i kStride)
+  struct Cursor {
+    int64_t m = 0;
+    Value f;
+    uint64_t used = 0;
+  };
+  Cursor cursors[2];
+  uint64_t clock = 0;
+
+  explicit PrefixSums(int64_t lo) : base(lo) {
+    checkpoints.push_back(Value(int64_t{0}));
+    for (Cursor& c : cursors) {
+      c.m = lo - 1;
+      c.f = Value(int64_t{0});
+    }
+  }
+};
+
+Value Evaluator::prefix_at(PrefixSums& p, const Expr& sum, int64_t m, const Value& n,
+                           const EvalScope& scope) {
+  constexpr int64_t kStride = PrefixSums::kStride;
+  int64_t offset = m - (p.base - 1);  // >= 0
+  size_t index = std::min(static_cast<size_t>(offset / kStride), p.checkpoints.size() - 1);
+  int64_t start = p.base - 1 + static_cast<int64_t>(index) * kStride;
+  Value f = p.checkpoints[index];
+  int from = -1;
+  for (int c = 0; c < 2; ++c) {
+    if (p.cursors[c].m <= m && p.cursors[c].m > start) {
+      start = p.cursors[c].m;
+      f = p.cursors[c].f;
+      from = c;
+    }
+  }
+  for (int64_t k = start + 1; k <= m; ++k) {
+    charge_step();
+    f = add(f, sum_term(sum, k, n, scope), ctx_);
+    int64_t done = k - (p.base - 1);
+    if (done % kStride == 0 && static_cast<size_t>(done / kStride) == p.checkpoints.size()) {
+      p.checkpoints.push_back(f);
+      account_memo(64, f.magnitude_bits());
+    }
+  }
+  if (!f.is_exact()) memo_has_intervals_ = true;
+  if (from < 0) from = p.cursors[0].used <= p.cursors[1].used ? 0 : 1;
+  p.cursors[from].m = m;
+  p.cursors[from].f = f;
+  p.cursors[from].used = ++p.clock;
+  return f;
+}
+
+Value Evaluator::sum_value(const Expr& sum, const Value& n, const EvalScope& scope) {
+  auto [lo, hi] = sum_limits(sum, n, scope);
+  if (hi < lo) return Value(int64_t{0});
+  if (!sum_body_closed(sum)) {
+    // The body changes with n (or with an outer sum's variable): no running sum.
+    return sum_directly(sum, n, scope, [this] { charge_step(); });
+  }
+  std::unique_ptr<PrefixSums>& p = prefix_[&sum];
+  if (!p || lo < p->base) p = std::make_unique<PrefixSums>(lo);
+  Value upper = prefix_at(*p, sum, hi, n, scope);
+  if (lo == p->base) return upper;
+  return sub(upper, prefix_at(*p, sum, lo - 1, n, scope), ctx_);
+}
+
+Value Evaluator::history_lookup(const Expr& call, const Value& n, const EvalScope& scope) {
+  Value arg = call_argument_value(call, n, scope);
+  std::optional<int64_t> m = arg.small();
+  if (!in_sweep_) {
+    // An expression outside the recurrence (a bound side) asks for T(m).
+    if (!m || *m < 0) return value_at(arg.integer());
+    if (*m >= next_) sweep_history(BigInt(*m));
+  } else if (!m || *m < 0 || *m >= next_) {
+    not_shrinking(n.integer(), call, arg.integer());
+  }
+  size_t slot = static_cast<size_t>(*m);
+  if (history_errors_[slot]) throw InputError(*history_errors_[slot]);
+  return *history_values_[slot];
+}
+
+Value Evaluator::sweep_history(const BigInt& n) {
+  const Recurrence& r = *recurrence_;
+  if (!n.is_zero() && bit_length(n) > 62) {
+    throw BudgetExceeded("reaching n = " + n.str() + " one size at a time (" + r.main.name +
+                         " sums over earlier values) is out of reach");
+  }
+  int64_t target = static_cast<int64_t>(n);
+  if (target < next_) {
+    size_t slot = static_cast<size_t>(target);
+    if (history_errors_[slot]) throw InputError(*history_errors_[slot]);
+    return *history_values_[slot];
+  }
+  uint64_t needed = static_cast<uint64_t>(target - next_ + 1);
+  if (stats_.steps + needed > budget_.max_steps) {
+    throw BudgetExceeded("reaching n = " + n.str() + " bottom-up needs " + std::to_string(needed) +
+                         " more steps, over the budget of " + std::to_string(budget_.max_steps));
+  }
+  EvalScope s = scope(r.source);
+  while (next_ <= target) {
+    charge_step();
+    int64_t m = next_;
+    Value mv(m);
+    std::optional<Value> value;
+    std::optional<Diagnostic> error;
+    try {
+      const CaseLine& line = select_case(r.main, mv, s);
+      for (const Expr* call : line.calls) {
+        BigInt arg = call_argument(*call, mv, s);
+        if (arg < 0 || arg >= m) {
+          if (!r.default_base) not_shrinking(BigInt(m), *call, arg);
+          value = default_base_value(BigInt(m), *call, arg);
+          break;
+        }
+      }
+      if (!value) {
+        in_sweep_ = true;
+        try {
+          value = evaluate_expr(*line.body, mv, s);
+        } catch (...) {
+          in_sweep_ = false;
+          throw;
+        }
+        in_sweep_ = false;
+      }
+    } catch (const InputError& e) {
+      error = e.diagnostic();
+    }
+    if (value && !value->is_exact()) memo_has_intervals_ = true;
+    uint64_t bits = value ? value->magnitude_bits() : 0;
+    history_values_.push_back(std::move(value));
+    history_errors_.push_back(std::move(error));
+    ++next_;
+    account_memo(bit_length(BigInt(m)), bits);
+  }
+  size_t slot = static_cast<size_t>(target);
+  if (history_errors_[slot]) throw InputError(*history_errors_[slot]);
+  return *history_values_[slot];
 }
 
 Value Evaluator::evaluate(const Expr& e, const SourceText& source, const BigInt& n) {

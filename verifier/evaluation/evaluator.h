@@ -74,8 +74,13 @@ class Evaluator {
 
   const EvaluatorStats& stats() const { return stats_; }
   const Recurrence& recurrence() const { return *recurrence_; }
-  // True when every recursive call is T(n - c): evaluated bottom-up.
-  bool bottom_up() const { return window_ > 0; }
+  // True when every recursive call is T(n - c), or a line sums over earlier
+  // values: evaluated bottom-up.
+  bool bottom_up() const { return window_ > 0 || history_; }
+  // True when a line sums over earlier values: every size from 0 up is
+  // evaluated once and kept, and sums whose body depends only on their
+  // variable are kept as running (prefix) sums: O(1) amortised per size.
+  bool full_history() const { return history_; }
   // True when top-down sizes go through the integer kernel.
   bool uses_integer_kernel() const { return kernel_ != nullptr; }
 
@@ -86,6 +91,12 @@ class Evaluator {
   Value top_down(const Value& n);
   std::optional<Value> kernel_value(const BigInt& n);
   Value sweep_up(const BigInt& n);
+  Value sweep_history(const BigInt& n);
+  Value history_lookup(const Expr& call, const Value& n, const EvalScope& scope);
+  struct PrefixSums;
+  Value sum_value(const Expr& sum, const Value& n, const EvalScope& scope);
+  Value prefix_at(PrefixSums& p, const Expr& sum, int64_t m, const Value& n,
+                  const EvalScope& scope);
   Value lookup(const Expr& call, const Value& n, const EvalScope& scope);
   void probe_calls();
   Value default_base_value(const BigInt& n, const Expr& call, const BigInt& m);
@@ -123,6 +134,12 @@ class Evaluator {
   std::vector<std::optional<Value>> ring_;
   std::vector<std::optional<Diagnostic>> ring_errors_;
   bool in_sweep_ = false;
+  // Full-history state: history_values_[m] is T(m) (or its error) for m < next_.
+  bool history_ = false;
+  std::vector<std::optional<Value>> history_values_;
+  std::vector<std::optional<Diagnostic>> history_errors_;
+  // Running sums, one per sum node whose body depends only on its variable.
+  std::unordered_map<const Expr*, std::unique_ptr<PrefixSums>> prefix_;
   // While a top-down frame's body is evaluated: its calls and their values
   // (pointers into memo_, whose elements never move).
   const std::vector<const Expr*>* current_calls_ = nullptr;

@@ -107,6 +107,58 @@ Value call_helper(const Function& helper, const Expr& call, const Value& n,
 
 }  // namespace
 
+Value CallResolver::sum(const Expr& sum, const Value& n, const EvalScope& scope) {
+  return sum_directly(sum, n, scope);
+}
+
+std::pair<int64_t, int64_t> sum_limits(const Expr& sum, const Value& n, const EvalScope& scope) {
+  int64_t limits[2];
+  for (int i = 0; i < 2; ++i) {
+    const Expr& limit = *sum.args[i];
+    Value v = evaluate_expr(limit, n, scope);
+    const char* which = i == 0 ? "lower" : "upper";
+    if (!v.is_integer()) {
+      fail_at(*scope.source, limit.pos,
+              std::string("the ") + which + " limit " + print(limit) + " of the sum is " + v.str() +
+                  " at n = " + n.str() + ", not a whole number",
+              "round it: floor(" + print(limit) + ") or ceil(" + print(limit) + ")");
+    }
+    BigInt scratch;
+    const BigInt& k = v.integer_ref(scratch);
+    if (bit_length(k) > 62) {
+      throw BudgetExceeded(std::string("the ") + which + " limit of " + print(sum) + " is " +
+                           k.str() + " at n = " + n.str() + ", too far to add term by term");
+    }
+    limits[i] = static_cast<int64_t>(k);
+  }
+  return {limits[0], limits[1]};
+}
+
+Value sum_term(const Expr& sum, int64_t k, const Value& n, const EvalScope& scope) {
+  Binding binding{&sum.name, Value(k), scope.bound};
+  EvalScope inner = scope;
+  inner.bound = &binding;
+  return evaluate_expr(*sum.args[2], n, inner);
+}
+
+Value sum_directly(const Expr& sum, const Value& n, const EvalScope& scope,
+                   const std::function<void()>& charge) {
+  auto [lo, hi] = sum_limits(sum, n, scope);
+  Value total(int64_t{0});
+  if (hi < lo) return total;
+  constexpr int64_t kMaxUnchargedTerms = int64_t{1} << 22;
+  if (!charge && hi - lo >= kMaxUnchargedTerms) {
+    throw BudgetExceeded(print(sum) + " has " + std::to_string(hi - lo + 1) +
+                         " terms at n = " + n.str() + ", too many to add one by one");
+  }
+  for (int64_t k = lo;; ++k) {
+    if (charge) charge();
+    total = add(total, sum_term(sum, k, n, scope), *scope.ctx);
+    if (k == hi) break;
+  }
+  return total;
+}
+
 Value evaluate_expr(const Expr& e, const Value& n, const EvalScope& scope) {
   const NumericContext& ctx = *scope.ctx;
   try {
@@ -133,6 +185,14 @@ Value evaluate_expr(const Expr& e, const Value& n, const EvalScope& scope) {
       }
       case ExprKind::kNeg:
         return neg(evaluate_expr(*e.args[0], n, scope));
+      case ExprKind::kBound:
+        for (const Binding* b = scope.bound; b != nullptr; b = b->outer) {
+          if (*b->name == e.name) return b->value;
+        }
+        fail_at(*scope.source, e.pos, "'" + e.name + "' is used outside its sum",
+                "a sum's variable exists only inside its body: sum(k, 0, n - 1, T(k))");
+      case ExprKind::kSum:
+        return scope.resolver ? scope.resolver->sum(e, n, scope) : sum_directly(e, n, scope);
       case ExprKind::kCall: {
         const Recurrence* r = scope.recurrence;
         // The recurrence's own calls are the hot path; its name is never a

@@ -4,6 +4,9 @@
 #ifndef THETAGATE_VERIFIER_EVALUATION_EXPRESSION_EVAL_H_
 #define THETAGATE_VERIFIER_EVALUATION_EXPRESSION_EVAL_H_
 
+#include <functional>
+#include <utility>
+
 #include "verifier/model/recurrence.h"
 #include "verifier/numbers/value.h"
 
@@ -15,6 +18,16 @@ class CallResolver {
   // The value of the recurrence's `call` (a kCall node of it) at size n;
   // call_argument() below gives the argument it stands for.
   virtual Value resolve(const Expr& call, const Value& n, const struct EvalScope& scope) = 0;
+  // The value of a sum node at n. The default adds its terms one by one
+  // (sum_directly); the recurrence evaluator keeps running sums instead.
+  virtual Value sum(const Expr& sum, const Value& n, const struct EvalScope& scope);
+};
+
+// The value of a variable bound by an enclosing sum; a chain, innermost first.
+struct Binding {
+  const std::string* name = nullptr;
+  Value value;
+  const Binding* outer = nullptr;
 };
 
 struct EvalScope {
@@ -22,7 +35,19 @@ struct EvalScope {
   const NumericContext* ctx = nullptr;
   const Recurrence* recurrence = nullptr;  // for helper functions; may be null
   CallResolver* resolver = nullptr;        // for the recurrence's calls; may be null
+  const Binding* bound = nullptr;          // the enclosing sums' variables
 };
+
+// The limits of a sum at n as whole numbers. Throws InputError (located at
+// the limit) when one is not a whole number, BudgetExceeded when one is
+// beyond 2^62.
+std::pair<int64_t, int64_t> sum_limits(const Expr& sum, const Value& n, const EvalScope& scope);
+// The sum's body at its variable = k.
+Value sum_term(const Expr& sum, int64_t k, const Value& n, const EvalScope& scope);
+// The sum term by term; `charge` is called once per term (it may throw
+// BudgetExceeded). Without a charge, more than 2^22 terms is a budget error.
+Value sum_directly(const Expr& sum, const Value& n, const EvalScope& scope,
+                   const std::function<void()>& charge = nullptr);
 
 // The value of `e` at n. Throws InputError (located) for domain errors,
 // unknown functions and recurrence calls where none are allowed;

@@ -23,6 +23,23 @@ bool has_unrounded_quotient(const Expr& e) {
 void check_calls(const Expr& e, const SourceText& source, const std::string& main_name,
                  const std::map<std::string, Function>& helpers, bool in_helper, bool in_condition,
                  bool in_argument) {
+  if (e.kind == ExprKind::kSum) {
+    // T may be summed (its argument then uses the bound variable), but the
+    // limits are plain expressions in n.
+    for (int i = 0; i < 2; ++i) {
+      std::vector<const Expr*> in_limit;
+      collect_calls(e.args[i], main_name, in_limit);
+      if (!in_limit.empty()) {
+        fail_at(source, in_limit.front()->pos,
+                "a limit of a sum calls " + main_name + ", which is not supported",
+                "the limits are expressions in n such as 0, n - 1, floor(n/2)");
+      }
+    }
+    if (in_argument) {
+      fail_at(source, e.pos, "a sum inside the argument of " + main_name + " is not supported",
+              "arguments are expressions in n such as n/2, n-1");
+    }
+  }
   if (e.kind == ExprKind::kCall && !is_builtin(e.name)) {
     bool is_main = e.name == main_name;
     if (!is_main && helpers.count(e.name) == 0) {
@@ -73,7 +90,10 @@ void check_helper_cycles(const std::map<std::string, Function>& helpers, const S
           collect_calls(part, other, calls);
           if (calls.empty()) continue;
           if (state[other] == 1) {
-            fail_at(source, calls.front()->pos, "helper '" + other + "' is used recursively",
+            fail_at(source, calls.front()->pos,
+                    "helper '" + other +
+                        "' is used recursively (recursion among helpers, or "
+                        "mutual recursion, is not supported)",
                     "only the main function may recurse; helpers are plain formulas");
           }
           if (state[other] == 0) visit(other);
@@ -157,6 +177,31 @@ std::shared_ptr<const Recurrence> build_recurrence(const SourceText& source) {
     }
   }
 
+  // Mutual recursion (T calls U, U calls T) is a different language.
+  for (const auto& [name, h] : r->helpers) {
+    const Expr* back = nullptr;
+    for (const CaseLine* line : h.lines_in_order()) {
+      std::vector<const Expr*> calls;
+      collect_calls(line->body, r->main.name, calls);
+      if (!calls.empty()) back = calls.front();
+    }
+    if (back == nullptr) continue;
+    bool called = false;
+    for (const CaseLine* line : r->main.lines_in_order()) {
+      std::vector<const Expr*> calls;
+      collect_calls(line->body, name, calls);
+      called = called || !calls.empty();
+    }
+    if (called) {
+      fail_at(source, back->pos,
+              "mutual recursion (" + r->main.name + " calls " + name + " and " + name + " calls " +
+                  r->main.name + ") is not supported",
+              "only one function may recurse: substitute " + name + "'s line into " + r->main.name +
+                  "'s, e.g. " + r->main.name + "(n) = " + r->main.name +
+                  "(n-2) + ... for T(n) = U(n-1) + 1, U(n) = T(n-1) + 1");
+    }
+  }
+
   for (const CaseLine* line : r->main.lines_in_order()) {
     check_calls(*line->body, source, r->main.name, r->helpers, false, false, false);
     if (line->condition)
@@ -175,8 +220,12 @@ std::shared_ptr<const Recurrence> build_recurrence(const SourceText& source) {
   bool has_base = false;
   std::string floor_example;
   auto index_line = [&](CaseLine& line) {
-    collect_calls(line.body, r->main.name, line.calls);
-    if (line.point || line.calls.empty()) has_base = true;
+    collect_calls(line.body, r->main.name, line.calls, false);
+    std::vector<const Expr*> all;
+    collect_calls(line.body, r->main.name, all);
+    line.sums_calls = all.size() > line.calls.size();
+    if (line.sums_calls) r->full_history = true;
+    if (line.point || all.empty()) has_base = true;
     for (const Expr* call : line.calls) {
       if (floor_example.empty() && has_unrounded_quotient(*call->args[0])) {
         floor_example = print(*call->args[0]);
@@ -188,6 +237,12 @@ std::shared_ptr<const Recurrence> build_recurrence(const SourceText& source) {
   if (r->main.fallback) index_line(*r->main.fallback);
 
   r->default_base = !has_base;
+  if (r->full_history) {
+    // Sums over earlier sizes start empty; only a direct call can fail to shrink.
+    bool direct = false;
+    for (const CaseLine* line : r->main.lines_in_order()) direct = direct || !line->calls.empty();
+    if (!direct) r->default_base = false;
+  }
   if (!floor_example.empty()) {
     r->notes.push_back("inside " + r->main.name +
                        "(...), a quotient that is not a whole number is "
@@ -229,7 +284,7 @@ std::shared_ptr<const Recurrence> read_quotients_as_ceilings(const Recurrence& r
   auto rewrite = [&](CaseLine& line) {
     line.body = ceil_calls(line.body, r.main.name);
     line.calls.clear();
-    collect_calls(line.body, r.main.name, line.calls);
+    collect_calls(line.body, r.main.name, line.calls, false);
   };
   for (auto& l : copy->main.points) rewrite(l);
   for (auto& l : copy->main.conditional) rewrite(l);

@@ -19,7 +19,8 @@ struct CaseLine {
   std::optional<BigInt> point;  // a point case T(1) = 0
   ExprPtr condition;            // null: no condition
   ExprPtr body;
-  std::vector<const Expr*> calls;  // recursive calls in body, left to right
+  std::vector<const Expr*> calls;  // recursive calls in body outside sums, left to right
+  bool sums_calls = false;         // a sum in body calls the recursive function
   size_t pos = 0;                  // where the line's function name stands
 };
 
@@ -43,6 +44,9 @@ struct Recurrence {
   // No base case was written: T(n) = 1 wherever the recursive line would
   // not shrink its argument (docs/design.md §3). Reports state this.
   bool default_base = false;
+  // A line sums over earlier values (sum(k, 0, n - 1, T(k))): the evaluator
+  // goes bottom-up over every size and keeps them all.
+  bool full_history = false;
   // Facts for the report, e.g. "inside T(...), n/2 is read as ⌊n/2⌋".
   std::vector<std::string> notes;
 

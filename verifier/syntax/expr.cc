@@ -61,10 +61,30 @@ void update_depth(Expr& e) {
   e.depth = deepest + 1;
 }
 
+ExprPtr make_sum(std::string variable, ExprPtr lo, ExprPtr hi, ExprPtr body, size_t pos) {
+  auto e = std::make_shared<Expr>();
+  e->kind = ExprKind::kSum;
+  e->name = std::move(variable);
+  e->args = {std::move(lo), std::move(hi), std::move(body)};
+  e->pos = pos;
+  update_depth(*e);
+  return e;
+}
+
+ExprPtr make_bound(std::string variable, size_t pos) {
+  auto e = std::make_shared<Expr>();
+  e->kind = ExprKind::kBound;
+  e->name = std::move(variable);
+  e->pos = pos;
+  return e;
+}
+
 bool same_tree(const Expr& a, const Expr& b) {
   if (a.kind != b.kind || a.args.size() != b.args.size()) return false;
   if (a.kind == ExprKind::kNumber && a.number != b.number) return false;
-  if ((a.kind == ExprKind::kCall || a.kind == ExprKind::kVariable) && a.name != b.name)
+  if ((a.kind == ExprKind::kCall || a.kind == ExprKind::kVariable || a.kind == ExprKind::kSum ||
+       a.kind == ExprKind::kBound) &&
+      a.name != b.name)
     return false;
   for (size_t i = 0; i < a.args.size(); ++i) {
     if (!same_tree(*a.args[i], *b.args[i])) return false;
@@ -76,8 +96,10 @@ namespace {
 
 const std::map<std::string, int>& builtins() {
   static const std::map<std::string, int> table = {
-      {"floor", 1}, {"ceil", 1}, {"lg", 1},   {"ln", 1},   {"log2", 1},
-      {"sqrt", 1},  {"log", 2},  {"min", -1}, {"max", -1}, {"mod", 2},
+      {"floor", 1}, {"ceil", 1}, {"lg", 1},   {"ln", 1},  {"log2", 1}, {"sqrt", 1},
+      {"log", 2},   {"min", -1}, {"max", -1}, {"mod", 2}, {"sum", 4},  // sum(k, lo, hi, body):
+                                                                       // parsed as a kSum node,
+                                                                       // never a call
   };
   return table;
 }
@@ -127,6 +149,8 @@ int level_of(const Expr& e) {
     case ExprKind::kNumber:
       return e.number < 0 ? kUnaryLevel : (denominator(e.number) == 1 ? kAtomLevel : kAtomLevel);
     case ExprKind::kVariable:
+    case ExprKind::kSum:
+    case ExprKind::kBound:
       return kAtomLevel;
   }
   return kAtomLevel;
@@ -198,6 +222,11 @@ std::string print(const Expr& e) {
       return number_text(e.number);
     case ExprKind::kVariable:
       return "n";
+    case ExprKind::kBound:
+      return e.name;
+    case ExprKind::kSum:
+      return "sum(" + e.name + ", " + print(*e.args[0]) + ", " + print(*e.args[1]) + ", " +
+             print(*e.args[2]) + ")";
     case ExprKind::kAdd:
       return wrap(*e.args[0], kSumLevel) + " + " + wrap(*e.args[1], kProductLevel);
     case ExprKind::kSub:
@@ -206,9 +235,9 @@ std::string print(const Expr& e) {
       const Expr& a = *e.args[0];
       const Expr& b = *e.args[1];
       // "2T(n/2)", "3n": a plain integer before a name reads naturally.
-      bool juxtapose =
-          a.kind == ExprKind::kNumber && a.number > 0 && denominator(a.number) == 1 &&
-          (b.kind == ExprKind::kVariable || (b.kind == ExprKind::kCall && b.name != "mod"));
+      bool juxtapose = a.kind == ExprKind::kNumber && a.number > 0 && denominator(a.number) == 1 &&
+                       (b.kind == ExprKind::kVariable || b.kind == ExprKind::kBound ||
+                        (b.kind == ExprKind::kCall && b.name != "mod"));
       if (juxtapose) return print(a) + print(b);
       return wrap(a, kProductLevel) + "*" + wrap(b, kUnaryLevel);
     }
@@ -247,9 +276,13 @@ std::string print(const Expr& e) {
   return "?";
 }
 
-void collect_calls(const ExprPtr& e, const std::string& function, std::vector<const Expr*>& out) {
+void collect_calls(const ExprPtr& e, const std::string& function, std::vector<const Expr*>& out,
+                   bool into_sums) {
   if (!e) return;
-  for (const auto& a : e->args) collect_calls(a, function, out);
+  for (size_t i = 0; i < e->args.size(); ++i) {
+    if (!into_sums && e->kind == ExprKind::kSum && i == 2) continue;
+    collect_calls(e->args[i], function, out, into_sums);
+  }
   if (e->kind == ExprKind::kCall && e->name == function) out.push_back(e.get());
 }
 
@@ -259,6 +292,47 @@ bool mentions_n(const Expr& e) {
     if (mentions_n(*a)) return true;
   }
   return false;
+}
+
+bool contains_sum(const Expr& e) {
+  if (e.kind == ExprKind::kSum) return true;
+  for (const auto& a : e.args) {
+    if (contains_sum(*a)) return true;
+  }
+  return false;
+}
+
+namespace {
+bool free_bound(const Expr& e, std::vector<const std::string*>& bound) {
+  if (e.kind == ExprKind::kBound) {
+    for (const std::string* name : bound) {
+      if (*name == e.name) return false;
+    }
+    return true;
+  }
+  if (e.kind == ExprKind::kSum) {
+    if (free_bound(*e.args[0], bound) || free_bound(*e.args[1], bound)) return true;
+    bound.push_back(&e.name);
+    bool free = free_bound(*e.args[2], bound);
+    bound.pop_back();
+    return free;
+  }
+  for (const auto& a : e.args) {
+    if (free_bound(*a, bound)) return true;
+  }
+  return false;
+}
+}  // namespace
+
+bool has_free_bound(const Expr& e) {
+  std::vector<const std::string*> bound;
+  return free_bound(e, bound);
+}
+
+bool sum_body_closed(const Expr& sum) {
+  if (sum.kind != ExprKind::kSum || mentions_n(*sum.args[2])) return false;
+  std::vector<const std::string*> bound = {&sum.name};
+  return !free_bound(*sum.args[2], bound);
 }
 
 }  // namespace thetagate

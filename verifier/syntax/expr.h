@@ -21,7 +21,9 @@ enum class ExprKind {
   kDiv,
   kPow,
   kNeg,
-  kCall,  // builtin (floor, lg, ...), helper function, or the recurrence
+  kCall,   // builtin (floor, lg, ...), helper function, or the recurrence
+  kSum,    // sum(k, lo, hi, body): name is the bound variable, args = {lo, hi, body}
+  kBound,  // a variable bound by an enclosing sum; name is its spelling
   // Conditions.
   kEq,
   kNe,
@@ -44,7 +46,7 @@ struct Expr {
   Rational number;         // kNumber
   bool has_small = false;  // kNumber: the value fits in int64 (fast path)
   int64_t small = 0;
-  std::string name;           // kVariable: "n"; kCall: the function name
+  std::string name;           // kVariable: "n"; kCall: the function name; kSum, kBound: k
   std::vector<ExprPtr> args;  // operands, or call arguments
   size_t pos = 0;             // byte offset in its SourceText
   // Levels of the tree below and including this node (a leaf is 1). The
@@ -67,6 +69,9 @@ ExprPtr make_variable(size_t pos = 0);
 ExprPtr make_unary(ExprKind kind, ExprPtr a, size_t pos = 0);
 ExprPtr make_binary(ExprKind kind, ExprPtr a, ExprPtr b, size_t pos = 0);
 ExprPtr make_call(std::string name, std::vector<ExprPtr> args, size_t pos = 0);
+// sum(k, lo, hi, body): body may use make_bound(k).
+ExprPtr make_sum(std::string variable, ExprPtr lo, ExprPtr hi, ExprPtr body, size_t pos = 0);
+ExprPtr make_bound(std::string variable, size_t pos = 0);
 
 // 1 + the deepest of `e`'s operands: call after replacing operands of a copy.
 void update_depth(Expr& e);
@@ -81,10 +86,20 @@ std::string print(const Expr& e);
 bool is_builtin(const std::string& name);
 int builtin_arity(const std::string& name);
 
-// Calls to `function` anywhere in `e`, in evaluation (left-to-right) order.
-void collect_calls(const ExprPtr& e, const std::string& function, std::vector<const Expr*>& out);
+// Calls to `function` anywhere in `e`, in evaluation (left-to-right) order;
+// with into_sums false, not those inside a sum's body.
+void collect_calls(const ExprPtr& e, const std::string& function, std::vector<const Expr*>& out,
+                   bool into_sums = true);
 // True if `e` mentions the variable n.
 bool mentions_n(const Expr& e);
+// True if `e` contains a sum.
+bool contains_sum(const Expr& e);
+// True if `e` uses a bound variable that no sum inside `e` binds (a body
+// that depends on an outer sum's variable).
+bool has_free_bound(const Expr& e);
+// True if the body of the sum node `sum` depends on its own variable only
+// (not on n, not on an outer sum's variable): its partial sums can be kept.
+bool sum_body_closed(const Expr& sum);
 
 }  // namespace thetagate
 

@@ -94,6 +94,31 @@ std::vector<Token> tokenize(const SourceText& source) {
     else if (u >= 0xC0)
       len = 2;
     std::string bad = s.substr(i, len);
+    const char* sum_form =
+        "write a sum as sum(k, lo, hi, body), e.g. sum(k, 0, n - 1, T(k)) for T(0) + ... + "
+        "T(n-1)";
+    if (bad == "." && i + 1 < s.size() && s[i + 1] == '.') {
+      fail_at(source, i, "ranges with '..' are not part of the language", sum_form);
+    }
+    if (bad == "\u03a3" || bad == "\u2211") {
+      fail_at(source, i, "the summation sign '" + bad + "' is not part of the language", sum_form);
+    }
+    if (bad == "\u220f" || bad == "\u03a0") {
+      fail_at(source, i, "products with '" + bad + "' are not part of the language",
+              "there is no product form; a product over k is itself a recurrence, "
+              "P(n) = f(n) P(n-1)");
+    }
+    if (bad == "\u2026") {
+      fail_at(source, i, "'…' marks the certified digits of a number without a closed form",
+              "a bound needs an exact value: write the exponent as an expression such as lg 3 "
+              "or (1 + sqrt(5))/2, or bound with a rational one");
+    }
+    if (bad == "_" || bad == "{" || bad == "}") {
+      bool after_sum =
+          !tokens.empty() && tokens.back().kind == TokenKind::kName &&
+          (tokens.back().text.rfind("sum", 0) == 0 || tokens.back().text.rfind("Sum", 0) == 0);
+      if (after_sum) fail_at(source, i, "sum limits in TeX style are not supported", sum_form);
+    }
     std::string hint = "the language uses + - * / ^ ( ) , = == != < <= > >= and ⌊ ⌋ ⌈ ⌉ √";
     if (bad == "[" || bad == "{") hint = "use ( ) for grouping, floor(x) or ⌊x⌋ for rounding down";
     if (bad == "!") {

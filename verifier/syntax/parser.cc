@@ -15,6 +15,9 @@ const std::set<std::string>& keywords() {
   return words;
 }
 
+const char* const kSumHint =
+    "a sum is written sum(k, lo, hi, body): sum(k, 0, n - 1, T(k)) adds T(0) ... T(n-1)";
+
 bool is_prefix_function(const std::string& name) {
   return name == "lg" || name == "ln" || name == "log2" || name == "sqrt" || name == "log";
 }
@@ -260,13 +263,15 @@ bool Parser::starts_atom(const Token& t) const {
 
 ExprPtr Parser::parse_juxtaposition() {
   ExprPtr left = parse_power();
-  while (starts_atom(peek())) {
+  // "n 2^n", "n^2 3^n": a number after a factor is the base of a power.
+  while (starts_atom(peek()) || (at(TokenKind::kNumber) && peek(1).kind == TokenKind::kCaret)) {
     size_t pos = peek().pos;
     left = bounded(make_binary(ExprKind::kMul, left, parse_power(), pos));
   }
   if (at(TokenKind::kNumber)) {
     fail(peek(), "a number directly after a factor",
-         "write the coefficient first (3n, not n3) or use '*' between factors");
+         "write the coefficient first (3n, not n3) or use '*' between factors; a power may "
+         "follow: n 2^n");
   }
   return left;
 }
@@ -340,12 +345,18 @@ ExprPtr Parser::parse_atom() {
 
 ExprPtr Parser::parse_name(const Token& name) {
   if (name.text == "n") return make_variable(name.pos);
+  for (const std::string& bound : bound_) {
+    if (bound == name.text) return make_bound(name.text, name.pos);
+  }
+  if (name.text == "sum") return parse_sum_form(name);
   if (is_prefix_function(name.text)) return parse_prefix_function(name);
   if (at(TokenKind::kLeftParen)) {
     return bounded(make_call(name.text, parse_arguments(name), name.pos));
   }
   std::string hint = "the size is written 'n'; functions take parentheses: f(n)";
-  if (name.text.size() > 1 && name.text[0] == 'n') {
+  if (name.text.rfind("sum", 0) == 0 || name.text == "Sum" || name.text == "sigma") {
+    hint = kSumHint;
+  } else if (name.text.size() > 1 && name.text[0] == 'n') {
     hint = "separate factors with spaces or '*': n lg n, n*n";
   } else if (name.text == "Theta" || name.text == "O" || name.text == "Omega") {
     hint = "asymptotic classes belong in 'bound', not in an expression";
@@ -377,6 +388,36 @@ std::vector<ExprPtr> Parser::parse_arguments(const Token& name) {
     fail(name, "'" + name.text + "' needs at least two arguments", name.text + "(a, b)");
   }
   return args;
+}
+
+// sum(k, lo, hi, body): k is bound in body; lo and hi are expressions in n
+// (and in the variables of enclosing sums).
+ExprPtr Parser::parse_sum_form(const Token& name) {
+  const char* form = "a sum is written sum(k, lo, hi, body), e.g. sum(k, 0, n - 1, T(k))";
+  if (!at(TokenKind::kLeftParen)) fail_expected("'(' after 'sum'", form);
+  next();
+  const Token& variable = peek();
+  if (variable.kind != TokenKind::kName || is_keyword(variable.text) || variable.text == "n" ||
+      is_builtin(variable.text) || peek(1).kind != TokenKind::kComma) {
+    std::string hint = form;
+    if (variable.kind == TokenKind::kName && peek(1).kind == TokenKind::kAssign)
+      hint = "the limits are separate arguments: sum(k, 0, n - 1, T(k)), not sum(k = 0 ...)";
+    else if (variable.kind == TokenKind::kName && variable.text == "n")
+      hint = "n is the size; name the summation variable k, i or j";
+    fail(variable, "the first argument of 'sum' must be the name of its variable", hint);
+  }
+  next();
+  next();  // ','
+  ExprPtr lo = parse_value();
+  expect(TokenKind::kComma, "',' after the lower limit", form);
+  ExprPtr hi = parse_value();
+  expect(TokenKind::kComma, "',' after the upper limit", form);
+  bound_.push_back(variable.text);
+  ExprPtr body = parse_value();
+  bound_.pop_back();
+  if (at(TokenKind::kComma)) fail(peek(), "'sum' takes four arguments", form);
+  expect(TokenKind::kRightParen, "')'", "close the sum with ')'");
+  return make_sum(variable.text, lo, hi, body, name.pos);
 }
 
 // lg n, lg^2 n, lg lg n, sqrt n, √n, and lg(n) as an ordinary call.

@@ -5,6 +5,8 @@
 // + -, * / mod, unary minus, juxtaposition (2T(n/2), n lg n), ^ (right
 // associative), atoms. "lg n", "lg^2 n", "sqrt n", "√n" apply a function to
 // the power-level operand that follows; "lg(n)" with parentheses is a call.
+// A number may follow a factor only as the base of a power: "n 2^n".
+// "sum(k, lo, hi, body)" binds k inside body (docs/language.md).
 #ifndef THETAGATE_VERIFIER_SYNTAX_PARSER_H_
 #define THETAGATE_VERIFIER_SYNTAX_PARSER_H_
 
@@ -59,6 +61,7 @@ class Parser {
   ExprPtr parse_atom();
   ExprPtr parse_name(const Token& name);
   ExprPtr parse_prefix_function(const Token& name);
+  ExprPtr parse_sum_form(const Token& name);
   std::vector<ExprPtr> parse_arguments(const Token& name);
   bool starts_atom(const Token& t) const;
   // `e`, or a located error when its tree is deeper than kMaxTreeDepth.
@@ -71,6 +74,7 @@ class Parser {
   std::vector<Token> tokens_;
   size_t cursor_ = 0;
   int depth_ = 0;
+  std::vector<std::string> bound_;  // variables of the enclosing sums, innermost last
 };
 
 // Words that end an expression and are never names: if, otherwise, and, or,
