@@ -4,6 +4,7 @@
 #include "verifier/derivation/shape.h"
 #include "verifier/derivation/theorems/akra_bazzi.h"
 #include "verifier/derivation/theorems/change_of_variables.h"
+#include "verifier/derivation/theorems/full_history.h"
 #include "verifier/derivation/theorems/linear.h"
 #include "verifier/derivation/theorems/master.h"
 #include "verifier/derivation/theorems/subtract.h"
@@ -182,7 +183,9 @@ Derivation derive(const Recurrence& recurrence) {
   };
   using Theorem = std::pair<const char*, TheoremOutcome (*)(const DerivationInput&)>;
   std::vector<Theorem> theorems;
-  if (!shape.scaled.empty())
+  if (!shape.sums.empty())
+    theorems = {{"full-history summation factor", full_history}};
+  else if (!shape.scaled.empty())
     theorems = {{"master theorem", master_theorem}, {"Akra–Bazzi", akra_bazzi}};
   else if (!shape.roots.empty())
     theorems = {{"change of variables", change_of_variables}};

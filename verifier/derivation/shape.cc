@@ -117,8 +117,48 @@ struct LineParts {
   std::vector<ScaledTerm> scaled;
   std::vector<SubtractiveTerm> subtractive;
   std::vector<RootTerm> roots;
+  std::vector<HistorySum> sums;
   std::vector<ExprPtr> driving;
 };
+
+// c n^j for an expression built from constants and n by * / ^ and unary
+// minus (2/n, n^2/3); empty otherwise.
+std::optional<std::pair<Rational, int>> monomial(const Expr& e) {
+  if (!mentions_n(e)) {
+    auto v = constant_value(e);
+    if (!v || !v->is_rational()) return std::nullopt;
+    return std::make_pair(v->rational(), 0);
+  }
+  switch (e.kind) {
+    case ExprKind::kVariable:
+      return std::make_pair(Rational(1), 1);
+    case ExprKind::kNeg: {
+      auto a = monomial(*e.args[0]);
+      if (!a) return a;
+      return std::make_pair(Rational(-a->first), a->second);
+    }
+    case ExprKind::kMul:
+    case ExprKind::kDiv: {
+      auto a = monomial(*e.args[0]), b = monomial(*e.args[1]);
+      if (!a || !b) return std::nullopt;
+      if (e.kind == ExprKind::kMul)
+        return std::make_pair(Rational(a->first * b->first), a->second + b->second);
+      if (b->first == 0) return std::nullopt;
+      return std::make_pair(Rational(a->first / b->first), a->second - b->second);
+    }
+    case ExprKind::kPow: {
+      auto a = monomial(*e.args[0]);
+      const Expr& k = *e.args[1];
+      if (!a || k.kind != ExprKind::kNumber || !k.has_small || k.small < 0 || k.small > 64)
+        return std::nullopt;
+      Rational c = 1;
+      for (int64_t i = 0; i < k.small; ++i) c *= a->first;
+      return std::make_pair(c, a->second * static_cast<int>(k.small));
+    }
+    default:
+      return std::nullopt;
+  }
+}
 
 void add_term(LineParts& parts, const Rational& a, const Expr& call) {
   const ExprPtr& arg = call.args[0];
@@ -167,29 +207,39 @@ void add_term(LineParts& parts, const Rational& a, const Expr& call) {
   parts.scaled.push_back(t);
 }
 
-ExprPtr scaled_piece(const ExprPtr& e, const Rational& s) {
-  if (s == 1) return e;
-  if (s == -1) return make_unary(ExprKind::kNeg, e);
-  return make_binary(ExprKind::kMul, make_number(s), e);
+ExprPtr scaled_piece(const ExprPtr& e, const Rational& s, int n_power) {
+  ExprPtr x = e;
+  if (n_power > 0)
+    x = make_binary(ExprKind::kMul, x,
+                    make_binary(ExprKind::kPow, make_variable(), make_number(n_power)));
+  if (n_power < 0)
+    x = make_binary(ExprKind::kDiv, x,
+                    make_binary(ExprKind::kPow, make_variable(), make_number(-n_power)));
+  if (s == 1) return x;
+  if (s == -1) return make_unary(ExprKind::kNeg, x);
+  return make_binary(ExprKind::kMul, make_number(s), x);
 }
 
-void split(const ExprPtr& e, const Rational& scale, LineParts& parts, const std::string& name) {
+// Splits a line's body into its T terms and the driving function; a factor
+// c n^j (j != 0) is allowed only in front of a sum over earlier values.
+void split(const ExprPtr& e, const Rational& scale, LineParts& parts, const std::string& name,
+           int n_power = 0) {
   if (!contains_call(e, name)) {
-    parts.driving.push_back(scaled_piece(e, scale));
+    parts.driving.push_back(scaled_piece(e, scale, n_power));
     return;
   }
   const std::string text = print(*e);
   switch (e->kind) {
     case ExprKind::kAdd:
-      split(e->args[0], scale, parts, name);
-      split(e->args[1], scale, parts, name);
+      split(e->args[0], scale, parts, name, n_power);
+      split(e->args[1], scale, parts, name, n_power);
       return;
     case ExprKind::kSub:
-      split(e->args[0], scale, parts, name);
-      split(e->args[1], -scale, parts, name);
+      split(e->args[0], scale, parts, name, n_power);
+      split(e->args[1], -scale, parts, name, n_power);
       return;
     case ExprKind::kNeg:
-      split(e->args[0], -scale, parts, name);
+      split(e->args[0], -scale, parts, name, n_power);
       return;
     case ExprKind::kMul: {
       bool left = contains_call(e->args[0], name), right = contains_call(e->args[1], name);
@@ -199,23 +249,40 @@ void split(const ExprPtr& e, const Rational& scale, LineParts& parts, const std:
       const ExprPtr& inner = left ? e->args[0] : e->args[1];
       const ExprPtr& factor = left ? e->args[1] : e->args[0];
       if (mentions_n(*factor)) {
-        throw ShapeError{"the coefficient '" + print(*factor) + "' of " + print(*inner) +
-                         " depends on n"};
+        auto m = monomial(*factor);
+        if (!m) {
+          throw ShapeError{"the coefficient '" + print(*factor) + "' of " + print(*inner) +
+                           " depends on n"};
+        }
+        split(inner, scale * m->first, parts, name, n_power + m->second);
+        return;
       }
-      split(inner, scale * rational_constant(*factor, "coefficient"), parts, name);
+      split(inner, scale * rational_constant(*factor, "coefficient"), parts, name, n_power);
       return;
     }
     case ExprKind::kDiv:
       if (contains_call(e->args[1], name))
         throw ShapeError{"'" + text + "' divides by " + name + ": not linear in " + name};
       if (mentions_n(*e->args[1])) {
-        throw ShapeError{"the coefficient 1/(" + print(*e->args[1]) + ") in '" + text +
-                         "' depends on n"};
+        auto m = monomial(*e->args[1]);
+        if (!m || m->first == 0) {
+          throw ShapeError{"the coefficient 1/(" + print(*e->args[1]) + ") in '" + text +
+                           "' depends on n"};
+        }
+        split(e->args[0], scale / m->first, parts, name, n_power - m->second);
+        return;
       }
-      split(e->args[0], scale / rational_constant(*e->args[1], "divisor"), parts, name);
+      split(e->args[0], scale / rational_constant(*e->args[1], "divisor"), parts, name, n_power);
+      return;
+    case ExprKind::kSum:
+      parts.sums.push_back({scale, n_power, e});
       return;
     case ExprKind::kCall:
       if (e->name == name) {
+        if (n_power != 0) {
+          throw ShapeError{"the coefficient of " + text + " depends on n (a factor n^" +
+                           std::to_string(n_power) + ")"};
+        }
         add_term(parts, scale, *e);
         return;
       }
@@ -237,13 +304,19 @@ std::string recursion_text(const LineParts& p, const std::string& name) {
   for (const auto& t : p.scaled) add(t.a, name + "(" + t.argument + ")");
   for (const auto& t : p.subtractive) add(t.a, name + "(n - " + t.c.str() + ")");
   for (const auto& t : p.roots) add(t.a, name + "(" + t.argument + ")");
+  for (const auto& t : p.sums) add(t.scale, print(*t.sum));
   return s.empty() ? "no recursive call" : s;
 }
 
 bool same_recursion(LineParts x, LineParts y) {
   if (x.scaled.size() != y.scaled.size() || x.subtractive.size() != y.subtractive.size() ||
-      x.roots.size() != y.roots.size()) {
+      x.roots.size() != y.roots.size() || x.sums.size() != y.sums.size()) {
     return false;
+  }
+  for (size_t i = 0; i < x.sums.size(); ++i) {
+    if (x.sums[i].scale != y.sums[i].scale || x.sums[i].n_power != y.sums[i].n_power ||
+        !same_tree(*x.sums[i].sum, *y.sums[i].sum))
+      return false;
   }
   auto by_b = [](const ScaledTerm& s, const ScaledTerm& t) {
     return s.b < t.b || (s.b == t.b && s.a < t.a);
@@ -324,6 +397,7 @@ Shape extract_shape(const Recurrence& recurrence) {
   shape.scaled = first.scaled;
   shape.subtractive = first.subtractive;
   shape.roots = first.roots;
+  shape.sums = first.sums;
   // Perturbations may differ between lines (n/2 when even, (n-1)/2 when odd):
   // keep the largest.
   for (size_t i = 1; i < lines.size(); ++i) {

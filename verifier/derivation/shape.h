@@ -42,6 +42,14 @@ struct RootTerm {
   std::string argument;
 };
 
+// A sum over earlier values, scale * n^n_power * sum(k, lo, hi, body), with
+// body calling T (quicksort's average: (2/n) sum(k, 0, n - 1, T(k))).
+struct HistorySum {
+  Rational scale;
+  int n_power = 0;
+  ExprPtr sum;  // the kSum node
+};
+
 // One alternative of a driving function given by parity or residue lines.
 struct DrivingCase {
   std::string condition;  // "n even", "otherwise"
@@ -56,6 +64,7 @@ struct Shape {
   std::vector<ScaledTerm> scaled;
   std::vector<SubtractiveTerm> subtractive;
   std::vector<RootTerm> roots;
+  std::vector<HistorySum> sums;
   ExprPtr driving;                          // f(n); null means f = 0 or see driving_cases
   std::vector<DrivingCase> driving_cases;   // set when case lines differ only in f
   std::vector<const CaseLine*> base_cases;  // point lines and lines for bounded n
