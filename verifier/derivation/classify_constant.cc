@@ -92,6 +92,8 @@ std::optional<RealNumber> constant_value(const Expr& e, std::string* reason) {
           }
           if (v[0].is_rational() && v[1].is_rational())
             return RealNumber::log(v[0].rational(), v[1].rational());
+          if (v[0].is_rational() && v[1].kind() == RealNumber::Kind::kAlgebraic)
+            return RealNumber::log_real(v[0].rational(), v[1]);
           return log2_of(v[1]) / log2_of(v[0]);
         }
         if (f == "sqrt") {
@@ -131,6 +133,9 @@ std::optional<RealNumber> constant_value(const Expr& e, std::string* reason) {
         }
         return fail(reason, "'" + print(e) + "' is not supported in a constant");
       }
+      case ExprKind::kSum:
+      case ExprKind::kBound:
+        return fail(reason, "'" + print(e) + "' is a sum, not supported in a constant");
       default:
         return fail(reason, "'" + print(e) + "' is a condition, not a number");
     }

@@ -154,6 +154,7 @@ Expansion integer_power(const Expansion& x, long k, const std::string& what) {
 
 RealNumber log2_of(const RealNumber& c) {
   if (c.is_rational()) return RealNumber::log(2, c.rational());
+  if (c.kind() == RealNumber::Kind::kAlgebraic) return RealNumber::log_real(2, c);
   return RealNumber::enclosed([c](long prec) { return c.enclose(prec).log2(); });
 }
 

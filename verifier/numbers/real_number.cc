@@ -167,6 +167,53 @@ RealNumber RealNumber::log(const Rational& base, const Rational& x) {
   return make_log_form(0, c, a, g);
 }
 
+namespace {
+
+RealNumber make_log_algebraic(Rational q, Rational c, Rational g,
+                              std::shared_ptr<const Node> alpha) {
+  if (c == 0) return RealNumber(q);
+  auto n = std::make_shared<Node>();
+  n->kind = Kind::kLogAlgebraic;
+  n->q = std::move(q);
+  n->c = std::move(c);
+  n->g = std::move(g);
+  n->alpha = std::move(alpha);
+  return from_node(n);
+}
+
+// sign(q + c log_g(alpha) - r) for c != 0, exactly: log_g(alpha) against the
+// rational s = (r - q)/c is alpha against g^s, an algebraic comparison.
+std::optional<int> log_algebraic_sign(const Node& x, const Rational& r) {
+  Rational s = (r - x.q) / x.c;
+  if (boost::multiprecision::abs(numerator(s)) >= 4096 || denominator(s) >= 4096)
+    return std::nullopt;
+  RealNumber gs = pow(RealNumber(x.g), RealNumber(s));
+  if (gs.kind() == Kind::kEnclosed) return std::nullopt;
+  int order = compare(RealNumber(x.alpha), gs);  // log_g(alpha) - s has this sign (g > 1)
+  return x.c > 0 ? order : -order;
+}
+
+}  // namespace
+
+RealNumber RealNumber::log_real(const Rational& base, const RealNumber& x) {
+  if (base <= 0 || base == 1 || x.sign() <= 0)
+    throw DomainError("log of a non-positive number or base 1");
+  if (auto q = exact_value(x)) return log(base, *q);
+  if (x.kind() != Kind::kAlgebraic) {
+    RealNumber b(base);
+    return make_enclosed(
+        [x, b](long prec) { return x.enclose(prec + 16).log() / b.enclose(prec + 16).log(); });
+  }
+  Rational b = base, c = 1;
+  if (b < 1) {
+    b = Rational(1) / b;
+    c = -c;
+  }
+  auto [g, k] = primitive_power(b);
+  c /= Rational(static_cast<long>(k));
+  return make_log_algebraic(0, c, g, x.node_);
+}
+
 RealNumber RealNumber::root(const Rational& q, unsigned long k) {
   if (q <= 0 || k == 0) throw DomainError("root of a non-positive number");
   if (k == 1) return RealNumber(q);
@@ -206,6 +253,12 @@ RealNumber operator+(const RealNumber& a, const RealNumber& b) {
   const Node& y = b.node();
   if (x.kind == Kind::kLog && eb) return make_log_form(x.q + *eb, x.c, x.a, x.g);
   if (y.kind == Kind::kLog && ea) return make_log_form(y.q + *ea, y.c, y.a, y.g);
+  if (x.kind == Kind::kLogAlgebraic && eb) return make_log_algebraic(x.q + *eb, x.c, x.g, x.alpha);
+  if (y.kind == Kind::kLogAlgebraic && ea) return make_log_algebraic(y.q + *ea, y.c, y.g, y.alpha);
+  if (x.kind == Kind::kLogAlgebraic && y.kind == Kind::kLogAlgebraic && x.alpha == y.alpha &&
+      x.g == y.g) {
+    return make_log_algebraic(x.q + y.q, x.c + y.c, x.g, x.alpha);
+  }
   if (x.kind == Kind::kLog && y.kind == Kind::kLog && x.a == y.a && x.g == y.g) {
     return make_log_form(x.q + y.q, x.c + y.c, x.a, x.g);
   }
@@ -229,6 +282,8 @@ RealNumber operator*(const RealNumber& a, const RealNumber& b) {
   if (ea && *ea == 1) return b;
   const Node& x = a.node();
   if (x.kind == Kind::kLog && eb) return make_log_form(x.q * *eb, x.c * *eb, x.a, x.g);
+  if (x.kind == Kind::kLogAlgebraic && eb)
+    return make_log_algebraic(x.q * *eb, x.c * *eb, x.g, x.alpha);
   if (x.kind == Kind::kAlgebraic && eb) {
     std::lock_guard<std::mutex> lock(x.mutex);
     Rational lo = x.lo * *eb, hi = x.hi * *eb;
@@ -306,6 +361,29 @@ int compare(const RealNumber& a, const RealNumber& b) {
     if (x_log) terms.emplace_back(x.c, x.a);
     if (y_log) terms.emplace_back(-y.c, y.a);
     if (auto s = log_sum_sign(q, terms, x_log ? x.g : y.g)) return *s;
+  }
+  if (x.kind == Kind::kLogAlgebraic && eb) {
+    if (auto order = log_algebraic_sign(x, *eb)) return *order;
+  }
+  if (y.kind == Kind::kLogAlgebraic && ea) {
+    if (auto order = log_algebraic_sign(y, *ea)) return -*order;
+  }
+  if (x.kind == Kind::kLogAlgebraic && y.kind == Kind::kLogAlgebraic && x.g == y.g) {
+    // Equal arguments reduce to a rational against one log; equal
+    // coefficients order like the arguments.
+    int arguments = compare(RealNumber(x.alpha), RealNumber(y.alpha));
+    if (arguments == 0) {
+      if (x.c == y.c) return x.q < y.q ? -1 : (x.q > y.q ? 1 : 0);
+      auto n = std::make_shared<Node>();
+      n->kind = Kind::kLogAlgebraic;
+      n->q = x.q - y.q;
+      n->c = x.c - y.c;
+      n->g = x.g;
+      n->alpha = x.alpha;
+      if (auto order = log_algebraic_sign(*n, 0)) return *order;
+    } else if (x.c == y.c && x.q == y.q) {
+      return x.c > 0 ? arguments : -arguments;
+    }
   }
   if (x.kind == Kind::kAlgebraic && eb) return compare_algebraic_rational(x, *eb);
   if (y.kind == Kind::kAlgebraic && ea) return -compare_algebraic_rational(y, *ea);

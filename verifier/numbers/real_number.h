@@ -21,10 +21,12 @@ namespace thetagate {
 class RealNumber {
  public:
   enum class Kind {
-    kRational,   // exact rational
-    kLog,        // q + c * log_g(a), canonical: g, a > 1 and not powers of anything
-    kAlgebraic,  // the unique root of a squarefree polynomial in an isolating interval
-    kEnclosed,   // known through certified enclosures only
+    kRational,      // exact rational
+    kLog,           // q + c * log_g(a), canonical: g, a > 1 and not powers of anything
+    kAlgebraic,     // the unique root of a squarefree polynomial in an isolating interval
+    kEnclosed,      // known through certified enclosures only
+    kLogAlgebraic,  // q + c * log_g(alpha), alpha a positive algebraic number (lg of the
+                    // golden ratio: an Akra–Bazzi exponent whose b_i are powers of one base)
   };
 
   RealNumber();                   // zero
@@ -33,6 +35,9 @@ class RealNumber {
 
   // log_base(x), exactly. REQUIRES: x > 0, base > 0, base != 1.
   static RealNumber log(const Rational& base, const Rational& x);
+  // log_base(x) for a real x > 0: exact for a rational or algebraic x
+  // (kLog, kLogAlgebraic), else enclosed. REQUIRES: base > 0, base != 1.
+  static RealNumber log_real(const Rational& base, const RealNumber& x);
   // The root of `p` in the open interval (lo, hi). REQUIRES: p has exactly
   // one real root there (checked; throws std::invalid_argument otherwise).
   static RealNumber algebraic(const Polynomial& p, const Rational& lo, const Rational& hi);

@@ -12,6 +12,7 @@
 #include <optional>
 #include <stdexcept>
 #include <string>
+#include <vector>
 
 #include "verifier/numbers/real_number.h"
 #include "verifier/numbers/real_number_node.h"
@@ -56,6 +57,62 @@ std::optional<Rational> rational_root(const Polynomial& sf, Rational lo, Rationa
     if (sf.sign_at(candidate) == 0) return candidate;
   }
   return std::nullopt;
+}
+
+// Positive divisors of |x| for |x| <= 10^12 (trial division); empty otherwise.
+std::vector<BigInt> small_divisors(const BigInt& x) {
+  BigInt m = boost::multiprecision::abs(x);
+  std::vector<BigInt> out;
+  if (m == 0 || m > BigInt(1000000000000LL)) return out;
+  uint64_t v = static_cast<uint64_t>(m);
+  for (uint64_t d = 1; d * d <= v; ++d) {
+    if (v % d != 0) continue;
+    out.push_back(BigInt(d));
+    if (d != v / d) out.push_back(BigInt(v / d));
+  }
+  return out;
+}
+
+// p without its rational roots outside (lo, hi) (rational root theorem on the
+// integer multiple of p), so that (x - 1)(x^2 - x - 1) prints and compares as
+// the golden ratio's quadratic. Only for small coefficients; p otherwise.
+Polynomial without_other_rational_roots(Polynomial p, const Rational& lo, const Rational& hi) {
+  while (p.degree() >= 3) {
+    BigInt scale = 1;
+    for (const Rational& c : p.coefficients()) {
+      BigInt d = denominator(c);
+      scale = scale / boost::multiprecision::gcd(scale, d) * d;
+    }
+    if (p.coefficient(0) == 0) {
+      if (lo < 0 && hi > 0) return p;
+      Polynomial q, r;
+      Polynomial::divide(p, Polynomial({Rational(0), Rational(1)}), q, r);
+      p = q;
+      continue;
+    }
+    BigInt a0 = numerator(p.coefficient(0) * Rational(scale));
+    BigInt an = numerator(p.leading() * Rational(scale));
+    std::vector<BigInt> tops = small_divisors(a0), bottoms = small_divisors(an);
+    if (tops.empty() || bottoms.empty() || tops.size() * bottoms.size() > 4096) return p;
+    bool found = false;
+    for (const BigInt& top : tops) {
+      for (const BigInt& bottom : bottoms) {
+        for (int sign : {1, -1}) {
+          Rational r(BigInt(top * sign), bottom);
+          if ((lo < r && r < hi) || p.sign_at(r) != 0) continue;
+          Polynomial q, rest;
+          Polynomial::divide(p, Polynomial({Rational(-r), Rational(1)}), q, rest);
+          p = q;
+          found = true;
+          break;
+        }
+        if (found) break;
+      }
+      if (found) break;
+    }
+    if (!found) return p;
+  }
+  return p;
 }
 
 Interval hull(const Rational& lo, const Rational& hi, long prec) {
@@ -151,6 +208,7 @@ RealNumber RealNumber::algebraic(const Polynomial& p, const Rational& lo, const 
   Polynomial sf = p.squarefree();
   if (sf.degree() < 1 || !(lo < hi))
     throw std::invalid_argument("algebraic: no polynomial or interval");
+  sf = without_other_rational_roots(sf, lo, hi);
   if (sf.degree() == 1) return RealNumber(-sf.coefficient(0) / sf.coefficient(1));
   int hi_sign = sf.sign_at(hi);
   int count = sf.count_real_roots(lo, hi) - (hi_sign == 0 ? 1 : 0);
@@ -197,6 +255,11 @@ Interval RealNumber::enclose(long prec) const {
     }
     case Kind::kEnclosed:
       return n.enclose(prec);
+    case Kind::kLogAlgebraic: {
+      long p = prec + 32;
+      Interval ratio = RealNumber(n.alpha).enclose(p).log() / Interval(n.g, p).log();
+      return Interval(n.q, p) + Interval(n.c, p) * ratio;
+    }
   }
   return Interval(prec);
 }

@@ -21,8 +21,9 @@ namespace thetagate {
 struct RealNumber::Node {
   Kind kind = Kind::kRational;
   Rational q;        // the rational value, or the constant part of a log form
-  Rational c, a, g;  // log form: q + c * log_g(a)
-  Polynomial p;      // algebraic: squarefree, exactly one root in (lo, hi)
+  Rational c, a, g;  // log form: q + c * log_g(a); log-algebraic: q + c * log_g(alpha)
+  std::shared_ptr<const Node> alpha;  // log-algebraic: the algebraic argument
+  Polynomial p;                       // algebraic: squarefree, exactly one root in (lo, hi)
   mutable std::mutex mutex;
   mutable Rational lo, hi;                // lo == hi once bisection has hit the root exactly
   int sign_lo = 0;                        // sign of p just right of lo

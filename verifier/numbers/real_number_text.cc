@@ -83,6 +83,17 @@ std::string RealNumber::str() const {
     }
     case Kind::kEnclosed:
       return digits();
+    case Kind::kLogAlgebraic: {
+      std::string arg = RealNumber(n.alpha).str();
+      if (arg.find("…") != std::string::npos) return digits();
+      std::string log = n.g == 2 ? "lg(" + arg + ")" : "log(" + to_string(n.g) + ", " + arg + ")";
+      BigInt u = numerator(n.c), v = denominator(n.c);
+      std::string s = u == 1 ? log : (u == -1 ? "-" + log : u.str() + " " + log);
+      if (v != 1) s = "(" + s + ")/" + v.str();
+      if (n.q > 0) s += " + " + to_string(n.q);
+      if (n.q < 0) s += " - " + to_string(Rational(-n.q));
+      return s;
+    }
   }
   return "?";
 }

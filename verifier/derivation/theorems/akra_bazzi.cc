@@ -4,6 +4,8 @@
 #include <cmath>
 #include <memory>
 #include <mutex>
+#include <numeric>
+#include <optional>
 #include <stdexcept>
 
 namespace thetagate {
@@ -74,6 +76,48 @@ double excess_double(const Terms& terms, double x) {
   return s;
 }
 
+// x = g^k with k as large as possible (g is then unique), for a rational x > 1.
+std::pair<Rational, unsigned long> primitive_root(const Rational& x) {
+  BigInt num = numerator(x), den = denominator(x);
+  for (unsigned long k = std::max(bit_length(num), bit_length(den)); k >= 2; --k) {
+    BigInt rn = iroot(num, k), rd = iroot(den, k);
+    if (boost::multiprecision::pow(rn, static_cast<unsigned>(k)) == num &&
+        boost::multiprecision::pow(rd, static_cast<unsigned>(k)) == den)
+      return {Rational(rn, rd), k};
+  }
+  return {x, 1};
+}
+
+// When every 1/b_i is a whole power g^(k_i) of one rational g > 1, sum a_i b_i^p = 1
+// is the polynomial equation sum a_i x^(k_i) = 1 in x = g^(-p): its one positive
+// root x0 is algebraic and p = log_g(1/x0) exactly (T(n/2) + T(n/4): x + x^2 = 1,
+// p = lg of the golden ratio). Empty when the b_i have no common base or the
+// degree would exceed 64.
+std::optional<RealNumber> common_base_exponent(const Terms& terms) {
+  std::optional<Rational> base;
+  std::vector<std::pair<Rational, unsigned long>> powers;  // (a_i, k_i)
+  for (const auto& [a, b] : terms) {
+    if (bit_length(numerator(b)) > 64 || bit_length(denominator(b)) > 64) return std::nullopt;
+    auto [g, k] = primitive_root(Rational(1) / b);
+    if (base && *base != g) return std::nullopt;
+    base = g;
+    powers.emplace_back(a, k);
+  }
+  unsigned long degree = 0;
+  for (const auto& pw : powers) degree = std::max(degree, pw.second);
+  if (degree > 64) return std::nullopt;
+  std::vector<Rational> c(degree + 1);
+  c[0] = -1;
+  for (const auto& [a, k] : powers) c[k] += a;
+  Polynomial poly(c);
+  // P(0) = -1 < 0 and P increases on x > 0: one positive root, below hi.
+  Rational hi = 1;
+  while (poly.sign_at(hi) < 0) hi *= 2;
+  if (poly.sign_at(hi) == 0) return RealNumber::log(*base, Rational(1) / hi);
+  RealNumber x0 = RealNumber::algebraic(poly, 0, hi);
+  return RealNumber::log_real(*base, RealNumber(1L) / x0);
+}
+
 }  // namespace
 
 RealNumber critical_exponent(const Terms& terms) {
@@ -87,6 +131,7 @@ RealNumber critical_exponent(const Terms& terms) {
     one_b = one_b && b == terms[0].second;
   }
   if (one_b) return RealNumber::log(Rational(1) / terms[0].second, total);
+  if (auto exact = common_base_exponent(terms)) return *exact;
   // A bracket on doubles: excess is strictly decreasing.
   double lo = -1, hi = 1;
   while (excess_double(terms, lo) <= 0 && lo > -1e6) lo *= 2;
