@@ -20,7 +20,10 @@
 
 #include "verifier/checking/checker.h"
 #include "verifier/checking/run.h"
+#include "verifier/derivation/derive.h"
+#include "verifier/model/bound.h"
 #include "verifier/model/claim.h"
+#include "verifier/model/recurrence.h"
 
 namespace {
 
@@ -91,6 +94,35 @@ void CheckMergeSortExplicitBound(benchmark::State& state) {
              "T(n) <= n lg n - 0.9139 n + 1 for n >= 1");
 }
 BENCHMARK(CheckMergeSortExplicitBound)->Unit(benchmark::kMillisecond);
+
+// A critical exponent with a closed form: (1/2)^p + (1/4)^p = 1 gives
+// p = lg((1 + sqrt(5))/2). Compared exactly with the claim's exponent; before
+// exact log-algebraic numbers, the comparison refined intervals to 2^14 bits.
+void CheckGoldenSplitTheta(benchmark::State& state) {
+  check_once(state, "T(n) = T(n/2) + T(n/4) + 1\nT(1) = 1\nT(2) = 1\nT(3) = 1",
+             "Theta(n^(lg((1 + sqrt(5))/2)))");
+}
+BENCHMARK(CheckGoldenSplitTheta)->Unit(benchmark::kMillisecond);
+
+// The derivation alone for the same recurrence and its comparison with the claim.
+void DeriveGoldenSplitAndCompare(benchmark::State& state) {
+  auto r = thetagate::recurrence_from_text("T(n) = T(n/2) + T(n/4) + 1");
+  auto bound = thetagate::parse_bound(
+      thetagate::SourceText::whole("<bound>", "Theta(n^(lg((1 + sqrt(5))/2)))"));
+  for (auto _ : state) {
+    thetagate::Derivation d = thetagate::derive(*r);
+    thetagate::ClaimComparison c = thetagate::compare_claim(d, bound);
+    state.counters["agree"] = c.agreement == thetagate::ClaimAgreement::kAgree;
+    benchmark::DoNotOptimize(c);
+  }
+}
+BENCHMARK(DeriveGoldenSplitAndCompare)->Unit(benchmark::kMillisecond);
+
+// Quicksort's average comparisons, Θ(n lg n), checked end to end (sums).
+void CheckQuicksortAverageTheta(benchmark::State& state) {
+  check_once(state, "C(n) = n - 1 + (2/n) sum(k, 0, n - 1, C(k))\nC(0) = 0", "Theta(n lg n)");
+}
+BENCHMARK(CheckQuicksortAverageTheta)->Unit(benchmark::kMillisecond);
 
 std::string claims_dir() {
   const char* env = std::getenv("THETAGATE_CLAIMS_DIR");

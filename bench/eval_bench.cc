@@ -91,6 +91,51 @@ void SeventyThousandPointCases(benchmark::State& state) {
 }
 BENCHMARK(SeventyThousandPointCases)->Unit(benchmark::kMillisecond)->Iterations(1);
 
+// Sums over earlier values: quicksort's average comparisons (rationals whose
+// denominators grow like lcm(1..n)) with running sums, O(1) terms per size.
+// The argument is n; time per size should stay flat apart from the growth of
+// the numbers themselves, and steps stay about 2 per size.
+void QuicksortAverageRunningSums(benchmark::State& state) {
+  auto r = recurrence_from_text("C(n) = n - 1 + (2/n) sum(k, 0, n - 1, C(k)); C(0) = 0");
+  BigInt n(state.range(0));
+  for (auto _ : state) {
+    Evaluator evaluator(r);
+    benchmark::DoNotOptimize(evaluator.value_at(n));
+    state.counters["steps"] = static_cast<double>(evaluator.stats().steps);
+  }
+}
+BENCHMARK(QuicksortAverageRunningSums)
+    ->Arg(1000)
+    ->Arg(4000)
+    ->Arg(16000)
+    ->Unit(benchmark::kMillisecond);
+
+// The same recurrence with integer values (the count of nodes visited by a
+// sum of all earlier values): isolates the running-sum bookkeeping from
+// rational arithmetic.
+void IntegerFullHistory(benchmark::State& state) {
+  auto r = recurrence_from_text("T(n) = n + sum(k, 0, n - 1, T(k)) mod 1000003; T(0) = 1");
+  BigInt n(state.range(0));
+  for (auto _ : state) {
+    Evaluator evaluator(r);
+    benchmark::DoNotOptimize(evaluator.value_at(n));
+    state.counters["steps"] = static_cast<double>(evaluator.stats().steps);
+  }
+}
+BENCHMARK(IntegerFullHistory)->Arg(100000)->Arg(1000000)->Unit(benchmark::kMillisecond);
+
+// The same sum without running sums (its body mentions n): O(n) per size.
+void QuicksortTermByTerm(benchmark::State& state) {
+  auto r = recurrence_from_text("C(n) = n - 1 + (2/n) sum(k, 0, n - 1, C(k) + 0 n); C(0) = 0");
+  BigInt n(state.range(0));
+  for (auto _ : state) {
+    Evaluator evaluator(r);
+    benchmark::DoNotOptimize(evaluator.value_at(n));
+    state.counters["steps"] = static_cast<double>(evaluator.stats().steps);
+  }
+}
+BENCHMARK(QuicksortTermByTerm)->Arg(1000)->Arg(4000)->Unit(benchmark::kMillisecond);
+
 }  // namespace
 
 BENCHMARK_MAIN();
