@@ -96,7 +96,8 @@ TEST(DeriveAkraBazzi, PublishedExamples) {
   // Leighton 1996 example (from memory): 2T(n/4) + 3T(n/6) + n lg n.
   EXPECT_EQ(derived("T(n) = 2T(n/4) + 3T(n/6) + n lg n; T(1) = 1").derived, "n lg^2 n");
   Derivation golden = derived("T(n) = T(n/2) + T(n/4) + 1; T(1) = 1");
-  EXPECT_EQ(golden.derived, "n^0.694242…") << reasons(golden);  // calc: p = lg φ = 0.6942419...
+  // calc: p = lg φ = 0.6942419..., exactly: x + x^2 = 1 in x = 2^-p.
+  EXPECT_EQ(golden.derived, "n^(lg((1 + sqrt(5))/2))") << reasons(golden);
   EXPECT_EQ(derived("T(n) = 0.5T(n/2) + n; T(1) = 1").derived, "n");
   EXPECT_EQ(derived("T(n) = (1/2)T(n/2) + 1/n; T(1) = 1").derived, "lg n/n");
 }

@@ -357,7 +357,8 @@ TEST(ParserDiagnostic, NumberAfterAFactor) {
             "<recurrence>:1:20: error: a number directly after a factor\n"
             "T(n) = 2T(n/2) + n 2\n"
             "                   ^\n"
-            "  hint: write the coefficient first (3n, not n3) or use '*' between factors");
+            "  hint: write the coefficient first (3n, not n3) or use '*' between factors; a "
+            "power may follow: n 2^n");
 }
 
 TEST(ParserDiagnostic, UnknownCharacter) {
@@ -410,9 +411,17 @@ TEST(ParserDiagnostic, TwoDefaultLines) {
 
 TEST(ParserDiagnostic, HelperCallingTheRecurrence) {
   EXPECT_EQ(recurrence_error("T(n) = T(n/2) + f(n); f(n) = T(n - 1); T(1) = 0"),
-            "<recurrence>:1:30: error: a helper function calls T\n"
+            "<recurrence>:1:30: error: mutual recursion (T calls f and f calls T) is not "
+            "supported\n"
             "T(n) = T(n/2) + f(n); f(n) = T(n - 1); T(1) = 0\n"
             "                             ^\n"
+            "  hint: only T may recurse: substitute f's line into T's, so that T calls only "
+            "itself");
+  // A helper that calls T without T calling it is not mutual recursion.
+  EXPECT_EQ(recurrence_error("T(n) = T(n/2) + 1; f(n) = T(n - 1); T(1) = 0"),
+            "<recurrence>:1:27: error: a helper function calls T\n"
+            "T(n) = T(n/2) + 1; f(n) = T(n - 1); T(1) = 0\n"
+            "                          ^\n"
             "  hint: only T may recurse; move the call into T's line");
 }
 

@@ -196,9 +196,8 @@ std::shared_ptr<const Recurrence> build_recurrence(const SourceText& source) {
       fail_at(source, back->pos,
               "mutual recursion (" + r->main.name + " calls " + name + " and " + name + " calls " +
                   r->main.name + ") is not supported",
-              "only one function may recurse: substitute " + name + "'s line into " + r->main.name +
-                  "'s, e.g. " + r->main.name + "(n) = " + r->main.name +
-                  "(n-2) + ... for T(n) = U(n-1) + 1, U(n) = T(n-1) + 1");
+              "only " + r->main.name + " may recurse: substitute " + name + "'s line into " +
+                  r->main.name + "'s, so that " + r->main.name + " calls only itself");
     }
   }
 
