@@ -111,7 +111,7 @@ void DeriveGoldenSplitAndCompare(benchmark::State& state) {
       thetagate::SourceText::whole("<bound>", "Theta(n^(lg((1 + sqrt(5))/2)))"));
   for (auto _ : state) {
     thetagate::Derivation d = thetagate::derive(*r);
-    thetagate::ClaimComparison c = thetagate::compare_claim(d, bound);
+    thetagate::ClaimComparison c = thetagate::compare_with_derivation(d, bound);
     state.counters["agree"] = c.agreement == thetagate::ClaimAgreement::kAgree;
     benchmark::DoNotOptimize(c);
   }

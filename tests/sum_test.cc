@@ -388,11 +388,11 @@ TEST(CriticalExponent, PowersOfOneBaseAreSolvedExactly) {
 TEST(CriticalExponent, GoldenClaimAgreesExactly) {
   Derivation d = derived("T(n) = T(n/2) + T(n/4) + 1");
   EXPECT_EQ(d.derived, "n^(lg((1 + sqrt(5))/2))") << all_steps(d);
-  ClaimComparison c =
-      compare_claim(d, parse_bound(SourceText::whole("<b>", "Theta(n^(lg((1 + sqrt(5))/2)))")));
-  EXPECT_EQ(c.agreement, ClaimAgreement::kAgree) << c.message;
-  c = compare_claim(d, parse_bound(SourceText::whole("<b>", "O(n^0.6942)")));
-  EXPECT_EQ(c.agreement, ClaimAgreement::kContradicts) << c.message;
+  ClaimComparison c = compare_with_derivation(
+      d, parse_bound(SourceText::whole("<b>", "Theta(n^(lg((1 + sqrt(5))/2)))")));
+  EXPECT_EQ(c.agreement, ClaimAgreement::kAgree) << c.detail;
+  c = compare_with_derivation(d, parse_bound(SourceText::whole("<b>", "O(n^0.6942)")));
+  EXPECT_EQ(c.agreement, ClaimAgreement::kContradicts) << c.detail;
 }
 
 }  // namespace
