@@ -140,6 +140,11 @@ RealNumber critical_exponent(const Terms& terms) {
   auto found =
       boost::math::tools::toms748_solve([&](double x) { return excess_double(terms, x); }, lo, hi,
                                         boost::math::tools::eps_tolerance<double>(48), iterations);
+  // Coefficients beyond a double (a = 10^300) leave the search no finite
+  // bracket; GMP would abort on a rational made from inf or NaN.
+  if (!std::isfinite(found.first) || !std::isfinite(found.second)) {
+    throw std::domain_error("the coefficients are too large for the numeric search of p");
+  }
   double mid = (found.first + found.second) / 2;
   long nearest = std::lround(mid);
   if (std::fabs(mid - nearest) < 1e-6 && excess_exact(terms, nearest) == 0)
