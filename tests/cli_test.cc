@@ -11,24 +11,14 @@
 #include <nlohmann/json.hpp>
 #include <string>
 
+#include "tests/test_support.h"
+
 namespace {
 
-struct CommandResult {
-  int status = -1;
-  std::string out;
-};
+using thetagate::test_support::CommandResult;
 
 CommandResult run(const std::string& arguments) {
-  std::string command = std::string(THETAGATE_BINARY) + " " + arguments + " 2>&1";
-  CommandResult r;
-  FILE* pipe = popen(command.c_str(), "r");
-  if (pipe == nullptr) return r;
-  char buffer[4096];
-  size_t got;
-  while ((got = fread(buffer, 1, sizeof buffer, pipe)) > 0) r.out.append(buffer, got);
-  int raw = pclose(pipe);
-  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
-  return r;
+  return thetagate::test_support::run_shell(std::string(THETAGATE_BINARY) + " " + arguments);
 }
 
 class Cli : public ::testing::Test {

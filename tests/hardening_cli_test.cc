@@ -10,27 +10,17 @@
 #include <nlohmann/json.hpp>
 #include <string>
 
+#include "tests/test_support.h"
+
 namespace {
 
 namespace fs = std::filesystem;
 
-struct Outcome {
-  int status = -1;
-  std::string out;
-};
+using Outcome = thetagate::test_support::CommandResult;
 
 // Runs a shell command line; "$TG" in it is the thetagate binary.
 Outcome shell(const std::string& line) {
-  std::string command = "TG='" + std::string(THETAGATE_BINARY) + "'; " + line + " 2>&1";
-  Outcome r;
-  FILE* pipe = popen(command.c_str(), "r");
-  if (pipe == nullptr) return r;
-  char buffer[4096];
-  size_t got;
-  while ((got = fread(buffer, 1, sizeof buffer, pipe)) > 0) r.out.append(buffer, got);
-  int raw = pclose(pipe);
-  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
-  return r;
+  return thetagate::test_support::run_shell("TG='" + std::string(THETAGATE_BINARY) + "'; " + line);
 }
 
 class HardeningCli : public ::testing::Test {

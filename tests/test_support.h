@@ -3,11 +3,33 @@
 #define THETAGATE_TESTS_TEST_SUPPORT_H_
 
 #include <gmp.h>
+#include <sys/wait.h>
 
 #include <cstddef>
+#include <cstdio>
 #include <string>
 
 namespace thetagate::test_support {
+
+// What a shell command printed (stdout and stderr together) and its exit status
+// (-1 when it did not exit normally).
+struct CommandResult {
+  int status = -1;
+  std::string out;
+};
+
+// Runs `command` through the shell, capturing both output streams.
+inline CommandResult run_shell(const std::string& command) {
+  CommandResult r;
+  FILE* pipe = popen((command + " 2>&1").c_str(), "r");
+  if (pipe == nullptr) return r;
+  char buffer[4096];
+  size_t got;
+  while ((got = fread(buffer, 1, sizeof buffer, pipe)) > 0) r.out.append(buffer, got);
+  int raw = pclose(pipe);
+  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
+  return r;
+}
 
 // A plain GMP integer, independent of Boost.Multiprecision, so tests can
 // compare the engine against the reference library directly.
