@@ -27,9 +27,9 @@
 
 namespace {
 
-using thetagate::CheckOptions;
-using thetagate::ClaimEntry;
-using thetagate::ClaimResult;
+using thetagate::engine::CheckOptions;
+using thetagate::engine::ClaimEntry;
+using thetagate::engine::ClaimResult;
 
 CheckOptions full_check_options() {
   CheckOptions options;
@@ -42,7 +42,7 @@ void check_once(benchmark::State& state, const char* recurrence, const char* bou
                 uint64_t effort = 1) {
   std::string toml = std::string("[[claim]]\nname = \"orchard::bench\"\nrecurrence = \"\"\"\n") +
                      recurrence + "\n\"\"\"\nbound = \"" + bound + "\"\n";
-  std::vector<ClaimEntry> entries = thetagate::load_claim_text(toml, "bench.toml");
+  std::vector<ClaimEntry> entries = thetagate::engine::load_claim_text(toml, "bench.toml");
   if (entries.size() != 1 || !entries[0].claim) {
     state.SkipWithError("the benchmark's claim did not load");
     return;
@@ -50,7 +50,7 @@ void check_once(benchmark::State& state, const char* recurrence, const char* bou
   CheckOptions options = full_check_options();
   options.effort = effort;
   for (auto _ : state) {
-    ClaimResult r = thetagate::check_claim(*entries[0].claim, options);
+    ClaimResult r = thetagate::engine::check_claim(*entries[0].claim, options);
     state.counters["sizes"] = static_cast<double>(r.sizes_checked);
     state.counters["bits"] = static_cast<double>(r.largest_bits);
     state.counters["verdict"] = static_cast<double>(r.verdict);
@@ -106,13 +106,13 @@ BENCHMARK(CheckGoldenSplitTheta)->Unit(benchmark::kMillisecond);
 
 // The derivation alone for the same recurrence and its comparison with the claim.
 void DeriveGoldenSplitAndCompare(benchmark::State& state) {
-  auto r = thetagate::recurrence_from_text("T(n) = T(n/2) + T(n/4) + 1");
-  auto bound = thetagate::parse_bound(
-      thetagate::SourceText::whole("<bound>", "Theta(n^(lg((1 + sqrt(5))/2)))"));
+  auto r = thetagate::engine::recurrence_from_text("T(n) = T(n/2) + T(n/4) + 1");
+  auto bound = thetagate::engine::parse_bound(
+      thetagate::engine::SourceText::whole("<bound>", "Theta(n^(lg((1 + sqrt(5))/2)))"));
   for (auto _ : state) {
-    thetagate::Derivation d = thetagate::derive(*r);
-    thetagate::ClaimComparison c = thetagate::compare_with_derivation(d, bound);
-    state.counters["agree"] = c.agreement == thetagate::ClaimAgreement::kAgree;
+    thetagate::engine::Derivation d = thetagate::engine::derive(*r);
+    thetagate::engine::ClaimComparison c = thetagate::engine::compare_with_derivation(d, bound);
+    state.counters["agree"] = c.agreement == thetagate::engine::ClaimAgreement::kAgree;
     benchmark::DoNotOptimize(c);
   }
 }
@@ -140,17 +140,17 @@ void CheckDemoLibrary(benchmark::State& state) {
                             .c_str());
     return;
   }
-  thetagate::RunRequest request;
+  thetagate::engine::RunRequest request;
   request.paths = {dir};
   request.options = full_check_options();
   request.jobs = static_cast<unsigned>(state.range(0));
   for (auto _ : state) {
-    thetagate::RunResult run = thetagate::run_check(request);
+    thetagate::engine::RunResult run = thetagate::engine::run_check(request);
     state.counters["claims"] = static_cast<double>(run.claims.size());
     int refuted = 0, undecided = 0;
     for (const ClaimResult& r : run.claims) {
-      refuted += r.verdict == thetagate::Verdict::kRefuted;
-      undecided += r.verdict == thetagate::Verdict::kUndecided;
+      refuted += r.verdict == thetagate::engine::Verdict::kRefuted;
+      undecided += r.verdict == thetagate::engine::Verdict::kUndecided;
     }
     state.counters["refuted"] = refuted;
     state.counters["undecided"] = undecided;

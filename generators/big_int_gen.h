@@ -14,7 +14,7 @@
 #include "generators/size_family.h"
 #include "verifier/numbers/number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // Shrink candidates of n toward `target`, most aggressive first: target, then
 // n − d/2, n − d/4, …, n − 1 with d = n − target (RapidCheck's own order for
@@ -55,6 +55,6 @@ inline rc::Gen<BigInt> gen_size(const SizePlan& plan) {
   return gen_size_from(std::move(sizes), std::move(min_n));
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_GENERATORS_BIG_INT_GEN_H_

@@ -12,7 +12,7 @@
 #include "reports/number_text.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -309,4 +309,4 @@ bool should_fail(const RunResult& run, const DriftReport* drift, const FailOn& o
   return on.drift && drift != nullptr && drift->any();
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -12,7 +12,7 @@
 #include "reports/text_report.h"
 #include "verifier/checking/result.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // A band end moves when it changes by more than a factor 2^0.5 (about 1.41)
 // either way, i.e. by more than 0.5 in log2. Ends found at random sizes
@@ -109,6 +109,6 @@ FailOn parse_fail_on(const std::vector<std::string>& words);
 // front end exits 2 for them before asking.
 bool should_fail(const RunResult& run, const DriftReport* drift, const FailOn& on);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_REPORTS_DRIFT_H_

@@ -11,7 +11,7 @@
 #include "reports/verdict_text.h"
 #include "reports/xml_escape.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -176,4 +176,4 @@ std::string render_html(const RunResult& run) {
   return s;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -5,7 +5,7 @@
 
 #include "reports/verdict_text.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -174,4 +174,4 @@ std::string render_json(const RunResult& run) {
   return j.dump(2, ' ', false, Json::error_handler_t::replace) + "\n";
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

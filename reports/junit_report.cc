@@ -9,7 +9,7 @@
 #include "reports/verdict_text.h"
 #include "reports/xml_escape.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -160,4 +160,4 @@ std::string render_junit(const RunResult& run, const JunitOptions& options) {
   return out;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -13,7 +13,7 @@
 #include "reports/verdict_text.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -311,4 +311,4 @@ bool want_colour(int fd) {
   return isatty(fd) == 1;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -4,7 +4,7 @@
 
 #include <cmath>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -215,4 +215,4 @@ std::string describe_edge(const EdgeReading& e, const char* edge_name) {
       edge_name, direction_name(e.direction), change, e.first_scale, e.last_scale, e.slope, like);
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

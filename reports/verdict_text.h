@@ -7,7 +7,7 @@
 
 #include "verifier/checking/result.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // One or two sentences: why this verdict ("no violation up to 2^4096, not
 // proved: ...", "upper bound broken at n = 5 ...").
@@ -23,6 +23,6 @@ std::string proof_name(const ClaimResult& c);
 // factor lg n".
 std::string describe_edge(const EdgeReading& e, const char* edge_name);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_REPORTS_VERDICT_TEXT_H_

@@ -5,7 +5,7 @@
 
 #include <algorithm>
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 BigInt pow2(uint64_t k) { return BigInt(1) << k; }
@@ -73,4 +73,4 @@ RC_GTEST_PROP(BigIntGen, DrawsOnlyPlanMembers, ()) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

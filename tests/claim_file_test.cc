@@ -9,7 +9,7 @@
 
 #include "verifier/model/claim.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 std::string error_text(const ClaimEntry& entry) {
@@ -395,4 +395,4 @@ TEST(ClaimFile, DemoLibraryLoadsWithoutErrors) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

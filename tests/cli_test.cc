@@ -15,10 +15,10 @@
 
 namespace {
 
-using thetagate::test_support::CommandResult;
+using thetagate::engine::test_support::CommandResult;
 
 CommandResult run(const std::string& arguments) {
-  return thetagate::test_support::run_shell(std::string(THETAGATE_BINARY) + " " + arguments);
+  return thetagate::engine::test_support::run_shell(std::string(THETAGATE_BINARY) + " " + arguments);
 }
 
 class Cli : public ::testing::Test {

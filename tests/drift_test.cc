@@ -13,7 +13,7 @@
 #include "reports/json_report.h"
 #include "tests/report_fixture.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 using test_support::sample_run;
@@ -328,4 +328,4 @@ TEST(Drift, ParsesFailOnWords) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

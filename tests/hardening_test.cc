@@ -22,7 +22,7 @@
 #include "verifier/syntax/input_file.h"
 #include "verifier/syntax/parser.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 namespace fs = std::filesystem;
@@ -368,4 +368,4 @@ TEST(Hardening, BaselineNumbersOutOfRangeAreALocatedError) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -15,7 +15,7 @@
 #include "tests/golden.h"
 #include "tests/report_fixture.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 using Json = nlohmann::ordered_json;
@@ -159,4 +159,4 @@ TEST(JsonReport, PrettyPrintedWithTwoSpacesAndFinalNewline) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

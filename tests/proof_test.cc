@@ -15,7 +15,7 @@
 #include "verifier/model/claim.h"
 #include "verifier/model/recurrence.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 ClaimResult check_text(const std::string& recurrence, const std::string& bound,
@@ -179,4 +179,4 @@ TEST(NumericTrend, WobblingRatioIsRefutedByItsEnvelope) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -18,7 +18,7 @@
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/parser.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 // A plain GMP rational, independent of Boost.Multiprecision.
@@ -396,4 +396,4 @@ TEST(CriticalExponent, GoldenClaimAgreesExactly) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

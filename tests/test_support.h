@@ -9,7 +9,7 @@
 #include <cstdio>
 #include <string>
 
-namespace thetagate::test_support {
+namespace thetagate::engine::test_support {
 
 // What a shell command printed (stdout and stderr together) and its exit status
 // (-1 when it did not exit normally).
@@ -65,6 +65,6 @@ inline size_t count_of(const std::string& text, const std::string& needle) {
   return count;
 }
 
-}  // namespace thetagate::test_support
+}  // namespace thetagate::engine::test_support
 
 #endif  // THETAGATE_TESTS_TEST_SUPPORT_H_

@@ -21,7 +21,7 @@
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/model/claim.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 BigInt pow2(uint64_t k) { return BigInt(1) << k; }
@@ -464,9 +464,9 @@ TEST(WitnessHunt, ShrinkingReachesTheSmallestWitness) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 // Effort scales the evaluator's per-size limit with the work budget: with a
@@ -490,9 +490,9 @@ TEST(WitnessHunt, EffortRaisesThePerSizeLimitWithTheWork) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 // `--rounding both` (docs/design.md §5): T(n) = 2T(n/2) + n, T(1) = 0 stays within
@@ -522,4 +522,4 @@ TEST(WitnessHunt, RoundingBothNamesTheReadingThatFails) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

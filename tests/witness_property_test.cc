@@ -28,7 +28,7 @@
 #include "verifier/checking/checker.h"
 #include "verifier/model/claim.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 constexpr int kScanLimit = 5000;
@@ -128,4 +128,4 @@ TEST(WitnessProperty, MergeSortBoundRefutedIffTheScanFindsAViolation) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

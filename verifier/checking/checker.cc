@@ -5,7 +5,7 @@
 
 #include "verifier/checking/claim_check.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -150,4 +150,4 @@ RunResult check_entries(const std::vector<ClaimEntry>& entries, const CheckOptio
   return run;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -12,7 +12,7 @@
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/model/claim.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct CheckOptions {
   uint64_t seed = 1;
@@ -45,6 +45,6 @@ RunResult check_entries(const std::vector<ClaimEntry>& entries, const CheckOptio
 // conditions: the bases the size families build on. Always contains 2.
 std::vector<BigInt> recurrence_divisors(const Recurrence& r);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_CHECKING_CHECKER_H_

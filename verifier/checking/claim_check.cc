@@ -7,7 +7,7 @@
 
 #include "verifier/evaluation/approximate.h"
 
-namespace thetagate::checker_internal {
+namespace thetagate::engine::checker_internal {
 
 namespace {
 
@@ -251,4 +251,4 @@ std::vector<BandRow> ClaimCheck::complete_scales(const std::vector<BandRow>& row
   return out;
 }
 
-}  // namespace thetagate::checker_internal
+}  // namespace thetagate::engine::checker_internal

@@ -14,7 +14,7 @@
 #include "verifier/derivation/classify.h"
 #include "verifier/derivation/induction.h"
 
-namespace thetagate::checker_internal {
+namespace thetagate::engine::checker_internal {
 
 namespace {
 
@@ -342,4 +342,4 @@ void ClaimCheck::decide_numerically(const std::vector<Target>& targets, bool cla
       claim_unclassified ? Unproved::kClaimUnclassified : Unproved::kTrendUnsettled;
 }
 
-}  // namespace thetagate::checker_internal
+}  // namespace thetagate::engine::checker_internal

@@ -11,7 +11,7 @@
 #include "verifier/numbers/number.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 enum class Verdict { kHolds, kRefuted, kUndecided, kError };
 const char* verdict_name(Verdict v);  // "holds", "refuted", "undecided", "error"
@@ -179,6 +179,6 @@ struct RunResult {
   bool any_refuted() const;
 };
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_CHECKING_RESULT_H_

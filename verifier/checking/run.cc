@@ -10,7 +10,7 @@
 #include "verifier/model/claim.h"
 #include "verifier/syntax/spelling.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -137,4 +137,4 @@ RunResult run_check(const RunRequest& request) {
   return run;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -11,7 +11,7 @@
 #include "verifier/checking/checker.h"
 #include "verifier/checking/result.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct RunRequest {
   std::vector<std::string> paths;        // files or folders; empty means "claims"
@@ -36,6 +36,6 @@ RunResult run_check(const RunRequest& request);
 // The number of claims run_check checks at once for `claims` claims.
 unsigned workers_for(const RunRequest& request, size_t claims);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_CHECKING_RUN_H_

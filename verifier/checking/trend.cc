@@ -5,7 +5,7 @@
 #include <algorithm>
 #include <cmath>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -97,4 +97,4 @@ TrendReading read_trend(const std::vector<BandRow>& band) {
   return t;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -9,7 +9,7 @@
 
 #include "verifier/checking/result.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct TrendReading {
   EdgeReading high;  // the band's upper edge (largest T/g per scale)
@@ -22,6 +22,6 @@ TrendReading read_trend(const std::vector<BandRow>& band);
 // log2 of the escape factor: 10^6.
 double escape_log2();
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_CHECKING_TREND_H_

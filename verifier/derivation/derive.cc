@@ -10,7 +10,7 @@
 #include "verifier/derivation/theorems/subtract.h"
 #include "verifier/evaluation/evaluator.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -281,4 +281,4 @@ ClaimComparison compare_with_derivation(const Derivation& derivation, const Boun
   return r;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -6,7 +6,7 @@
 #include "verifier/derivation/classify.h"
 #include "verifier/derivation/series.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -359,4 +359,4 @@ InductionOutcome prove_by_induction(const InductionRequest& request) {
   }
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

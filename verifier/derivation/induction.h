@@ -21,7 +21,7 @@
 #include "verifier/model/bound.h"
 #include "verifier/model/recurrence.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct InductionRequest {
   const Recurrence* recurrence = nullptr;
@@ -44,6 +44,6 @@ struct InductionOutcome {
 
 InductionOutcome prove_by_induction(const InductionRequest& request);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_INDUCTION_H_

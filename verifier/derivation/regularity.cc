@@ -2,7 +2,7 @@
 
 #include "verifier/derivation/series.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -33,7 +33,7 @@ std::optional<RegularityFamily> regularity_failure_family(const Expr& driving, c
         auto gap = [&](const SeriesContext& c) {
           Series n = variable_series();
           Series m = expand(*argument, n, c);
-          Series lhs = thetagate::scale(expand(driving, m, c), Coef::of(a), c.precision);
+          Series lhs = thetagate::engine::scale(expand(driving, m, c), Coef::of(a), c.precision);
           return add(lhs, negate(expand(driving, n, c)), c.precision);
         };
         try {
@@ -51,4 +51,4 @@ std::optional<RegularityFamily> regularity_failure_family(const Expr& driving, c
   }
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

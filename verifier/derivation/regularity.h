@@ -14,7 +14,7 @@
 #include "verifier/numbers/number.h"
 #include "verifier/syntax/expr.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct RegularityFamily {
   uint64_t modulus = 1;  // every n = residue (mod modulus) with n >= from
@@ -30,6 +30,6 @@ std::optional<RegularityFamily> regularity_failure_family(const Expr& driving, c
                                                           const HelperTable* helpers,
                                                           uint64_t work_budget = 2000);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_REGULARITY_H_

@@ -7,7 +7,7 @@
 #include "verifier/numbers/real_number_node.h"
 #include "verifier/numbers/value.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -838,4 +838,4 @@ Interval enclose_on(const Series& s, const BigInt& lo, const BigInt& hi, long pr
   return sum;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -24,7 +24,7 @@
 #include "verifier/numbers/real_number.h"
 #include "verifier/syntax/expr.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // rho^n · n^alpha · lg^beta n.
 struct SeriesKey {
@@ -141,6 +141,6 @@ bool leading_sign_unknown(const Series& s, long precision);
 // eventually negative): no amount of splitting proves it non-negative.
 bool eventually_negative(const Series& s, long precision);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_SERIES_H_

@@ -6,7 +6,7 @@
 #include "verifier/evaluation/expression_eval.h"
 #include "verifier/syntax/parser.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -679,4 +679,4 @@ BigInt evaluate_size(const std::string& text, const std::string& origin) {
   return v.integer();
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

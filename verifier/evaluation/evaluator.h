@@ -18,7 +18,7 @@
 #include "verifier/model/recurrence.h"
 #include "verifier/numbers/value.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // Per-claim limits. Running out throws BudgetExceeded with the reason.
 struct Budget {
@@ -155,6 +155,6 @@ void check_calls_shrink(const Recurrence& recurrence);
 // Throws InputError for a non-integer, negative, or n-dependent expression.
 BigInt evaluate_size(const std::string& text, const std::string& origin = "<size>");
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_EVALUATION_EVALUATOR_H_

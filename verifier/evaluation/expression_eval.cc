@@ -7,7 +7,7 @@
 #include "verifier/derivation/classify.h"
 #include "verifier/numbers/real_number_node.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -308,4 +308,4 @@ Value call_argument_value(const Expr& call, const Value& n, const EvalScope& sco
   return canonical_integer(floor_value(v));
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -1,6 +1,6 @@
 #include "verifier/evaluation/memo_table.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 constexpr size_t kInitialSlots = 1024;
@@ -65,4 +65,4 @@ void MemoTable::clear() {
   index_.clear();
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

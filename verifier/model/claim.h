@@ -11,7 +11,7 @@
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // The optional [claim.sizes] table: narrows or widens the search.
 struct SizeOptions {
@@ -61,6 +61,6 @@ std::vector<ClaimEntry> load_claim_text(const std::string& text, const std::stri
 std::vector<std::string> find_claim_files(const std::vector<std::string>& paths,
                                           std::vector<ClaimEntry>* unreadable = nullptr);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_MODEL_CLAIM_H_

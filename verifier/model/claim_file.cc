@@ -15,7 +15,7 @@
 #include "verifier/syntax/input_file.h"
 #include "verifier/syntax/spelling.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -625,4 +625,4 @@ const char* rounding_name(Rounding r) {
   return "?";
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

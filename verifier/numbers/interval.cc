@@ -9,7 +9,7 @@
 
 #include "verifier/numbers/value.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 // Endpoints beyond 2^(2^20) are not turned into exact rationals.
@@ -211,4 +211,4 @@ std::string Interval::str(int digits) const {
          endpoint_text(&value_->right, digits, true) + "]";
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

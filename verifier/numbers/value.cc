@@ -6,7 +6,7 @@
 #include <cmath>
 #include <limits>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -752,4 +752,4 @@ int compare(const Value& a, const Value& b, const NumericContext& ctx) {
   throw PrecisionShortfall("a comparison of overlapping intervals");
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

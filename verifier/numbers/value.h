@@ -14,7 +14,7 @@
 #include "verifier/numbers/interval.h"
 #include "verifier/numbers/number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // An interval was too wide to decide a floor, ceiling or comparison; the
 // computation must be redone at higher precision, never guessed.
@@ -173,6 +173,6 @@ Value mod_value(const Value& a, const Value& b, const NumericContext& ctx);
 // decided when they are disjoint, else PrecisionShortfall.
 int compare(const Value& a, const Value& b, const NumericContext& ctx);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_NUMBERS_VALUE_H_

@@ -4,7 +4,7 @@
 #include <cstdint>
 #include <map>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 ExprPtr make_number(Rational value, size_t pos) {
   auto e = std::make_shared<Expr>();
@@ -335,4 +335,4 @@ bool sum_body_closed(const Expr& sum) {
   return !free_bound(*sum.args[2], bound);
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

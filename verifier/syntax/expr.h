@@ -10,7 +10,7 @@
 
 #include "verifier/numbers/number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 enum class ExprKind {
   kNumber,    // an exact literal (integer or terminating decimal)
@@ -101,6 +101,6 @@ bool has_free_bound(const Expr& e);
 // (not on n, not on an outer sum's variable): its partial sums can be kept.
 bool sum_body_closed(const Expr& sum);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_SYNTAX_EXPR_H_

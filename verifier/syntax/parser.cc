@@ -2,7 +2,7 @@
 
 #include <set>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -459,4 +459,4 @@ ExprPtr parse_expression(const SourceText& source) {
   return e;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -2,7 +2,7 @@
 
 #include <algorithm>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 SourceText SourceText::whole(std::string name, std::string text) {
   SourceText s;
@@ -152,4 +152,4 @@ void fail_at(const SourceText& source, size_t pos, std::string message, std::str
   throw InputError(std::move(d));
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -9,7 +9,7 @@
 #include <stdexcept>
 #include <string>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // A whole input: a claim file, or a recurrence given on the command line.
 struct SourceFile {
@@ -77,6 +77,6 @@ std::string escape_controls(const std::string& s);
 // Number of UTF-8 code points in the first `bytes` bytes of `s`.
 int utf8_columns(const std::string& s, size_t bytes);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_SYNTAX_SOURCE_H_

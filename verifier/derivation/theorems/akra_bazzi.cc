@@ -8,7 +8,7 @@
 #include <optional>
 #include <stdexcept>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -256,4 +256,4 @@ TheoremOutcome akra_bazzi(const DerivationInput& input) {
   return out;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

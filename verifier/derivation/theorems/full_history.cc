@@ -3,7 +3,7 @@
 #include "verifier/derivation/classify.h"
 #include "verifier/derivation/theorems/akra_bazzi.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -128,4 +128,4 @@ TheoremOutcome full_history(const DerivationInput& input) {
   return out;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -14,10 +14,10 @@
 
 #include "verifier/derivation/theorems/outcome.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 TheoremOutcome full_history(const DerivationInput& input);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_THEOREMS_FULL_HISTORY_H_

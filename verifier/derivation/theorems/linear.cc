@@ -4,7 +4,7 @@
 #include <cmath>
 #include <complex>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -265,4 +265,4 @@ TheoremOutcome linear_recurrence(const DerivationInput& input) {
   return out;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -2,7 +2,7 @@
 
 #include "verifier/derivation/regularity.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -297,4 +297,4 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
   return out;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
