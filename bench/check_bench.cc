@@ -24,9 +24,9 @@
 
 namespace {
 
-using thetagate::CheckOptions;
-using thetagate::ClaimEntry;
-using thetagate::ClaimResult;
+using thetagate::engine::CheckOptions;
+using thetagate::engine::ClaimEntry;
+using thetagate::engine::ClaimResult;
 
 CheckOptions full_check_options() {
   CheckOptions options;
@@ -39,7 +39,7 @@ void check_once(benchmark::State& state, const char* recurrence, const char* bou
                 uint64_t effort = 1) {
   std::string toml = std::string("[[claim]]\nname = \"orchard::bench\"\nrecurrence = \"\"\"\n") +
                      recurrence + "\n\"\"\"\nbound = \"" + bound + "\"\n";
-  std::vector<ClaimEntry> entries = thetagate::load_claim_text(toml, "bench.toml");
+  std::vector<ClaimEntry> entries = thetagate::engine::load_claim_text(toml, "bench.toml");
   if (entries.size() != 1 || !entries[0].claim) {
     state.SkipWithError("the benchmark's claim did not load");
     return;
@@ -47,7 +47,7 @@ void check_once(benchmark::State& state, const char* recurrence, const char* bou
   CheckOptions options = full_check_options();
   options.effort = effort;
   for (auto _ : state) {
-    ClaimResult r = thetagate::check_claim(*entries[0].claim, options);
+    ClaimResult r = thetagate::engine::check_claim(*entries[0].claim, options);
     state.counters["sizes"] = static_cast<double>(r.sizes_checked);
     state.counters["bits"] = static_cast<double>(r.largest_bits);
     state.counters["verdict"] = static_cast<double>(r.verdict);
@@ -108,17 +108,17 @@ void CheckDemoLibrary(benchmark::State& state) {
                             .c_str());
     return;
   }
-  thetagate::RunRequest request;
+  thetagate::engine::RunRequest request;
   request.paths = {dir};
   request.options = full_check_options();
   request.jobs = static_cast<unsigned>(state.range(0));
   for (auto _ : state) {
-    thetagate::RunResult run = thetagate::run_check(request);
+    thetagate::engine::RunResult run = thetagate::engine::run_check(request);
     state.counters["claims"] = static_cast<double>(run.claims.size());
     int refuted = 0, undecided = 0;
     for (const ClaimResult& r : run.claims) {
-      refuted += r.verdict == thetagate::Verdict::kRefuted;
-      undecided += r.verdict == thetagate::Verdict::kUndecided;
+      refuted += r.verdict == thetagate::engine::Verdict::kRefuted;
+      undecided += r.verdict == thetagate::engine::Verdict::kUndecided;
     }
     state.counters["refuted"] = refuted;
     state.counters["undecided"] = undecided;

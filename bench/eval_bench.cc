@@ -11,14 +11,15 @@
 #include <vector>
 
 #include "verifier/evaluation/evaluator.h"
+#include "verifier/evaluation/size_expression.h"
 #include "verifier/model/recurrence.h"
 
 namespace {
 
-using thetagate::BigInt;
-using thetagate::evaluate_size;
-using thetagate::Evaluator;
-using thetagate::recurrence_from_text;
+using thetagate::engine::BigInt;
+using thetagate::engine::evaluate_size;
+using thetagate::engine::Evaluator;
+using thetagate::engine::recurrence_from_text;
 
 void evaluate_once(benchmark::State& state, const char* recurrence, const char* size) {
   auto r = recurrence_from_text(recurrence);

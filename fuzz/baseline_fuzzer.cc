@@ -6,7 +6,7 @@
 #include "reports/json_report.h"
 
 extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
-  using namespace thetagate;
+  using namespace thetagate::engine;
   try {
     RunResult run = read_json_report(fuzz::text_of(data, size), "<fuzz>.json");
     render_json(run);

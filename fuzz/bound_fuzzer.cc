@@ -5,7 +5,7 @@
 #include "verifier/model/recurrence.h"
 
 extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
-  using namespace thetagate;
+  using namespace thetagate::engine;
   SourceText source = SourceText::whole("<fuzz bound>", fuzz::text_of(data, size));
   try {
     Bound bound = parse_bound(source, "T");

@@ -8,7 +8,7 @@
 #include "verifier/model/claim.h"
 
 extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
-  using namespace thetagate;
+  using namespace thetagate::engine;
   std::vector<ClaimEntry> entries = load_claim_text(fuzz::text_of(data, size), "<fuzz>.toml");
   if (entries.size() > 2) entries.resize(2);
   CheckOptions options;

@@ -6,7 +6,7 @@
 #include "verifier/model/recurrence.h"
 
 extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
-  using namespace thetagate;
+  using namespace thetagate::engine;
   try {
     auto recurrence = recurrence_from_text(fuzz::text_of(data, size), "<fuzz>");
     check_calls_shrink(*recurrence);

@@ -11,7 +11,7 @@
 #include "verifier/model/recurrence.h"
 
 extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
-  using namespace thetagate;
+  using namespace thetagate::engine;
   std::string text(reinterpret_cast<const char*>(data), size);
   // A line "---" splits the input into a recurrence and a bound.
   std::string bound_text;

@@ -11,7 +11,7 @@
 
 #include "verifier/evaluation/evaluator.h"
 
-namespace thetagate::fuzz {
+namespace thetagate::engine::fuzz {
 
 inline std::string text_of(const uint8_t* data, size_t size) {
   return std::string(reinterpret_cast<const char*>(data), size);
@@ -28,6 +28,6 @@ inline Budget small_budget() {
   return budget;
 }
 
-}  // namespace thetagate::fuzz
+}  // namespace thetagate::engine::fuzz
 
 #endif  // THETAGATE_FUZZ_FUZZ_COMMON_H_

@@ -5,7 +5,7 @@
 
 #include "generators/random_bits.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 class Climber {
@@ -111,4 +111,4 @@ std::optional<LocalSearchResult> local_search(const BigInt& start, const SizeSco
   return climber.result();
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -26,7 +26,7 @@
 
 #include "verifier/numbers/number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // The score of a size, or nullopt where it cannot be evaluated (outside the
 // recurrence's domain, over budget). Called at most max_evaluations times.
@@ -54,6 +54,6 @@ struct LocalSearchResult {
 std::optional<LocalSearchResult> local_search(const BigInt& start, const SizeScore& score,
                                               const LocalSearchOptions& options);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_GENERATORS_LOCAL_SEARCH_H_

@@ -1,6 +1,6 @@
 #include "generators/random_bits.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 uint64_t SplitMix64::next() {
   uint64_t z = (state_ += 0x9E3779B97F4A7C15ull);
@@ -52,4 +52,4 @@ uint64_t random_index(SplitMix64& rng, uint64_t n) {
   }
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

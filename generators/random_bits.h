@@ -9,7 +9,7 @@
 
 #include "verifier/numbers/number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // splitmix64 (G. L. Steele, D. Lea, C. H. Flood, "Fast splittable
 // pseudorandom number generators", OOPSLA 2014; the 64-bit finaliser
@@ -46,6 +46,6 @@ BigInt random_in_scale(SplitMix64& rng, uint64_t k);
 // REQUIRES: n >= 1.
 uint64_t random_index(SplitMix64& rng, uint64_t n);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_GENERATORS_RANDOM_BITS_H_

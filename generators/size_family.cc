@@ -7,7 +7,7 @@
 #include "generators/random_bits.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 // One exponent of a divisor chosen by the scale schedule.
@@ -200,4 +200,4 @@ std::optional<std::string> unknown_size_family(const std::vector<std::string>& n
   return std::nullopt;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -25,7 +25,7 @@
 
 #include "verifier/numbers/number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // What to generate for one claim.
 struct SizePlan {
@@ -76,6 +76,6 @@ bool is_size_family(const std::string& name);
 // The first name in `names` that is not a family, if any.
 std::optional<std::string> unknown_size_family(const std::vector<std::string>& names);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_GENERATORS_SIZE_FAMILY_H_

@@ -8,7 +8,7 @@
 #include "reports/number_text.h"
 #include "reports/xml_escape.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -159,4 +159,4 @@ std::string render_band_plot(const std::vector<BandRow>& band, const std::vector
   return svg;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -9,7 +9,7 @@
 
 #include "verifier/checking/result.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct PlotLine {
   double ratio = 1;   // where: T(n)/g(n) == ratio; REQUIRES: ratio > 0
@@ -25,6 +25,6 @@ std::string render_band_plot(const std::vector<BandRow>& band, const std::vector
 inline constexpr int kBandPlotWidth = 640;
 inline constexpr int kBandPlotHeight = 260;
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_REPORTS_BAND_PLOT_H_

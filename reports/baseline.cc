@@ -10,7 +10,7 @@
 #include "reports/json_report.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -391,4 +391,4 @@ RunResult read_json_report(const std::string& json_text, const std::string& disp
   return ReportReader(json_text, display_name).read();
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

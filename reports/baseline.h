@@ -7,7 +7,7 @@
 
 #include "verifier/checking/result.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // The RunResult a report of schema_version 1 (docs/json-schema.md) was
 // rendered from. `display_name` (the baseline's path) locates errors.
@@ -33,6 +33,6 @@ namespace thetagate {
 RunResult read_json_report(const std::string& json_text,
                            const std::string& display_name = "<baseline>");
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_REPORTS_BASELINE_H_

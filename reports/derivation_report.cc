@@ -4,7 +4,7 @@
 
 #include <nlohmann/json.hpp>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 std::string render_derivation_text(const Derivation& d) {
   std::string out;
@@ -44,4 +44,4 @@ std::string render_derivation_json(const Derivation& d) {
   return j.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n";
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

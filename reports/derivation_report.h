@@ -7,7 +7,7 @@
 
 #include "verifier/derivation/derive.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // Numbered steps, then "did not apply:" with one line per theorem. Ends
 // with a newline.
@@ -18,6 +18,6 @@ std::string render_derivation_text(const Derivation& d);
 // hypotheses (docs/design.md §6); the other arrays split them. Ends with a newline.
 std::string render_derivation_json(const Derivation& d);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_REPORTS_DERIVATION_REPORT_H_

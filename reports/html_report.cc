@@ -10,7 +10,7 @@
 #include "reports/number_text.h"
 #include "reports/xml_escape.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -171,4 +171,4 @@ std::string render_html(const RunResult& run) {
   return s;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -9,13 +9,13 @@
 
 #include "verifier/checking/result.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // A complete HTML5 document (UTF-8) ending with a newline. Every claim gets a
 // <section id="claim-N"> (N from 1, in run order); a claim with a ratio band
 // gets one <svg class="band-plot">. Deterministic: no dates, no host names.
 std::string render_html(const RunResult& run);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_REPORTS_HTML_REPORT_H_

@@ -3,7 +3,7 @@
 #include <cmath>
 #include <nlohmann/json.hpp>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -95,4 +95,4 @@ std::string render_json(const RunResult& run) {
   return j.dump(2, ' ', false, Json::error_handler_t::replace) + "\n";
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

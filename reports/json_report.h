@@ -9,7 +9,7 @@
 
 #include "verifier/checking/result.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // The JSON objects of one witness and one band row, as they appear inside
 // claims (docs/json-schema.md); other writers (drift) reuse them.
@@ -26,6 +26,6 @@ inline constexpr int kJsonSchemaVersion = 1;
 // null when not finite. Deterministic.
 std::string render_json(const RunResult& run);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_REPORTS_JSON_REPORT_H_

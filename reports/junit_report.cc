@@ -8,7 +8,7 @@
 #include "reports/number_text.h"
 #include "reports/xml_escape.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -158,4 +158,4 @@ std::string render_junit(const RunResult& run, const JunitOptions& options) {
   return out;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -16,7 +16,7 @@
 
 #include "verifier/checking/result.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct JunitOptions {
   bool undecided_fails = false;  // report undecided claims as failures, not skips
@@ -27,6 +27,6 @@ struct JunitOptions {
 // invalid UTF-8) become U+FFFD.
 std::string render_junit(const RunResult& run, const JunitOptions& options);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_REPORTS_JUNIT_REPORT_H_

@@ -6,7 +6,7 @@
 #include <cmath>
 #include <optional>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -118,4 +118,4 @@ std::string format_band_ratio(double ratio, double log2_ratio) {
   return fmt::format("2^{:.4g}", log2_ratio);
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -7,7 +7,7 @@
 
 #include "verifier/numbers/number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // A size as a person wants to read it. Promises, in order of preference:
 //   - near c*2^k (c odd, c < 16) or 10^k, with an offset tiny beside n:
@@ -30,6 +30,6 @@ std::string format_ratio(double ratio);
 // exponential bounds at 4096 bits do).
 std::string format_band_ratio(double ratio, double log2_ratio);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_REPORTS_NUMBER_TEXT_H_

@@ -9,7 +9,7 @@
 #include <cstring>
 #include <filesystem>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -107,4 +107,4 @@ std::string write_files_whole(const std::vector<std::pair<std::string, std::stri
   return "";
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -12,7 +12,7 @@
 
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // Checks, before any work is done, that reports can be written at `out`:
 // into a folder (created when missing) when `folder`, else as one file
@@ -25,6 +25,6 @@ void check_output_location(const std::string& out, bool folder);
 // being replaced has changed.
 std::string write_files_whole(const std::vector<std::pair<std::string, std::string>>& files);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_REPORTS_REPORT_FILE_H_

@@ -12,7 +12,7 @@
 #include "reports/number_text.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -305,4 +305,4 @@ bool want_colour(int fd) {
   return isatty(fd) == 1;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -8,7 +8,7 @@
 
 #include "verifier/checking/result.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct TextStyle {
   bool colour = false;  // ANSI colour and bold; the front end decides (want_colour)
@@ -30,6 +30,6 @@ std::string render_text(const RunResult& run, const TextStyle& style);
 // NO_COLOR environment variable is unset or empty (no-color.org convention).
 bool want_colour(int fd);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_REPORTS_TEXT_REPORT_H_

@@ -4,7 +4,7 @@
 
 #include <cstdint>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -71,4 +71,4 @@ std::string escape(const std::string& text, bool attribute) {
 std::string xml_escape_text(const std::string& text) { return escape(text, false); }
 std::string xml_escape_attribute(const std::string& text) { return escape(text, true); }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

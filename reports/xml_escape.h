@@ -4,7 +4,7 @@
 
 #include <string>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // `text` made safe for XML character data: & < > escaped, forbidden
 // characters replaced by U+FFFD; newlines kept.
@@ -15,6 +15,6 @@ std::string xml_escape_text(const std::string& text);
 // an XML parser's attribute normalisation keeps them).
 std::string xml_escape_attribute(const std::string& text);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_REPORTS_XML_ESCAPE_H_

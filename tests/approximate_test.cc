@@ -11,7 +11,7 @@
 #include "verifier/evaluation/expression_eval.h"
 #include "verifier/syntax/parser.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 std::optional<double> at(const char* text, int64_t n) {
@@ -115,4 +115,4 @@ TEST(ApproximateLog2, AbstainsWhereDigitsAreLost) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

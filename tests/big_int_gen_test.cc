@@ -1,11 +1,11 @@
-#include "generators/big_int_gen.h"
+#include "tests/big_int_gen.h"
 
 #include <gtest/gtest.h>
 #include <rapidcheck/gtest.h>
 
 #include <algorithm>
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 BigInt pow2(uint64_t k) { return BigInt(1) << k; }
@@ -73,4 +73,4 @@ RC_GTEST_PROP(BigIntGen, DrawsOnlyPlanMembers, ()) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

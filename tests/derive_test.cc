@@ -13,7 +13,7 @@
 #include "verifier/model/bound.h"
 #include "verifier/model/recurrence.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 Derivation derived(const std::string& text) { return derive(*recurrence_from_text(text)); }
@@ -252,4 +252,4 @@ RC_GTEST_PROP(DeriveMaster, AgreesWithExactTrend, ()) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

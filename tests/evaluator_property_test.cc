@@ -14,7 +14,7 @@
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/model/recurrence.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 // A GMP integer with automatic cleanup.
@@ -245,4 +245,4 @@ RC_GTEST_PROP(EvaluatorProperty, LargeValueEqualsItsAssembledSubproblems, ()) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

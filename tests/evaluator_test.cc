@@ -15,10 +15,11 @@
 #include <string>
 #include <vector>
 
+#include "verifier/evaluation/size_expression.h"
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 BigInt pow2(uint64_t k) { return BigInt(1) << k; }
@@ -360,17 +361,17 @@ TEST(Evaluator, SizesAreExactConstantExpressions) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 namespace {
 
 TEST(EvaluatorWellFoundedness, NonShrinkingCallNamesTheFirstOffendingSize) {
   // docs/design.md §3: the error names the first offending n and call.
   try {
-    thetagate::Evaluator ev(thetagate::recurrence_from_text("T(n) = T(n+1) + 1"));
-    ev.value_at(thetagate::BigInt(3));
+    thetagate::engine::Evaluator ev(thetagate::engine::recurrence_from_text("T(n) = T(n+1) + 1"));
+    ev.value_at(thetagate::engine::BigInt(3));
     FAIL() << "expected an InputError";
-  } catch (const thetagate::InputError& e) {
+  } catch (const thetagate::engine::InputError& e) {
     EXPECT_EQ(e.diagnostic().message, "T(n + 1) at n = 0 calls T(1), which does not shrink");
     EXPECT_EQ(e.diagnostic().where.column, 8);
   }

@@ -6,7 +6,7 @@
 #include <fstream>
 #include <sstream>
 
-namespace thetagate::test_support {
+namespace thetagate::engine::test_support {
 
 namespace {
 
@@ -57,4 +57,4 @@ void expect_matches_golden(const std::string& name, const std::string& actual) {
   }
 }
 
-}  // namespace thetagate::test_support
+}  // namespace thetagate::engine::test_support

@@ -9,7 +9,7 @@
 
 #include <string>
 
-namespace thetagate::test_support {
+namespace thetagate::engine::test_support {
 
 // Path of tests/golden/<name> in the source tree.
 std::string golden_path(const std::string& name);
@@ -19,6 +19,6 @@ std::string golden_path(const std::string& name);
 // writes `actual` to the file instead and passes.
 void expect_matches_golden(const std::string& name, const std::string& actual);
 
-}  // namespace thetagate::test_support
+}  // namespace thetagate::engine::test_support
 
 #endif  // THETAGATE_TESTS_GOLDEN_H_

@@ -15,7 +15,7 @@
 #include "verifier/checking/checker.h"
 #include "verifier/model/claim.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 using test_support::expect_matches_golden;
@@ -76,4 +76,4 @@ TEST(GoldenRunReport, Junit) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -7,7 +7,7 @@
 #include "verifier/numbers/real_number.h"
 #include "verifier/syntax/parser.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 ExprPtr expr(const std::string& text) {
@@ -135,4 +135,4 @@ TEST(GrowthClassify, RefusesWithAReason) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

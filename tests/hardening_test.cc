@@ -17,11 +17,12 @@
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/model/bound.h"
 #include "verifier/model/claim.h"
+#include "verifier/model/claim_discovery.h"
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/input_file.h"
 #include "verifier/syntax/parser.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 namespace fs = std::filesystem;
@@ -354,4 +355,4 @@ TEST(Hardening, WorkersAreCappedByTheSharedMemoryLimit) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -19,7 +19,7 @@
 #include "tests/report_fixture.h"
 #include "tests/test_support.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 using test_support::sample_run;
@@ -222,4 +222,4 @@ TEST_F(HtmlReportBrowser, HtmlReportScreenshotIsAFullWindowPng) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

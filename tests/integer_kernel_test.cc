@@ -14,7 +14,7 @@
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 using test_support::Mpz;
@@ -239,4 +239,4 @@ TEST(IntegerKernel, MergeSortWorstCaseMatchesItsClosedFormAtLargeSizes) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

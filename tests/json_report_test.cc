@@ -14,7 +14,7 @@
 #include "tests/golden.h"
 #include "tests/report_fixture.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 using Json = nlohmann::ordered_json;
@@ -153,4 +153,4 @@ TEST(JsonReport, PrettyPrintedWithTwoSpacesAndFinalNewline) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

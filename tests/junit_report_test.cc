@@ -18,7 +18,7 @@
 #include "tests/report_fixture.h"
 #include "tests/test_support.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 using test_support::expect_matches_golden;
@@ -173,4 +173,4 @@ TEST(XmlEscape, ForbiddenCharactersBecomeReplacement) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

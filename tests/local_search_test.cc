@@ -5,7 +5,7 @@
 #include <cmath>
 #include <vector>
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 BigInt pow2(uint64_t k) { return BigInt(1) << k; }
@@ -143,4 +143,4 @@ TEST(LocalSearch, SkipsSizesWithoutAScore) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

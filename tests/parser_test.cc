@@ -17,7 +17,7 @@
 #include "verifier/syntax/lexer.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 // Hand-built trees.
@@ -587,12 +587,12 @@ TEST(Printer, PropertyWouldCatchAPrinterThatDropsParentheses) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 namespace {
 
 TEST(ParserCallForms, ModAlsoReadsAsACall) {
-  using namespace thetagate;
+  using namespace thetagate::engine;
   ExprPtr infix = parse_expression(SourceText::whole("<t>", "n mod 3"));
   ExprPtr call = parse_expression(SourceText::whole("<t>", "mod(n, 3)"));
   EXPECT_TRUE(same_tree(*infix, *call)) << print(*call);

@@ -8,7 +8,7 @@
 #include <cstdlib>
 #include <vector>
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 // The monic polynomial with the given integer roots.
@@ -57,4 +57,4 @@ RC_GTEST_PROP(Polynomial, ACertifiedCountIsTheTrueCount, ()) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -10,7 +10,7 @@
 
 #include "verifier/checking/result.h"
 
-namespace thetagate::test_support {
+namespace thetagate::engine::test_support {
 
 // Claims, in order: 0 holds, 1 refuted, 2 holds (not tight), 3 undecided,
 // 4 error, 5 holds (name with XML specials). Seed 20240611.
@@ -177,6 +177,6 @@ inline RunResult sample_run() {
   return run;
 }
 
-}  // namespace thetagate::test_support
+}  // namespace thetagate::engine::test_support
 
 #endif  // THETAGATE_TESTS_REPORT_FIXTURE_H_

@@ -9,7 +9,7 @@
 #include "generators/random_bits.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 BigInt pow2(uint64_t k) { return BigInt(1) << k; }
@@ -270,4 +270,4 @@ TEST(SizeFamily, ListsEveryFamilyWithADescription) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -7,7 +7,7 @@
 #include <cstddef>
 #include <string>
 
-namespace thetagate::test_support {
+namespace thetagate::engine::test_support {
 
 // A plain GMP integer, independent of Boost.Multiprecision, so tests can
 // compare the engine against the reference library directly.
@@ -43,6 +43,6 @@ inline size_t count_of(const std::string& text, const std::string& needle) {
   return count;
 }
 
-}  // namespace thetagate::test_support
+}  // namespace thetagate::engine::test_support
 
 #endif  // THETAGATE_TESTS_TEST_SUPPORT_H_

@@ -19,7 +19,7 @@
 #include "tests/golden.h"
 #include "tests/report_fixture.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 using test_support::expect_matches_golden;
@@ -238,4 +238,4 @@ TEST(TextReport, WantColourOnlyOnTerminalWithoutNoColor) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -16,7 +16,7 @@
 #include "verifier/numbers/interval.h"
 #include "verifier/numbers/number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 // A GMP integer with automatic cleanup; the reference side of every check.
@@ -427,4 +427,4 @@ TEST(Value, MinMaxAndSameExact) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -18,9 +18,10 @@
 #include "reports/json_report.h"
 #include "verifier/checking/checker.h"
 #include "verifier/evaluation/evaluator.h"
+#include "verifier/evaluation/size_expression.h"
 #include "verifier/model/claim.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 BigInt pow2(uint64_t k) { return BigInt(1) << k; }
@@ -456,9 +457,9 @@ TEST(WitnessHunt, ShrinkingReachesTheSmallestWitness) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 // Effort scales the evaluator's per-size limit with the work budget: with a
@@ -482,9 +483,9 @@ TEST(WitnessHunt, EffortRaisesThePerSizeLimitWithTheWork) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 // `--rounding both` (docs/design.md §5): T(n) = 2T(n/2) + n, T(1) = 0 stays within
@@ -514,4 +515,4 @@ TEST(WitnessHunt, RoundingBothNamesTheReadingThatFails) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -27,7 +27,7 @@
 #include "verifier/checking/checker.h"
 #include "verifier/model/claim.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 namespace {
 
 constexpr int kScanLimit = 5000;
@@ -124,4 +124,4 @@ TEST(WitnessProperty, MergeSortBoundRefutedIffTheScanFindsAViolation) {
 }
 
 }  // namespace
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -1,11 +1,12 @@
 #include "verifier/checking/checker.h"
 
 #include <algorithm>
+#include <new>
 #include <set>
 
 #include "verifier/checking/claim_check.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -29,6 +30,14 @@ ClaimResult error_result(const ClaimResult& base, const Diagnostic& d) {
   r.message = d.message;
   r.witnesses.clear();
   r.band.clear();
+  return r;
+}
+
+ClaimResult internal_error_result(const ClaimResult& base, const std::string& what) {
+  ClaimResult r = base;
+  r.verdict = Verdict::kError;
+  r.internal_error = what;
+  r.message = "internal error (a bug in thetagate, please report it with this claim): " + what;
   return r;
 }
 
@@ -130,21 +139,35 @@ ClaimResult check_claim(const Claim& claim, const CheckOptions& options) {
                           check_one_reading(ceil_claim, options));
 }
 
+ClaimResult check_entry(const ClaimEntry& entry, const CheckOptions& options) {
+  ClaimResult base;
+  base.name = entry.name;
+  base.file = entry.where.file;
+  base.line = entry.where.line;
+  if (!entry.internal_error.empty()) return internal_error_result(base, entry.internal_error);
+  if (!entry.claim) return error_result(base, entry.error.value_or(Diagnostic{}));
+  // The one place that catches everything: what escapes check_claim is not
+  // about the input (check_claim turns input errors and limits into
+  // verdicts), so it is reported as a bug, on this claim only.
+  try {
+    return check_claim(*entry.claim, options);
+  } catch (const std::bad_alloc&) {
+    base.claimed = entry.claim->bound.text();
+    base.verdict = Verdict::kUndecided;
+    base.message = "out of budget: memory ran out while checking this claim";
+    return base;
+  } catch (const std::exception& e) {
+    return internal_error_result(base, e.what());
+  } catch (...) {
+    return internal_error_result(base, "an exception that is not a std::exception");
+  }
+}
+
 RunResult check_entries(const std::vector<ClaimEntry>& entries, const CheckOptions& options) {
   RunResult run;
   run.seed = options.seed;
-  for (const ClaimEntry& entry : entries) {
-    if (entry.claim) {
-      run.claims.push_back(check_claim(*entry.claim, options));
-      continue;
-    }
-    ClaimResult base;
-    base.name = entry.name;
-    base.file = entry.where.file;
-    base.line = entry.where.line;
-    run.claims.push_back(error_result(base, entry.error.value_or(Diagnostic{})));
-  }
+  for (const ClaimEntry& entry : entries) run.claims.push_back(check_entry(entry, options));
   return run;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -22,7 +22,7 @@
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/numbers/value.h"
 
-namespace thetagate::checker_internal {
+namespace thetagate::engine::checker_internal {
 
 // n in decimal, or its first and last ten digits and its length when it has
 // more than 24 digits.
@@ -176,6 +176,6 @@ class ClaimCheck {
   std::string first_skip_reason_;
 };
 
-}  // namespace thetagate::checker_internal
+}  // namespace thetagate::engine::checker_internal
 
 #endif  // THETAGATE_VERIFIER_CHECKING_CLAIM_CHECK_H_

@@ -13,7 +13,7 @@
 #include "verifier/checking/trend.h"
 #include "verifier/derivation/classify.h"
 
-namespace thetagate::checker_internal {
+namespace thetagate::engine::checker_internal {
 
 namespace {
 
@@ -258,4 +258,4 @@ void ClaimCheck::decide_numerically(const std::vector<Target>& targets) {
   result_.message = "numbers only (no theorem applied), and they do not settle it: " + joined;
 }
 
-}  // namespace thetagate::checker_internal
+}  // namespace thetagate::engine::checker_internal

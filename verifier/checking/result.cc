@@ -1,6 +1,6 @@
 #include "verifier/checking/result.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 const char* verdict_name(Verdict v) {
   switch (v) {
@@ -25,4 +25,4 @@ bool RunResult::any_refuted() const {
   return false;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -11,7 +11,7 @@
 #include "verifier/numbers/number.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 enum class Verdict { kHolds, kRefuted, kUndecided, kError };
 const char* verdict_name(Verdict v);  // "holds", "refuted", "undecided", "error"
@@ -60,6 +60,7 @@ struct ClaimResult {
   std::vector<std::string> notes;    // assumptions stated for the reader
   std::vector<std::string> reasons;  // derivation steps, failed hypotheses
   std::optional<Diagnostic> error;   // verdict error: the located input error
+  std::string internal_error;        // verdict error: a bug, what broke ("" otherwise)
   std::string note;                  // the claim's own `note`, copied
   uint64_t sizes_checked = 0;
   uint64_t largest_bits = 0;  // bits of the largest size evaluated
@@ -73,6 +74,6 @@ struct RunResult {
   bool any_refuted() const;
 };
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_CHECKING_RESULT_H_

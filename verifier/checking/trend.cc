@@ -5,7 +5,7 @@
 #include <algorithm>
 #include <cmath>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -122,4 +122,4 @@ std::string describe_edge(const EdgeReading& e, const char* edge_name) {
       edge_name, drift_name(e.drift), change, e.first_scale, e.last_scale, e.slope, like);
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

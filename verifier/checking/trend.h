@@ -9,7 +9,7 @@
 
 #include "verifier/checking/result.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 enum class Drift {
   kSteady,   // no trend over the upper half of the scales
@@ -43,6 +43,6 @@ std::string describe_edge(const EdgeReading& e, const char* edge_name);
 // log2 of the escape factor: 10^6.
 double escape_log2();
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_CHECKING_TREND_H_

@@ -9,7 +9,7 @@
 #include "generators/local_search.h"
 #include "verifier/checking/claim_check.h"
 
-namespace thetagate::checker_internal {
+namespace thetagate::engine::checker_internal {
 
 void ClaimCheck::sample_sizes(const std::vector<Size>& sizes, std::vector<Target>& targets,
                               bool is_explicit) {
@@ -204,4 +204,4 @@ Witness ClaimCheck::witness_for(const Target& target, const Sample& s, const std
   return w;
 }
 
-}  // namespace thetagate::checker_internal
+}  // namespace thetagate::engine::checker_internal

@@ -12,7 +12,7 @@
 #include "verifier/derivation/classify_expansion.h"
 #include "verifier/numbers/value.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -206,7 +206,7 @@ class Classifier {
     std::vector<std::pair<std::string, Expansion>> cases;
     for (const CaseLine* line : f.lines_in_order()) {
       if (line->point) continue;
-      int reach = line->condition ? thetagate::condition_reach(*line->condition) : 1;
+      int reach = line->condition ? thetagate::engine::condition_reach(*line->condition) : 1;
       if (reach < 0) continue;
       Expansion x = run(*substitute(line->body, argument));
       cases.emplace_back(line->condition ? print(*line->condition) : "otherwise", x);
@@ -299,4 +299,4 @@ Classification classify(const Expr& e, const HelperTable* helpers) {
   return out;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

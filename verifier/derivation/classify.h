@@ -14,7 +14,7 @@
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/expr.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct Classification {
   // Set when classified: f(n) = Θ(growth), and f(n) ~ coefficient * growth
@@ -49,6 +49,6 @@ int condition_reach(const Expr& condition);
 // e with every n replaced by `argument` (for f(n/2) with f a helper).
 ExprPtr substitute(const ExprPtr& e, const ExprPtr& argument);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_CLASSIFY_H_

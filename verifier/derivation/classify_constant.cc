@@ -12,7 +12,7 @@
 #include "verifier/derivation/classify_expansion.h"
 #include "verifier/numbers/value.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 using classify_internal::log2_of;
 
@@ -141,4 +141,4 @@ std::optional<RealNumber> constant_value(const Expr& e, std::string* reason) {
   }
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

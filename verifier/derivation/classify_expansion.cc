@@ -8,7 +8,7 @@
 
 #include "verifier/numbers/value.h"
 
-namespace thetagate::classify_internal {
+namespace thetagate::engine::classify_internal {
 
 namespace {
 
@@ -188,4 +188,4 @@ Expansion lg_of(const Expansion& x, const std::string& what) {
   return out;
 }
 
-}  // namespace thetagate::classify_internal
+}  // namespace thetagate::engine::classify_internal

@@ -15,7 +15,7 @@
 #include "verifier/derivation/growth.h"
 #include "verifier/numbers/real_number.h"
 
-namespace thetagate::classify_internal {
+namespace thetagate::engine::classify_internal {
 
 // Thrown when an expression has no growth class; classify() reports `reason`.
 struct Refusal {
@@ -84,6 +84,6 @@ Expansion lg_of(const Expansion& x, const std::string& what);
 // REQUIRES: c > 0.
 RealNumber log2_of(const RealNumber& c);
 
-}  // namespace thetagate::classify_internal
+}  // namespace thetagate::engine::classify_internal
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_CLASSIFY_EXPANSION_H_

@@ -9,7 +9,7 @@
 #include "verifier/derivation/theorems/subtract.h"
 #include "verifier/evaluation/evaluator.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -163,9 +163,13 @@ Derivation derive(const Recurrence& recurrence) {
   classify_driving(shape, recurrence, input);
   const SourceText& source = recurrence.source;
   input.value_at = [evaluator](const BigInt& n) -> std::optional<Value> {
+    // Input errors (lg 0 at this n) and limits mean "no value here"; any
+    // other exception is a bug and propagates.
     try {
       return evaluator->value_at(n);
-    } catch (const std::exception&) {
+    } catch (const InputError&) {
+      return std::nullopt;
+    } catch (const LimitReached&) {
       return std::nullopt;
     }
   };
@@ -176,7 +180,8 @@ Derivation derive(const Recurrence& recurrence) {
         if (c.test && !holds(*evaluator, *c.test, source, n)) continue;
         return c.f ? evaluator->evaluate(*c.f, source, n) : Value(int64_t{0});
       }
-    } catch (const std::exception&) {
+    } catch (const InputError&) {
+    } catch (const LimitReached&) {
     }
     return std::nullopt;
   };
@@ -197,10 +202,17 @@ Derivation derive(const Recurrence& recurrence) {
   }
   for (const auto& [name, theorem] : theorems) {
     TheoremOutcome o;
+    // What a theorem may meet on valid input; anything else is a bug.
     try {
       o = theorem(input);
-    } catch (const std::exception& e) {
+    } catch (const LimitReached& e) {
       o.failure = std::string("could not be decided: ") + e.what();
+    } catch (const PrecisionShortfall& e) {
+      o.failure = std::string("could not be decided: ") + e.what();
+    } catch (const DomainError& e) {
+      o.failure = std::string("could not be decided: ") + e.what();
+    } catch (const InputError& e) {
+      o.failure = std::string("could not be decided: ") + e.diagnostic().message;
     }
     if (o.theorem.empty()) o.theorem = name;
     d.outcomes.push_back(o);
@@ -287,4 +299,4 @@ ClaimComparison compare_claim(const Derivation& derivation, const Bound& bound) 
   return r;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -13,7 +13,7 @@
 #include "verifier/model/bound.h"
 #include "verifier/model/recurrence.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct Derivation {
   std::optional<GrowthClass> growth;  // T(n) = Θ(growth) when a theorem applied
@@ -57,6 +57,6 @@ ClaimComparison compare_claim(const Derivation& derivation, const Bound& bound);
 
 const char* claim_agreement_name(ClaimAgreement a);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_DERIVE_H_

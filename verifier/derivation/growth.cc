@@ -2,7 +2,7 @@
 
 #include <vector>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 GrowthClass GrowthClass::polylog(RealNumber alpha, RealNumber beta, RealNumber gamma) {
   GrowthClass g;
@@ -113,4 +113,4 @@ std::string to_string(const GrowthClass& g) {
   return top + "/" + bottom;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

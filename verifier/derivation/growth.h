@@ -9,7 +9,7 @@
 
 #include "verifier/numbers/real_number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct GrowthClass {
   RealNumber rho = RealNumber(1L);  // the base of the exponential factor; > 0
@@ -43,6 +43,6 @@ inline bool same_class(const GrowthClass& a, const GrowthClass& b) { return comp
 // "1"; certified digits otherwise: "n^0.839780…", "1.324718…^n".
 std::string to_string(const GrowthClass& g);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_GROWTH_H_

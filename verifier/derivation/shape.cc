@@ -4,7 +4,7 @@
 
 #include "verifier/derivation/classify.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -350,4 +350,4 @@ Shape extract_shape(const Recurrence& recurrence) {
   return shape;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -13,7 +13,7 @@
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/expr.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // How the argument b n + h(n) departs from b n.
 enum class Perturbation {
@@ -67,6 +67,6 @@ struct Shape {
 // REQUIRES: a model from build_recurrence. Never throws for a valid model.
 Shape extract_shape(const Recurrence& recurrence);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_SHAPE_H_

@@ -5,7 +5,7 @@
 #include <utility>
 #include <vector>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -302,4 +302,4 @@ std::optional<double> approximate(const Expr& e, int64_t n) {
   return a->v;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -11,7 +11,7 @@
 #include "verifier/numbers/number.h"
 #include "verifier/syntax/expr.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // The value of `e` at n to about double precision, or nullopt where a double
 // cannot be trusted: n >= 2^50, calls other than builtins, a floor or
@@ -26,6 +26,6 @@ std::optional<double> approximate(const Expr& e, int64_t n);
 // small irrational value, calls other than builtins, or a domain error.
 std::optional<double> approximate_log2(const Expr& e, const BigInt& n);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_EVALUATION_APPROXIMATE_H_

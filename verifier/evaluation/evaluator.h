@@ -18,7 +18,7 @@
 #include "verifier/model/recurrence.h"
 #include "verifier/numbers/value.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // Per-claim limits. Running out throws BudgetExceeded with the reason.
 struct Budget {
@@ -134,10 +134,6 @@ class Evaluator {
 // Evaluator::probe() for a recurrence not otherwise evaluated (derive).
 void check_calls_shrink(const Recurrence& recurrence);
 
-// The value of a constant expression ("2^4096 + 7", "3*2^50"), exactly.
-// Throws InputError for a non-integer, negative, or n-dependent expression.
-BigInt evaluate_size(const std::string& text, const std::string& origin = "<size>");
-
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_EVALUATION_EVALUATOR_H_

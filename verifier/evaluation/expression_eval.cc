@@ -4,7 +4,7 @@
 
 #include <stdexcept>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -200,4 +200,4 @@ Value call_argument_value(const Expr& call, const Value& n, const EvalScope& sco
   return canonical_integer(floor_value(v));
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

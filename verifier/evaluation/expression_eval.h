@@ -7,7 +7,7 @@
 #include "verifier/model/recurrence.h"
 #include "verifier/numbers/value.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 class CallResolver {
  public:
@@ -42,6 +42,6 @@ BigInt call_argument(const Expr& call, const Value& n, const EvalScope& scope);
 // no big-integer copy, ready as a memo key.
 Value call_argument_value(const Expr& call, const Value& n, const EvalScope& scope);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_EVALUATION_EXPRESSION_EVAL_H_

@@ -4,7 +4,7 @@
 #include <stdexcept>
 #include <utility>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -591,4 +591,4 @@ void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
   mpz_set(out, result.as_mpz(view));
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -29,7 +29,7 @@
 #include "verifier/numbers/number.h"
 #include "verifier/numbers/value.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct KernelDeclines {};
 
@@ -103,6 +103,6 @@ class IntegerKernel {
   const LimbView* current_slots_ = nullptr;
 };
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_EVALUATION_INTEGER_KERNEL_H_

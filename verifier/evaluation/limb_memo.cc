@@ -4,7 +4,7 @@
 #include <cstring>
 #include <stdexcept>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 constexpr size_t kInitialSlots = 1024;
@@ -111,4 +111,4 @@ void LimbMemo::clear() {
   block_size_ = 0;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -14,7 +14,7 @@
 #include <memory>
 #include <vector>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // A stored integer, readable as a GMP integer without copying.
 struct LimbView {
@@ -57,6 +57,6 @@ class LimbMemo {
   size_t block_size_ = 0;
 };
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_EVALUATION_LIMB_MEMO_H_

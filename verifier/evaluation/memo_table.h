@@ -13,7 +13,7 @@
 
 #include "verifier/numbers/value.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 class MemoTable {
  public:
@@ -43,6 +43,6 @@ class MemoTable {
   std::vector<uint64_t> index_;
 };
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_EVALUATION_MEMO_TABLE_H_

@@ -3,7 +3,7 @@
 #include "verifier/evaluation/expression_eval.h"
 #include "verifier/syntax/parser.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -198,4 +198,4 @@ Bound parse_bound(const SourceText& source, const std::string& function) {
   return b;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -9,7 +9,7 @@
 #include "verifier/syntax/expr.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 enum class BoundKind { kTheta, kBigO, kOmega, kExplicit };
 
@@ -37,6 +37,6 @@ Bound parse_bound(const SourceText& source, const std::string& function = "T");
 // The kind's name as reports print it: "Theta", "O", "Omega", "explicit".
 const char* bound_kind_name(BoundKind kind);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_MODEL_BOUND_H_

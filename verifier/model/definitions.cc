@@ -2,7 +2,7 @@
 
 #include "verifier/syntax/parser.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -65,4 +65,4 @@ std::vector<Definition> parse_definitions(const SourceText& source) {
   return lines;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

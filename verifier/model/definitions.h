@@ -12,7 +12,7 @@
 #include "verifier/syntax/expr.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct Definition {
   std::string function;         // "T", "f", ...
@@ -27,6 +27,6 @@ struct Definition {
 // malformed line.
 std::vector<Definition> parse_definitions(const SourceText& source);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_MODEL_DEFINITIONS_H_

@@ -5,7 +5,7 @@
 
 #include "verifier/model/definitions.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -249,4 +249,4 @@ std::shared_ptr<const Recurrence> recurrence_from_text(const std::string& text,
   return build_recurrence(SourceText::whole(origin, text));
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

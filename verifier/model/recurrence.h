@@ -13,7 +13,7 @@
 #include "verifier/syntax/expr.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct CaseLine {
   std::optional<BigInt> point;  // a point case T(1) = 0
@@ -67,6 +67,6 @@ std::shared_ptr<const Recurrence> read_quotients_as_ceilings(const Recurrence& r
 std::shared_ptr<const Recurrence> recurrence_from_text(const std::string& text,
                                                        const std::string& origin = "<recurrence>");
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_MODEL_RECURRENCE_H_

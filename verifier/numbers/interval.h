@@ -14,7 +14,7 @@
 
 #include "verifier/numbers/number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 class Interval {
  public:
@@ -75,6 +75,6 @@ class Interval {
   mpfi_t value_;
 };
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_NUMBERS_INTERVAL_H_

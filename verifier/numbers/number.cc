@@ -2,7 +2,7 @@
 
 #include <gmp.h>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 uint64_t bit_length(const BigInt& x) {
   if (x == 0) return 0;
@@ -75,4 +75,4 @@ size_t BigIntHash::operator()(const BigInt& x) const noexcept {
 
 std::string to_string(const Rational& x) { return x.str(); }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -7,7 +7,7 @@
 #include <optional>
 #include <string>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // Arbitrary-precision integers and rationals (GMP through Boost.Multiprecision).
 using BigInt = boost::multiprecision::mpz_int;
@@ -40,6 +40,6 @@ struct BigIntHash {
 // Decimal text of a rational: "p" or "p/q".
 std::string to_string(const Rational& x);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_NUMBERS_NUMBER_H_

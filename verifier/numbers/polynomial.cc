@@ -2,7 +2,7 @@
 
 #include <algorithm>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 Polynomial::Polynomial(std::vector<Rational> coefficients) : c_(std::move(coefficients)) { trim(); }
 
@@ -226,4 +226,4 @@ std::string Polynomial::str() const {
   return s;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

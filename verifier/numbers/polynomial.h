@@ -10,7 +10,7 @@
 #include "verifier/numbers/interval.h"
 #include "verifier/numbers/number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 class Polynomial {
  public:
@@ -78,6 +78,6 @@ class Polynomial {
   std::vector<Rational> c_;
 };
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_NUMBERS_POLYNOMIAL_H_

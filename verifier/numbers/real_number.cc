@@ -14,7 +14,7 @@
 #include "verifier/numbers/real_number_node.h"
 #include "verifier/numbers/value.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 using real_number_internal::bisect_locked;
 using real_number_internal::compare_algebraic;
@@ -314,4 +314,4 @@ int compare(const RealNumber& a, const RealNumber& b) {
   return compare_by_intervals(a, b);
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

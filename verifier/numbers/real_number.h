@@ -16,7 +16,7 @@
 #include "verifier/numbers/number.h"
 #include "verifier/numbers/polynomial.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 class RealNumber {
  public:
@@ -95,6 +95,6 @@ inline bool operator>(const RealNumber& a, const RealNumber& b) { return compare
 inline bool operator<=(const RealNumber& a, const RealNumber& b) { return compare(a, b) <= 0; }
 inline bool operator>=(const RealNumber& a, const RealNumber& b) { return compare(a, b) >= 0; }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_NUMBERS_REAL_NUMBER_H_

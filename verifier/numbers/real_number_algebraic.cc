@@ -17,7 +17,7 @@
 #include "verifier/numbers/real_number_node.h"
 #include "verifier/numbers/value.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 using real_number_internal::bisect_locked;
 using real_number_internal::from_node;
@@ -203,4 +203,4 @@ Interval RealNumber::enclose(long prec) const {
 
 double RealNumber::approx() const { return enclose(64).approx(); }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -16,7 +16,7 @@
 #include "verifier/numbers/polynomial.h"
 #include "verifier/numbers/real_number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct RealNumber::Node {
   Kind kind = Kind::kRational;
@@ -64,6 +64,6 @@ int compare_algebraic(const Node& x, const Node& y, const RealNumber& a, const R
 int compare_by_intervals(const RealNumber& a, const RealNumber& b);
 
 }  // namespace real_number_internal
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_NUMBERS_REAL_NUMBER_NODE_H_

@@ -6,7 +6,7 @@
 #include "verifier/numbers/real_number.h"
 #include "verifier/numbers/real_number_node.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 using real_number_internal::exact_value;
 using real_number_internal::kMaxPrecision;
@@ -87,4 +87,4 @@ std::string RealNumber::str() const {
   return "?";
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

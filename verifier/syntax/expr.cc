@@ -4,7 +4,7 @@
 #include <cstdint>
 #include <map>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 ExprPtr make_number(Rational value, size_t pos) {
   auto e = std::make_shared<Expr>();
@@ -261,4 +261,4 @@ bool mentions_n(const Expr& e) {
   return false;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -10,7 +10,7 @@
 
 #include "verifier/numbers/number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 enum class ExprKind {
   kNumber,    // an exact literal (integer or terminating decimal)
@@ -86,6 +86,6 @@ void collect_calls(const ExprPtr& e, const std::string& function, std::vector<co
 // True if `e` mentions the variable n.
 bool mentions_n(const Expr& e);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_SYNTAX_EXPR_H_

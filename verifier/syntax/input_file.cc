@@ -7,7 +7,7 @@
 #include <cerrno>
 #include <cstring>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -139,4 +139,4 @@ void check_toml_limits(const SourceText& toml) {
   }
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

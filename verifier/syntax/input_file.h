@@ -10,7 +10,7 @@
 
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // Claim files hold a few dozen claims; 16 MiB is far above any real one.
 inline constexpr size_t kMaxClaimFileBytes = size_t{16} << 20;
@@ -33,6 +33,6 @@ inline constexpr int kMaxTomlKeyParts = 64;
 inline constexpr int kMaxTomlNesting = 64;
 void check_toml_limits(const SourceText& toml_text);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_SYNTAX_INPUT_FILE_H_

@@ -3,7 +3,7 @@
 #include <cctype>
 #include <cstring>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -126,4 +126,4 @@ std::string describe(const Token& t) {
   }
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

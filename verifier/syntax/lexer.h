@@ -8,7 +8,7 @@
 
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 enum class TokenKind {
   kNumber,  // 12, 0.75
@@ -50,6 +50,6 @@ std::vector<Token> tokenize(const SourceText& source);
 // A short description for messages: "')'", "the end of the line", "'lg'".
 std::string describe(const Token& t);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_SYNTAX_LEXER_H_

@@ -2,7 +2,7 @@
 
 #include <set>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -418,4 +418,4 @@ ExprPtr parse_expression(const SourceText& source) {
   return e;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

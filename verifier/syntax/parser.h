@@ -15,7 +15,7 @@
 #include "verifier/syntax/lexer.h"
 #include "verifier/syntax/source.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 class Parser {
  public:
@@ -83,6 +83,6 @@ BigInt decimal_integer(const std::string& digits);
 // Parses the whole of `source` as one value expression ("2^4096 + 7").
 ExprPtr parse_expression(const SourceText& source);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_SYNTAX_PARSER_H_

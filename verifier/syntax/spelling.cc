@@ -3,7 +3,7 @@
 #include <algorithm>
 #include <vector>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 size_t edit_distance(const std::string& a, const std::string& b) {
   std::vector<size_t> row(b.size() + 1);
@@ -20,4 +20,4 @@ size_t edit_distance(const std::string& a, const std::string& b) {
   return row[b.size()];
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -5,11 +5,11 @@
 #include <cstddef>
 #include <string>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // Levenshtein distance: insertions, deletions and substitutions cost 1.
 size_t edit_distance(const std::string& a, const std::string& b);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_SYNTAX_SPELLING_H_

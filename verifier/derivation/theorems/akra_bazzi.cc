@@ -6,7 +6,7 @@
 #include <mutex>
 #include <stdexcept>
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -206,4 +206,4 @@ TheoremOutcome akra_bazzi(const DerivationInput& input) {
   return out;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -10,7 +10,7 @@
 
 #include "verifier/derivation/theorems/outcome.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // The p with sum a_i b_i^p = 1, certified: exact (a rational, or log_{1/b} of
 // sum a_i when all b_i agree) where possible, otherwise a bracket from
@@ -24,6 +24,6 @@ std::optional<GrowthClass> akra_bazzi_integral(const GrowthClass& g_class, const
 
 TheoremOutcome akra_bazzi(const DerivationInput& input);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_THEOREMS_AKRA_BAZZI_H_

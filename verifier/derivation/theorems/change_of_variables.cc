@@ -2,7 +2,7 @@
 
 #include "verifier/derivation/theorems/master.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 TheoremOutcome change_of_variables(const DerivationInput& input) {
   TheoremOutcome out;
@@ -65,4 +65,4 @@ TheoremOutcome change_of_variables(const DerivationInput& input) {
   return out;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

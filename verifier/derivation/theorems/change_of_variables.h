@@ -6,10 +6,10 @@
 
 #include "verifier/derivation/theorems/outcome.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 TheoremOutcome change_of_variables(const DerivationInput& input);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_THEOREMS_CHANGE_OF_VARIABLES_H_

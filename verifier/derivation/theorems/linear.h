@@ -13,7 +13,7 @@
 #include "verifier/derivation/theorems/outcome.h"
 #include "verifier/numbers/polynomial.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // The characteristic polynomial of the part of `values` that really occurs:
 // values[i] satisfy the recurrence with characteristic polynomial `c` for
@@ -22,6 +22,6 @@ Polynomial active_polynomial(const Polynomial& c, const std::vector<Rational>& v
 
 TheoremOutcome linear_recurrence(const DerivationInput& input);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_THEOREMS_LINEAR_H_

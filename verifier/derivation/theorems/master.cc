@@ -1,6 +1,6 @@
 #include "verifier/derivation/theorems/master.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 namespace {
 
@@ -260,4 +260,4 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
   return out;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

@@ -7,7 +7,7 @@
 
 #include "verifier/derivation/theorems/outcome.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // The theorem on classes alone: T(n) = a T(n/divisor) + f(n) with f = Θ(f_class).
 // REQUIRES: a >= 1 ... checked: a failure is reported, not assumed.
@@ -22,6 +22,6 @@ TheoremOutcome master_on_class(const Rational& a, const Rational& divisor,
 // where a f(floor(n/b)) >= f(n) are reported.
 TheoremOutcome master_theorem(const DerivationInput& input);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_THEOREMS_MASTER_H_

@@ -13,7 +13,7 @@
 #include "verifier/derivation/shape.h"
 #include "verifier/numbers/value.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 struct TheoremOutcome {
   std::string theorem;                // "master theorem", "Akra–Bazzi", ...
@@ -40,6 +40,6 @@ struct DerivationInput {
   std::function<std::optional<Value>(const BigInt& n)> value_at;
 };
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_THEOREMS_OUTCOME_H_

@@ -1,6 +1,6 @@
 #include "verifier/derivation/theorems/subtract.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // Unrolling n = q b + r (q = floor(n/b) levels, then a base value T_r > 0):
 //   T(n) = a^q T_r + sum_{j<q} a^j f(n - j b).
@@ -65,4 +65,4 @@ TheoremOutcome subtract_and_conquer(const DerivationInput& input) {
   return out;
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine

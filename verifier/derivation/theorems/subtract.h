@@ -7,10 +7,10 @@
 
 #include "verifier/derivation/theorems/outcome.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 TheoremOutcome subtract_and_conquer(const DerivationInput& input);
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_DERIVATION_THEOREMS_SUBTRACT_H_

@@ -1,9 +1,9 @@
 // RapidCheck generators of sizes drawn from the size families, shrinking
 // toward the smallest allowed n so that a failing explicit bound is reported
-// at a small witness. Header-only because only tests and the checker's
-// shrinking use it, and the library proper does not depend on RapidCheck.
-#ifndef THETAGATE_GENERATORS_BIG_INT_GEN_H_
-#define THETAGATE_GENERATORS_BIG_INT_GEN_H_
+// at a small witness. Test-only: the library proper does not depend on
+// RapidCheck.
+#ifndef THETAGATE_TESTS_BIG_INT_GEN_H_
+#define THETAGATE_TESTS_BIG_INT_GEN_H_
 
 #include <rapidcheck.h>
 
@@ -14,7 +14,7 @@
 #include "generators/size_family.h"
 #include "verifier/numbers/number.h"
 
-namespace thetagate {
+namespace thetagate::engine {
 
 // Shrink candidates of n toward `target`, most aggressive first: target, then
 // n − d/2, n − d/4, …, n − 1 with d = n − target (RapidCheck's own order for
@@ -55,6 +55,6 @@ inline rc::Gen<BigInt> gen_size(const SizePlan& plan) {
   return gen_size_from(std::move(sizes), std::move(min_n));
 }
 
-}  // namespace thetagate
+}  // namespace thetagate::engine
 
-#endif  // THETAGATE_GENERATORS_BIG_INT_GEN_H_
+#endif  // THETAGATE_TESTS_BIG_INT_GEN_H_
