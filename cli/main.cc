@@ -17,7 +17,7 @@
 
 namespace {
 
-using namespace thetagate::engine;
+using namespace thetagate;
 using cli::kExitBadInput;
 using cli::kExitInternalError;
 

@@ -11,10 +11,10 @@
 
 namespace {
 
-using thetagate::engine::Claim;
-using thetagate::engine::ClaimResult;
-using thetagate::engine::InputError;
-using thetagate::engine::Verdict;
+using thetagate::Claim;
+using thetagate::ClaimResult;
+using thetagate::InputError;
+using thetagate::Verdict;
 
 constexpr const char* kMergeSort = "T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1; T(1) = 0";
 
