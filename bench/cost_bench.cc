@@ -13,7 +13,7 @@
 namespace {
 
 std::vector<uint32_t> shuffled(size_t n) {
-  thetagate::SplitMix64 bits(12345);
+  thetagate::engine::SplitMix64 bits(12345);
   std::vector<uint32_t> v(n);
   for (auto& x : v) x = static_cast<uint32_t>(bits.next());
   return v;

@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "verifier/evaluation/evaluator.h"
+#include "verifier/evaluation/size_expression.h"
 #include "verifier/model/recurrence.h"
 
 namespace {

@@ -1,40 +1,26 @@
 // The thetagate command line: picks a subcommand, turns arguments into
-// calls of the library, and turns outcomes into exit codes:
-// 0 no claim refuted, 1 at least one refuted, 2 bad input or usage (bad
-// input wins: a run with a refutation and an input error exits 2).
+// calls of the public library API (include/thetagate/), and turns outcomes
+// into exit codes (cli/exit_policy.h): 0 fine, 1 refuted (or what --fail-on
+// names), 2 bad input or usage (bad input wins over 1), 3 an internal error
+// (a bug).
 #include <unistd.h>
 
 #include <CLI/CLI.hpp>
 #include <algorithm>
 #include <chrono>
 #include <filesystem>
-#include <fstream>
 #include <iostream>
 #include <random>
-#include <sstream>
 
-#include "generators/size_family.h"
-#include "reports/baseline.h"
-#include "reports/derivation_report.h"
-#include "reports/drift.h"
-#include "reports/html_report.h"
-#include "reports/json_report.h"
-#include "reports/junit_report.h"
-#include "reports/report_file.h"
-#include "reports/text_report.h"
-#include "verifier/checking/run.h"
-#include "verifier/derivation/derive.h"
-#include "verifier/evaluation/evaluator.h"
-#include "verifier/model/recurrence.h"
-#include "verifier/syntax/input_file.h"
-#include "verifier/syntax/spelling.h"
+#include "cli/exit_policy.h"
+#include "thetagate/thetagate.h"
+#include "verifier/syntax/spelling.h"  // compiled into the front end, not exported
 
 namespace {
 
 using namespace thetagate;
-
-constexpr int kExitRefuted = 1;
-constexpr int kExitBadInput = 2;
+using cli::kExitBadInput;
+using cli::kExitInternalError;
 
 struct CheckArguments {
   std::vector<std::string> paths;
@@ -65,22 +51,11 @@ uint64_t parse_seed(const std::string& text) {
   return seed;
 }
 
-std::string render(const RunResult& run, const DriftReport* drift, const std::string& format,
-                   bool colour, bool undecided_fails) {
-  if (format == "json") return drift ? render_json_with_drift(run, *drift) : render_json(run);
-  if (format == "junit") return render_junit(run, JunitOptions{undecided_fails});
-  if (format == "html") return render_html(run);
-  TextStyle style;
-  style.colour = colour;
-  std::string text = render_text(run, style);
-  if (drift) text += render_drift_text(*drift, style);
-  return text;
-}
-
-std::string read_baseline(const std::string& path) {
-  return read_input_file(
-      path, kMaxReportFileBytes, "baseline report",
-      "give the JSON report of an earlier run: thetagate check --format json --out OLD.json");
+Format format_of(const std::string& name) {
+  if (name == "json") return Format::kJson;
+  if (name == "junit") return Format::kJunit;
+  if (name == "html") return Format::kHtml;
+  return Format::kText;
 }
 
 // A progress line on stderr, only on a terminal and only once a run has
@@ -106,7 +81,7 @@ class Progress {
 };
 
 int list_families() {
-  for (const FamilyInfo& f : size_families()) {
+  for (const SizeFamily& f : size_families()) {
     std::cout << f.name << std::string(f.name.size() < 18 ? 18 - f.name.size() : 1, ' ')
               << f.description << '\n';
   }
@@ -115,59 +90,64 @@ int list_families() {
 
 int run_check(const CheckArguments& args) {
   if (args.list_families) return list_families();
-  FailOn fail_on = args.fail_on.empty() ? FailOn{} : parse_fail_on(args.fail_on);
+  cli::FailOn fail_on = args.fail_on.empty() ? cli::FailOn{} : cli::parse_fail_on(args.fail_on);
   if (fail_on.drift && args.baseline.empty()) {
     std::cerr << "thetagate: --fail-on drift needs --baseline OLD.json\n";
     return kExitBadInput;
   }
-  std::optional<RunResult> baseline;
-  if (!args.baseline.empty()) {
-    baseline = read_json_report(read_baseline(args.baseline), args.baseline);
-  }
+  std::optional<Report> baseline;
+  if (!args.baseline.empty()) baseline = read_json_report_file(args.baseline);
   // Where the reports go is checked before any claim is: a bad --out must
   // not cost the run.
+  std::error_code ec;
   bool out_is_folder =
-      !args.out.empty() && (args.out.back() == '/' || std::filesystem::is_directory(args.out));
+      !args.out.empty() && (args.out.back() == '/' || std::filesystem::is_directory(args.out, ec));
   if (!args.out.empty()) check_output_location(args.out, out_is_folder);
-  RunRequest request;
+  CheckOptions options;
   try {
-    request.options.seed = parse_seed(args.seed);
-  } catch (const std::exception&) {
+    options.seed = parse_seed(args.seed);
+  } catch (const std::invalid_argument&) {
     std::cerr << "thetagate: --seed takes a whole number or 'random', not '" << args.seed << "'\n";
     return kExitBadInput;
+  } catch (const std::out_of_range&) {
+    std::cerr << "thetagate: --seed takes a whole number below 2^64 or 'random', not '" << args.seed
+              << "'\n";
+    return kExitBadInput;
   }
-  request.options.max_bits = args.max_bits;
-  if (args.clock_limit) request.options.budget.max_seconds = *args.clock_limit;
-  request.options.effort = args.effort;
-  if (args.rounding == "floor") request.options.rounding = Rounding::kFloor;
-  if (args.rounding == "ceil") request.options.rounding = Rounding::kCeil;
-  if (args.rounding == "both") request.options.rounding = Rounding::kBoth;
-  request.paths = args.paths;
-  request.claim_names = args.claims;
-  request.jobs = args.jobs;
-  request.memory_limit = args.memory_mib << 20;
+  options.max_bits = args.max_bits;
+  options.clock_limit = args.clock_limit;
+  options.effort = args.effort;
+  if (args.rounding == "floor") options.rounding = Rounding::kFloor;
+  if (args.rounding == "ceil") options.rounding = Rounding::kCeil;
+  if (args.rounding == "both") options.rounding = Rounding::kBoth;
+  options.jobs = args.jobs;
+  options.memory_limit = args.memory_mib << 20;
   Progress progress;
-  request.progress = [&progress](size_t done, size_t total, const std::string& name) {
+  options.progress = [&progress](size_t done, size_t total, const std::string& name) {
     progress.update(done, total, name);
   };
-  RunResult run = run_check(request);
-  std::optional<DriftReport> drift;
-  if (baseline) drift = compare_runs(*baseline, run);
-  const DriftReport* drift_ptr = drift ? &*drift : nullptr;
+  std::vector<std::string> paths =
+      args.paths.empty() ? std::vector<std::string>{"claims"} : args.paths;
+  Report report = check(select_claims(load_claims(paths), args.claims), options);
+  std::optional<BaselineChanges> changes;
+  if (baseline) changes = compare_with_baseline(*baseline, report);
+  const BaselineChanges* changes_ptr = changes ? &*changes : nullptr;
 
+  RenderOptions render_options;
+  render_options.undecided_fails = args.undecided_fails;
   std::vector<std::pair<std::string, std::string>> files;
   if (out_is_folder) {
-    const std::pair<const char*, const char*> formats[] = {{"text", "report.txt"},
-                                                           {"json", "report.json"},
-                                                           {"junit", "report.junit.xml"},
-                                                           {"html", "report.html"}};
+    const std::pair<Format, const char*> formats[] = {{Format::kText, "report.txt"},
+                                                      {Format::kJson, "report.json"},
+                                                      {Format::kJunit, "report.junit.xml"},
+                                                      {Format::kHtml, "report.html"}};
     for (const auto& [format, name] : formats) {
       files.emplace_back((std::filesystem::path(args.out) / name).string(),
-                         render(run, drift_ptr, format, false, args.undecided_fails));
+                         render(report, format, render_options, changes_ptr));
     }
   } else {
-    bool colour = args.out.empty() && args.format == "text" && want_colour(STDOUT_FILENO);
-    std::string text = render(run, drift_ptr, args.format, colour, args.undecided_fails);
+    render_options.colour = args.out.empty() && args.format == "text" && want_colour(STDOUT_FILENO);
+    std::string text = render(report, format_of(args.format), render_options, changes_ptr);
     if (args.out.empty()) {
       std::cout << text;
     } else {
@@ -178,38 +158,35 @@ int run_check(const CheckArguments& args) {
     std::cerr << "thetagate: " << failure << '\n';
     return kExitBadInput;
   }
-  // Bad input shows in the exit code whatever else happened; the other
-  // claims are still in the report.
-  for (const auto& c : run.claims) {
-    if (c.verdict == Verdict::kError) return kExitBadInput;
+  for (const ClaimResult& c : report.claims()) {
+    if (c.internal_error.empty()) continue;
+    std::cerr << "thetagate: " << InternalError(c.name, c.internal_error).what()
+              << "\n  please report it with the claim file and the command line\n";
   }
-  return should_fail(run, drift_ptr, fail_on) ? kExitRefuted : 0;
+  return cli::exit_code(report, changes_ptr, fail_on);
 }
 
 int run_derive(const std::string& recurrence_text, const std::string& format) {
-  auto recurrence = recurrence_from_text(recurrence_text);
-  check_calls_shrink(*recurrence);  // as eval and check do before evaluating
-  Derivation d = derive(*recurrence);
-  std::cout << (format == "json" ? render_derivation_json(d) : render_derivation_text(d));
+  Derivation d = derive(recurrence_text);
+  std::cout << (format == "json" ? d.to_json() : d.to_text());
   return 0;
 }
 
 int run_eval(const std::string& recurrence_text, const std::vector<std::string>& sizes) {
-  auto recurrence = recurrence_from_text(recurrence_text);
-  std::vector<BigInt> ns;
-  for (const auto& s : sizes) ns.push_back(evaluate_size(s, "<size>"));
+  Recurrence recurrence = Recurrence::parse(recurrence_text);
+  std::vector<std::string> ns;
+  for (const auto& s : sizes) ns.push_back(exact_size(s, "<size>"));
   Evaluator evaluator(recurrence);
   for (size_t i = 0; i < ns.size(); ++i) {
     try {
-      Value value = evaluator.value_at(ns[i]);  // before printing: no half line on an error
-      std::cout << ns[i].str() << ' ' << value.str() << '\n';
-    } catch (const BudgetExceeded& e) {
+      std::string value = evaluator.value_at(ns[i]);  // before printing: no half line on an error
+      std::cout << ns[i] << ' ' << value << '\n';
+    } catch (const LimitReached& e) {
       // Located at the size given, the argument that asked for too much.
-      SourceText size = SourceText::whole("<size>", sizes[i]);
-      Diagnostic d{size.locate(0),
-                   recurrence->main.name + "(" + sizes[i] + ") is out of budget: " + e.what(),
-                   "evaluate smaller sizes; check bounds the work per claim by itself", sizes[i]};
-      throw InputError(d);
+      throw InputError(Diagnostic{
+          Location{"<size>", 1, 1},
+          recurrence.function() + "(" + sizes[i] + ") is out of budget: " + e.what(),
+          "evaluate smaller sizes; check bounds the work per claim by itself", sizes[i]});
     }
   }
   return 0;
@@ -289,10 +266,11 @@ int main(int argc, char** argv) {
     if (std::find(commands.begin(), commands.end(), word) == commands.end()) {
       std::string closest = commands.front();
       for (const std::string& c : commands) {
-        if (edit_distance(word, c) < edit_distance(word, closest)) closest = c;
+        if (engine::edit_distance(word, c) < engine::edit_distance(word, closest)) closest = c;
       }
       std::cerr << "thetagate: unknown command '" << word << "'\n  hint: "
-                << (edit_distance(word, closest) <= 2 ? "did you mean '" + closest + "'? " : "")
+                << (engine::edit_distance(word, closest) <= 2 ? "did you mean '" + closest + "'? "
+                                                              : "")
                 << "commands: check, derive, eval (thetagate --help)\n";
       return kExitBadInput;
     }
@@ -303,6 +281,7 @@ int main(int argc, char** argv) {
     int status = app.exit(e);
     return status == 0 ? 0 : kExitBadInput;
   }
+  // The one place that maps outcomes to exit codes; nothing escapes main.
   try {
     if (*check_command) return run_check(check);
     if (*derive_command) return run_derive(recurrence_text, derive_format);
@@ -310,12 +289,19 @@ int main(int argc, char** argv) {
   } catch (const InputError& e) {
     std::cerr << e.what() << '\n';
     return kExitBadInput;
-  } catch (const BudgetExceeded& e) {
-    std::cerr << "thetagate: out of budget: " << e.what() << '\n';
+  } catch (const LimitReached& e) {
+    std::cerr << "thetagate: out of budget (" << limit_name(e.limit()) << "): " << e.what() << '\n';
     return kExitBadInput;
-  } catch (const std::filesystem::filesystem_error& e) {
-    std::cerr << "thetagate: " << e.what() << '\n';
-    return kExitBadInput;
+  } catch (const InternalError& e) {
+    std::cerr << "thetagate: " << e.what() << "\n  please report it with the command line\n";
+    return kExitInternalError;
+  } catch (const std::exception& e) {
+    std::cerr << "thetagate: " << InternalError("", e.what()).what()
+              << "\n  please report it with the command line\n";
+    return kExitInternalError;
+  } catch (...) {
+    std::cerr << "thetagate: internal error (a bug in thetagate): an unknown exception\n";
+    return kExitInternalError;
   }
   return 0;
 }

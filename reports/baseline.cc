@@ -388,7 +388,7 @@ class ReportReader {
     for (BasisKind k :
          {BasisKind::kDerivationAgrees, BasisKind::kInduction, BasisKind::kDerivationContradicts,
           BasisKind::kCertifiedBreak, BasisKind::kNumericTrend, BasisKind::kBudgetReached,
-          BasisKind::kInternalInconsistency, BasisKind::kInputError}) {
+          BasisKind::kInternalInconsistency, BasisKind::kInputError, BasisKind::kInternalError}) {
       if (kind == basis_name(k)) b.kind = k;
     }
     std::string unproved = string_at(j, path, "unproved");

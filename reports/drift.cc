@@ -19,67 +19,6 @@ namespace {
 constexpr size_t kMaxDetailLines = 8;  // per kind (new witnesses, lost ones, band moves)
 const char* const kIndent = "    ";
 
-using ClaimKey = std::pair<std::string, std::string>;  // name, file
-
-bool same_witness(const Witness& a, const Witness& b) { return a.side == b.side && a.n == b.n; }
-
-// Witnesses of `from` that `other` lacks, in `from`'s order.
-std::vector<Witness> missing_from(const std::vector<Witness>& from,
-                                  const std::vector<Witness>& other) {
-  std::vector<Witness> out;
-  for (const Witness& w : from) {
-    bool found = false;
-    for (const Witness& o : other) found = found || same_witness(w, o);
-    if (!found) out.push_back(w);
-  }
-  return out;
-}
-
-// An end moved: by more than the tolerance, or between finite and not.
-bool end_moved(double before_log2, double after_log2) {
-  bool finite_before = std::isfinite(before_log2), finite_after = std::isfinite(after_log2);
-  if (finite_before != finite_after) return true;
-  if (!finite_before) return false;
-  return std::fabs(after_log2 - before_log2) > kBandMoveLog2;
-}
-
-std::vector<BandMove> band_moves(const std::vector<BandRow>& before,
-                                 const std::vector<BandRow>& after) {
-  std::map<uint64_t, const BandRow*> by_scale;
-  for (const BandRow& r : before) by_scale.emplace(r.scale, &r);
-  std::map<uint64_t, BandMove> moves;  // sorted by scale
-  for (const BandRow& r : after) {
-    auto it = by_scale.find(r.scale);
-    if (it == by_scale.end()) continue;
-    BandMove m{*it->second, r, end_moved(it->second->low_log2, r.low_log2),
-               end_moved(it->second->high_log2, r.high_log2)};
-    if (m.low_moved || m.high_moved) moves.emplace(r.scale, m);
-  }
-  std::vector<BandMove> out;
-  for (auto& [scale, m] : moves) out.push_back(m);
-  return out;
-}
-
-ClaimDrift drift_of_claim(const ClaimResult& before, const ClaimResult& after) {
-  ClaimDrift d;
-  d.name = after.name;
-  d.file = after.file;
-  d.line = after.line;
-  d.before = before.verdict;
-  d.after = after.verdict;
-  d.derived_before = before.derived;
-  d.derived_after = after.derived;
-  d.new_witnesses = missing_from(after.witnesses, before.witnesses);
-  d.lost_witnesses = missing_from(before.witnesses, after.witnesses);
-  d.band_moves = band_moves(before.band, after.band);
-  return d;
-}
-
-bool drifted(const ClaimDrift& d) {
-  return d.is_new() || d.is_lost() || d.verdict_changed() || d.derived_changed() ||
-         !d.new_witnesses.empty() || !d.lost_witnesses.empty() || !d.band_moves.empty();
-}
-
 const char* change_name(const ClaimDrift& d) {
   return d.is_new() ? "new" : d.is_lost() ? "lost" : "changed";
 }
@@ -187,49 +126,6 @@ Json claim_json(const ClaimDrift& d) {
 
 }  // namespace
 
-DriftReport compare_runs(const RunResult& baseline, const RunResult& current) {
-  DriftReport report;
-  report.baseline_seed = baseline.seed;
-  report.current_seed = current.seed;
-  // Names are unique in a run; should a baseline repeat one, the copies pair
-  // up in order.
-  std::multimap<ClaimKey, size_t> unmatched;
-  for (size_t i = 0; i < baseline.claims.size(); ++i) {
-    unmatched.emplace(ClaimKey{baseline.claims[i].name, baseline.claims[i].file}, i);
-  }
-  for (const ClaimResult& c : current.claims) {
-    auto it = unmatched.find(ClaimKey{c.name, c.file});
-    if (it == unmatched.end()) {
-      ClaimDrift d;
-      d.name = c.name;
-      d.file = c.file;
-      d.line = c.line;
-      d.after = c.verdict;
-      d.derived_after = c.derived;
-      report.claims.push_back(std::move(d));
-      continue;
-    }
-    ++report.compared;
-    ClaimDrift d = drift_of_claim(baseline.claims[it->second], c);
-    unmatched.erase(it);
-    if (drifted(d)) report.claims.push_back(std::move(d));
-  }
-  std::vector<size_t> lost;
-  for (const auto& [key, index] : unmatched) lost.push_back(index);
-  std::sort(lost.begin(), lost.end());
-  for (size_t index : lost) {
-    const ClaimResult& c = baseline.claims[index];
-    ClaimDrift d;
-    d.name = c.name;
-    d.file = c.file;
-    d.line = c.line;
-    d.before = c.verdict;
-    d.derived_before = c.derived;
-    report.claims.push_back(std::move(d));
-  }
-  return report;
-}
-
 std::string render_drift_text(const DriftReport& drift, const TextStyle& style) {
   size_t changed = 0, added = 0, lost = 0;
   for (const ClaimDrift& d : drift.claims) {
@@ -271,42 +167,6 @@ std::string render_json_with_drift(const RunResult& run, const DriftReport& drif
   for (const ClaimDrift& c : drift.claims) d["claims"].push_back(claim_json(c));
   j["drift"] = std::move(d);
   return j.dump(2, ' ', false, Json::error_handler_t::replace) + "\n";
-}
-
-FailOn parse_fail_on(const std::vector<std::string>& words) {
-  FailOn on{false, false, false};
-  for (const std::string& word : words) {
-    size_t start = 0;
-    while (start <= word.size()) {
-      size_t end = word.find(',', start);
-      if (end == std::string::npos) end = word.size();
-      std::string kind = word.substr(start, end - start);
-      if (kind == "refuted") {
-        on.refuted = true;
-      } else if (kind == "undecided") {
-        on.undecided = true;
-      } else if (kind == "drift") {
-        on.drift = true;
-      } else {
-        Diagnostic d;
-        d.where = Location{"--fail-on", 1, 1 + utf8_columns(word, start)};
-        d.message = "unknown kind '" + kind + "'";
-        d.hint = "--fail-on takes refuted, undecided or drift, or a list like refuted,drift";
-        d.source_line = word;
-        throw InputError(std::move(d));
-      }
-      start = end + 1;
-    }
-  }
-  return on;
-}
-
-bool should_fail(const RunResult& run, const DriftReport* drift, const FailOn& on) {
-  for (const ClaimResult& c : run.claims) {
-    if (on.refuted && c.verdict == Verdict::kRefuted) return true;
-    if (on.undecided && c.verdict == Verdict::kUndecided) return true;
-  }
-  return on.drift && drift != nullptr && drift->any();
 }
 
 }  // namespace thetagate::engine

@@ -61,6 +61,8 @@ std::string basis_message(const ClaimResult& c) {
   switch (b.kind) {
     case BasisKind::kInputError:
       return c.error ? c.error->message : b.detail;
+    case BasisKind::kInternalError:
+      return "internal error (a bug in thetagate, please report it with this claim): " + b.detail;
     case BasisKind::kCertifiedBreak: {
       if (c.witnesses.empty()) return "bound broken";
       const Witness& w = c.witnesses.front();

@@ -1,4 +1,4 @@
-#include "generators/big_int_gen.h"
+#include "tests/big_int_gen.h"
 
 #include <gtest/gtest.h>
 #include <rapidcheck/gtest.h>

@@ -3,17 +3,48 @@
 #include <gtest/gtest.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <filesystem>
 #include <fstream>
 #include <set>
 
 #include "verifier/model/claim.h"
+#include "verifier/model/claim_discovery.h"
 
 namespace thetagate::engine {
 namespace {
 
 std::string error_text(const ClaimEntry& entry) {
   return entry.error ? format_diagnostic(*entry.error) : "(no error)";
+}
+
+// docs/language.md's key table and the reader's key lists say the same: a
+// row "| `key` | ..." per claim key, and the `sizes` row naming each size key.
+TEST(ClaimFile, KeyTableInTheLanguageDocsMatchesTheReader) {
+  std::ifstream in(std::string(THETAGATE_SOURCE_DIR) + "/docs/language.md");
+  ASSERT_TRUE(in) << "docs/language.md not found";
+  std::vector<std::string> documented;
+  std::string sizes_row;
+  for (std::string line; std::getline(in, line);) {
+    if (line.rfind("| `", 0) != 0) continue;
+    std::string key = line.substr(3, line.find('`', 3) - 3);
+    documented.push_back(key);
+    if (key == "sizes") sizes_row = line;
+  }
+  std::vector<std::string> read = claim_keys();
+  std::sort(documented.begin(), documented.end());
+  std::sort(read.begin(), read.end());
+  EXPECT_EQ(documented, read);
+  for (const std::string& key : size_keys()) {
+    EXPECT_NE(sizes_row.find("`" + key + "`"), std::string::npos) << key;
+  }
+  // And no size key the reader does not know: every `word` followed by " (".
+  for (size_t at = sizes_row.find("table:");
+       (at = sizes_row.find(", `", at)) != std::string::npos;) {
+    std::string key = sizes_row.substr(at + 3, sizes_row.find('`', at + 3) - at - 3);
+    EXPECT_NE(std::find(size_keys().begin(), size_keys().end(), key), size_keys().end()) << key;
+    at += 3;
+  }
 }
 
 TEST(ClaimFile, TwoGoodClaimsLoadWithTheirLines) {

@@ -18,7 +18,8 @@ namespace {
 using thetagate::engine::test_support::CommandResult;
 
 CommandResult run(const std::string& arguments) {
-  return thetagate::engine::test_support::run_shell(std::string(THETAGATE_BINARY) + " " + arguments);
+  return thetagate::engine::test_support::run_shell(std::string(THETAGATE_BINARY) + " " +
+                                                    arguments);
 }
 
 class Cli : public ::testing::Test {

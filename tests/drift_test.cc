@@ -1,6 +1,6 @@
 // Drift against a baseline: reading our own JSON report back, comparing a
-// run with a doctored copy of itself, the text and JSON drift writers, and
-// the --fail-on decision.
+// run with a doctored copy of itself, and the text and JSON drift writers
+// (the --fail-on decision: tests/exit_policy_test.cc).
 #include "reports/drift.h"
 
 #include <gtest/gtest.h>
@@ -291,40 +291,6 @@ TEST(Drift, JsonAddsOneDriftKeyAndKeepsTheReport) {
   j.erase("drift");
   EXPECT_EQ(j.dump(2) + "\n", render_json(run));
   EXPECT_EQ(render_json(read_json_report(text)), render_json(run));
-}
-
-TEST(Drift, FailOnCountsOnlyTheKindsAsked) {
-  RunResult run = sample_run();  // one refuted, one undecided
-  RunResult calm = sample_run();
-  calm.claims.erase(calm.claims.begin() + 1);  // no refuted claim
-  DriftReport drift = compare_runs(doctored_baseline(), run);
-  DriftReport none = compare_runs(run, run);
-
-  EXPECT_TRUE(should_fail(run, nullptr, FailOn{}));  // default: refuted
-  EXPECT_FALSE(should_fail(calm, nullptr, FailOn{}));
-  EXPECT_TRUE(should_fail(calm, nullptr, FailOn{false, true, false}));
-  EXPECT_FALSE(should_fail(run, &none, FailOn{false, false, true}));
-  EXPECT_TRUE(should_fail(run, &drift, FailOn{false, false, true}));
-  EXPECT_FALSE(should_fail(run, nullptr, FailOn{false, false, true}));  // no baseline given
-  // An error verdict alone is the front end's business (exit 2).
-  RunResult errors_only;
-  errors_only.claims = {sample_run().claims[4]};
-  EXPECT_FALSE(should_fail(errors_only, nullptr, FailOn{true, true, true}));
-}
-
-TEST(Drift, ParsesFailOnWords) {
-  FailOn on = parse_fail_on({"undecided,drift"});
-  EXPECT_FALSE(on.refuted);
-  EXPECT_TRUE(on.undecided);
-  EXPECT_TRUE(on.drift);
-  on = parse_fail_on({"refuted", "drift"});
-  EXPECT_TRUE(on.refuted);
-  EXPECT_FALSE(on.undecided);
-  EXPECT_TRUE(on.drift);
-  Diagnostic d = diagnostic_of([] { parse_fail_on({"refuted,drfit"}); });
-  EXPECT_EQ(d.message, "unknown kind 'drfit'");
-  EXPECT_EQ(d.where.file, "--fail-on");
-  EXPECT_EQ(d.where.column, 9);
 }
 
 }  // namespace

@@ -15,6 +15,7 @@
 #include <string>
 #include <vector>
 
+#include "verifier/evaluation/size_expression.h"
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/source.h"
 

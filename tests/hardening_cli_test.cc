@@ -20,7 +20,8 @@ using Outcome = thetagate::engine::test_support::CommandResult;
 
 // Runs a shell command line; "$TG" in it is the thetagate binary.
 Outcome shell(const std::string& line) {
-  return thetagate::engine::test_support::run_shell("TG='" + std::string(THETAGATE_BINARY) + "'; " + line);
+  return thetagate::engine::test_support::run_shell("TG='" + std::string(THETAGATE_BINARY) + "'; " +
+                                                    line);
 }
 
 class HardeningCli : public ::testing::Test {

@@ -18,6 +18,7 @@
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/model/bound.h"
 #include "verifier/model/claim.h"
+#include "verifier/model/claim_discovery.h"
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/input_file.h"
 #include "verifier/syntax/parser.h"

@@ -19,6 +19,7 @@
 #include "reports/verdict_text.h"
 #include "verifier/checking/checker.h"
 #include "verifier/evaluation/evaluator.h"
+#include "verifier/evaluation/size_expression.h"
 #include "verifier/model/claim.h"
 
 namespace thetagate::engine {

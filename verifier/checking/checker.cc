@@ -1,6 +1,7 @@
 #include "verifier/checking/checker.h"
 
 #include <algorithm>
+#include <new>
 #include <set>
 
 #include "verifier/checking/claim_check.h"
@@ -28,6 +29,18 @@ ClaimResult error_result(const ClaimResult& base, const Diagnostic& d) {
   r.error = d;
   r.basis = VerdictBasis{};
   r.basis.kind = BasisKind::kInputError;
+  r.witnesses.clear();
+  r.band.clear();
+  return r;
+}
+
+ClaimResult internal_error_result(const ClaimResult& base, const std::string& what) {
+  ClaimResult r = base;
+  r.verdict = Verdict::kError;
+  r.internal_error = what;
+  r.basis = VerdictBasis{};
+  r.basis.kind = BasisKind::kInternalError;
+  r.basis.detail = what;
   r.witnesses.clear();
   r.band.clear();
   return r;
@@ -133,20 +146,36 @@ ClaimResult check_claim(const Claim& claim, const CheckOptions& options) {
                           check_one_reading(ceil_claim, options));
 }
 
+ClaimResult check_entry(const ClaimEntry& entry, const CheckOptions& options) {
+  ClaimResult base;
+  base.name = entry.name;
+  base.file = entry.where.file;
+  base.line = entry.where.line;
+  if (!entry.internal_error.empty()) return internal_error_result(base, entry.internal_error);
+  if (!entry.claim) return error_result(base, entry.error.value_or(Diagnostic{}));
+  // The one place that catches everything: what escapes check_claim is not
+  // about the input (check_claim turns input errors and limits into
+  // verdicts), so it is reported as a bug, on this claim only.
+  try {
+    return check_claim(*entry.claim, options);
+  } catch (const std::bad_alloc&) {
+    base.claimed = entry.claim->bound.text();
+    base.verdict = Verdict::kUndecided;
+    base.basis.kind = BasisKind::kBudgetReached;
+    base.basis.unproved = Unproved::kEvaluatorLimit;
+    base.basis.detail = "memory ran out while checking this claim";
+    return base;
+  } catch (const std::exception& e) {
+    return internal_error_result(base, e.what());
+  } catch (...) {
+    return internal_error_result(base, "an exception that is not a std::exception");
+  }
+}
+
 RunResult check_entries(const std::vector<ClaimEntry>& entries, const CheckOptions& options) {
   RunResult run;
   run.seed = options.seed;
-  for (const ClaimEntry& entry : entries) {
-    if (entry.claim) {
-      run.claims.push_back(check_claim(*entry.claim, options));
-      continue;
-    }
-    ClaimResult base;
-    base.name = entry.name;
-    base.file = entry.where.file;
-    base.line = entry.where.line;
-    run.claims.push_back(error_result(base, entry.error.value_or(Diagnostic{})));
-  }
+  for (const ClaimEntry& entry : entries) run.claims.push_back(check_entry(entry, options));
   return run;
 }
 

@@ -38,7 +38,13 @@ struct CheckOptions {
 // `undecided` (or stops the search early) with the reason.
 ClaimResult check_claim(const Claim& claim, const CheckOptions& options);
 
-// Checks every entry in order; entries that failed to load get `error`.
+// Checks one entry: an entry that failed to load gets verdict `error` with
+// its diagnostic. Never throws: an exception that escapes the check is a
+// bug (or memory ran out) and stays on this claim: verdict `error` with
+// `internal_error` set (for std::bad_alloc: `undecided`, out of memory).
+ClaimResult check_entry(const ClaimEntry& entry, const CheckOptions& options);
+
+// Checks every entry in order, with check_entry.
 RunResult check_entries(const std::vector<ClaimEntry>& entries, const CheckOptions& options);
 
 // The divisors b of the recurrence's T(n/b)-style calls and its mod

@@ -52,6 +52,8 @@ const char* basis_name(BasisKind k) {
       return "internal_inconsistency";
     case BasisKind::kInputError:
       return "input_error";
+    case BasisKind::kInternalError:
+      return "internal_error";
   }
   return "?";
 }

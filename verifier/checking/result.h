@@ -78,6 +78,7 @@ enum class BasisKind {
   kBudgetReached,          // undecided: no violation where checked, and no proof
   kInternalInconsistency,  // undecided: a theorem and the exact values disagree (a bug)
   kInputError,             // error: the claim is malformed
+  kInternalError,          // error: a bug in thetagate while checking this claim (detail)
 };
 const char* basis_name(BasisKind k);  // "derivation_agrees", "induction", ...
 
@@ -166,6 +167,7 @@ struct ClaimResult {
   std::vector<std::string> steps;              // the applying theorem's derivation steps
   std::vector<std::string> failed_hypotheses;  // "THEOREM: the hypothesis that fails"
   std::optional<Diagnostic> error;             // verdict error: the located input error
+  std::string internal_error;                  // verdict error: a bug, what broke ("" otherwise)
   std::string note;                            // the claim's own `note`, copied
   uint64_t sizes_checked = 0;
   uint64_t largest_bits = 0;  // bits of the largest size evaluated

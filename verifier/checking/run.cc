@@ -3,11 +3,13 @@
 #include <mpfr.h>
 
 #include <atomic>
+#include <exception>
 #include <map>
 #include <mutex>
 #include <thread>
 
 #include "verifier/model/claim.h"
+#include "verifier/model/claim_discovery.h"
 #include "verifier/syntax/spelling.h"
 
 namespace thetagate::engine {
@@ -32,15 +34,36 @@ void mark_duplicate_names(std::vector<ClaimEntry>& entries) {
   }
 }
 
-std::vector<ClaimEntry> select_claims(const std::vector<ClaimEntry>& entries,
-                                      const std::vector<std::string>& names) {
-  if (names.empty()) return entries;
-  std::vector<ClaimEntry> picked;
+}  // namespace
+
+unsigned workers_for(const RunRequest& request, size_t claims) {
+  uint64_t per_claim = std::max<uint64_t>(1, request.options.budget.max_memo_bytes);
+  uint64_t by_memory = std::max<uint64_t>(1, request.memory_limit / per_claim);
+  uint64_t jobs = std::min<uint64_t>({request.jobs, claims, by_memory});
+  return static_cast<unsigned>(std::max<uint64_t>(1, jobs));
+}
+
+std::vector<ClaimEntry> load_entries(const std::vector<std::string>& paths) {
+  std::vector<ClaimEntry> entries;
+  // An unreadable entry below a folder is an error of its own; the rest is checked.
+  std::vector<ClaimEntry> unreadable;
+  for (const std::string& file : find_claim_files(paths, &unreadable)) {
+    std::vector<ClaimEntry> loaded = load_claim_file(file);
+    entries.insert(entries.end(), loaded.begin(), loaded.end());
+  }
+  entries.insert(entries.end(), unreadable.begin(), unreadable.end());
+  mark_duplicate_names(entries);
+  return entries;
+}
+
+std::vector<size_t> select_names(const std::vector<std::string>& all,
+                                 const std::vector<std::string>& names) {
+  std::vector<size_t> picked;
   for (const std::string& name : names) {
     bool found = false;
-    for (const ClaimEntry& entry : entries) {
-      if (entry.name == name) {
-        picked.push_back(entry);
+    for (size_t i = 0; i < all.size(); ++i) {
+      if (all[i] == name) {
+        picked.push_back(i);
         found = true;
       }
     }
@@ -50,12 +73,12 @@ std::vector<ClaimEntry> select_claims(const std::vector<ClaimEntry>& entries,
     std::vector<std::string> containing;
     std::string closest;
     size_t best = SIZE_MAX;
-    for (const ClaimEntry& entry : entries) {
-      if (entry.name.find(name) != std::string::npos) containing.push_back(entry.name);
-      size_t d = edit_distance(name, entry.name);
+    for (const std::string& candidate : all) {
+      if (candidate.find(name) != std::string::npos) containing.push_back(candidate);
+      size_t d = edit_distance(name, candidate);
       if (d < best) {
         best = d;
-        closest = entry.name;
+        closest = candidate;
       }
     }
     Diagnostic d;
@@ -79,62 +102,69 @@ std::vector<ClaimEntry> select_claims(const std::vector<ClaimEntry>& entries,
   return picked;
 }
 
-ClaimResult check_entry(const ClaimEntry& entry, const CheckOptions& options) {
-  // check_entries handles an entry that failed to load.
-  return check_entries({entry}, options).claims.front();
-}
-
-}  // namespace
-
-unsigned workers_for(const RunRequest& request, size_t claims) {
-  uint64_t per_claim = std::max<uint64_t>(1, request.options.budget.max_memo_bytes);
-  uint64_t by_memory = std::max<uint64_t>(1, request.memory_limit / per_claim);
-  uint64_t jobs = std::min<uint64_t>({request.jobs, claims, by_memory});
-  return static_cast<unsigned>(std::max<uint64_t>(1, jobs));
-}
-
-RunResult run_check(const RunRequest& request) {
-  std::vector<std::string> paths =
-      request.paths.empty() ? std::vector<std::string>{"claims"} : request.paths;
-  std::vector<ClaimEntry> entries;
-  // An unreadable entry below a folder is an error of its own; the rest is checked.
-  std::vector<ClaimEntry> unreadable;
-  for (const std::string& file : find_claim_files(paths, &unreadable)) {
-    std::vector<ClaimEntry> loaded = load_claim_file(file);
-    entries.insert(entries.end(), loaded.begin(), loaded.end());
-  }
-  entries.insert(entries.end(), unreadable.begin(), unreadable.end());
-  mark_duplicate_names(entries);
-  entries = select_claims(entries, request.claim_names);
-
+RunResult check_in_parallel(const std::vector<ClaimEntry>& entries, const CheckOptions& options,
+                            unsigned jobs,
+                            const std::function<void(size_t, size_t, const std::string&)>& progress,
+                            uint64_t memory_limit) {
   RunResult run;
-  run.seed = request.options.seed;
-  run.max_bits = request.options.max_bits;
-  if (request.options.effort != 1) run.effort = request.options.effort;
+  run.seed = options.seed;
+  run.max_bits = options.max_bits;
+  if (options.effort != 1) run.effort = options.effort;
   run.claims.resize(entries.size());
   std::atomic<size_t> next{0};
   std::mutex progress_lock;
   size_t done = 0;
+  std::exception_ptr progress_failure;  // the caller's callback threw: rethrown here
   auto worker = [&] {
     while (true) {
       size_t i = next.fetch_add(1);
       if (i >= entries.size()) break;
-      run.claims[i] = check_entry(entries[i], request.options);
-      if (request.progress) {
+      // check_entry keeps every exception of the claim on the claim.
+      run.claims[i] = check_entry(entries[i], options);
+      if (progress) {
         std::lock_guard<std::mutex> lock(progress_lock);
-        request.progress(++done, entries.size(), entries[i].name);
+        if (progress_failure) break;
+        try {
+          progress(++done, entries.size(), entries[i].name);
+        } catch (...) {
+          // Not ours to judge, and it must not end the process from a worker
+          // thread: stop handing out claims and rethrow in the caller.
+          progress_failure = std::current_exception();
+          next.store(entries.size());
+          break;
+        }
       }
     }
     // MPFR keeps per-thread caches (constants such as log 2); a worker
     // thread that ends without freeing them leaks them.
     mpfr_free_cache();
   };
-  unsigned jobs = workers_for(request, entries.size());
+  RunRequest sizing;
+  sizing.options = options;
+  sizing.jobs = jobs;
+  sizing.memory_limit = memory_limit;
+  unsigned workers = workers_for(sizing, entries.size());
   std::vector<std::thread> threads;
-  for (unsigned j = 1; j < jobs; ++j) threads.emplace_back(worker);
+  for (unsigned j = 1; j < workers; ++j) threads.emplace_back(worker);
   worker();
   for (auto& t : threads) t.join();
+  if (progress_failure) std::rethrow_exception(progress_failure);
   return run;
+}
+
+RunResult run_check(const RunRequest& request) {
+  std::vector<std::string> paths =
+      request.paths.empty() ? std::vector<std::string>{"claims"} : request.paths;
+  std::vector<ClaimEntry> entries = load_entries(paths);
+  if (!request.claim_names.empty()) {
+    std::vector<std::string> all;
+    for (const ClaimEntry& entry : entries) all.push_back(entry.name);
+    std::vector<ClaimEntry> picked;
+    for (size_t i : select_names(all, request.claim_names)) picked.push_back(entries[i]);
+    entries = std::move(picked);
+  }
+  return check_in_parallel(entries, request.options, request.jobs, request.progress,
+                           request.memory_limit);
 }
 
 }  // namespace thetagate::engine

@@ -30,11 +30,35 @@ struct RunRequest {
 
 // Throws InputError for a path that does not exist, or a --claim name that
 // no file defines (with the closest names as a hint). Bad claims become
-// `error` results; the others are checked.
+// `error` results; the others are checked. load_entries, select_names and
+// check_in_parallel in turn.
 RunResult run_check(const RunRequest& request);
 
 // The number of claims run_check checks at once for `claims` claims.
 unsigned workers_for(const RunRequest& request, size_t claims);
+
+// Every claim of the files and folders in `paths` (find_claim_files), in
+// order; an unreadable entry below a folder becomes an error entry of its
+// own, and a second claim with a name already used becomes an error that
+// points at the first. Throws InputError as find_claim_files.
+std::vector<ClaimEntry> load_entries(const std::vector<std::string>& paths);
+
+// The indices into `all` of the entries named `names` (exact names, in the
+// order of `names`; every index of a repeated name). Throws InputError for a
+// name that is not in `all`, with the names containing it or the closest
+// one as a hint.
+std::vector<size_t> select_names(const std::vector<std::string>& all,
+                                 const std::vector<std::string>& names);
+
+// Checks the entries with check_entry, at most `jobs` at once (fewer when
+// memory_limit / the budget's max_memo_bytes is smaller): the result is the
+// same as a serial run, claim for claim, and a bug in one claim stays on
+// that claim. `progress` may be empty; if it throws, no further claims are
+// started and its exception is rethrown here once the workers stop.
+RunResult check_in_parallel(const std::vector<ClaimEntry>& entries, const CheckOptions& options,
+                            unsigned jobs,
+                            const std::function<void(size_t, size_t, const std::string&)>& progress,
+                            uint64_t memory_limit = uint64_t{2} << 30);
 
 }  // namespace thetagate::engine
 

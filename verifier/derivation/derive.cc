@@ -164,9 +164,13 @@ Derivation derive(const Recurrence& recurrence) {
   classify_driving(shape, recurrence, input);
   const SourceText& source = recurrence.source;
   input.value_at = [evaluator](const BigInt& n) -> std::optional<Value> {
+    // Input errors (lg 0 at this n) and limits mean "no value here"; any
+    // other exception is a bug and propagates.
     try {
       return evaluator->value_at(n);
-    } catch (const std::exception&) {
+    } catch (const InputError&) {
+      return std::nullopt;
+    } catch (const LimitReached&) {
       return std::nullopt;
     }
   };
@@ -177,7 +181,8 @@ Derivation derive(const Recurrence& recurrence) {
         if (c.test && !holds(*evaluator, *c.test, source, n)) continue;
         return c.f ? evaluator->evaluate(*c.f, source, n) : Value(int64_t{0});
       }
-    } catch (const std::exception&) {
+    } catch (const InputError&) {
+    } catch (const LimitReached&) {
     }
     return std::nullopt;
   };
@@ -200,10 +205,17 @@ Derivation derive(const Recurrence& recurrence) {
   }
   for (const auto& [name, theorem] : theorems) {
     TheoremOutcome o;
+    // What a theorem may meet on valid input; anything else is a bug.
     try {
       o = theorem(input);
-    } catch (const std::exception& e) {
+    } catch (const LimitReached& e) {
       o.failure = std::string("could not be decided: ") + e.what();
+    } catch (const PrecisionShortfall& e) {
+      o.failure = std::string("could not be decided: ") + e.what();
+    } catch (const DomainError& e) {
+      o.failure = std::string("could not be decided: ") + e.what();
+    } catch (const InputError& e) {
+      o.failure = std::string("could not be decided: ") + e.diagnostic().message;
     }
     if (o.theorem.empty()) o.theorem = name;
     d.outcomes.push_back(o);

@@ -104,28 +104,30 @@ void Evaluator::charge_step(uint64_t pending_bytes) {
   // pending size at once: it counts against the memory budget with the memo.
   if (pending_bytes > budget_.max_memo_bytes ||
       memo_bytes_ > budget_.max_memo_bytes - pending_bytes) {
-    throw BudgetExceeded(
-        "the sizes waiting to be evaluated and the remembered values need more "
-        "than " +
-        std::to_string(budget_.max_memo_bytes >> 20) + " MiB");
+    throw BudgetExceeded(Limit::kMemory,
+                         "the sizes waiting to be evaluated and the remembered values need more "
+                         "than " +
+                             std::to_string(budget_.max_memo_bytes >> 20) + " MiB");
   }
   ++stats_.steps;
   if (stats_.steps > budget_.max_steps) {
-    throw BudgetExceeded("more than " + std::to_string(budget_.max_steps) + " evaluation steps");
+    throw BudgetExceeded(Limit::kSteps,
+                         "more than " + std::to_string(budget_.max_steps) + " evaluation steps");
   }
   // Bottom-up sweeps continue from one size to the next; only the total
   // budget applies to them.
   if (budget_.max_steps_per_size != 0 && window_ == 0 && !history_ &&
       stats_.steps - call_start_steps_ > budget_.max_steps_per_size) {
-    throw BudgetExceeded("one size needs more than " + std::to_string(budget_.max_steps_per_size) +
-                         " subproblems");
+    throw BudgetExceeded(
+        Limit::kSteps,
+        "one size needs more than " + std::to_string(budget_.max_steps_per_size) + " subproblems");
   }
   // max_seconds <= 0: no clock at all, so only the work budgets (the same on
   // every machine) can stop an evaluation; tests run that way.
   if (budget_.max_seconds > 0 && (stats_.steps & 1023) == 0 &&
       std::chrono::steady_clock::now() > deadline_) {
-    throw BudgetExceeded("the time budget of " + std::to_string(budget_.max_seconds) +
-                         " s ran out");
+    throw BudgetExceeded(
+        Limit::kTime, "the time budget of " + std::to_string(budget_.max_seconds) + " s ran out");
   }
 }
 
@@ -148,8 +150,9 @@ void Evaluator::account_memo(uint64_t key_bits, uint64_t value_bits) {
   size_t size = memo_size();
   stats_.memo_entries = size;
   if (size > budget_.max_memo_entries || memo_bytes_ > budget_.max_memo_bytes) {
-    throw BudgetExceeded("one evaluation needs more than " + std::to_string(size) +
-                         " remembered values (" + std::to_string(memo_bytes_ >> 20) + " MiB)");
+    throw BudgetExceeded(Limit::kMemory, "one evaluation needs more than " + std::to_string(size) +
+                                             " remembered values (" +
+                                             std::to_string(memo_bytes_ >> 20) + " MiB)");
   }
 }
 
@@ -436,8 +439,8 @@ Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope
 Value Evaluator::sweep_up(const BigInt& n) {
   const Recurrence& r = *recurrence_;
   if (!n.is_zero() && bit_length(n) > 62) {
-    throw BudgetExceeded("reaching n = " + n.str() + " one step at a time (calls " + r.main.name +
-                         "(n - c)) is out of reach");
+    throw BudgetExceeded(Limit::kSteps, "reaching n = " + n.str() + " one step at a time (calls " +
+                                            r.main.name + "(n - c)) is out of reach");
   }
   int64_t target = static_cast<int64_t>(n);
   if (ring_.empty() || target < next_ - window_) {
@@ -447,8 +450,9 @@ Value Evaluator::sweep_up(const BigInt& n) {
   }
   uint64_t needed = static_cast<uint64_t>(std::max<int64_t>(0, target - next_ + 1));
   if (stats_.steps + needed > budget_.max_steps) {
-    throw BudgetExceeded("reaching n = " + n.str() + " bottom-up needs " + std::to_string(needed) +
-                         " more steps, over the budget of " + std::to_string(budget_.max_steps));
+    throw BudgetExceeded(
+        Limit::kSteps, "reaching n = " + n.str() + " bottom-up needs " + std::to_string(needed) +
+                           " more steps, over the budget of " + std::to_string(budget_.max_steps));
   }
   EvalScope s = scope(r.source);
   while (next_ <= target) {
@@ -581,8 +585,9 @@ Value Evaluator::history_lookup(const Expr& call, const Value& n, const EvalScop
 Value Evaluator::sweep_history(const BigInt& n) {
   const Recurrence& r = *recurrence_;
   if (!n.is_zero() && bit_length(n) > 62) {
-    throw BudgetExceeded("reaching n = " + n.str() + " one size at a time (" + r.main.name +
-                         " sums over earlier values) is out of reach");
+    throw BudgetExceeded(Limit::kSteps, "reaching n = " + n.str() + " one size at a time (" +
+                                            r.main.name +
+                                            " sums over earlier values) is out of reach");
   }
   int64_t target = static_cast<int64_t>(n);
   if (target < next_) {
@@ -592,8 +597,9 @@ Value Evaluator::sweep_history(const BigInt& n) {
   }
   uint64_t needed = static_cast<uint64_t>(target - next_ + 1);
   if (stats_.steps + needed > budget_.max_steps) {
-    throw BudgetExceeded("reaching n = " + n.str() + " bottom-up needs " + std::to_string(needed) +
-                         " more steps, over the budget of " + std::to_string(budget_.max_steps));
+    throw BudgetExceeded(
+        Limit::kSteps, "reaching n = " + n.str() + " bottom-up needs " + std::to_string(needed) +
+                           " more steps, over the budget of " + std::to_string(budget_.max_steps));
   }
   EvalScope s = scope(r.source);
   while (next_ <= target) {
@@ -650,33 +656,6 @@ int Evaluator::compare_at(const Expr& a, const SourceText& sa, const Expr& b, co
     Value vb = evaluate_expr(b, Value(n), scope(sb));
     return compare(va, vb, ctx_);
   });
-}
-
-BigInt evaluate_size(const std::string& text, const std::string& origin) {
-  SourceText source = SourceText::whole(origin, text);
-  ExprPtr e = parse_expression(source);
-  if (mentions_n(*e)) {
-    fail_at(source, 0, "a size must be a number, not an expression in n", "for example 2^4096 + 7");
-  }
-  NumericContext ctx;
-  ctx.max_value_bits = 1u << 24;
-  EvalScope s;
-  s.source = &source;
-  s.ctx = &ctx;
-  Value v;
-  try {
-    v = evaluate_expr(*e, Value(int64_t{0}), s);
-  } catch (const BudgetExceeded& error) {
-    fail_at(source, 0, std::string("the size is too large: ") + error.what());
-  } catch (const PrecisionShortfall&) {
-    fail_at(source, 0, "the size is not a whole number", "sizes are whole numbers: 10^6, 3*2^50");
-  }
-  if (!v.is_integer()) {
-    fail_at(source, 0, "the size " + v.str() + " is not a whole number",
-            "sizes are whole numbers: 10^6, 3*2^50");
-  }
-  if (v.integer() < 0) fail_at(source, 0, "the size " + v.str() + " is negative", "sizes are >= 0");
-  return v.integer();
 }
 
 }  // namespace thetagate::engine

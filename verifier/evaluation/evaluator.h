@@ -151,10 +151,6 @@ class Evaluator {
 // Evaluator::probe() for a recurrence not otherwise evaluated (derive).
 void check_calls_shrink(const Recurrence& recurrence);
 
-// The value of a constant expression ("2^4096 + 7", "3*2^50"), exactly.
-// Throws InputError for a non-integer, negative, or n-dependent expression.
-BigInt evaluate_size(const std::string& text, const std::string& origin = "<size>");
-
 }  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_EVALUATION_EVALUATOR_H_

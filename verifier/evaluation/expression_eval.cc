@@ -126,8 +126,9 @@ std::pair<int64_t, int64_t> sum_limits(const Expr& sum, const Value& n, const Ev
     BigInt scratch;
     const BigInt& k = v.integer_ref(scratch);
     if (bit_length(k) > 62) {
-      throw BudgetExceeded(std::string("the ") + which + " limit of " + print(sum) + " is " +
-                           k.str() + " at n = " + n.str() + ", too far to add term by term");
+      throw BudgetExceeded(Limit::kSteps, std::string("the ") + which + " limit of " + print(sum) +
+                                              " is " + k.str() + " at n = " + n.str() +
+                                              ", too far to add term by term");
     }
     limits[i] = static_cast<int64_t>(k);
   }
@@ -148,8 +149,9 @@ Value sum_directly(const Expr& sum, const Value& n, const EvalScope& scope,
   if (hi < lo) return total;
   constexpr int64_t kMaxUnchargedTerms = int64_t{1} << 22;
   if (!charge && hi - lo >= kMaxUnchargedTerms) {
-    throw BudgetExceeded(print(sum) + " has " + std::to_string(hi - lo + 1) +
-                         " terms at n = " + n.str() + ", too many to add one by one");
+    throw BudgetExceeded(Limit::kSteps, print(sum) + " has " + std::to_string(hi - lo + 1) +
+                                            " terms at n = " + n.str() +
+                                            ", too many to add one by one");
   }
   for (int64_t k = lo;; ++k) {
     if (charge) charge();

@@ -41,7 +41,7 @@ std::pair<const Value*, bool> MemoTable::insert(const Value& key, const Value& v
   size_t slot = slot_of(key, hash, found);
   if (found) return {&entries_[(index_[slot] & kEntryMask) - 1].value, false};
   if (entries_.size() >= kEntryMask)
-    throw BudgetExceeded("more remembered values than a memo holds");
+    throw BudgetExceeded(Limit::kMemory, "more remembered values than a memo holds");
   entries_.push_back({key, value, hash});
   index_[slot] = (tag_of(hash) << 32) | entries_.size();
   return {&entries_.back().value, true};

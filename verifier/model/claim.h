@@ -43,7 +43,13 @@ struct ClaimEntry {
   Location where;
   std::optional<Claim> claim;
   std::optional<Diagnostic> error;
+  std::string internal_error;  // a bug met while reading it: what broke
 };
+
+// The keys a [[claim]] table accepts, and those of its [claim.sizes] table.
+// docs/language.md's key table lists exactly these (a test checks).
+const std::vector<std::string>& claim_keys();
+const std::vector<std::string>& size_keys();
 
 // Reads one TOML claim file. Never throws for bad content: a file that is
 // not valid TOML yields one entry with the error; each malformed claim
@@ -51,15 +57,6 @@ struct ClaimEntry {
 // messages.
 std::vector<ClaimEntry> load_claim_file(const std::string& path);
 std::vector<ClaimEntry> load_claim_text(const std::string& text, const std::string& display_name);
-
-// Expands files and folders (folders: every *.toml below, sorted) into the
-// list of claim files, in a stable order. Throws InputError for a path that
-// does not exist or cannot be reached. Inside a folder, an entry that cannot
-// be read (an unlistable folder, a link loop) becomes an error entry in
-// `unreadable` and the rest is still found; without `unreadable`, the first
-// such entry throws.
-std::vector<std::string> find_claim_files(const std::vector<std::string>& paths,
-                                          std::vector<ClaimEntry>* unreadable = nullptr);
 
 }  // namespace thetagate::engine
 

@@ -11,6 +11,7 @@
 
 #include "generators/size_family.h"
 #include "verifier/evaluation/evaluator.h"
+#include "verifier/evaluation/size_expression.h"
 #include "verifier/model/claim.h"
 #include "verifier/syntax/input_file.h"
 #include "verifier/syntax/spelling.h"
@@ -140,12 +141,7 @@ size_t ClaimFileReader::offset_of(const toml::source_position& p) const {
   const std::string& text = file_->text;
   if (p.line == 0) return 0;
   if (p.line > line_starts_.size()) return text.size();
-  size_t at = line_starts_[p.line - 1];
-  for (uint32_t column = 1; column < p.column && at < text.size() && text[at] != '\n';) {
-    ++at;
-    if (at >= text.size() || (static_cast<unsigned char>(text[at]) & 0xC0) != 0x80) ++column;
-  }
-  return at;
+  return utf8_advance(text, line_starts_[p.line - 1], static_cast<int>(p.column) - 1);
 }
 
 Diagnostic ClaimFileReader::diagnostic(const toml::source_position& p, std::string message,
@@ -313,14 +309,7 @@ void ClaimFileReader::read_sizes(const toml::node& node, SizeOptions& sizes) con
         const Diagnostic& inner = e.diagnostic();
         size_t pos = 0;
         if (inner.where.line == 1 && text.text.find('\n') == std::string::npos) {
-          int column = 1;
-          while (pos < text.text.size() && column < inner.where.column) {
-            ++pos;
-            if (pos >= text.text.size() ||
-                (static_cast<unsigned char>(text.text[pos]) & 0xC0) != 0x80) {
-              ++column;
-            }
-          }
+          pos = utf8_advance(text.text, 0, inner.where.column - 1);
         }
         fail_at(text, pos, "in 'min_n': " + inner.message,
                 inner.hint.empty() ? "write min_n = 1000 or min_n = \"2^20\"" : inner.hint);
@@ -388,9 +377,9 @@ ClaimEntry ClaimFileReader::read_claim(const toml::table& t) {
   } catch (const InputError& e) {
     entry.error = e.diagnostic();
   } catch (const std::exception& e) {
-    // Not an input error, but it must not take the other claims down with it.
-    entry.error =
-        diagnostic(t.source().begin, std::string("cannot read this claim: ") + e.what(), "");
+    // Not an input error but a bug: kept on this claim (check_entry reports
+    // it as an internal error), so the other claims are still checked.
+    entry.internal_error = e.what();
   }
   return entry;
 }
@@ -475,13 +464,6 @@ Diagnostic toml_error(const toml::parse_error& e, const SourceFile& file) {
   return d;
 }
 
-ClaimEntry file_error(const std::string& path, std::string message, std::string hint) {
-  ClaimEntry entry;
-  entry.where = Location{path, 1, 1};
-  entry.error = Diagnostic{entry.where, std::move(message), std::move(hint), ""};
-  return entry;
-}
-
 }  // namespace
 
 std::vector<ClaimEntry> load_claim_text(const std::string& text, const std::string& display_name) {
@@ -528,90 +510,8 @@ std::vector<ClaimEntry> load_claim_file(const std::string& path) {
   return load_claim_text(text, path);
 }
 
-namespace {
-
-// Every *.toml below `folder` (not following links to folders), and an
-// error entry for each part of the tree that cannot be read: an unlistable
-// folder, a link loop or dangling link named *.toml. The rest is still found.
-void walk_folder(const std::string& folder, std::vector<std::string>& found,
-                 std::vector<ClaimEntry>& problems) {
-  namespace fs = std::filesystem;
-  auto problem = [&problems](const fs::path& where, const std::string& what,
-                             const std::error_code& ec) {
-    problems.push_back(file_error(where.string(), what + ": " + ec.message(),
-                                  "fix or remove this entry; the other claim files are checked"));
-  };
-  std::vector<fs::path> pending{fs::path(folder)};
-  while (!pending.empty()) {
-    fs::path dir = std::move(pending.back());
-    pending.pop_back();
-    std::error_code ec;
-    fs::directory_iterator it(dir, ec);
-    if (ec) {
-      problem(dir, "cannot list the folder '" + dir.string() + "'", ec);
-      continue;
-    }
-    for (; it != fs::directory_iterator(); it.increment(ec)) {
-      const fs::directory_entry& entry = *it;
-      std::error_code kind_ec;
-      fs::file_status own = entry.symlink_status(kind_ec);
-      if (!kind_ec && fs::is_directory(own)) {
-        pending.push_back(entry.path());
-        continue;
-      }
-      if (entry.path().extension() != ".toml") continue;
-      fs::file_status target = entry.status(kind_ec);
-      if (kind_ec) {
-        problem(entry.path(), "cannot read '" + entry.path().string() + "'", kind_ec);
-      } else if (fs::is_regular_file(target)) {
-        found.push_back(entry.path().string());
-      }
-    }
-    if (ec) problem(dir, "cannot list the folder '" + dir.string() + "'", ec);
-  }
-}
-
-}  // namespace
-
-std::vector<std::string> find_claim_files(const std::vector<std::string>& paths,
-                                          std::vector<ClaimEntry>* unreadable) {
-  namespace fs = std::filesystem;
-  std::vector<std::string> files;
-  auto add = [&files](const std::string& f) {
-    if (std::find(files.begin(), files.end(), f) == files.end()) files.push_back(f);
-  };
-  for (const std::string& path : paths) {
-    std::error_code ec;
-    fs::file_status status = fs::status(path, ec);
-    if (ec && ec != std::errc::no_such_file_or_directory) {
-      throw InputError(Diagnostic{Location{path, 1, 1},
-                                  "cannot reach '" + path + "': " + ec.message(),
-                                  "check the permissions of the folders on the way to it", ""});
-    }
-    if (!fs::exists(status)) {
-      throw InputError(Diagnostic{Location{path, 1, 1}, "no such file or folder: '" + path + "'",
-                                  "give claim files (*.toml) or folders holding them; the default "
-                                  "is claims/",
-                                  ""});
-    }
-    if (!fs::is_directory(status)) {
-      add(path);
-      continue;
-    }
-    std::vector<std::string> found;
-    std::vector<ClaimEntry> problems;
-    walk_folder(path, found, problems);
-    if (found.empty() && problems.empty()) {
-      problems.push_back(file_error(path, "no claim files (*.toml) in the folder '" + path + "'",
-                                    "give a folder holding claim files, or the files themselves"));
-    }
-    if (!problems.empty() && !unreadable) throw InputError(*problems.front().error);
-    if (unreadable) unreadable->insert(unreadable->end(), problems.begin(), problems.end());
-    std::sort(found.begin(), found.end());
-    for (const std::string& f : found) add(f);
-  }
-  return files;
-}
+const std::vector<std::string>& claim_keys() { return kClaimKeys; }
+const std::vector<std::string>& size_keys() { return kSizeKeys; }
 
 const char* rounding_name(Rounding r) {
   switch (r) {

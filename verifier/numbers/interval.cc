@@ -24,8 +24,8 @@ Rational rational_of(mpfr_srcptr x) {
   // exponent: 2^(10^10) would need 1.25 GB. Such a number is a budget
   // error, not an allocation that takes the machine down.
   if (mpfr_regular_p(x) && std::abs(mpfr_get_exp(x)) > kMaxExactExponentBits) {
-    throw BudgetExceeded("a number near 2^" + std::to_string(mpfr_get_exp(x)) +
-                         " has too many bits to handle exactly");
+    throw BudgetExceeded(Limit::kValueSize, "a number near 2^" + std::to_string(mpfr_get_exp(x)) +
+                                                " has too many bits to handle exactly");
   }
   Rational q;
   mpfr_get_q(q.backend().data(), x);

@@ -82,7 +82,8 @@ Value checked(Rational x, const NumericContext& ctx) {
 Value checked(Interval x) {
   if (mpfi_nan_p(x.raw())) throw DomainError("the result is not a real number");
   if (mpfi_inf_p(x.raw())) {
-    throw BudgetExceeded("a value is too large even for an interval's exponent range");
+    throw BudgetExceeded(Limit::kValueSize,
+                         "a value is too large even for an interval's exponent range");
   }
   return Value(std::move(x));
 }
@@ -179,9 +180,10 @@ Interval interval_integer_power(const Interval& base, const BigInt& k) {
 
 void check_bits(uint64_t bits, const NumericContext& ctx) {
   if (bits > ctx.max_value_bits) {
-    throw BudgetExceeded("a value would need " + std::to_string(bits) +
-                         " bits, over the budget of " + std::to_string(ctx.max_value_bits) +
-                         " bits per value");
+    throw BudgetExceeded(Limit::kValueSize, "a value would need " + std::to_string(bits) +
+                                                " bits, over the budget of " +
+                                                std::to_string(ctx.max_value_bits) +
+                                                " bits per value");
   }
 }
 

@@ -11,6 +11,7 @@
 #include <string>
 #include <variant>
 
+#include "thetagate/errors.h"
 #include "verifier/numbers/interval.h"
 #include "verifier/numbers/number.h"
 
@@ -28,15 +29,15 @@ struct DomainError : std::runtime_error {
 };
 
 // A value or size grew past the budget (bits per value, steps, memo entries,
-// time). Running out gives an `undecided` verdict with this reason.
-struct BudgetExceeded : std::runtime_error {
-  using std::runtime_error::runtime_error;
-};
+// time): the public LimitReached (thetagate/errors.h). Running out gives an
+// `undecided` verdict with this reason.
+using BudgetExceeded = ::thetagate::LimitReached;
+using ::thetagate::Limit;
 
 // The budget that ran out was interval precision: two sides agree to more
 // digits than the largest precision holds (they may be equal).
 struct PrecisionExhausted : BudgetExceeded {
-  using BudgetExceeded::BudgetExceeded;
+  explicit PrecisionExhausted(const std::string& what) : BudgetExceeded(Limit::kPrecision, what) {}
 };
 
 // Precision and size limits for arithmetic on values.

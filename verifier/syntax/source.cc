@@ -21,6 +21,14 @@ int utf8_columns(const std::string& s, size_t bytes) {
   return columns;
 }
 
+size_t utf8_advance(const std::string& s, size_t at, int columns) {
+  for (int column = 0; column < columns && at < s.size() && s[at] != '\n';) {
+    ++at;
+    if (at >= s.size() || (static_cast<unsigned char>(s[at]) & 0xC0) != 0x80) ++column;
+  }
+  return at;
+}
+
 namespace {
 size_t file_offset(const SourceText& source, size_t pos) {
   if (!source.exact) return source.offset;
@@ -78,33 +86,37 @@ std::string escape_controls(const std::string& s) {
   return out;
 }
 
-namespace {
-
-// Byte offset of code point `column` (1-based) of `s`, or s.size().
-size_t byte_of_column(const std::string& s, int column) {
-  int seen = 0;
-  for (size_t i = 0; i < s.size(); ++i) {
-    if ((static_cast<unsigned char>(s[i]) & 0xC0) != 0x80 && ++seen == column) return i;
-  }
-  return s.size();
+void fail_at(const SourceText& source, size_t pos, std::string message, std::string hint) {
+  Diagnostic d;
+  d.where = source.locate(pos);
+  d.message = std::move(message);
+  d.hint = std::move(hint);
+  d.source_line = source.line_at(pos);
+  throw InputError(std::move(d));
 }
 
-constexpr int kShownColumns = 120;  // of a long source line, around the caret
+}  // namespace thetagate::engine
 
+// The public error types (thetagate/errors.h) that render diagnostics.
+namespace thetagate {
+
+namespace {
+constexpr int kShownColumns = 120;  // of a long source line, around the caret
 }  // namespace
 
 std::string format_diagnostic(const Diagnostic& d) {
-  std::string out = escape_controls(d.where.file) + ":" + std::to_string(d.where.line) + ":" +
-                    std::to_string(d.where.column) + ": error: " + escape_controls(d.message);
+  std::string out = engine::escape_controls(d.where.file) + ":" + std::to_string(d.where.line) +
+                    ":" + std::to_string(d.where.column) +
+                    ": error: " + engine::escape_controls(d.message);
   if (!d.source_line.empty()) {
     // A long line shows a window around the caret, marked with "...".
     std::string line = d.source_line;
     int column = d.where.column;
-    int total = utf8_columns(line, line.size());
+    int total = engine::utf8_columns(line, line.size());
     if (total > kShownColumns) {
       int first = std::max(1, std::min(column - kShownColumns / 2, total - kShownColumns + 1));
-      size_t from = byte_of_column(line, first);
-      size_t to = byte_of_column(line, first + kShownColumns);
+      size_t from = engine::utf8_advance(line, 0, first - 1);
+      size_t to = engine::utf8_advance(line, 0, first - 1 + kShownColumns);
       std::string window = line.substr(from, to - from);
       column -= first - 1;
       if (first > 1) {
@@ -136,20 +148,10 @@ std::string format_diagnostic(const Diagnostic& d) {
     }
     out += "^";
   }
-  if (!d.hint.empty()) out += "\n  hint: " + escape_controls(d.hint);
+  if (!d.hint.empty()) out += "\n  hint: " + engine::escape_controls(d.hint);
   return out;
 }
 
-InputError::InputError(Diagnostic d)
-    : std::runtime_error(format_diagnostic(d)), diagnostic_(std::move(d)) {}
+InputError::InputError(Diagnostic d) : Error(format_diagnostic(d)), diagnostic_(std::move(d)) {}
 
-void fail_at(const SourceText& source, size_t pos, std::string message, std::string hint) {
-  Diagnostic d;
-  d.where = source.locate(pos);
-  d.message = std::move(message);
-  d.hint = std::move(hint);
-  d.source_line = source.line_at(pos);
-  throw InputError(std::move(d));
-}
-
-}  // namespace thetagate::engine
+}  // namespace thetagate

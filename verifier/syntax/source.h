@@ -9,6 +9,8 @@
 #include <stdexcept>
 #include <string>
 
+#include "thetagate/errors.h"
+
 namespace thetagate::engine {
 
 // A whole input: a claim file, or a recurrence given on the command line.
@@ -17,11 +19,11 @@ struct SourceFile {
   std::string text;
 };
 
-struct Location {
-  std::string file;
-  int line = 0;    // 1-based
-  int column = 0;  // 1-based, counted in characters (UTF-8 code points)
-};
+// Locations, diagnostics and the error types are public (thetagate/errors.h).
+using ::thetagate::Diagnostic;
+using ::thetagate::format_diagnostic;
+using ::thetagate::InputError;
+using ::thetagate::Location;
 
 // A piece of a SourceFile that a parser reads: for a claim file, the
 // decoded value of one TOML string. When the decoded text equals the raw
@@ -43,29 +45,6 @@ struct SourceText {
   std::string line_at(size_t pos) const;
 };
 
-// A located input error with a one-line hint.
-struct Diagnostic {
-  Location where;
-  std::string message;
-  std::string hint;         // may be empty
-  std::string source_line;  // the offending line, may be empty
-};
-
-// "file:line:col: error: message", the line, a caret under the column, and
-// "  hint: ...". Ends without a trailing newline.
-std::string format_diagnostic(const Diagnostic& d);
-
-// One error style for the whole library: bad input throws InputError
-// carrying a located Diagnostic. Only main() turns it into an exit code.
-class InputError : public std::runtime_error {
- public:
-  explicit InputError(Diagnostic d);
-  const Diagnostic& diagnostic() const { return diagnostic_; }
-
- private:
-  Diagnostic diagnostic_;
-};
-
 // Builds and throws an InputError at byte `pos` of `source`.
 [[noreturn]] void fail_at(const SourceText& source, size_t pos, std::string message,
                           std::string hint = "");
@@ -74,8 +53,13 @@ class InputError : public std::runtime_error {
 // \xNN, for text that reaches a terminal.
 std::string escape_controls(const std::string& s);
 
+// The UTF-8 column helpers: every conversion between bytes and columns
+// (characters) goes through these two.
 // Number of UTF-8 code points in the first `bytes` bytes of `s`.
 int utf8_columns(const std::string& s, size_t bytes);
+// The byte offset `columns` characters after byte `at` of `s`, stopping at
+// the end of `s` or at a newline. The inverse of utf8_columns on one line.
+size_t utf8_advance(const std::string& s, size_t at, int columns);
 
 }  // namespace thetagate::engine
 

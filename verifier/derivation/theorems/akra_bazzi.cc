@@ -8,6 +8,8 @@
 #include <optional>
 #include <stdexcept>
 
+#include "verifier/numbers/value.h"
+
 namespace thetagate::engine {
 
 namespace {
@@ -143,7 +145,8 @@ RealNumber critical_exponent(const Terms& terms) {
   // Coefficients beyond a double (a = 10^300) leave the search no finite
   // bracket; GMP would abort on a rational made from inf or NaN.
   if (!std::isfinite(found.first) || !std::isfinite(found.second)) {
-    throw std::domain_error("the coefficients are too large for the numeric search of p");
+    throw BudgetExceeded(Limit::kPrecision,
+                         "the coefficients are too large for the numeric search of p");
   }
   double mid = (found.first + found.second) / 2;
   long nearest = std::lround(mid);

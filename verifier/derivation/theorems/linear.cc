@@ -158,16 +158,15 @@ TheoremOutcome linear_recurrence(const DerivationInput& input) {
   BigInt start = bound + 1 + d;
   std::vector<Rational> values;
   std::string shown;
-  try {
-    for (int i = 0; i < big_d + 1; ++i) {
-      auto v = input.value_at(start - d + i);
-      if (!v || !v->is_exact()) throw std::runtime_error("not exact");
-      values.push_back(v->exact());
-      if (i < 6) shown += (shown.empty() ? "" : ", ") + to_string(values.back());
+  for (int i = 0; i < big_d + 1; ++i) {
+    auto v = input.value_at(start - d + i);  // nullopt: an input error or a limit at that n
+    if (!v || !v->is_exact()) {
+      out.failure = "the initial values could not be evaluated exactly: T(" +
+                    BigInt(start - d + i).str() + ") is " + (v ? "not exact" : "out of reach");
+      return out;
     }
-  } catch (const std::exception& e) {
-    out.failure = std::string("the initial values could not be evaluated exactly: ") + e.what();
-    return out;
+    values.push_back(v->exact());
+    if (i < 6) shown += (shown.empty() ? "" : ", ") + to_string(values.back());
   }
   out.steps.push_back("values from n = " + BigInt(start - d).str() + ": " + shown +
                       (big_d + 1 > 6 ? ", ..." : ""));
@@ -255,7 +254,8 @@ TheoremOutcome linear_recurrence(const DerivationInput& input) {
       out.failure = "the leading coefficient is negative: T(n) tends to -infinity";
       return out;
     }
-  } catch (const std::exception&) {
+  } catch (const PrecisionShortfall&) {
+    // The sign of an interval around 0 is unknown: no evidence either way.
   }
   GrowthClass result = GrowthClass::polylog(multiplicity - 1);
   if (r != RealNumber(1L)) result = GrowthClass::exponential(r).times(result);

@@ -1,9 +1,9 @@
 // RapidCheck generators of sizes drawn from the size families, shrinking
 // toward the smallest allowed n so that a failing explicit bound is reported
-// at a small witness. Header-only because only tests and the checker's
-// shrinking use it, and the library proper does not depend on RapidCheck.
-#ifndef THETAGATE_GENERATORS_BIG_INT_GEN_H_
-#define THETAGATE_GENERATORS_BIG_INT_GEN_H_
+// at a small witness. Test-only: the library proper does not depend on
+// RapidCheck.
+#ifndef THETAGATE_TESTS_BIG_INT_GEN_H_
+#define THETAGATE_TESTS_BIG_INT_GEN_H_
 
 #include <rapidcheck.h>
 
@@ -57,4 +57,4 @@ inline rc::Gen<BigInt> gen_size(const SizePlan& plan) {
 
 }  // namespace thetagate::engine
 
-#endif  // THETAGATE_GENERATORS_BIG_INT_GEN_H_
+#endif  // THETAGATE_TESTS_BIG_INT_GEN_H_

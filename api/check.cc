@@ -1,0 +1,167 @@
+// Checking claims through the public API (include/thetagate/check.h).
+#include "thetagate/check.h"
+
+#include "api/access.h"
+#include "generators/size_family.h"
+#include "reports/verdict_text.h"
+#include "verifier/checking/checker.h"
+#include "verifier/checking/run.h"
+
+namespace thetagate {
+
+namespace {
+
+Verdict to_public(engine::Verdict v) {
+  switch (v) {
+    case engine::Verdict::kHolds:
+      return Verdict::kHolds;
+    case engine::Verdict::kRefuted:
+      return Verdict::kRefuted;
+    case engine::Verdict::kUndecided:
+      return Verdict::kUndecided;
+    case engine::Verdict::kError:
+      break;
+  }
+  return Verdict::kError;
+}
+
+Witness to_public(const engine::Witness& w) {
+  return Witness{w.n.str(), w.side == engine::Side::kUpper ? Side::kUpper : Side::kLower,
+                 w.value,   w.bound,
+                 w.ratio,   w.factor,
+                 w.margin,  w.family};
+}
+
+BandRow to_public(const engine::BandRow& r) {
+  return BandRow{r.scale,         r.low,      r.high,      r.low_at.str(),
+                 r.high_at.str(), r.low_log2, r.high_log2, r.samples};
+}
+
+// The engine's options for `options`. Throws InputError for values out of
+// range or an unknown family.
+engine::CheckOptions engine_options(const CheckOptions& options) {
+  auto bad = [](const std::string& message, const std::string& hint) {
+    throw InputError(Diagnostic{Location{"<options>", 1, 1}, message, hint, ""});
+  };
+  if (options.max_bits && (*options.max_bits < 1 || *options.max_bits > 65536)) {
+    bad("max_bits must be between 1 and 65536, found " + std::to_string(*options.max_bits),
+        "the default is 4096");
+  }
+  if (options.effort < 1 || options.effort > 10000) {
+    bad("effort must be between 1 and 10000, found " + std::to_string(options.effort),
+        "the default is 1, about 0.2 s of search per claim");
+  }
+  for (const std::string& family : options.families) {
+    if (!engine::is_size_family(family)) {
+      bad("unknown size family '" + family + "'", "size_families() lists them");
+    }
+  }
+  engine::CheckOptions e;
+  e.seed = options.seed;
+  e.max_bits = options.max_bits;
+  e.effort = options.effort;
+  if (options.rounding) e.rounding = detail::to_engine(*options.rounding);
+  if (options.clock_limit) {
+    if (*options.clock_limit < 0) bad("clock_limit must not be negative", "0 means no clock");
+    e.budget.max_seconds = *options.clock_limit;
+  }
+  return e;
+}
+
+// The entries to check: the claims, with `families` applied.
+std::vector<engine::ClaimEntry> entries_of(const std::vector<Claim>& claims,
+                                           const std::vector<std::string>& families) {
+  std::vector<engine::ClaimEntry> entries;
+  entries.reserve(claims.size());
+  for (const Claim& c : claims) {
+    entries.push_back(detail::Access::entry(c));
+    if (!families.empty() && entries.back().claim) entries.back().claim->sizes.families = families;
+  }
+  return entries;
+}
+
+}  // namespace
+
+const char* verdict_name(Verdict v) {
+  return engine::verdict_name(static_cast<engine::Verdict>(v));
+}
+static_assert(static_cast<int>(Verdict::kError) == static_cast<int>(engine::Verdict::kError));
+
+const char* side_name(Side s) { return s == Side::kUpper ? "upper" : "lower"; }
+
+const char* basis_name(Basis b) { return engine::basis_name(static_cast<engine::BasisKind>(b)); }
+
+// The public Basis mirrors the engine's BasisKind one for one.
+static_assert(static_cast<int>(Basis::kInternalError) ==
+              static_cast<int>(engine::BasisKind::kInternalError));
+static_assert(static_cast<int>(Basis::kInputError) ==
+              static_cast<int>(engine::BasisKind::kInputError));
+
+namespace detail {
+
+ClaimResult to_public(const engine::ClaimResult& r) {
+  ClaimResult out;
+  out.name = r.name;
+  out.file = r.file == "<claim>" ? "" : r.file;
+  out.line = r.file == "<claim>" ? 0 : r.line;
+  out.verdict = thetagate::to_public(r.verdict);
+  out.claimed = r.claimed;
+  out.derived = r.derived;
+  out.method = r.method;
+  out.tight = r.tight;
+  out.numeric_only = r.numeric_only;
+  for (const engine::Witness& w : r.witnesses) out.witnesses.push_back(thetagate::to_public(w));
+  for (const engine::BandRow& b : r.band) out.band.push_back(thetagate::to_public(b));
+  out.basis = static_cast<Basis>(r.basis.kind);
+  out.proof = engine::proof_name(r);
+  out.message = engine::verdict_message(r);
+  out.notes = r.notes;
+  out.steps = r.steps;
+  out.failed_hypotheses = r.failed_hypotheses;
+  out.error = r.error;
+  out.internal_error = r.internal_error;
+  out.note = r.note;
+  out.sizes_checked = r.sizes_checked;
+  out.largest_bits = r.largest_bits;
+  return out;
+}
+
+Report Access::make_report(engine::RunResult run) {
+  auto impl = std::make_shared<Report::Impl>();
+  impl->run = std::move(run);
+  for (const engine::ClaimResult& c : impl->run.claims) impl->claims.push_back(to_public(c));
+  return Report(std::move(impl));
+}
+
+}  // namespace detail
+
+Report::Report(std::shared_ptr<const Impl> impl) : impl_(std::move(impl)) {}
+uint64_t Report::seed() const { return impl_->run.seed; }
+const std::vector<ClaimResult>& Report::claims() const { return impl_->claims; }
+bool Report::any_refuted() const { return impl_->run.any_refuted(); }
+bool Report::any_error() const {
+  for (const ClaimResult& c : impl_->claims) {
+    if (c.verdict == Verdict::kError) return true;
+  }
+  return false;
+}
+bool Report::any_internal_error() const {
+  for (const ClaimResult& c : impl_->claims) {
+    if (!c.internal_error.empty()) return true;
+  }
+  return false;
+}
+
+ClaimResult check(const Claim& claim, const CheckOptions& options) {
+  engine::CheckOptions engine = engine_options(options);
+  return detail::to_public(engine::check_entry(entries_of({claim}, options.families)[0], engine));
+}
+
+Report check(const std::vector<Claim>& claims, const CheckOptions& options) {
+  engine::CheckOptions engine = engine_options(options);
+  return detail::Access::make_report(
+      engine::check_in_parallel(entries_of(claims, options.families), engine, options.jobs,
+                                options.progress, options.memory_limit));
+}
+
+}  // namespace thetagate

@@ -1,0 +1,80 @@
+// Rendering reports and comparing with a baseline (include/thetagate/report.h).
+#include "thetagate/report.h"
+
+#include "api/access.h"
+#include "reports/baseline.h"
+#include "reports/html_report.h"
+#include "reports/json_report.h"
+#include "reports/junit_report.h"
+#include "reports/report_file.h"
+#include "reports/text_report.h"
+#include "verifier/syntax/input_file.h"
+
+namespace thetagate {
+
+namespace detail {
+
+BaselineChanges Access::make_changes(engine::DriftReport drift) {
+  return BaselineChanges(
+      std::make_shared<const BaselineChanges::Impl>(BaselineChanges::Impl{std::move(drift)}));
+}
+
+}  // namespace detail
+
+BaselineChanges::BaselineChanges(std::shared_ptr<const Impl> impl) : impl_(std::move(impl)) {}
+bool BaselineChanges::any() const { return impl_->drift.any(); }
+size_t BaselineChanges::compared() const { return impl_->drift.compared; }
+std::vector<std::string> BaselineChanges::changed_claims() const {
+  std::vector<std::string> names;
+  for (const engine::ClaimDrift& c : impl_->drift.claims) names.push_back(c.name);
+  return names;
+}
+
+std::string render(const Report& report, Format format, const RenderOptions& options,
+                   const BaselineChanges* changes) {
+  const engine::RunResult& run = detail::Access::run(report);
+  const engine::DriftReport* drift = changes ? &detail::Access::drift(*changes) : nullptr;
+  switch (format) {
+    case Format::kJson:
+      return drift ? engine::render_json_with_drift(run, *drift) : engine::render_json(run);
+    case Format::kJunit:
+      return engine::render_junit(run, engine::JunitOptions{options.undecided_fails});
+    case Format::kHtml:
+      return engine::render_html(run);
+    case Format::kText:
+      break;
+  }
+  engine::TextStyle style;
+  style.colour = options.colour;
+  std::string text = engine::render_text(run, style);
+  if (drift) text += engine::render_drift_text(*drift, style);
+  return text;
+}
+
+Report read_json_report(const std::string& json_text, const std::string& display_name) {
+  return detail::Access::make_report(engine::read_json_report(json_text, display_name));
+}
+
+Report read_json_report_file(const std::string& path) {
+  std::string text = engine::read_input_file(
+      path, engine::kMaxReportFileBytes, "baseline report",
+      "give the JSON report of an earlier run: thetagate check --format json --out OLD.json");
+  return read_json_report(text, path);
+}
+
+void check_output_location(const std::string& out, bool folder) {
+  engine::check_output_location(out, folder);
+}
+
+std::string write_files_whole(const std::vector<std::pair<std::string, std::string>>& files) {
+  return engine::write_files_whole(files);
+}
+
+BaselineChanges compare_with_baseline(const Report& baseline, const Report& current) {
+  return detail::Access::make_changes(
+      engine::compare_runs(detail::Access::run(baseline), detail::Access::run(current)));
+}
+
+bool want_colour(int fd) { return engine::want_colour(fd); }
+
+}  // namespace thetagate

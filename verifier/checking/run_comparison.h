@@ -1,0 +1,71 @@
+// Drift: what changed between a baseline run (a JSON report read back with
+// reports/baseline.h) and this run, per claim, as plain values.
+// reports/drift.h writes them.
+#ifndef THETAGATE_VERIFIER_CHECKING_RUN_COMPARISON_H_
+#define THETAGATE_VERIFIER_CHECKING_RUN_COMPARISON_H_
+
+#include <cstddef>
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "verifier/checking/result.h"
+
+namespace thetagate::engine {
+
+// A band end moves when it changes by more than a factor 2^0.5 (about 1.41)
+// either way, i.e. by more than 0.5 in log2. Ends found at random sizes
+// wobble by less between runs with the same seed and claims; a change in the
+// recurrence or in how sizes are chosen moves them by more. Only scales
+// present in both runs are compared (a changed max_bits adds or drops whole
+// scales, which is not a move).
+inline constexpr double kBandMoveLog2 = 0.5;
+
+// One scale whose low or high end moved.
+struct BandMove {
+  BandRow before;
+  BandRow after;
+  bool low_moved = false;
+  bool high_moved = false;
+};
+
+// One claim that drifted. Claims are matched by name and file (the path as
+// given on the command line, so run nightly jobs from the same folder).
+struct ClaimDrift {
+  std::string name;
+  std::string file;
+  int line = 0;                   // this run's line; the baseline's for a lost claim
+  std::optional<Verdict> before;  // nullopt: a new claim (not in the baseline)
+  std::optional<Verdict> after;   // nullopt: a lost claim (not in this run)
+  std::string derived_before;     // "" when none was derived
+  std::string derived_after;
+  std::vector<Witness> new_witnesses;   // in this run only, matched by n and side
+  std::vector<Witness> lost_witnesses;  // in the baseline only
+  std::vector<BandMove> band_moves;     // in scale order
+
+  bool is_new() const { return !before; }
+  bool is_lost() const { return !after; }
+  bool verdict_changed() const { return before && after && *before != *after; }
+  bool derived_changed() const { return before && after && derived_before != derived_after; }
+};
+
+struct DriftReport {
+  uint64_t baseline_seed = 0;
+  uint64_t current_seed = 0;
+  size_t compared = 0;             // claims present in both runs
+  std::vector<ClaimDrift> claims;  // only claims with a change: this run's order, then lost ones
+
+  bool any() const { return !claims.empty(); }
+};
+
+// Every change from `baseline` to `current`: verdicts, new and lost claims,
+// new and lost witnesses (by n and side), band moves (kBandMoveLog2) and
+// changes of the derived class. Witnesses of a new or lost claim are not
+// listed again. With different seeds, witnesses and band ends found at
+// random sizes can move for that reason alone; the renderers say so.
+DriftReport compare_runs(const RunResult& baseline, const RunResult& current);
+
+}  // namespace thetagate::engine
+
+#endif  // THETAGATE_VERIFIER_CHECKING_RUN_COMPARISON_H_
