@@ -94,6 +94,8 @@ const char* basis_name(Basis b) { return engine::basis_name(static_cast<engine::
 // The public Basis mirrors the engine's BasisKind one for one.
 static_assert(static_cast<int>(Basis::kInternalError) ==
               static_cast<int>(engine::BasisKind::kInternalError));
+static_assert(static_cast<int>(Basis::kCodeBreaksModel) ==
+              static_cast<int>(engine::BasisKind::kCodeBreaksModel));
 static_assert(static_cast<int>(Basis::kInputError) ==
               static_cast<int>(engine::BasisKind::kInputError));
 

@@ -377,18 +377,19 @@ class ReportReader {
   }
 
   // The basis of a version-2 report; a version-1 report has none.
-  VerdictBasis basis(const Json& o, const std::string& outer) {
+  VerdictBasis basis(const Json& o, const std::string& outer, const char* key = "basis") {
     VerdictBasis b;
-    const Json* jp = optional_key(o, "basis");
-    if (!jp) return b;
+    const Json* jp = optional_key(o, key);
+    if (!jp || jp->is_null()) return b;
     const Json& j = *jp;
-    std::string path = join(outer, "basis");
+    std::string path = join(outer, key);
     expect_object(j, path);
     std::string kind = string_at(j, path, "kind");
     for (BasisKind k :
          {BasisKind::kDerivationAgrees, BasisKind::kInduction, BasisKind::kDerivationContradicts,
           BasisKind::kCertifiedBreak, BasisKind::kNumericTrend, BasisKind::kBudgetReached,
-          BasisKind::kInternalInconsistency, BasisKind::kInputError, BasisKind::kInternalError}) {
+          BasisKind::kInternalInconsistency, BasisKind::kInputError, BasisKind::kInternalError,
+          BasisKind::kCodeBreaksModel}) {
       if (kind == basis_name(k)) b.kind = k;
     }
     std::string unproved = string_at(j, path, "unproved");
@@ -466,6 +467,64 @@ class ReportReader {
     return b;
   }
 
+  int sign_value(const Json& j, const std::string& path) {
+    if (!j.is_number_integer() || j.get<int64_t>() < -1 || j.get<int64_t>() > 1) {
+      wrong_type(j, path, "-1, 0 or 1");
+    }
+    return static_cast<int>(j.get<int64_t>());
+  }
+
+  std::optional<CodeResult> code(const Json& o, const std::string& path) {
+    const Json* j = optional_key(o, "code");
+    if (!j || j->is_null()) return std::nullopt;
+    std::string at = join(path, "code");
+    expect_object(*j, at);
+    CodeResult code;
+    code.relation = string_at(*j, at, "relation");
+    code.source = optional_string(*j, at, "source");
+    code.measurements = optional_unsigned(*j, at, "measurements");
+    if (const Json* mv = optional_key(*j, "model_verdict"); mv && !mv->is_null()) {
+      code.model_verdict = verdict_value(*mv, join(at, "model_verdict"));
+      code.model_basis = basis(*j, at, "model_basis");
+    }
+    if (const Json* rows = optional_key(*j, "rows")) {
+      std::string rows_at = join(at, "rows");
+      expect_array(*rows, rows_at);
+      for (size_t i = 0; i < rows->size(); ++i) {
+        std::string row_at = rows_at + "[" + std::to_string(i) + "]";
+        const Json& r = (*rows)[i];
+        expect_object(r, row_at);
+        CostRow row;
+        row.n = size_value(require(r, row_at, "n"), join(row_at, "n"));
+        row.cost = string_at(r, row_at, "cost");
+        row.model = string_at(r, row_at, "model");
+        row.sign = sign_value(require(r, row_at, "sign"), join(row_at, "sign"));
+        row.runs = optional_unsigned(r, row_at, "runs");
+        row.from = optional_string(r, row_at, "from");
+        code.rows.push_back(std::move(row));
+      }
+    }
+    if (const Json* violations = optional_key(*j, "violations")) {
+      std::string list_at = join(at, "violations");
+      expect_array(*violations, list_at);
+      for (size_t i = 0; i < violations->size(); ++i) {
+        std::string v_at = list_at + "[" + std::to_string(i) + "]";
+        const Json& v = (*violations)[i];
+        expect_object(v, v_at);
+        CostViolation violation;
+        violation.n = size_value(require(v, v_at, "n"), join(v_at, "n"));
+        violation.cost = string_at(v, v_at, "cost");
+        violation.model = string_at(v, v_at, "model");
+        violation.file = optional_string(v, v_at, "file");
+        violation.line = static_cast<int>(optional_unsigned(v, v_at, "line"));
+        violation.input = optional_string(v, v_at, "input");
+        violation.replay = optional_string(v, v_at, "replay");
+        code.violations.push_back(std::move(violation));
+      }
+    }
+    return code;
+  }
+
   ClaimResult claim(const Json& j, const std::string& path) {
     expect_object(j, path);
     ClaimResult c;
@@ -507,6 +566,7 @@ class ReportReader {
     c.basis = basis(j, path);
     if (const Json* f = optional_key(j, "function"))
       c.function = string_value(*f, join(path, "function"));
+    c.code = code(j, path);
     return c;
   }
 

@@ -7,6 +7,7 @@
 #include <cstdlib>
 
 #include "reports/band_plot.h"
+#include "reports/cost_plot.h"
 #include "reports/number_text.h"
 #include "reports/verdict_text.h"
 #include "reports/xml_escape.h"
@@ -45,6 +46,13 @@ pre.diagnostic { background: #f6f4f8; padding: 0.6em; overflow-x: auto; }
 .band-plot .edge { fill: none; stroke: #1565c0; stroke-width: 1.5; }
 .band-plot .mark { fill: #1565c0; }
 .band-plot .constant { stroke: #c62828; stroke-dasharray: 5 4; }
+.cost-plot { display: block; margin: 0.4em 0; max-width: 100%; height: auto; }
+.cost-plot .frame { fill: #fafbfc; stroke: #bbb; }
+.cost-plot .grid { stroke: #e3e5e8; }
+.cost-plot .tick, .cost-plot .axis, .cost-plot .legend { font: 11px sans-serif; fill: #555; }
+.cost-plot .model { fill: none; stroke: #1565c0; stroke-width: 1.5; }
+.cost-plot .counted { fill: #2e7d32; }
+.cost-plot .counted.broken { fill: #c62828; }
 )css";
 
 std::string esc(const std::string& text) { return xml_escape_text(text); }
@@ -107,6 +115,32 @@ std::vector<PlotLine> plot_lines(const ClaimResult& c) {
   return lines;
 }
 
+// Code -> model: the violations, then counted costs against T(n) as a plot.
+std::string code_section(const CodeResult& code) {
+  std::string s = "<h3>Code against model: " + esc(code.source) + "</h3>\n";
+  s += fmt::format("<p>{} measurement{} at {} size{}; the model is {}.</p>\n", code.measurements,
+                   code.measurements == 1 ? "" : "s", code.rows.size(),
+                   code.rows.size() == 1 ? "" : "s",
+                   esc(code.relation == "exact"         ? std::string("exact")
+                       : code.relation == "upper bound" ? "an upper bound"
+                                                        : "a " + code.relation));
+  if (!code.violations.empty()) {
+    s += "<table class=\"violations\">\n<tr><th>n</th><th>counted</th><th>T(n)</th>"
+         "<th>where</th><th>input</th><th>replay</th></tr>\n";
+    for (const CostViolation& v : code.violations) {
+      std::string where = v.file.empty() ? "" : v.file + ":" + std::to_string(v.line);
+      s += "<tr>" + number_cell(v.n.str(), short_decimal(v.n)) +
+           number_cell(v.cost, short_value(v.cost)) + number_cell(v.model, short_value(v.model)) +
+           "<td>" + esc(where) + "</td><td><code>" + esc(v.input) + "</code></td><td><code>" +
+           esc(v.replay) + "</code></td></tr>\n";
+    }
+    s += "</table>\n";
+  }
+  std::string plot = render_cost_plot(code);
+  if (!plot.empty()) s += plot + "\n";
+  return s;
+}
+
 std::string claim_section(const ClaimResult& c, size_t index) {
   std::string s =
       fmt::format("<section class=\"claim {}\" id=\"claim-{}\">\n", verdict_name(c.verdict), index);
@@ -133,6 +167,7 @@ std::string claim_section(const ClaimResult& c, size_t index) {
   s += list("Theorems that do not apply", "ul", c.failed_hypotheses);
   s += list("Assumptions", "ul", c.notes);
   if (!c.witnesses.empty()) s += witness_table(c);
+  if (c.code) s += code_section(*c.code);
   std::string plot = render_band_plot(c.band, plot_lines(c));
   if (!plot.empty()) {
     s += fmt::format("<h3>Ratio band across {} scale{}</h3>\n", c.band.size(),

@@ -125,6 +125,42 @@ Json basis_json(const VerdictBasis& b) {
   return j;
 }
 
+Json code_json(const std::optional<CodeResult>& code) {
+  if (!code) return nullptr;
+  Json j;
+  j["relation"] = code->relation;
+  j["source"] = code->source;
+  j["measurements"] = code->measurements;
+  // The recurrence's own verdict when the code's costs refuted the claim.
+  j["model_verdict"] =
+      code->model_verdict ? Json(verdict_name(*code->model_verdict)) : Json(nullptr);
+  j["model_basis"] = code->model_verdict ? basis_json(code->model_basis) : Json(nullptr);
+  j["rows"] = Json::array();
+  for (const CostRow& r : code->rows) {
+    Json row;
+    row["n"] = r.n.str();
+    row["cost"] = r.cost;
+    row["model"] = r.model;
+    row["sign"] = r.sign;
+    row["runs"] = r.runs;
+    row["from"] = r.from;
+    j["rows"].push_back(row);
+  }
+  j["violations"] = Json::array();
+  for (const CostViolation& v : code->violations) {
+    Json violation;
+    violation["n"] = v.n.str();
+    violation["cost"] = v.cost;
+    violation["model"] = v.model;
+    violation["file"] = v.file;
+    violation["line"] = v.line;
+    violation["input"] = v.input;
+    violation["replay"] = v.replay;
+    j["violations"].push_back(violation);
+  }
+  return j;
+}
+
 Json claim_json(const ClaimResult& c) {
   Json j;
   // The docs/design.md §6 keys first, in that order.
@@ -157,6 +193,7 @@ Json claim_json(const ClaimResult& c) {
   j["basis"] = basis_json(c.basis);
   j["steps"] = c.steps;
   j["failed_hypotheses"] = c.failed_hypotheses;
+  j["code"] = code_json(c.code);
   return j;
 }
 

@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cstdint>
 
+#include "reports/code_text.h"
 #include "reports/number_text.h"
 #include "reports/verdict_text.h"
 #include "reports/xml_escape.h"
@@ -69,6 +70,7 @@ std::string outcome_element(const ClaimResult& c, const JunitOptions& options) {
       std::string body = claim_headline(c);
       if (!message.empty()) body += message + "\n";
       body += witness_block(c);
+      if (c.code) body += code_link_text(*c.code, "");
       return "      <failure" + attr("message", message) + attr("type", "refuted") + ">" +
              xml_escape_text(body) + "</failure>\n";
     }
@@ -93,6 +95,7 @@ std::string outcome_element(const ClaimResult& c, const JunitOptions& options) {
 std::string system_out(const ClaimResult& c) {
   std::string s;
   if (c.verdict == Verdict::kHolds) s += claim_headline(c) + "proof: " + proof_name(c) + "\n";
+  if (c.code && c.verdict != Verdict::kRefuted) s += code_link_text(*c.code, "");
   for (const std::string& note : c.notes) s += "assumption: " + note + "\n";
   if (!c.note.empty()) s += "note: " + c.note + "\n";
   for (const std::string& step : c.steps) s += "derivation: " + step + "\n";

@@ -9,6 +9,7 @@
 #include <cstdlib>
 #include <vector>
 
+#include "reports/code_text.h"
 #include "reports/number_text.h"
 #include "reports/verdict_text.h"
 #include "verifier/syntax/source.h"
@@ -247,6 +248,7 @@ void append_detail(std::string& out, const RunResult& run, const ClaimResult& c,
   if (has_diagnostic)
     append_indented(out, kIndent, format_diagnostic(*c.error), /*wrap_lines=*/false);
   append_witnesses(out, c);
+  if (c.code) out += code_link_text(*c.code, kIndent);
   append_band(out, c);
   append_list(out, "assumptions:", c.notes);
   if (!c.note.empty()) append_indented(out, kIndent, "note: " + c.note);

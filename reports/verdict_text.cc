@@ -61,6 +61,26 @@ std::string basis_message(const ClaimResult& c) {
   switch (b.kind) {
     case BasisKind::kInputError:
       return c.error ? c.error->message : b.detail;
+    case BasisKind::kCodeBreaksModel: {
+      if (!c.code || c.code->violations.empty()) return "the code breaks its model";
+      const CodeResult& code = *c.code;
+      const CostViolation& v = code.violations.front();
+      int sign = 0;
+      for (const CostRow& row : code.rows)
+        if (row.n == v.n) sign = row.sign;
+      const char* broken = code.relation == "exact"         ? (sign > 0 ? "exceeds the exact model"
+                                                                        : "falls short of the exact model")
+                           : code.relation == "lower bound" ? "falls below"
+                                                            : "exceeds";
+      std::string where = v.file.empty() ? "" : " (" + v.file + ":" + std::to_string(v.line) + ")";
+      std::string s = "the code breaks its model: at n = " + v.n.str() + where +
+                      " the counted cost " + v.cost + " " + broken + " " + c.function +
+                      "(n) = " + v.model;
+      if (code.violations.size() > 1) {
+        s += " (" + std::to_string(code.violations.size()) + " violations)";
+      }
+      return s;
+    }
     case BasisKind::kInternalError:
       return "internal error (a bug in thetagate, please report it with this claim): " + b.detail;
     case BasisKind::kCertifiedBreak: {
@@ -169,6 +189,15 @@ std::string basis_message(const ClaimResult& c) {
 std::string verdict_message(const ClaimResult& c) {
   std::string m = basis_message(c);
   const VerdictBasis& b = c.basis;
+  if (b.kind == BasisKind::kCodeBreaksModel && c.code && c.code->model_verdict) {
+    // Both links: the code against its model, then the model against its bound.
+    ClaimResult model = c;
+    model.verdict = *c.code->model_verdict;
+    model.basis = c.code->model_basis;
+    model.code.reset();
+    return m + ". The recurrence itself " + verdict_name(model.verdict) + ": " +
+           verdict_message(model);
+  }
   if (b.reading.empty()) return m;
   if (b.reading == "floor and ceil") return "holds with quotients read as floor and as ceil: " + m;
   std::string reading = b.reading;

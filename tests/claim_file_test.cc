@@ -18,19 +18,30 @@ std::string error_text(const ClaimEntry& entry) {
   return entry.error ? format_diagnostic(*entry.error) : "(no error)";
 }
 
-// docs/language.md's key table and the reader's key lists say the same: a
-// row "| `key` | ..." per claim key, and the `sizes` row naming each size key.
+// docs/language.md's key tables and the reader's key lists say the same: a
+// row "| `key` | ..." per claim key (under "Claim files"), the `sizes` row
+// naming each size key, and a row per [claim.code] key (under "Linking a
+// claim to code").
 TEST(ClaimFile, KeyTableInTheLanguageDocsMatchesTheReader) {
   std::ifstream in(std::string(THETAGATE_SOURCE_DIR) + "/docs/language.md");
   ASSERT_TRUE(in) << "docs/language.md not found";
-  std::vector<std::string> documented;
-  std::string sizes_row;
+  std::vector<std::string> documented, code_documented;
+  std::string sizes_row, section;
   for (std::string line; std::getline(in, line);) {
+    if (line.rfind("## ", 0) == 0) section = line.substr(3);
     if (line.rfind("| `", 0) != 0) continue;
     std::string key = line.substr(3, line.find('`', 3) - 3);
+    if (section == "Linking a claim to code") {
+      code_documented.push_back(key);
+      continue;
+    }
     documented.push_back(key);
     if (key == "sizes") sizes_row = line;
   }
+  std::vector<std::string> code_read = code_keys();
+  std::sort(code_documented.begin(), code_documented.end());
+  std::sort(code_read.begin(), code_read.end());
+  EXPECT_EQ(code_documented, code_read);
   std::vector<std::string> read = claim_keys();
   std::sort(documented.begin(), documented.end());
   std::sort(read.begin(), read.end());
@@ -109,12 +120,12 @@ TEST(ClaimFile, UnknownKeyNamesTheKeyAndSuggestsTheClosestOne) {
   ASSERT_EQ(entries.size(), 1u);
   EXPECT_EQ(entries[0].name, "orchard::kd_build / visits");
   EXPECT_FALSE(entries[0].claim);
-  EXPECT_EQ(
-      error_text(entries[0]),
-      "mem.toml:4:3: error: unknown key 'bounds' in [[claim]]\n"
-      "  bounds = \"Theta(n lg n)\"\n"
-      "  ^\n"
-      "  hint: did you mean 'bound'? allowed keys: name, recurrence, bound, note, sizes, rounding");
+  EXPECT_EQ(error_text(entries[0]),
+            "mem.toml:4:3: error: unknown key 'bounds' in [[claim]]\n"
+            "  bounds = \"Theta(n lg n)\"\n"
+            "  ^\n"
+            "  hint: did you mean 'bound'? allowed keys: name, recurrence, bound, note, sizes, "
+            "rounding, code");
 }
 
 TEST(ClaimFile, UnknownKeyInSizes) {

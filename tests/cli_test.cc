@@ -138,6 +138,25 @@ TEST_F(Cli, OnlyErrorsExitTwo) {
   EXPECT_NE(r.out.find("bad.toml:5:1"), std::string::npos) << r.out;
 }
 
+TEST_F(Cli, MeasuredCostsAreCheckedLineByLine) {
+  // Costs written by a test in another language: T(5) = 8 for the merge-sort
+  // worst case (Suchenek's closed form n ceil(lg n) - 2^ceil(lg n) + 1).
+  std::filesystem::create_directories(dir_ / "costs");
+  write_file("costs/merge.txt", "# n comparisons\n4 5\n5 9\n");
+  std::string file = write_file(
+      "measured.toml", std::string(kMergeSortTrue) + "[claim.code]\ncosts = \"costs/merge.txt\"\n");
+  CommandResult r = run("check --max-bits 64 " + file);
+  EXPECT_EQ(r.status, 1) << r.out;
+  EXPECT_NE(r.out.find("the code breaks its model: at n = 5"), std::string::npos) << r.out;
+  EXPECT_NE(r.out.find("merge.txt:3): counted cost 9 > T(n) = 8"), std::string::npos) << r.out;
+  write_file("costs/merge.txt", "4 5\n5 eight\n");
+  CommandResult bad = run("check --max-bits 64 " + file);
+  EXPECT_EQ(bad.status, 2) << bad.out;
+  EXPECT_NE(bad.out.find("merge.txt:2:3: error: the cost must be a non-negative whole number"),
+            std::string::npos)
+      << bad.out;
+}
+
 TEST_F(Cli, MissingPathIsUsageError) {
   CommandResult r = run("check /nonexistent/claims.toml");
   EXPECT_EQ(r.status, 2) << r.out;

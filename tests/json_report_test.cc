@@ -41,12 +41,12 @@ TEST(JsonReport, TopLevelKeysInOrder) {
 TEST(JsonReport, ClaimKeysStartWithTheDesignKeys) {
   Json j = Json::parse(render_json(sample_run()));
   // docs/design.md §6 keys first and in that order, then the schema-1 and
-  // schema-2 additions.
+  // schema-2 additions (the last, `code`, from the link to code).
   std::vector<std::string> expected = {
-      "name",     "file",    "line",      "verdict",       "claimed",          "derived",
-      "method",   "tight",   "witnesses", "band",          "message",          "numeric_only",
-      "notes",    "reasons", "note",      "sizes_checked", "largest_bits",     "error",
-      "function", "proof",   "basis",     "steps",         "failed_hypotheses"};
+      "name",     "file",    "line",      "verdict",       "claimed",           "derived",
+      "method",   "tight",   "witnesses", "band",          "message",           "numeric_only",
+      "notes",    "reasons", "note",      "sizes_checked", "largest_bits",      "error",
+      "function", "proof",   "basis",     "steps",         "failed_hypotheses", "code"};
   for (const Json& claim : j["claims"]) EXPECT_EQ(keys_of(claim), expected);
 }
 

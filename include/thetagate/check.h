@@ -75,6 +75,7 @@ enum class Basis {
   kInternalInconsistency,  // undecided: a theorem and the exact values disagree (a bug)
   kInputError,             // error: the claim is malformed
   kInternalError,          // error: a bug in thetagate while checking this claim
+  kCodeBreaksModel,        // refuted: a counted cost of the code is on the wrong side of T(n)
 };
 // "derivation_agrees", "induction", ... (the JSON report's basis.kind).
 THETAGATE_API const char* basis_name(Basis b);

@@ -5,6 +5,7 @@
 #include <set>
 
 #include "verifier/checking/claim_check.h"
+#include "verifier/checking/code_check.h"
 
 namespace thetagate::engine {
 
@@ -132,9 +133,7 @@ ClaimResult combine_readings(ClaimResult floor_result, ClaimResult ceil_result) 
   return labelled(ceil_result, "ceil", floor_result);
 }
 
-}  // namespace
-
-ClaimResult check_claim(const Claim& claim, const CheckOptions& options) {
+ClaimResult check_model(const Claim& claim, const CheckOptions& options) {
   Rounding rounding = options.rounding.value_or(claim.rounding.value_or(Rounding::kFloor));
   if (rounding == Rounding::kFloor || !has_unrounded_calls(*claim.recurrence)) {
     return check_one_reading(claim, options);
@@ -144,6 +143,30 @@ ClaimResult check_claim(const Claim& claim, const CheckOptions& options) {
   if (rounding == Rounding::kCeil) return check_one_reading(ceil_claim, options);
   return combine_readings(check_one_reading(claim, options),
                           check_one_reading(ceil_claim, options));
+}
+
+}  // namespace
+
+ClaimResult check_claim(const Claim& claim, const CheckOptions& options) {
+  ClaimResult result = check_model(claim, options);
+  // Code -> model: a claim's measured costs, checked whatever the bound's
+  // verdict (the report shows both links); an error in them is the claim's.
+  if (result.verdict == Verdict::kError || !claim.code || claim.code->costs_path.empty()) {
+    return result;
+  }
+  try {
+    apply_code_result(result, check_costs_file(claim));
+  } catch (const InputError& e) {
+    return error_result(result, e.diagnostic());
+  } catch (const BudgetExceeded& e) {
+    result.verdict = Verdict::kUndecided;
+    result.basis = VerdictBasis{};
+    result.basis.kind = BasisKind::kBudgetReached;
+    result.basis.unproved = Unproved::kEvaluatorLimit;
+    result.basis.detail =
+        std::string("out of budget while checking the measured costs: ") + e.what();
+  }
+  return result;
 }
 
 ClaimResult check_entry(const ClaimEntry& entry, const CheckOptions& options) {

@@ -54,6 +54,8 @@ const char* basis_name(BasisKind k) {
       return "input_error";
     case BasisKind::kInternalError:
       return "internal_error";
+    case BasisKind::kCodeBreaksModel:
+      return "code_breaks_model";
   }
   return "?";
 }

@@ -79,6 +79,7 @@ enum class BasisKind {
   kInternalInconsistency,  // undecided: a theorem and the exact values disagree (a bug)
   kInputError,             // error: the claim is malformed
   kInternalError,          // error: a bug in thetagate while checking this claim (detail)
+  kCodeBreaksModel,        // refuted: a counted cost of the code is on the wrong side of T(n)
 };
 const char* basis_name(BasisKind k);  // "derivation_agrees", "induction", ...
 
@@ -149,6 +150,44 @@ struct VerdictBasis {
   std::optional<Verdict> other_reading;
 };
 
+// The link from the recurrence to the code (a claim's [claim.code] table):
+// counted costs, from a costs file or from a runner, against T(n).
+//
+// Per size, the counted cost furthest toward breaking the model (the largest
+// for an upper-bound model, the smallest for a lower bound, any differing one
+// for an exact model, else the first): how tight the model is.
+struct CostRow {
+  BigInt n;
+  std::string cost;   // counted, decimal
+  std::string model;  // T(n), exact ("159", "7/2", or "[lo, hi]")
+  int sign = 0;       // sign of cost − T(n)
+  uint64_t runs = 0;  // measurements at this n
+  std::string from;   // "costs.txt:12", or the family that produced n
+};
+
+// A counted cost on the wrong side of T(n).
+struct CostViolation {
+  BigInt n;
+  std::string cost;
+  std::string model;
+  std::string file;  // costs files: the file and line of the measurement
+  int line = 0;
+  std::string input;   // runners: the input, shrunk, as text
+  std::string replay;  // runners: how to replay it
+};
+
+struct CodeResult {
+  // The recurrence's own verdict and basis before a violation refuted the
+  // claim (reports show both links); unset when no violation changed it.
+  std::optional<Verdict> model_verdict;
+  VerdictBasis model_basis;
+  std::string relation;       // relation_name(): "upper bound", "exact", "lower bound"
+  std::string source;         // the costs file as written, or the runner's name
+  uint64_t measurements = 0;  // costs counted (lines, or runs)
+  std::vector<CostRow> rows;  // ascending n
+  std::vector<CostViolation> violations;
+};
+
 struct ClaimResult {
   std::string name;
   std::string file;
@@ -170,7 +209,8 @@ struct ClaimResult {
   std::string internal_error;                  // verdict error: a bug, what broke ("" otherwise)
   std::string note;                            // the claim's own `note`, copied
   uint64_t sizes_checked = 0;
-  uint64_t largest_bits = 0;  // bits of the largest size evaluated
+  uint64_t largest_bits = 0;       // bits of the largest size evaluated
+  std::optional<CodeResult> code;  // the claim's link to code, when it has one
 };
 
 struct RunResult {

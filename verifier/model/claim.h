@@ -26,6 +26,25 @@ struct SizeOptions {
 enum class Rounding { kFloor, kCeil, kBoth };
 const char* rounding_name(Rounding r);  // "floor", "ceil", "both"
 
+// How the recurrence relates to the code it models: every counted cost is at
+// most T(n) (the usual worst-case model), exactly T(n), or at least T(n).
+enum class ModelRelation { kUpperBound, kExact, kLowerBound };
+const char* relation_name(ModelRelation r);  // "upper bound", "exact", "lower bound"
+
+// The optional [claim.code] table: the link from the recurrence to the code
+// (docs/language.md, "Linking a claim to code").
+struct CodeLink {
+  Location where;  // the table
+  ModelRelation model = ModelRelation::kUpperBound;
+  // `costs`: a file of measured "size cost" lines, as written and resolved
+  // against the claim file's folder; empty when the claim has none.
+  std::string costs_as_written;
+  std::string costs_path;
+  Location costs_where;  // the value of `costs`
+  // `max_n`: the largest size a runner is given (runnable sizes).
+  uint64_t max_n = 65536;
+};
+
 struct Claim {
   std::string name;
   Location where;  // the [[claim]] header
@@ -34,6 +53,7 @@ struct Claim {
   std::string note;
   SizeOptions sizes;
   std::optional<Rounding> rounding;  // the claim's own `rounding` key
+  std::optional<CodeLink> code;      // the claim's [claim.code] table
 };
 
 // One entry of a claim file: a claim, or the error that stopped it. A claim
@@ -50,6 +70,7 @@ struct ClaimEntry {
 // docs/language.md's key table lists exactly these (a test checks).
 const std::vector<std::string>& claim_keys();
 const std::vector<std::string>& size_keys();
+const std::vector<std::string>& code_keys();  // of a claim's [claim.code] table
 
 // Reads one TOML claim file. Never throws for bad content: a file that is
 // not valid TOML yields one entry with the error; each malformed claim

@@ -21,9 +21,11 @@ namespace thetagate::engine {
 namespace {
 
 const std::vector<std::string> kTopLevelKeys = {"claim"};
-const std::vector<std::string> kClaimKeys = {"name", "recurrence", "bound",
-                                             "note", "sizes",      "rounding"};
+const std::vector<std::string> kClaimKeys = {"name",  "recurrence", "bound", "note",
+                                             "sizes", "rounding",   "code"};
 const std::vector<std::string> kSizeKeys = {"max_bits", "families", "min_n", "effort"};
+const std::vector<std::string> kCodeKeys = {"model", "costs", "max_n"};
+constexpr int64_t kMaxRunnableN = int64_t{1} << 40;
 constexpr int64_t kMaxBitsLimit = 65536;
 constexpr int64_t kMaxEffort = 10000;  // as --effort
 
@@ -130,6 +132,7 @@ class ClaimFileReader {
                   const std::string& where) const;
   ClaimEntry read_claim(const toml::table& t);
   void read_sizes(const toml::node& node, SizeOptions& sizes) const;
+  CodeLink read_code(const toml::node& node) const;
 
   std::shared_ptr<const SourceFile> file_;
   SourceText whole_;  // the whole file, for file-level positions
@@ -323,6 +326,56 @@ void ClaimFileReader::read_sizes(const toml::node& node, SizeOptions& sizes) con
   }
 }
 
+CodeLink ClaimFileReader::read_code(const toml::node& node) const {
+  const toml::table* t = node.as_table();
+  if (!t) {
+    fail(node.source().begin, "'code' must be a table, found " + type_with_article(node.type()),
+         "write a [claim.code] table with model = \"upper bound\" and costs = \"costs.txt\"");
+  }
+  check_keys(*t, kCodeKeys, "code");
+  CodeLink code;
+  code.where = locate(t->source().begin);
+  if (const toml::node* model = t->get("model")) {
+    std::string value = model->is_string() ? model->as_string()->get() : "";
+    if (value == "upper bound")
+      code.model = ModelRelation::kUpperBound;
+    else if (value == "exact")
+      code.model = ModelRelation::kExact;
+    else if (value == "lower bound")
+      code.model = ModelRelation::kLowerBound;
+    else {
+      fail(model->source().begin, "'model' must be \"upper bound\", \"exact\" or \"lower bound\"",
+           "\"upper bound\": every counted cost is at most T(n) (a worst-case model)");
+    }
+  }
+  if (const toml::node* costs = t->get("costs")) {
+    const auto* s = costs->as_string();
+    if (!s || s->get().empty()) {
+      fail(costs->source().begin,
+           "'costs' must name a file, found " +
+               (s ? std::string("an empty string") : type_with_article(costs->type())),
+           "write costs = \"costs/stable_sort.txt\" (relative to this claim file)");
+    }
+    code.costs_as_written = s->get();
+    std::filesystem::path path(s->get());
+    if (path.is_relative()) path = std::filesystem::path(file_->name).parent_path() / path;
+    code.costs_path = path.lexically_normal().string();
+    code.costs_where = locate(costs->source().begin);
+  }
+  if (const toml::node* max_n = t->get("max_n")) {
+    const auto* i = max_n->as_integer();
+    if (!i || i->get() < 1 || i->get() > kMaxRunnableN) {
+      fail(max_n->source().begin,
+           "'max_n' must be an integer between 1 and 2^40" +
+               (i ? ", found " + std::to_string(i->get())
+                  : ", found " + type_with_article(max_n->type())),
+           "the largest size a runner is given; the default is 65536");
+    }
+    code.max_n = static_cast<uint64_t>(i->get());
+  }
+  return code;
+}
+
 ClaimEntry ClaimFileReader::read_claim(const toml::table& t) {
   ClaimEntry entry;
   entry.where = locate(t.source().begin);
@@ -371,6 +424,7 @@ ClaimEntry ClaimFileReader::read_claim(const toml::table& t) {
              "write rounding = \"both\" to check T(n/2) read as floor and as ceil");
       }
     }
+    if (const toml::node* code = t.get("code")) claim.code = read_code(*code);
     claim.recurrence = build_recurrence(text_of(*t.get("recurrence"), recurrence));
     claim.bound = parse_bound(text_of(*t.get("bound"), bound), claim.recurrence->main.name);
     entry.claim = std::move(claim);
@@ -512,6 +566,19 @@ std::vector<ClaimEntry> load_claim_file(const std::string& path) {
 
 const std::vector<std::string>& claim_keys() { return kClaimKeys; }
 const std::vector<std::string>& size_keys() { return kSizeKeys; }
+const std::vector<std::string>& code_keys() { return kCodeKeys; }
+
+const char* relation_name(ModelRelation r) {
+  switch (r) {
+    case ModelRelation::kUpperBound:
+      return "upper bound";
+    case ModelRelation::kExact:
+      return "exact";
+    case ModelRelation::kLowerBound:
+      return "lower bound";
+  }
+  return "?";
+}
 
 const char* rounding_name(Rounding r) {
   switch (r) {

@@ -1,0 +1,23 @@
+// The link from a claim's recurrence to its code, as plain text: shared by the
+// text and JUnit reports and by the test-suite guard's failure messages.
+#ifndef THETAGATE_REPORTS_CODE_TEXT_H_
+#define THETAGATE_REPORTS_CODE_TEXT_H_
+
+#include <string>
+
+#include "verifier/checking/result.h"
+
+namespace thetagate::engine {
+
+// "counted cost 40 > T(n) = 33" and the like, for one violation.
+std::string violation_text(const CodeResult& code, const CostViolation& v);
+
+// Several lines, each starting with `indent`, ending with a newline: the
+// source and relation, the violations (at most `max_violations`), and at most
+// `max_rows` per-size rows (evenly spread, always the first and the last).
+std::string code_link_text(const CodeResult& code, const std::string& indent,
+                           size_t max_violations = 5, size_t max_rows = 8);
+
+}  // namespace thetagate::engine
+
+#endif  // THETAGATE_REPORTS_CODE_TEXT_H_

@@ -1,0 +1,237 @@
+// Measured-cost files: a claim's [claim.code] table names a file of "size
+// cost" lines, checked exactly against T(n) under the claim's relation.
+#include "verifier/checking/code_check.h"
+
+#include <gtest/gtest.h>
+#include <unistd.h>
+
+#include <filesystem>
+#include <fstream>
+#include <nlohmann/json.hpp>
+#include <vector>
+
+#include "reports/baseline.h"
+#include "reports/html_report.h"
+#include "reports/json_report.h"
+#include "reports/junit_report.h"
+#include "reports/text_report.h"
+#include "reports/verdict_text.h"
+#include "thetagate/cost.h"
+#include "verifier/checking/checker.h"
+#include "verifier/model/claim.h"
+
+namespace thetagate::engine {
+namespace {
+
+// A top-down merge sort written the common way (split at n/2, merge until one
+// run is empty, copy the rest), counting its comparisons.
+void merge_sort(std::vector<int>& v, size_t lo, size_t hi, std::vector<int>& scratch,
+                CostCounter& comparisons) {
+  if (hi - lo < 2) return;
+  size_t mid = lo + (hi - lo) / 2;
+  merge_sort(v, lo, mid, scratch, comparisons);
+  merge_sort(v, mid, hi, scratch, comparisons);
+  auto less = counting(comparisons);
+  size_t i = lo, j = mid, k = lo;
+  while (i < mid && j < hi) scratch[k++] = less(v[j], v[i]) ? v[j++] : v[i++];
+  while (i < mid) scratch[k++] = v[i++];
+  while (j < hi) scratch[k++] = v[j++];
+  std::copy(scratch.begin() + lo, scratch.begin() + hi, v.begin() + lo);
+}
+
+uint64_t merge_sort_comparisons(std::vector<int> v) {
+  std::vector<int> scratch(v.size());
+  CostCounter c;
+  merge_sort(v, 0, v.size(), scratch, c);
+  return c.count();
+}
+
+const char* kMergeRecurrence = R"(
+T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1
+T(1) = 0
+)";
+
+class CostsFile : public ::testing::Test {
+ protected:
+  void SetUp() override {
+    dir_ = std::filesystem::temp_directory_path() /
+           ("thetagate-costs-" + std::to_string(::getpid()) + "-" +
+            ::testing::UnitTest::GetInstance()->current_test_info()->name());
+    std::filesystem::create_directories(dir_ / "costs");
+  }
+  void TearDown() override { std::filesystem::remove_all(dir_); }
+
+  void write(const std::string& name, const std::string& text) {
+    std::ofstream(dir_ / name, std::ios::binary) << text;
+  }
+
+  // A claim file with one merge-sort claim whose code table says `code`.
+  ClaimResult check(const std::string& code_table) {
+    std::string toml = std::string("[[claim]]\nname = \"merge\"\nrecurrence = \"\"\"") +
+                       kMergeRecurrence + "\"\"\"\nbound = \"Theta(n lg n)\"\n" + code_table;
+    write("claims.toml", toml);
+    std::vector<ClaimEntry> entries = load_claim_file((dir_ / "claims.toml").string());
+    EXPECT_EQ(entries.size(), 1u);
+    CheckOptions options;
+    options.max_bits = 64;
+    RunResult run = check_entries(entries, options);
+    run_ = run;
+    return run.claims.front();
+  }
+
+  std::filesystem::path dir_;
+  RunResult run_;
+};
+
+TEST_F(CostsFile, CountedMergeSortCostsKeepToTheWorstCaseModel) {
+  // Reversed, sorted and interleaved inputs of a common top-down merge sort:
+  // every count is at most the worst case T(n) (Suchenek, "Elementary yet
+  // precise worst-case analysis of MergeSort", 2017: the worst case is T).
+  std::string lines = "# size cost, written by a test of the sort\n";
+  for (int n = 1; n <= 70; ++n) {
+    std::vector<int> reversed(n), interleaved(n);
+    for (int i = 0; i < n; ++i) reversed[i] = n - i;
+    for (int i = 0; i < n; ++i) interleaved[i] = (i % 2) ? i : n + i;
+    lines += std::to_string(n) + " " + std::to_string(merge_sort_comparisons(reversed)) + "\n";
+    lines += std::to_string(n) + "\t" + std::to_string(merge_sort_comparisons(interleaved)) +
+             "   # interleaved\n";
+  }
+  write("costs/merge.txt", lines);
+  ClaimResult r = check("[claim.code]\nmodel = \"upper bound\"\ncosts = \"costs/merge.txt\"\n");
+  ASSERT_EQ(r.verdict, Verdict::kHolds) << verdict_message(r);
+  ASSERT_TRUE(r.code.has_value());
+  EXPECT_EQ(r.code->relation, "upper bound");
+  EXPECT_EQ(r.code->measurements, 140u);
+  EXPECT_EQ(r.code->rows.size(), 70u);
+  EXPECT_TRUE(r.code->violations.empty());
+  // Reversed input costs n/2-ish per merge: strictly below T at n = 64.
+  EXPECT_EQ(r.code->rows[63].n, 64);
+  EXPECT_EQ(r.code->rows[63].model, "321");  // 64·6 − 64 + 1 (Suchenek's closed form)
+  EXPECT_EQ(r.code->rows[63].sign, -1);
+}
+
+TEST_F(CostsFile, ExactModelAcceptsTheClosedFormAndLocatesADifferentLine) {
+  // Suchenek's closed form n⌈lg n⌉ − 2^⌈lg n⌉ + 1: T(5) = 8, T(6) = 11, T(7) = 14.
+  write("costs/exact.txt", "5 8\n6 11\n\n7 15\n");
+  ClaimResult r = check("[claim.code]\nmodel = \"exact\"\ncosts = \"costs/exact.txt\"\n");
+  EXPECT_EQ(r.verdict, Verdict::kRefuted);
+  ASSERT_TRUE(r.code.has_value());
+  ASSERT_EQ(r.code->violations.size(), 1u);
+  const CostViolation& v = r.code->violations.front();
+  EXPECT_EQ(v.n, 7);
+  EXPECT_EQ(v.cost, "15");
+  EXPECT_EQ(v.model, "14");
+  EXPECT_EQ(v.line, 4);
+  EXPECT_NE(v.file.find("exact.txt"), std::string::npos);
+  EXPECT_EQ(r.basis.kind, BasisKind::kCodeBreaksModel);
+  // The recurrence itself holds (master theorem, case 2): both links are kept.
+  ASSERT_TRUE(r.code->model_verdict.has_value());
+  EXPECT_EQ(*r.code->model_verdict, Verdict::kHolds);
+  std::string message = verdict_message(r);
+  EXPECT_NE(message.find("the code breaks its model: at n = 7"), std::string::npos) << message;
+  EXPECT_NE(message.find("exact.txt:4"), std::string::npos) << message;
+  EXPECT_NE(message.find("The recurrence itself holds"), std::string::npos) << message;
+}
+
+TEST_F(CostsFile, LowerBoundModelIsBrokenByACheaperRun) {
+  write("costs/low.txt", "8 17\n8 16\n");  // T(8) = 17: 16 is below it
+  ClaimResult r = check("[claim.code]\nmodel = \"lower bound\"\ncosts = \"costs/low.txt\"\n");
+  EXPECT_EQ(r.verdict, Verdict::kRefuted);
+  ASSERT_EQ(r.code->violations.size(), 1u);
+  EXPECT_EQ(r.code->violations[0].line, 2);
+  ASSERT_EQ(r.code->rows.size(), 1u);
+  EXPECT_EQ(r.code->rows[0].cost, "16");  // the smallest is the row's cost
+  EXPECT_EQ(r.code->rows[0].runs, 2u);
+}
+
+TEST_F(CostsFile, UpperBoundModelIsBrokenByACostlierRunWhateverTheBound) {
+  write("costs/up.txt", "3 3\n4 6\n");                                // T(4) = 5
+  ClaimResult r = check("[claim.code]\ncosts = \"costs/up.txt\"\n");  // upper bound: default
+  EXPECT_EQ(r.verdict, Verdict::kRefuted);
+  ASSERT_EQ(r.code->violations.size(), 1u);
+  EXPECT_EQ(r.code->violations[0].n, 4);
+  // The bound itself held: the result keeps its verdict and the message says so.
+  ASSERT_TRUE(r.code->model_verdict.has_value());
+  EXPECT_EQ(*r.code->model_verdict, Verdict::kHolds);
+  EXPECT_NE(verdict_message(r).find("The recurrence itself holds"), std::string::npos)
+      << verdict_message(r);
+}
+
+struct MalformedCase {
+  const char* text;
+  int line;
+  int column;
+  const char* message;
+};
+
+TEST_F(CostsFile, MalformedLinesAreLocatedInputErrors) {
+  const MalformedCase cases[] = {
+      {"4 5\n12 x\n", 2, 4, "the cost must be a non-negative whole number, found 'x'"},
+      {"4 5\n  12\n", 2, 5, "a size without a cost"},
+      {"4 5 6\n", 1, 5, "more than two fields on a line"},
+      {"-3 4\n", 1, 1, "the size must be a non-negative whole number, found '-3'"},
+      {"1e3 5\n", 1, 2, "the size must be a non-negative whole number, found '1e3'"},
+      {"0 0\n", 1, 1, "the model has no value at n = 0"},
+  };
+  for (const MalformedCase& c : cases) {
+    write("costs/bad.txt", c.text);
+    ClaimResult r = check("[claim.code]\ncosts = \"costs/bad.txt\"\n");
+    ASSERT_EQ(r.verdict, Verdict::kError) << c.text;
+    ASSERT_TRUE(r.error.has_value());
+    EXPECT_NE(r.error->where.file.find("bad.txt"), std::string::npos);
+    EXPECT_EQ(r.error->where.line, c.line) << c.text;
+    EXPECT_EQ(r.error->where.column, c.column) << c.text;
+    EXPECT_EQ(r.error->message.rfind(c.message, 0), 0u) << r.error->message;
+    EXPECT_FALSE(r.error->hint.empty());
+  }
+}
+
+TEST_F(CostsFile, MissingOrEmptyFileIsAnErrorAtTheKey) {
+  ClaimResult missing = check("[claim.code]\ncosts = \"costs/none.txt\"\n");
+  ASSERT_EQ(missing.verdict, Verdict::kError);
+  EXPECT_NE(missing.error->message.find("cannot read the costs file"), std::string::npos);
+  EXPECT_NE(missing.error->where.file.find("claims.toml"), std::string::npos);
+  EXPECT_EQ(missing.error->where.line, 9);  // the costs key
+  write("costs/empty.txt", "# nothing measured yet\n\n");
+  ClaimResult empty = check("[claim.code]\ncosts = \"costs/empty.txt\"\n");
+  ASSERT_EQ(empty.verdict, Verdict::kError);
+  EXPECT_NE(empty.error->message.find("holds no measurements"), std::string::npos);
+}
+
+TEST_F(CostsFile, BadCodeTableIsAnErrorOnThatClaimOnly) {
+  ClaimResult r = check("[claim.code]\nmodel = \"upper\"\n");
+  ASSERT_EQ(r.verdict, Verdict::kError);
+  EXPECT_EQ(r.error->message, "'model' must be \"upper bound\", \"exact\" or \"lower bound\"");
+  EXPECT_EQ(r.error->where.line, 9);  // the model key
+  EXPECT_EQ(r.error->where.column, 9);
+  ClaimResult typo = check("[claim.code]\ncost = \"x.txt\"\n");
+  ASSERT_EQ(typo.verdict, Verdict::kError);
+  EXPECT_NE(typo.error->hint.find("costs"), std::string::npos) << typo.error->hint;
+}
+
+TEST_F(CostsFile, EveryReportShowsTheMeasuredLink) {
+  write("costs/m.txt", "4 5\n5 9\n");  // T(5) = 8
+  ClaimResult r = check("[claim.code]\ncosts = \"costs/m.txt\"\n");
+  ASSERT_EQ(r.verdict, Verdict::kRefuted);
+  TextStyle style;
+  std::string text = render_text(run_, style);
+  EXPECT_NE(text.find("code -> model: costs/m.txt (2 measurements at 2 sizes)"), std::string::npos)
+      << text;
+  EXPECT_NE(text.find("m.txt:2): counted cost 9 > T(n) = 8"), std::string::npos) << text;
+  auto json = nlohmann::json::parse(render_json(run_));
+  EXPECT_EQ(json["schema_version"], 2);
+  const auto& code = json["claims"][0]["code"];
+  EXPECT_EQ(code["relation"], "upper bound");
+  EXPECT_EQ(code["violations"][0]["line"], 2);
+  EXPECT_EQ(code["rows"][1]["model"], "8");
+  std::string junit = render_junit(run_, JunitOptions{});
+  EXPECT_NE(junit.find("counted cost 9 &gt; T(n) = 8"), std::string::npos) << junit;
+  // A baseline reads the link back: the JSON round-trips byte for byte.
+  EXPECT_EQ(render_json(read_json_report(render_json(run_))), render_json(run_));
+  std::string html = render_html(run_);
+  EXPECT_NE(html.find("<svg class=\"cost-plot\""), std::string::npos);
+  EXPECT_NE(html.find("class=\"counted broken\""), std::string::npos);
+}
+
+}  // namespace
+}  // namespace thetagate::engine

@@ -1,0 +1,75 @@
+// Model against code: counted costs (from a costs file, or from a runner in
+// the maintainer's own tests) compared exactly with T(n) under the claim's
+// relation (docs/language.md, "Linking a claim to code").
+#ifndef THETAGATE_VERIFIER_CHECKING_CODE_CHECK_H_
+#define THETAGATE_VERIFIER_CHECKING_CODE_CHECK_H_
+
+#include <cstdint>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "verifier/checking/result.h"
+#include "verifier/evaluation/evaluator.h"
+#include "verifier/model/claim.h"
+
+namespace thetagate::engine {
+
+// T(n) of one claim, compared with counted costs. Not thread-safe (one
+// evaluator, memoised across sizes).
+class CostModel {
+ public:
+  // Quotients are read as the claim's rounding says (both: floor and ceil,
+  // and a cost must respect both readings).
+  CostModel(const Claim& claim, ModelRelation relation, Budget budget = {});
+  ~CostModel();
+
+  // Sign of cost − T(n), exactly (a T(n) that is not an integer is never
+  // equal). For rounding = both, the sign toward a violation. Throws
+  // InputError when T(n) is undefined (no case line, a domain error),
+  // BudgetExceeded.
+  int compare(const BigInt& n, const BigInt& cost);
+  // T(n) as text (the floor reading's first).
+  std::string model_text(const BigInt& n);
+  // Whether sign(cost − T(n)) breaks the relation.
+  bool violates(int sign) const;
+  ModelRelation relation() const { return relation_; }
+
+ private:
+  ModelRelation relation_;
+  std::vector<std::unique_ptr<Evaluator>> readings_;
+  ExprPtr model_expr_;
+  SourceText model_source_;
+};
+
+// Collects measurements into per-size rows: keeps, per n, the cost furthest
+// toward a violation.
+class CostRows {
+ public:
+  explicit CostRows(ModelRelation relation) : relation_(relation) {}
+  // REQUIRES: sizes arrive in any order; `sign` from CostModel::compare.
+  void add(const BigInt& n, const BigInt& cost, const std::string& model, int sign,
+           const std::string& from);
+  std::vector<CostRow> rows() const;
+
+ private:
+  struct Entry {
+    CostRow row;
+    BigInt cost;
+  };
+  ModelRelation relation_;
+  std::vector<Entry> entries_;  // sorted by n
+};
+
+// Reads the claim's costs file and checks every line. Throws InputError for
+// an unreadable file or a malformed line (file, line, column, hint), and for
+// a size where T is undefined (located at that line).
+CodeResult check_costs_file(const Claim& claim);
+
+// Folds a code result into a claim result: violations refute the claim (the
+// code breaks its model) whatever the bound's verdict; the message says so.
+void apply_code_result(ClaimResult& result, CodeResult code);
+
+}  // namespace thetagate::engine
+
+#endif  // THETAGATE_VERIFIER_CHECKING_CODE_CHECK_H_
