@@ -1,0 +1,289 @@
+// The model side of guarding code (include/thetagate/guard.h): a claim's
+// recurrence as a cost model, built on the checker's own pieces.
+#include "thetagate/guard.h"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <limits>
+
+#include "generators/size_family.h"
+#include "reports/code_text.h"
+#include "reports/text_report.h"
+#include "verifier/checking/checker.h"
+#include "verifier/checking/code_check.h"
+#include "verifier/model/claim.h"
+#include "verifier/syntax/spelling.h"
+
+namespace thetagate::guard {
+
+using engine::BigInt;
+using engine::Budget;
+using engine::CheckOptions;
+using engine::Claim;
+using engine::ClaimEntry;
+using engine::CodeResult;
+using engine::CostModel;
+using engine::CostViolation;
+using engine::ModelRelation;
+using engine::RunResult;
+using engine::Size;
+using engine::SizePlan;
+using engine::TextStyle;
+
+namespace {
+
+// A located input error with `prefix` before its message.
+[[noreturn]] void rethrow_input(const InputError& e, const std::string& prefix) {
+  Diagnostic d = e.diagnostic();
+  d.message = prefix + d.message;
+  throw InputError(d);
+}
+
+[[noreturn]] void rethrow_limit(const LimitReached& e, const std::string& prefix) {
+  throw LimitReached(e.limit(), prefix + e.what());
+}
+
+ModelRelation internal_relation(Relation r) {
+  switch (r) {
+    case Relation::kUpperBound:
+      return ModelRelation::kUpperBound;
+    case Relation::kExact:
+      return ModelRelation::kExact;
+    case Relation::kLowerBound:
+      return ModelRelation::kLowerBound;
+  }
+  return ModelRelation::kUpperBound;
+}
+
+Relation public_relation(ModelRelation r) {
+  switch (r) {
+    case ModelRelation::kUpperBound:
+      return Relation::kUpperBound;
+    case ModelRelation::kExact:
+      return Relation::kExact;
+    case ModelRelation::kLowerBound:
+      return Relation::kLowerBound;
+  }
+  return Relation::kUpperBound;
+}
+
+}  // namespace
+
+const char* relation_name(Relation r) { return engine::relation_name(internal_relation(r)); }
+
+struct Model::Impl {
+  Claim claim;
+  Relation relation = Relation::kUpperBound;
+  uint64_t max_n = 65536;
+  std::unique_ptr<CostModel> model;
+
+  CostModel& cost_model() {
+    if (!model) {
+      // A model lives as long as a test: no wall-time limit from its creation.
+      Budget budget;
+      budget.max_seconds = 1e9;
+      model = std::make_unique<CostModel>(claim, internal_relation(relation), budget);
+    }
+    return *model;
+  }
+};
+
+Model::Model(std::unique_ptr<Impl> impl) : impl_(std::move(impl)) {}
+Model::Model(Model&&) noexcept = default;
+Model& Model::operator=(Model&&) noexcept = default;
+Model::~Model() = default;
+
+Model Model::from_file(const std::string& path, const std::string& claim_name) {
+  std::vector<ClaimEntry> entries = engine::load_claim_file(path);
+  std::string closest;
+  size_t best = std::numeric_limits<size_t>::max();
+  for (ClaimEntry& entry : entries) {
+    if (entry.name == claim_name) {
+      if (!entry.claim) throw InputError(entry.error.value_or(Diagnostic{}));
+      auto impl = std::make_unique<Impl>();
+      impl->claim = std::move(*entry.claim);
+      if (impl->claim.code) {
+        impl->relation = public_relation(impl->claim.code->model);
+        impl->max_n = impl->claim.code->max_n;
+      }
+      return Model(std::move(impl));
+    }
+    size_t d = engine::edit_distance(claim_name, entry.name);
+    if (d < best) {
+      best = d;
+      closest = entry.name;
+    }
+  }
+  // A file that failed as a whole has one entry, with the error.
+  if (entries.size() == 1 && !entries.front().claim && entries.front().name.empty()) {
+    throw InputError(entries.front().error.value_or(Diagnostic{}));
+  }
+  Diagnostic d;
+  d.where.file = path;
+  d.message = "no claim is named '" + claim_name + "'";
+  if (!closest.empty()) d.hint = "the closest name is '" + closest + "'";
+  throw InputError(d);
+}
+
+Model Model::from_text(const std::string& name, const std::string& recurrence,
+                       const std::string& bound, Relation relation, uint64_t max_n) {
+  auto quote = [](const std::string& s) {
+    std::string out = "'''";
+    out += s;
+    out += "'''";
+    return out;
+  };
+  if (name.find('\'') != std::string::npos || recurrence.find("'''") != std::string::npos ||
+      bound.find("'''") != std::string::npos) {
+    Diagnostic d;
+    d.where.file = "<claim " + name + ">";
+    d.message = "a claim built in code cannot contain ''' (nor ' in its name)";
+    throw InputError(d);
+  }
+  // The claim-file reader is the one place that builds claims: reuse it.
+  std::string text = "[[claim]]\nname = '" + name + "'\nrecurrence = " + quote(recurrence) +
+                     "\nbound = " + quote(bound) + "\n";
+  std::vector<ClaimEntry> entries = engine::load_claim_text(text, "<claim " + name + ">");
+  if (entries.size() != 1 || !entries.front().claim) {
+    Diagnostic d = entries.empty() ? Diagnostic{} : entries.front().error.value_or(Diagnostic{});
+    throw InputError(d);
+  }
+  auto impl = std::make_unique<Impl>();
+  impl->claim = std::move(*entries.front().claim);
+  impl->claim.where.file.clear();
+  impl->relation = relation;
+  impl->max_n = std::max<uint64_t>(max_n, 1);
+  return Model(std::move(impl));
+}
+
+const std::string& Model::name() const { return impl_->claim.name; }
+
+std::string Model::where() const {
+  if (impl_->claim.where.file.empty()) return "";
+  return impl_->claim.where.file + ":" + std::to_string(impl_->claim.where.line);
+}
+
+Relation Model::relation() const { return impl_->relation; }
+uint64_t Model::max_n() const { return impl_->max_n; }
+
+std::vector<SizeSample> Model::sizes(uint64_t max_n, uint64_t seed, uint64_t small_limit) const {
+  if (max_n < 1) max_n = 1;
+  SizePlan plan;
+  plan.divisors = engine::recurrence_divisors(*impl_->claim.recurrence);
+  uint64_t bits = 1;
+  while (bits < 64 && (uint64_t{1} << bits) <= max_n) ++bits;
+  plan.max_bits = bits;
+  plan.min_n = impl_->claim.sizes.min_n.value_or(BigInt(1));
+  if (plan.min_n < 1) plan.min_n = 1;
+  plan.exhaustive_limit = small_limit;
+  plan.seed = seed;
+  plan.families = impl_->claim.sizes.families;
+  std::vector<SizeSample> out;
+  for (const Size& s : engine::generate_sizes(plan)) {
+    if (s.n > max_n) continue;
+    out.push_back({s.n.convert_to<uint64_t>(), s.family});
+  }
+  return out;
+}
+
+ModelValue Model::value_at(uint64_t n) {
+  ModelValue v;
+  try {
+    CostModel& model = impl_->cost_model();
+    v.text = model.model_text(BigInt(n));
+    bool digits = !v.text.empty() && v.text.find_first_not_of("0123456789") == std::string::npos;
+    v.exact_integer = digits;
+    if (digits && v.text.size() <= 20) {
+      BigInt value(v.text);
+      if (value <= std::numeric_limits<uint64_t>::max()) v.integer = value.convert_to<uint64_t>();
+    }
+  } catch (const InputError& e) {
+    rethrow_input(e,
+                  fmt::format("the model of '{}' has no value at n = {}: ", impl_->claim.name, n));
+  } catch (const LimitReached& e) {
+    rethrow_limit(e, fmt::format("evaluating the model of '{}' at n = {} ran out of budget: ",
+                                 impl_->claim.name, n));
+  }
+  return v;
+}
+
+int Model::compare(uint64_t n, uint64_t cost) {
+  try {
+    return impl_->cost_model().compare(BigInt(n), BigInt(cost));
+  } catch (const InputError& e) {
+    rethrow_input(e,
+                  fmt::format("the model of '{}' has no value at n = {}: ", impl_->claim.name, n));
+  } catch (const LimitReached& e) {
+    rethrow_limit(e, fmt::format("comparing with the model of '{}' at n = {} ran out of budget: ",
+                                 impl_->claim.name, n));
+  }
+}
+
+bool Model::violates(int sign) const {
+  switch (impl_->relation) {
+    case Relation::kUpperBound:
+      return sign > 0;
+    case Relation::kExact:
+      return sign != 0;
+    case Relation::kLowerBound:
+      return sign < 0;
+  }
+  return false;
+}
+
+BoundOutcome Model::check_bound(uint64_t seed) const {
+  CheckOptions options;
+  options.seed = seed;
+  Claim claim = impl_->claim;
+  claim.code.reset();  // only model -> bound here; the runner checks the code
+  RunResult run;
+  run.seed = seed;
+  run.claims.push_back(engine::check_claim(claim, options));
+  BoundOutcome out;
+  out.verdict = engine::verdict_name(run.claims.front().verdict);
+  out.report = engine::render_text(run, TextStyle{});
+  return out;
+}
+
+std::string GuardResult::report() const {
+  std::string out;
+  if (bound.failed()) {
+    out += "model -> bound: the claim '" + claim + "' is " + bound.verdict + "\n" + bound.report;
+  }
+  if (error) out += "code -> model: " + *error + "\n";
+  CodeResult code;
+  code.relation = relation_name(relation);
+  code.source = runner.empty() ? "runner" : "runner '" + runner + "'";
+  code.measurements = runs;
+  for (const CostRow& r : rows) {
+    engine::CostRow row;
+    row.n = r.n;
+    row.cost = std::to_string(r.cost);
+    row.model = r.model;
+    row.sign = r.sign;
+    row.runs = r.runs;
+    row.from = r.family;
+    code.rows.push_back(std::move(row));
+  }
+  if (violation) {
+    CostViolation v;
+    v.n = violation->n;
+    v.cost = std::to_string(violation->cost);
+    v.model = violation->model;
+    v.input = violation->input;
+    v.replay = violation->replay;
+    code.violations.push_back(std::move(v));
+  }
+  std::string link = engine::code_link_text(code, "", 1, 12);
+  if (violation) {
+    out += "the code breaks its model '" + claim + "' (seed " + std::to_string(seed) + ")\n";
+  }
+  out += link;
+  if (!bound.failed() && !bound.verdict.empty()) {
+    out += "model -> bound: " + bound.verdict + "\n";
+  }
+  return out;
+}
+
+}  // namespace thetagate::guard

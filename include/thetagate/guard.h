@@ -1,0 +1,147 @@
+// Guarding code with its claim: the recurrence of a claim as a cost model
+// that counted costs from real runs are compared with, exactly.
+//
+// Two links are checked: model -> bound (the recurrence meets its claimed
+// bound, as `thetagate check` decides) and code -> model (the code's counted
+// cost at runnable sizes keeps to T(n) under the claim's relation). This
+// header holds the model side, with standard types only; the runner side is
+// thetagate/testing/rapidcheck.h, and the one-include GoogleTest assertion is
+// thetagate/testing/gtest.h (docs/guard.md). Those two need RapidCheck and
+// GoogleTest, which the consumer links; this header and cost.h need neither.
+//
+// Sizes and costs are uint64_t: runnable sizes are far below 2^64, and a cost
+// counter throws before it wraps (thetagate/cost.h). Exact values of T(n)
+// are decimal strings, so no arbitrary-precision type leaks into this header.
+#ifndef THETAGATE_GUARD_H_
+#define THETAGATE_GUARD_H_
+
+#include <cstdint>
+#include <memory>
+#include <optional>
+#include <stdexcept>
+#include <string>
+#include <vector>
+
+#include "thetagate/errors.h"
+#include "thetagate/export.h"
+
+namespace thetagate::guard {
+
+// How the recurrence relates to the code: every counted cost is at most T(n)
+// (a worst-case model), exactly T(n), or at least T(n).
+enum class Relation { kUpperBound, kExact, kLowerBound };
+THETAGATE_API const char* relation_name(Relation r);  // "upper bound", "exact", "lower bound"
+
+// One size to run, and the size family that produced it.
+struct SizeSample {
+  uint64_t n = 0;
+  std::string family;
+};
+
+// T(n) at one size: exact text, and the integer when T(n) is a whole number
+// that fits in 64 bits (the fast path of a comparison).
+struct ModelValue {
+  std::string text;
+  std::optional<uint64_t> integer;
+  bool exact_integer = false;  // T(n) is a whole number (perhaps beyond 64 bits)
+};
+
+// The verdict of model -> bound, as `thetagate check` gives it.
+struct BoundOutcome {
+  std::string verdict;  // "holds", "refuted", "undecided", "error"
+  std::string report;   // the claim's text report (witnesses, derivation)
+  bool failed() const { return verdict == "refuted" || verdict == "error"; }
+};
+
+// A claim's recurrence as a cost model. Not thread-safe (T(n) is memoised
+// across sizes); use one Model per thread.
+class THETAGATE_API Model {
+ public:
+  // Loads the claim named `claim_name` from a TOML claim file. Throws
+  // InputError (thetagate/errors.h) for an unreadable file, a claim with an
+  // error, or no claim of that name (the hint names the closest one).
+  static Model from_file(const std::string& path, const std::string& claim_name);
+  // Builds a claim in code, as a claim file would ("T(n) = 2T(n/2) + n;
+  // T(1) = 0", "Theta(n lg n)"). Throws InputError, located.
+  static Model from_text(const std::string& name, const std::string& recurrence,
+                         const std::string& bound, Relation relation = Relation::kUpperBound,
+                         uint64_t max_n = 65536);
+
+  Model(Model&&) noexcept;
+  Model& operator=(Model&&) noexcept;
+  ~Model();
+
+  const std::string& name() const;
+  // Where the claim is, "file:line" ("" for a claim built in code).
+  std::string where() const;
+  // From the claim's [claim.code] table: `model` (default upper bound) and
+  // `max_n` (default 65536).
+  Relation relation() const;
+  uint64_t max_n() const;
+
+  // The claim's size families (its `sizes` table: families, min_n) with
+  // 1 <= n <= max_n, ascending, each with its family. "small" covers every n
+  // up to `small_limit`. Deterministic in `seed`. REQUIRES: max_n >= 1.
+  std::vector<SizeSample> sizes(uint64_t max_n, uint64_t seed, uint64_t small_limit = 32) const;
+
+  // T(n), exactly. Throws InputError where the recurrence has no value (lg 0,
+  // no case line), LimitReached when evaluating it exceeds the limits.
+  ModelValue value_at(uint64_t n);
+  // Sign of cost − T(n), exactly. Throws as value_at.
+  int compare(uint64_t n, uint64_t cost);
+  // Whether sign(cost − T(n)) breaks the relation.
+  bool violates(int sign) const;
+
+  // model -> bound: checks the claim as `thetagate check --seed seed` would.
+  BoundOutcome check_bound(uint64_t seed) const;
+
+ private:
+  struct Impl;
+  explicit Model(std::unique_ptr<Impl> impl);
+  std::unique_ptr<Impl> impl_;
+};
+
+// code -> model, per size: the counted cost furthest toward breaking the
+// model (largest for an upper bound, smallest for a lower bound).
+struct CostRow {
+  uint64_t n = 0;
+  uint64_t cost = 0;
+  std::string model;  // T(n), exact
+  int sign = 0;       // sign of cost − T(n)
+  uint64_t runs = 0;
+  std::string family;
+};
+
+// A counted cost on the wrong side of T(n), with the input that caused it.
+struct Violation {
+  uint64_t n = 0;
+  uint64_t cost = 0;
+  std::string model;
+  std::string input;     // shrunk, as text
+  uint64_t shrinks = 0;  // shrinking steps taken
+  std::string replay;    // the command that replays it
+};
+
+// The outcome of guarding one claim with one runner.
+struct THETAGATE_API GuardResult {
+  std::string claim;
+  std::string runner;
+  Relation relation = Relation::kUpperBound;
+  uint64_t seed = 0;
+  BoundOutcome bound;         // model -> bound ("" verdict: not checked)
+  std::vector<CostRow> rows;  // code -> model, ascending n
+  uint64_t runs = 0;
+  std::optional<Violation> violation;  // the first (smallest n) found
+  // A runner that threw, or a cost that overflowed: the size, the input and
+  // the exception's text. The check stops there.
+  std::optional<std::string> error;
+
+  bool passed() const { return !bound.failed() && !violation && !error; }
+  // Both links in words: the failure (witness, input, replay) first, then
+  // the per-size tightness table. Ends with a newline.
+  std::string report() const;
+};
+
+}  // namespace thetagate::guard
+
+#endif  // THETAGATE_GUARD_H_
