@@ -3,6 +3,7 @@
 #include "verifier/checking/code_check.h"
 
 #include <gtest/gtest.h>
+#include <sys/stat.h>
 #include <unistd.h>
 
 #include <filesystem>
@@ -196,6 +197,12 @@ TEST_F(CostsFile, MissingOrEmptyFileIsAnErrorAtTheKey) {
   ClaimResult empty = check("[claim.code]\ncosts = \"costs/empty.txt\"\n");
   ASSERT_EQ(empty.verdict, Verdict::kError);
   EXPECT_NE(empty.error->message.find("holds no measurements"), std::string::npos);
+  // A pipe would block a reader: refused, not read (common practice for inputs).
+  ASSERT_EQ(::mkfifo((dir_ / "costs" / "pipe.txt").c_str(), 0600), 0);
+  ClaimResult pipe = check("[claim.code]\ncosts = \"costs/pipe.txt\"\n");
+  ASSERT_EQ(pipe.verdict, Verdict::kError);
+  EXPECT_NE(pipe.error->message.find("is not a regular file"), std::string::npos)
+      << pipe.error->message;
 }
 
 TEST_F(CostsFile, BadCodeTableIsAnErrorOnThatClaimOnly) {

@@ -2,11 +2,8 @@
 
 #include <algorithm>
 #include <cctype>
-#include <cerrno>
-#include <cstring>
-#include <fstream>
-#include <sstream>
 
+#include "verifier/syntax/input_file.h"
 #include "verifier/syntax/parser.h"
 
 namespace thetagate::engine {
@@ -103,6 +100,8 @@ std::vector<CostRow> CostRows::rows() const {
 namespace {
 
 constexpr size_t kMaxViolationsKept = 20;
+// A million measurements of 2^64-sized costs fit in 64 MiB.
+constexpr size_t kMaxCostsFileBytes = size_t{64} << 20;
 constexpr size_t kMaxDigits = 4000;  // per field: larger is surely a typo
 
 struct Field {
@@ -119,18 +118,23 @@ struct Field {
 
 CodeResult check_costs_file(const Claim& claim) {
   const CodeLink& link = *claim.code;
-  std::ifstream in(link.costs_path, std::ios::binary);
-  if (!in) {
-    Diagnostic d;
+  // A regular file under a cap (a FIFO or a device would block or grow without
+  // end); a file that cannot be read is an error at the claim's `costs` key.
+  std::string bytes;
+  try {
+    bytes = read_input_file(link.costs_path, kMaxCostsFileBytes, "costs file",
+                            "'costs' is relative to the claim file's folder; the file "
+                            "holds lines \"size cost\"");
+  } catch (const InputError& e) {
+    Diagnostic d = e.diagnostic();
     d.where = link.costs_where;
-    d.message = "cannot read the costs file '" + link.costs_path +
-                "': " + std::string(std::strerror(errno));
-    d.hint = "'costs' is relative to the claim file's folder; the file holds lines \"size cost\"";
+    d.source_line.clear();
+    if (d.message.find(link.costs_path) == std::string::npos) {
+      d.message += " ('" + link.costs_path + "')";
+    }
     throw InputError(d);
   }
-  std::ostringstream buffer;
-  buffer << in.rdbuf();
-  SourceText file = SourceText::whole(link.costs_path, buffer.str());
+  SourceText file = SourceText::whole(link.costs_path, std::move(bytes));
   const std::string& text = file.text;
   const std::string kHint = "each line holds a size and its counted cost: \"1024 9217\"";
 
