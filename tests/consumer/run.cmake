@@ -1,7 +1,7 @@
 # ctest's package_consumer: installs the build into a fresh prefix, then
 # configures, builds and runs tests/consumer against it. Fails on any step.
 #   cmake -DBUILD_DIR=... -DSOURCE_DIR=... -DWORK_DIR=... -DCXX_COMPILER=...
-#         [-DCXX_LAUNCHER=...] -P tests/consumer/run.cmake
+#         [-DCXX_LAUNCHER=...] [-DCXX_FLAGS=...] -P tests/consumer/run.cmake
 foreach(var BUILD_DIR SOURCE_DIR WORK_DIR CXX_COMPILER)
   if(NOT DEFINED ${var})
     message(FATAL_ERROR "run.cmake needs -D${var}=...")
@@ -22,6 +22,10 @@ step("installing into ${prefix}" ${CMAKE_COMMAND} --install ${BUILD_DIR} --prefi
 set(launcher)
 if(CXX_LAUNCHER)
   set(launcher -DCMAKE_CXX_COMPILER_LAUNCHER=${CXX_LAUNCHER})
+endif()
+# A sanitizer build's library needs its consumers built with the same flags.
+if(CXX_FLAGS)
+  list(APPEND launcher "-DCMAKE_CXX_FLAGS=${CXX_FLAGS}")
 endif()
 # Only the staged prefix: not the build tree, not the source tree.
 step("configuring the consumer" ${CMAKE_COMMAND} -S ${SOURCE_DIR}/tests/consumer

@@ -7,6 +7,7 @@
 #include <algorithm>
 #include <cstddef>
 #include <functional>
+#include <stdexcept>
 #include <vector>
 
 namespace orchard {
@@ -27,7 +28,7 @@ void merge_sort(std::vector<T>& v, size_t lo, size_t hi, std::vector<T>& scratch
       // The regression: a "defensive" order check after taking from the right
       // run re-compares an element already placed. Correct, and costlier
       // than the documented model.
-      if (k - lo >= 2 && less(scratch[k - 1], scratch[k - 2])) std::terminate();
+      if (k - lo >= 2 && less(scratch[k - 1], scratch[k - 2])) throw std::logic_error("unsorted");
 #endif
     } else {
       scratch[k++] = v[i++];
