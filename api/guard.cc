@@ -241,7 +241,7 @@ BoundOutcome Model::check_bound(uint64_t seed) const {
   run.seed = seed;
   run.claims.push_back(engine::check_claim(claim, options));
   BoundOutcome out;
-  out.verdict = engine::verdict_name(run.claims.front().verdict);
+  out.verdict = static_cast<Verdict>(run.claims.front().verdict);  // mirrors, see check.cc
   out.report = engine::render_text(run, TextStyle{});
   return out;
 }
@@ -249,7 +249,8 @@ BoundOutcome Model::check_bound(uint64_t seed) const {
 std::string GuardResult::report() const {
   std::string out;
   if (bound.failed()) {
-    out += "model -> bound: the claim '" + claim + "' is " + bound.verdict + "\n" + bound.report;
+    out += "model -> bound: the claim '" + claim + "' is " + verdict_name(*bound.verdict) + "\n" +
+           bound.report;
   }
   if (error) out += "code -> model: " + *error + "\n";
   CodeResult code;
@@ -280,8 +281,8 @@ std::string GuardResult::report() const {
     out += "the code breaks its model '" + claim + "' (seed " + std::to_string(seed) + ")\n";
   }
   out += link;
-  if (!bound.failed() && !bound.verdict.empty()) {
-    out += "model -> bound: " + bound.verdict + "\n";
+  if (!bound.failed() && bound.verdict) {
+    out += "model -> bound: " + std::string(verdict_name(*bound.verdict)) + "\n";
   }
   return out;
 }

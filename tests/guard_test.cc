@@ -69,7 +69,7 @@ TEST(Guard, CorrectMergeSortKeepsToTheWorstCaseModel) {
   Model model = Model::from_text("merge", kMergeRecurrence, "Theta(n lg n)");
   GuardResult r = check_code(model, merge_runner(false), quick());
   EXPECT_TRUE(r.passed()) << r.report();
-  EXPECT_EQ(r.bound.verdict, "holds");
+  EXPECT_EQ(r.bound.verdict, Verdict::kHolds);
   ASSERT_FALSE(r.rows.empty());
   // Every n up to the small limit, then the families' sizes up to max_n.
   EXPECT_EQ(r.rows.front().n, 1u);

@@ -22,6 +22,7 @@
 #include <string>
 #include <vector>
 
+#include "thetagate/check.h"
 #include "thetagate/errors.h"
 #include "thetagate/export.h"
 
@@ -48,9 +49,11 @@ struct ModelValue {
 
 // The verdict of model -> bound, as `thetagate check` gives it.
 struct BoundOutcome {
-  std::string verdict;  // "holds", "refuted", "undecided", "error"
-  std::string report;   // the claim's text report (witnesses, derivation)
-  bool failed() const { return verdict == "refuted" || verdict == "error"; }
+  std::optional<Verdict> verdict;  // nullopt: not checked
+  std::string report;              // the claim's text report (witnesses, derivation)
+  bool failed() const {
+    return verdict && (*verdict == Verdict::kRefuted || *verdict == Verdict::kError);
+  }
 };
 
 // A claim's recurrence as a cost model. Not thread-safe (T(n) is memoised
@@ -128,7 +131,7 @@ struct THETAGATE_API GuardResult {
   std::string runner;
   Relation relation = Relation::kUpperBound;
   uint64_t seed = 0;
-  BoundOutcome bound;         // model -> bound ("" verdict: not checked)
+  BoundOutcome bound;         // model -> bound (no verdict: not checked)
   std::vector<CostRow> rows;  // code -> model, ascending n
   uint64_t runs = 0;
   std::optional<Violation> violation;  // the first (smallest n) found
