@@ -35,6 +35,17 @@ ClaimComparison against(const std::string& recurrence, const std::string& bound)
                                  parse_bound(SourceText::whole("<bound>", bound)));
 }
 
+// Found by the derive fuzz target: a divisor that is a constant expression
+// equal to zero reached Boost's rational division, which throws
+// std::overflow_error (a terminate in the fuzzer). No shape fits instead.
+TEST(DeriveShape, ZeroDivisorExpressionIsNoShapeNotACrash) {
+  for (const char* text : {"T(n) = 54T(n/0^10)", "T(n) = 2T(floor(n/(1 - 1))) + n"}) {
+    Derivation d = derived(text);
+    EXPECT_TRUE(d.derived.empty()) << text;
+    EXPECT_NE(reasons(d).find("is zero"), std::string::npos) << text << "\n" << reasons(d);
+  }
+}
+
 TEST(DeriveMaster, CaseTwo) {
   Derivation d = derived("T(n) = 2T(n/2) + n; T(1) = 1");
   EXPECT_EQ(d.derived, "n lg n") << reasons(d);

@@ -28,6 +28,13 @@ Rational rational_constant(const Expr& e, const std::string& role) {
   return v->rational();
 }
 
+// A constant divisor; zero (n/0, n/0^10) has no shape to derive from.
+Rational divisor_constant(const Expr& e) {
+  Rational d = rational_constant(e, "divisor");
+  if (d == 0) throw ShapeError{"the divisor '" + print(e) + "' is zero"};
+  return d;
+}
+
 // A T argument as b n + c + (extra summands) with rounding noted.
 struct LinearForm {
   Rational b, c;
@@ -72,8 +79,7 @@ LinearForm linear_form(const ExprPtr& e) {
     case ExprKind::kDiv:
       if (!mentions_n(*e->args[1])) {
         // Inside T(...) a quotient is read as its floor: a bounded perturbation.
-        LinearForm x =
-            scale(linear_form(e->args[0]), Rational(1) / rational_constant(*e->args[1], "divisor"));
+        LinearForm x = scale(linear_form(e->args[0]), Rational(1) / divisor_constant(*e->args[1]));
         x.rounded = true;
         return x;
       }
@@ -272,7 +278,7 @@ void split(const ExprPtr& e, const Rational& scale, LineParts& parts, const std:
         split(e->args[0], scale / m->first, parts, name, n_power - m->second);
         return;
       }
-      split(e->args[0], scale / rational_constant(*e->args[1], "divisor"), parts, name, n_power);
+      split(e->args[0], scale / divisor_constant(*e->args[1]), parts, name, n_power);
       return;
     case ExprKind::kSum:
       parts.sums.push_back({scale, n_power, e});
