@@ -332,7 +332,16 @@ RealNumber pow(const RealNumber& base, const RealNumber& exponent) {
   if (ee && *ee == 0) return RealNumber(Rational(1));
   if (eb && *eb == 1) return RealNumber(Rational(1));
   if (ee && *ee == 1) return base;
-  if (eb && ee && boost::multiprecision::abs(numerator(*ee)) < 4096 && denominator(*ee) < 4096) {
+  // Exactly (a rational, or a root of x^v - base^u) only while base^u stays
+  // small: 55555555^(5554/100) would isolate a root of degree 50 of a
+  // 71,000-bit number by bisection, for minutes. Beyond, a certified enclosure.
+  auto small_power = [](const Rational& b, const Rational& x) {
+    uint64_t bits = bit_length(numerator(b)) + bit_length(denominator(b));
+    uint64_t u = static_cast<uint64_t>(boost::multiprecision::abs(numerator(x)));
+    return denominator(x) <= 64 && bits * u <= 8192;
+  };
+  if (eb && ee && boost::multiprecision::abs(numerator(*ee)) < 4096 && denominator(*ee) < 4096 &&
+      (denominator(*ee) == 1 || small_power(*eb, *ee))) {
     long u = static_cast<long>(numerator(*ee));
     unsigned long v = static_cast<unsigned long>(denominator(*ee));
     return RealNumber::root(pow_rational(*eb, u), v);
