@@ -7,31 +7,7 @@
 #      a replay command.
 #   cmake -DBUILD_DIR=... -DSOURCE_DIR=... -DWORK_DIR=... -DCXX_COMPILER=...
 #         [-DCXX_LAUNCHER=...] [-DCXX_FLAGS=...] -P examples/orchard/run.cmake
-cmake_policy(SET CMP0054 NEW)  # if() compares quoted strings as strings
-foreach(var BUILD_DIR SOURCE_DIR WORK_DIR CXX_COMPILER)
-  if(NOT DEFINED ${var})
-    message(FATAL_ERROR "run.cmake needs -D${var}=...")
-  endif()
-endforeach()
-file(REMOVE_RECURSE ${WORK_DIR})
-set(prefix ${WORK_DIR}/prefix)
-
-function(step what)
-  execute_process(COMMAND ${ARGN} RESULT_VARIABLE status OUTPUT_VARIABLE out ERROR_VARIABLE out)
-  if(NOT status EQUAL 0)
-    message(FATAL_ERROR "${what} failed (${status}):\n${out}")
-  endif()
-endfunction()
-
-step("installing into ${prefix}" ${CMAKE_COMMAND} --install ${BUILD_DIR} --prefix ${prefix})
-set(launcher)
-if(CXX_LAUNCHER)
-  set(launcher -DCMAKE_CXX_COMPILER_LAUNCHER=${CXX_LAUNCHER})
-endif()
-# A sanitizer build's library needs its consumers built with the same flags.
-if(CXX_FLAGS)
-  list(APPEND launcher "-DCMAKE_CXX_FLAGS=${CXX_FLAGS}")
-endif()
+include(${CMAKE_CURRENT_LIST_DIR}/../../cmake/staged_install.cmake NO_POLICY_SCOPE)
 
 foreach(variant ok regression)
   set(build ${WORK_DIR}/${variant})
@@ -42,8 +18,8 @@ foreach(variant ok regression)
   # Release without debug information: the two builds share every object
   # but one through the compiler cache.
   step("configuring orchard (${variant})" ${CMAKE_COMMAND} -S ${SOURCE_DIR}/examples/orchard
-       -B ${build} -DCMAKE_PREFIX_PATH=${prefix} -DCMAKE_CXX_COMPILER=${CXX_COMPILER}
-       -DCMAKE_BUILD_TYPE=Release -DORCHARD_REGRESSION=${with_regression} ${launcher})
+       -B ${build} ${consumer_args}
+       -DCMAKE_BUILD_TYPE=Release -DORCHARD_REGRESSION=${with_regression})
   step("building orchard (${variant})" ${CMAKE_COMMAND} --build ${build} -j2)
   execute_process(COMMAND ${build}/orchard_guard_tests RESULT_VARIABLE status
                   OUTPUT_VARIABLE out ERROR_VARIABLE out)
