@@ -221,15 +221,7 @@ int Model::compare(uint64_t n, uint64_t cost) {
 }
 
 bool Model::violates(int sign) const {
-  switch (impl_->relation) {
-    case Relation::kUpperBound:
-      return sign > 0;
-    case Relation::kExact:
-      return sign != 0;
-    case Relation::kLowerBound:
-      return sign < 0;
-  }
-  return false;
+  return engine::relation_broken(internal_relation(impl_->relation), sign);
 }
 
 BoundOutcome Model::check_bound(uint64_t seed) const {

@@ -24,6 +24,17 @@ void collect_divisors(const Expr& e, std::set<BigInt>& out) {
   for (const auto& a : e.args) collect_divisors(*a, out);
 }
 
+// `undecided`: an evaluator limit ended the check (`detail`: which).
+ClaimResult budget_result(const ClaimResult& base, const std::string& detail) {
+  ClaimResult r = base;
+  r.verdict = Verdict::kUndecided;
+  r.basis = VerdictBasis{};
+  r.basis.kind = BasisKind::kBudgetReached;
+  r.basis.unproved = Unproved::kEvaluatorLimit;
+  r.basis.detail = detail;
+  return r;
+}
+
 ClaimResult error_result(const ClaimResult& base, const Diagnostic& d) {
   ClaimResult r = base;
   r.verdict = Verdict::kError;
@@ -91,11 +102,7 @@ ClaimResult check_one_reading(const Claim& claim, const CheckOptions& options) {
   } catch (const InputError& e) {
     return error_result(result, e.diagnostic());
   } catch (const BudgetExceeded& e) {
-    result.verdict = Verdict::kUndecided;
-    result.basis = VerdictBasis{};
-    result.basis.kind = BasisKind::kBudgetReached;
-    result.basis.unproved = Unproved::kEvaluatorLimit;
-    result.basis.detail = e.what();
+    return budget_result(result, e.what());
   }
   return result;
 }
@@ -159,12 +166,8 @@ ClaimResult check_claim(const Claim& claim, const CheckOptions& options) {
   } catch (const InputError& e) {
     return error_result(result, e.diagnostic());
   } catch (const BudgetExceeded& e) {
-    result.verdict = Verdict::kUndecided;
-    result.basis = VerdictBasis{};
-    result.basis.kind = BasisKind::kBudgetReached;
-    result.basis.unproved = Unproved::kEvaluatorLimit;
-    result.basis.detail =
-        std::string("out of budget while checking the measured costs: ") + e.what();
+    return budget_result(
+        result, std::string("out of budget while checking the measured costs: ") + e.what());
   }
   return result;
 }
@@ -183,11 +186,7 @@ ClaimResult check_entry(const ClaimEntry& entry, const CheckOptions& options) {
     return check_claim(*entry.claim, options);
   } catch (const std::bad_alloc&) {
     base.claimed = entry.claim->bound.text();
-    base.verdict = Verdict::kUndecided;
-    base.basis.kind = BasisKind::kBudgetReached;
-    base.basis.unproved = Unproved::kEvaluatorLimit;
-    base.basis.detail = "memory ran out while checking this claim";
-    return base;
+    return budget_result(base, "memory ran out while checking this claim");
   } catch (const std::exception& e) {
     return internal_error_result(base, e.what());
   } catch (...) {

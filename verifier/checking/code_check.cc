@@ -42,17 +42,7 @@ int CostModel::compare(const BigInt& n, const BigInt& cost) {
 
 std::string CostModel::model_text(const BigInt& n) { return readings_.front()->value_at(n).str(); }
 
-bool CostModel::violates(int sign) const {
-  switch (relation_) {
-    case ModelRelation::kUpperBound:
-      return sign > 0;
-    case ModelRelation::kExact:
-      return sign != 0;
-    case ModelRelation::kLowerBound:
-      return sign < 0;
-  }
-  return false;
-}
+bool CostModel::violates(int sign) const { return relation_broken(relation_, sign); }
 
 void CostRows::add(const BigInt& n, const BigInt& cost, const std::string& model, int sign,
                    const std::string& from) {

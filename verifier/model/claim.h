@@ -30,6 +30,8 @@ const char* rounding_name(Rounding r);  // "floor", "ceil", "both"
 // most T(n) (the usual worst-case model), exactly T(n), or at least T(n).
 enum class ModelRelation { kUpperBound, kExact, kLowerBound };
 const char* relation_name(ModelRelation r);  // "upper bound", "exact", "lower bound"
+// Whether a counted cost with sign(cost − T(n)) = `sign` breaks relation `r`.
+bool relation_broken(ModelRelation r, int sign);
 
 // The optional [claim.code] table: the link from the recurrence to the code
 // (docs/language.md, "Linking a claim to code").

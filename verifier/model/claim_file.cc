@@ -580,6 +580,18 @@ const char* relation_name(ModelRelation r) {
   return "?";
 }
 
+bool relation_broken(ModelRelation r, int sign) {
+  switch (r) {
+    case ModelRelation::kUpperBound:
+      return sign > 0;
+    case ModelRelation::kExact:
+      return sign != 0;
+    case ModelRelation::kLowerBound:
+      return sign < 0;
+  }
+  return false;
+}
+
 const char* rounding_name(Rounding r) {
   switch (r) {
     case Rounding::kFloor:
