@@ -58,6 +58,7 @@ engine::CheckOptions engine_options(const CheckOptions& options) {
   }
   engine::CheckOptions e;
   e.seed = options.seed;
+  e.costs_root = options.costs_root;
   e.max_bits = options.max_bits;
   e.effort = options.effort;
   if (options.rounding) e.rounding = detail::to_engine(*options.rounding);

@@ -14,7 +14,8 @@
 
 #include "cli/exit_policy.h"
 #include "thetagate/thetagate.h"
-#include "verifier/syntax/spelling.h"  // compiled into the front end, not exported
+#include "verifier/syntax/spelling.h"       // compiled into the front end, not exported
+#include "verifier/syntax/terminal_text.h"  // likewise
 
 namespace {
 
@@ -38,6 +39,7 @@ struct CheckArguments {
   std::vector<std::string> fail_on;
   std::optional<double> clock_limit;
   uint64_t memory_mib = 2048;
+  std::string costs_root;
 };
 
 uint64_t parse_seed(const std::string& text) {
@@ -66,7 +68,9 @@ class Progress {
   void update(size_t done, size_t total, const std::string& name) {
     if (!enabled_) return;
     if (std::chrono::steady_clock::now() - start_ < std::chrono::seconds(1)) return;
-    std::string shown = name.size() > 50 ? name.substr(0, 49) + "…" : name;
+    // A claim name is a stranger's text: escaped before it reaches the terminal.
+    std::string shown = engine::escape_controls(name);
+    if (shown.size() > 50) shown = shown.substr(0, 49) + "…";
     std::cerr << "\r\033[K[" << done << "/" << total << "] " << shown << std::flush;
     drawn_ = true;
   }
@@ -107,11 +111,12 @@ int run_check(const CheckArguments& args) {
   try {
     options.seed = parse_seed(args.seed);
   } catch (const std::invalid_argument&) {
-    std::cerr << "thetagate: --seed takes a whole number or 'random', not '" << args.seed << "'\n";
+    std::cerr << "thetagate: --seed takes a whole number or 'random', not '"
+              << engine::escape_controls(args.seed) << "'\n";
     return kExitBadInput;
   } catch (const std::out_of_range&) {
-    std::cerr << "thetagate: --seed takes a whole number below 2^64 or 'random', not '" << args.seed
-              << "'\n";
+    std::cerr << "thetagate: --seed takes a whole number below 2^64 or 'random', not '"
+              << engine::escape_controls(args.seed) << "'\n";
     return kExitBadInput;
   }
   options.max_bits = args.max_bits;
@@ -121,6 +126,7 @@ int run_check(const CheckArguments& args) {
   if (args.rounding == "ceil") options.rounding = Rounding::kCeil;
   if (args.rounding == "both") options.rounding = Rounding::kBoth;
   options.jobs = args.jobs;
+  options.costs_root = args.costs_root;
   options.memory_limit = args.memory_mib << 20;
   Progress progress;
   options.progress = [&progress](size_t done, size_t total, const std::string& name) {
@@ -155,12 +161,13 @@ int run_check(const CheckArguments& args) {
     }
   }
   if (std::string failure = write_files_whole(files); !failure.empty()) {
-    std::cerr << "thetagate: " << failure << '\n';
+    std::cerr << "thetagate: " << engine::terminal_safe(failure) << '\n';
     return kExitBadInput;
   }
   for (const ClaimResult& c : report.claims()) {
     if (c.internal_error.empty()) continue;
-    std::cerr << "thetagate: " << InternalError(c.name, c.internal_error).what()
+    std::cerr << "thetagate: "
+              << engine::terminal_safe(InternalError(c.name, c.internal_error).what())
               << "\n  please report it with the claim file and the command line\n";
   }
   return cli::exit_code(report, changes_ptr, fail_on);
@@ -168,7 +175,7 @@ int run_check(const CheckArguments& args) {
 
 int run_derive(const std::string& recurrence_text, const std::string& format) {
   Derivation d = derive(recurrence_text);
-  std::cout << (format == "json" ? d.to_json() : d.to_text());
+  std::cout << (format == "json" ? d.to_json() : engine::terminal_safe(d.to_text()));
   return 0;
 }
 
@@ -233,6 +240,9 @@ int main(int argc, char** argv) {
                    "MiB all workers may hold together (default 2048); each claim may use 512, "
                    "so this caps --jobs")
       ->check(CLI::Range(1, 1 << 24));
+  check_command->add_option("--costs-root", check.costs_root,
+                            "a folder whose files claims may name as costs files, besides each "
+                            "claim file's own folder tree");
   check_command->add_flag("--undecided-fails", check.undecided_fails,
                           "JUnit: report undecided claims as failures, not skipped");
   check_command->add_flag("--list-families", check.list_families,
@@ -268,7 +278,7 @@ int main(int argc, char** argv) {
       for (const std::string& c : commands) {
         if (engine::edit_distance(word, c) < engine::edit_distance(word, closest)) closest = c;
       }
-      std::cerr << "thetagate: unknown command '" << word << "'\n  hint: "
+      std::cerr << "thetagate: unknown command '" << engine::escape_controls(word) << "'\n  hint: "
                 << (engine::edit_distance(word, closest) <= 2 ? "did you mean '" + closest + "'? "
                                                               : "")
                 << "commands: check, derive, eval (thetagate --help)\n";
@@ -287,16 +297,18 @@ int main(int argc, char** argv) {
     if (*derive_command) return run_derive(recurrence_text, derive_format);
     if (*eval_command) return run_eval(recurrence_text, sizes);
   } catch (const InputError& e) {
-    std::cerr << e.what() << '\n';
+    std::cerr << engine::terminal_safe(e.what()) << '\n';
     return kExitBadInput;
   } catch (const LimitReached& e) {
-    std::cerr << "thetagate: out of budget (" << limit_name(e.limit()) << "): " << e.what() << '\n';
+    std::cerr << "thetagate: out of budget (" << limit_name(e.limit())
+              << "): " << engine::terminal_safe(e.what()) << '\n';
     return kExitBadInput;
   } catch (const InternalError& e) {
-    std::cerr << "thetagate: " << e.what() << "\n  please report it with the command line\n";
+    std::cerr << "thetagate: " << engine::terminal_safe(e.what())
+              << "\n  please report it with the command line\n";
     return kExitInternalError;
   } catch (const std::exception& e) {
-    std::cerr << "thetagate: " << InternalError("", e.what()).what()
+    std::cerr << "thetagate: " << engine::terminal_safe(InternalError("", e.what()).what())
               << "\n  please report it with the command line\n";
     return kExitInternalError;
   } catch (...) {

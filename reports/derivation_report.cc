@@ -4,6 +4,8 @@
 
 #include <nlohmann/json.hpp>
 
+#include "verifier/syntax/terminal_text.h"
+
 namespace thetagate::engine {
 
 std::string render_derivation_text(const Derivation& d) {
@@ -41,7 +43,8 @@ std::string render_derivation_json(const Derivation& d) {
   j["steps"] = d.steps;
   j["not_applied"] = d.reasons;
   j["notes"] = d.notes;
-  return j.dump(2, ' ', false, nlohmann::json::error_handler_t::replace) + "\n";
+  return json_escape_controls(j.dump(2, ' ', false, nlohmann::json::error_handler_t::replace)) +
+         "\n";
 }
 
 }  // namespace thetagate::engine

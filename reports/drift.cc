@@ -64,8 +64,8 @@ std::string or_none(const std::string& derived) { return derived.empty() ? "none
 
 std::string claim_text(const ClaimDrift& d, const TextStyle& style) {
   std::string label = fmt::format("{:<11}", change_name(d));
-  std::string s =
-      paint(style, "\033[33m", label) + d.name + "   " + d.file + ":" + std::to_string(d.line);
+  std::string s = paint(style, "\033[33m", label) + escape_controls(d.name) + "   " +
+                  escape_controls(d.file) + ":" + std::to_string(d.line);
   if (d.is_new()) s += std::string("   ") + verdict_name(*d.after);
   if (d.is_lost()) s += std::string("   was ") + verdict_name(*d.before);
   s += "\n";
@@ -151,7 +151,9 @@ std::string render_drift_text(const DriftReport& drift, const TextStyle& style) 
         kIndent, drift.baseline_seed, drift.current_seed);
   }
   for (const ClaimDrift& d : drift.claims) s += claim_text(d, style);
-  return s;
+  // Names come from claim files and baselines: nothing in them may act on a
+  // terminal (see render_text).
+  return terminal_safe(s, style.colour);
 }
 
 std::string render_json_with_drift(const RunResult& run, const DriftReport& drift) {
@@ -166,7 +168,7 @@ std::string render_json_with_drift(const RunResult& run, const DriftReport& drif
   d["claims"] = Json::array();
   for (const ClaimDrift& c : drift.claims) d["claims"].push_back(claim_json(c));
   j["drift"] = std::move(d);
-  return j.dump(2, ' ', false, Json::error_handler_t::replace) + "\n";
+  return json_escape_controls(j.dump(2, ' ', false, Json::error_handler_t::replace)) + "\n";
 }
 
 }  // namespace thetagate::engine

@@ -4,6 +4,7 @@
 #include <nlohmann/json.hpp>
 
 #include "reports/verdict_text.h"
+#include "verifier/syntax/terminal_text.h"
 
 namespace thetagate::engine {
 
@@ -208,7 +209,7 @@ std::string render_json(const RunResult& run) {
   if (run.effort) j["effort"] = *run.effort;
   j["claims"] = Json::array();
   for (const ClaimResult& c : run.claims) j["claims"].push_back(claim_json(c));
-  return j.dump(2, ' ', false, Json::error_handler_t::replace) + "\n";
+  return json_escape_controls(j.dump(2, ' ', false, Json::error_handler_t::replace)) + "\n";
 }
 
 }  // namespace thetagate::engine

@@ -304,7 +304,10 @@ std::string render_text(const RunResult& raw_run, const TextStyle& style) {
   }
   if (!run.claims.empty() && run.claims.back().verdict == Verdict::kHolds) out += "\n";
   out += summary_line(run);
-  return out;
+  // The fields above are escaped one by one; this pass catches any text a
+  // future field brings along, so nothing from a claim file ever acts on the
+  // reader's terminal. Only our own colour sequences stay.
+  return terminal_safe(out, style.colour);
 }
 
 bool want_colour(int fd) {

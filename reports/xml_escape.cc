@@ -30,6 +30,19 @@ size_t allowed_sequence(const std::string& text, size_t i) {
   return length;
 }
 
+uint32_t code_point(const std::string& text, size_t i, size_t length) {
+  uint32_t cp = static_cast<unsigned char>(text[i]) & (0x7F >> length);
+  for (size_t k = 1; k < length; ++k)
+    cp = (cp << 6) | (static_cast<unsigned char>(text[i + k]) & 0x3F);
+  return cp;
+}
+
+bool is_invisible_control(const std::string& text, size_t i, size_t length) {
+  uint32_t cp = code_point(text, i, length);
+  return (cp >= 0x80 && cp <= 0x9F) || (cp >= 0x202A && cp <= 0x202E) ||
+         (cp >= 0x2066 && cp <= 0x2069);
+}
+
 std::string escape(const std::string& text, bool attribute) {
   std::string out;
   out.reserve(text.size());
@@ -42,7 +55,11 @@ std::string escape(const std::string& text, bool attribute) {
       continue;
     }
     char c = text[i];
-    if (length > 1) {
+    if (length > 1 && is_invisible_control(text, i, length)) {
+      // C1 controls and bidirectional overrides: legal XML, but they act on
+      // a terminal that shows the file and reorder what a reader sees.
+      out += fmt::format("&#x{:x};", code_point(text, i, length));
+    } else if (length > 1) {
       out.append(text, i, length);
     } else if (c == '&') {
       out += "&amp;";

@@ -72,7 +72,7 @@ enum class Basis {
   kCertifiedBreak,         // refuted: an exactly checked size breaks the bound
   kNumericTrend,           // from the numbers alone (refuted by an escaping ratio, else undecided)
   kBudgetReached,          // undecided: no violation where checked, and no proof
-  kInternalInconsistency,  // undecided: a theorem and the exact values disagree (a bug)
+  kInternalInconsistency,  // error: a theorem and the exact values disagree (a bug, exit 3)
   kInputError,             // error: the claim is malformed
   kInternalError,          // error: a bug in thetagate while checking this claim
   kCodeBreaksModel,        // refuted: a counted cost of the code is on the wrong side of T(n)
@@ -120,6 +120,10 @@ struct CheckOptions {
   // Wall-clock guard per claim against hangs, in seconds (default: 60 times
   // the effort); 0: none, so only the deterministic work budgets end a search.
   std::optional<double> clock_limit;
+  // A folder whose files claims may name as `costs`, besides each claim
+  // file's own folder tree (the only place by default: a claim file from an
+  // outside contribution must not read files elsewhere). Empty: none.
+  std::string costs_root;
   // Called after each claim, serialised: (claims done, claims in all, name).
   // If it throws, no further claim starts and check() rethrows it.
   std::function<void(size_t, size_t, const std::string&)> progress;

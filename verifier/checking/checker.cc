@@ -162,7 +162,7 @@ ClaimResult check_claim(const Claim& claim, const CheckOptions& options) {
     return result;
   }
   try {
-    apply_code_result(result, check_costs_file(claim));
+    apply_code_result(result, check_costs_file(claim, options.costs_root));
   } catch (const InputError& e) {
     return error_result(result, e.diagnostic());
   } catch (const BudgetExceeded& e) {

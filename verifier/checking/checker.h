@@ -29,6 +29,9 @@ struct CheckOptions {
   static constexpr uint64_t kDefaultWorkBudget = 400'000;
   // Multiplies work_budget (--effort): nightly runs search deeper.
   uint64_t effort = 1;
+  // The folder costs files may lie in, besides each claim file's own
+  // folder tree (empty: only that tree). See confined_costs_path.
+  std::string costs_root;
 
   static Budget default_check_budget();
 };

@@ -165,6 +165,9 @@ class ClaimCheck {
   // in a band that does not move. Returns the edges that move (empty when
   // they agree).
   std::vector<EdgeDisagreement> consistency(const std::vector<Sample>& samples);
+  // How far (log2) T(n)/g(n) may move under a correct Θ(g) with floors:
+  // one recursion level's factor (see consistency).
+  double oscillation_allowance_log2() const;
   // The verdict from the trend of the band and the ladder alone: refuted
   // when an edge escapes with certified rungs, otherwise undecided (numbers
   // are evidence, not a proof). `claim_unclassified`: g has no normal form.

@@ -13,6 +13,7 @@
 #include "verifier/checking/trend.h"
 #include "verifier/derivation/classify.h"
 #include "verifier/derivation/induction.h"
+#include "verifier/derivation/shape.h"
 
 namespace thetagate::engine::checker_internal {
 
@@ -167,7 +168,12 @@ void ClaimCheck::check_asymptotic(const std::vector<Size>& sizes) {
       result_.basis.theorem = evidence;
       std::vector<EdgeDisagreement> disagreement = consistency(all);
       if (!disagreement.empty()) {
-        result_.verdict = Verdict::kUndecided;
+        // A theorem whose hypotheses were verified cannot disagree with the
+        // exact values: one of the two is a bug. It is reported as one
+        // (verdict error, exit 3), never as an ordinary undecided claim.
+        result_.verdict = Verdict::kError;
+        result_.internal_error = derivation_->method + " derives Θ(" + derivation_->derived +
+                                 "), but the exact values disagree (an internal inconsistency)";
         result_.basis.kind = BasisKind::kInternalInconsistency;
         result_.basis.disagreement = std::move(disagreement);
         return;
@@ -279,15 +285,43 @@ std::vector<EdgeDisagreement> ClaimCheck::consistency(const std::vector<Sample>&
   }
   if (band.empty()) return {};
   TrendReading trend = read_trend(complete_scales(band.rows()));
+  // Θ promises T(n)/g(n) between two constants, not a flat ratio: with
+  // floors, the sizes n and n + 1 can sit a whole recursion level apart, and
+  // T(n)/g(n) then steps by up to the level's factor (the sum of the
+  // coefficients) before it comes back. Over a few scales such a step looks
+  // like a slope (7 T(floor(sqrt(n))) moves a level only where lg n doubles;
+  // 10^4000 T(n/2) steps by 10^4000 between n = 2^k - 1 and 2^k). Only a
+  // movement beyond that allowance contradicts the derived class.
+  double allowance = oscillation_allowance_log2();
   std::vector<EdgeDisagreement> moving;
   for (const auto& [edge, side] :
        {std::pair{trend.high, Side::kUpper}, std::pair{trend.low, Side::kLower}}) {
     bool moves = edge.direction == Direction::kRising || edge.direction == Direction::kFalling;
-    if (edge.direction == Direction::kEscapes || (moves && std::fabs(edge.slope) > 0.5)) {
+    bool beyond = std::max(std::fabs(edge.change_log2), std::fabs(edge.envelope_log2)) > allowance;
+    if (beyond &&
+        (edge.direction == Direction::kEscapes || (moves && std::fabs(edge.slope) > 0.5))) {
       moving.push_back({side, edge});
     }
   }
   return moving;
+}
+
+double ClaimCheck::oscillation_allowance_log2() const {
+  // log2 of the sum of the recursive terms' coefficients, at least 1, plus
+  // two bits for the driving function's own rounding.
+  Shape shape = extract_shape(*claim_.recurrence);
+  // log2 of the sum, from the largest term's log2 and the count of terms
+  // (10^4000 does not fit a double).
+  double largest = 1.0;
+  size_t terms = 0;
+  auto add = [&](const Rational& a) {
+    if (a != 0) largest = std::max(largest, Value(a).log2_magnitude());
+    ++terms;
+  };
+  for (const ScaledTerm& t : shape.scaled) add(t.a);
+  for (const RootTerm& t : shape.roots) add(t.a);
+  for (const SubtractiveTerm& t : shape.subtractive) add(t.a);
+  return largest + std::log2(static_cast<double>(std::max<size_t>(terms, 1))) + 2.0;
 }
 
 void ClaimCheck::decide_numerically(const std::vector<Target>& targets, bool claim_unclassified) {

@@ -2,6 +2,8 @@
 
 #include <algorithm>
 #include <cctype>
+#include <filesystem>
+#include <string_view>
 
 #include "verifier/syntax/input_file.h"
 #include "verifier/syntax/parser.h"
@@ -46,9 +48,8 @@ bool CostModel::violates(int sign) const { return relation_broken(relation_, sig
 
 void CostRows::add(const BigInt& n, const BigInt& cost, const std::string& model, int sign,
                    const std::string& from) {
-  auto it = std::lower_bound(entries_.begin(), entries_.end(), n,
-                             [](const Entry& e, const BigInt& m) { return e.row.n < m; });
-  if (it == entries_.end() || it->row.n != n) {
+  auto it = entries_.find(n);
+  if (it == entries_.end()) {
     Entry e;
     e.row.n = n;
     e.row.cost = cost.str();
@@ -57,33 +58,34 @@ void CostRows::add(const BigInt& n, const BigInt& cost, const std::string& model
     e.row.runs = 1;
     e.row.from = from;
     e.cost = cost;
-    entries_.insert(it, std::move(e));
+    entries_.emplace(n, std::move(e));
     return;
   }
-  ++it->row.runs;
+  Entry& entry = it->second;
+  ++entry.row.runs;
   bool further = false;
   switch (relation_) {
     case ModelRelation::kUpperBound:
-      further = cost > it->cost;
+      further = cost > entry.cost;
       break;
     case ModelRelation::kLowerBound:
-      further = cost < it->cost;
+      further = cost < entry.cost;
       break;
     case ModelRelation::kExact:
-      further = it->row.sign == 0 && sign != 0;
+      further = entry.row.sign == 0 && sign != 0;
       break;
   }
   if (!further) return;
-  it->row.cost = cost.str();
-  it->row.sign = sign;
-  it->row.from = from;
-  it->cost = cost;
+  entry.row.cost = cost.str();
+  entry.row.sign = sign;
+  entry.row.from = from;
+  entry.cost = cost;
 }
 
 std::vector<CostRow> CostRows::rows() const {
   std::vector<CostRow> out;
   out.reserve(entries_.size());
-  for (const Entry& e : entries_) out.push_back(e.row);
+  for (const auto& [n, e] : entries_) out.push_back(e.row);
   return out;
 }
 
@@ -99,31 +101,131 @@ struct Field {
   size_t end = 0;
 };
 
+// What a costs-file error may show of the file: the line when it is short
+// (a typo in "1024 9e3" is plain to see), nothing when it is long. A claim
+// file can name a file that was never meant as costs (a credentials file in
+// the same tree); its errors must not publish it in every report.
+constexpr size_t kMaxShownLineBytes = 40;
+constexpr size_t kMaxShownWordBytes = 12;
+
 [[noreturn]] void fail_line(const SourceText& file, size_t pos, std::string message,
                             std::string hint) {
-  fail_at(file, pos, std::move(message), std::move(hint));
+  Diagnostic d;
+  d.where = file.locate(pos);
+  d.message = std::move(message);
+  d.hint = std::move(hint);
+  std::string line = file.line_at(pos);
+  if (line.size() <= kMaxShownLineBytes) d.source_line = std::move(line);
+  throw InputError(std::move(d));
+}
+
+// A field of a costs file as a message may quote it: short, escaped.
+std::string quoted_field(const std::string& word) {
+  if (word.size() > kMaxShownWordBytes) {
+    return "a " + std::to_string(word.size()) + "-byte word";
+  }
+  return "'" + escape_controls(word) + "'";
+}
+
+[[noreturn]] void fail_costs_key(const CodeLink& link, std::string message, std::string hint) {
+  Diagnostic d;
+  d.where = link.costs_where;
+  d.message = std::move(message);
+  d.hint = std::move(hint);
+  throw InputError(std::move(d));
+}
+
+const char* const kWidenHint =
+    "name a file under the claim file's folder (relative to the claim file, e.g. "
+    "costs = \"costs/stable_sort.txt\"), or let the run read another folder with "
+    "--costs-root DIR";
+
+// Whether `path` lies in the tree under `root` (both absolute and normal).
+bool inside(const std::filesystem::path& path, const std::filesystem::path& root) {
+  std::filesystem::path relative = path.lexically_relative(root);
+  return !relative.empty() && *relative.begin() != "..";
 }
 
 }  // namespace
 
-CodeResult check_costs_file(const Claim& claim) {
+std::string confined_costs_path(const CodeLink& link, const std::string& widened_root) {
+  namespace fs = std::filesystem;
+  const std::string& written = link.costs_as_written;
+  if (!is_plain_text(written)) {
+    fail_costs_key(link,
+                   "the costs path '" + escape_controls(written) +
+                       "' holds a control character (a NUL would end the path early)",
+                   "write the path with printable characters only");
+  }
+  fs::path path(written);
+  if (path.is_absolute() && widened_root.empty()) {
+    fail_costs_key(link,
+                   "the costs path '" + written +
+                       "' is absolute; a claim file may only name files in its own folder tree",
+                   kWidenHint);
+  }
+  std::error_code ec;
+  std::vector<fs::path> roots = {fs::absolute(link.claim_folder, ec).lexically_normal()};
+  if (!widened_root.empty()) roots.push_back(fs::absolute(widened_root, ec).lexically_normal());
+  fs::path full = (path.is_absolute() ? path : roots.front() / path).lexically_normal();
+  auto within_a_root = [&](const fs::path& p, bool resolve_roots) {
+    for (const fs::path& root : roots) {
+      std::error_code root_ec;
+      fs::path r = resolve_roots ? fs::canonical(root, root_ec) : root;
+      if (!root_ec && inside(p, r)) return true;
+    }
+    return false;
+  };
+  if (!within_a_root(full, /*resolve_roots=*/false)) {
+    fail_costs_key(link,
+                   "the costs path '" + written +
+                       "' leaves the claim file's folder; a claim file may only name files in "
+                       "its own folder tree",
+                   kWidenHint);
+  }
+  // Symbolic links: the file they lead to must be inside too, and that file
+  // (not the link, which could be swapped meanwhile) is the one read.
+  fs::path resolved = fs::canonical(full, ec);
+  if (ec) return full.string();  // missing: read_input_file says so at the costs key
+  if (!within_a_root(resolved, /*resolve_roots=*/true)) {
+    fail_costs_key(link,
+                   "the costs path '" + written +
+                       "' leads, through a symbolic link, out of the claim file's folder; a "
+                       "claim file may only name files in its own folder tree",
+                   kWidenHint);
+  }
+  return resolved.string();
+}
+
+CodeResult check_costs_file(const Claim& claim, const std::string& widened_root) {
   const CodeLink& link = *claim.code;
+  std::string path = confined_costs_path(link, widened_root);
   // A regular file under a cap (a FIFO or a device would block or grow without
   // end); a file that cannot be read is an error at the claim's `costs` key.
   std::string bytes;
   try {
-    bytes = read_input_file(link.costs_path, kMaxCostsFileBytes, "costs file",
+    bytes = read_input_file(path, kMaxCostsFileBytes, "costs file",
                             "'costs' is relative to the claim file's folder; the file "
                             "holds lines \"size cost\"");
   } catch (const InputError& e) {
     Diagnostic d = e.diagnostic();
     d.where = link.costs_where;
     d.source_line.clear();
+    // Name the file as the claim file does, not by its resolved path.
+    for (size_t at = d.message.find(path); at != std::string::npos && path != link.costs_path;
+         at = d.message.find(path, at + link.costs_path.size())) {
+      d.message.replace(at, path.size(), link.costs_path);
+    }
     if (d.message.find(link.costs_path) == std::string::npos) {
       d.message += " ('" + link.costs_path + "')";
     }
     throw InputError(d);
   }
+  return check_costs_text(claim, std::move(bytes));
+}
+
+CodeResult check_costs_text(const Claim& claim, std::string bytes) {
+  const CodeLink& link = *claim.code;
   SourceText file = SourceText::whole(link.costs_path, std::move(bytes));
   const std::string& text = file.text;
   const std::string kHint = "each line holds a size and its counted cost: \"1024 9217\"";
@@ -143,8 +245,10 @@ CodeResult check_costs_file(const Claim& claim) {
     if (line_end == std::string::npos) line_end = text.size();
     size_t content_end = line_end;
     if (content_end > line_start && text[content_end - 1] == '\r') --content_end;
-    size_t hash = text.find('#', line_start);
-    if (hash < content_end) content_end = hash;
+    // A comment ends the line's content; look for it within the line only
+    // (a search to the end of the file for every line was quadratic).
+    size_t hash = std::string_view(text).substr(line_start, content_end - line_start).find('#');
+    if (hash != std::string_view::npos) content_end = line_start + hash;
     std::vector<Field> fields;
     size_t i = line_start;
     while (i < content_end) {
@@ -175,8 +279,8 @@ CodeResult check_costs_file(const Claim& claim) {
                                              " as a whole number in decimal digits (no 1e6, no 2.5)"
                                        : kHint;
           fail_line(file, fields[f].begin + bad,
-                    std::string("the ") + what + " must be a non-negative whole number, found '" +
-                        word + "'",
+                    std::string("the ") + what + " must be a non-negative whole number, found " +
+                        quoted_field(word),
                     hint);
         }
         if (word.size() > kMaxDigits) {

@@ -5,6 +5,7 @@
 #define THETAGATE_VERIFIER_CHECKING_CODE_CHECK_H_
 
 #include <cstdint>
+#include <map>
 #include <memory>
 #include <string>
 #include <vector>
@@ -58,13 +59,30 @@ class CostRows {
     BigInt cost;
   };
   ModelRelation relation_;
-  std::vector<Entry> entries_;  // sorted by n
+  // By n: a file of any order costs O(log sizes) per line (a sorted vector
+  // made a descending file quadratic).
+  std::map<BigInt, Entry> entries_;
 };
 
-// Reads the claim's costs file and checks every line. Throws InputError for
-// an unreadable file or a malformed line (file, line, column, hint), and for
-// a size where T is undefined (located at that line).
-CodeResult check_costs_file(const Claim& claim);
+// The costs file of `link`, resolved and confined: a relative path is read
+// against the claim file's folder, and the file (after every symbolic link
+// is followed) must lie in that folder's tree, or in `widened_root` when it
+// is not empty. Throws InputError at the `costs` key for a path holding a
+// control character or NUL, an absolute path (unless inside
+// `widened_root`), a path that leaves the tree ("../x", a link pointing
+// out), and for a file that does not exist. Returns the canonical path.
+std::string confined_costs_path(const CodeLink& link, const std::string& widened_root);
+
+// Reads the claim's costs file (confined_costs_path) and checks every line.
+// Throws InputError for an unreadable file or a malformed line (file, line,
+// column, hint), and for a size where T is undefined (located at that
+// line). A message never quotes the file's content beyond a short excerpt:
+// the file may be one its claim file named to leak it.
+CodeResult check_costs_file(const Claim& claim, const std::string& widened_root = "");
+
+// check_costs_file's work on bytes already read (`bytes` stands for the
+// file link.costs_path): every line checked. The same errors.
+CodeResult check_costs_text(const Claim& claim, std::string bytes);
 
 // Folds a code result into a claim result: violations refute the claim (the
 // code breaks its model) whatever the bound's verdict; the message says so.

@@ -76,7 +76,7 @@ enum class BasisKind {
   kCertifiedBreak,         // refuted: an exactly checked size breaks the bound
   kNumericTrend,           // the numbers alone: refuted by an escaping edge, else undecided
   kBudgetReached,          // undecided: no violation where checked, and no proof
-  kInternalInconsistency,  // undecided: a theorem and the exact values disagree (a bug)
+  kInternalInconsistency,  // error: a theorem and the exact values disagree (a bug, exit 3)
   kInputError,             // error: the claim is malformed
   kInternalError,          // error: a bug in thetagate while checking this claim (detail)
   kCodeBreaksModel,        // refuted: a counted cost of the code is on the wrong side of T(n)

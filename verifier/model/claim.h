@@ -43,6 +43,11 @@ struct CodeLink {
   std::string costs_as_written;
   std::string costs_path;
   Location costs_where;  // the value of `costs`
+  // The claim file's folder: the tree a costs file must lie in, unless the
+  // run widens it (CheckOptions::costs_root). A claim file may come from an
+  // outside contribution; it must not read, and echo into reports, a file
+  // elsewhere on the machine (/proc/self/environ holds a CI job's secrets).
+  std::string claim_folder;
   // `max_n`: the largest size a runner is given (runnable sizes).
   uint64_t max_n = 65536;
 };

@@ -357,8 +357,10 @@ CodeLink ClaimFileReader::read_code(const toml::node& node) const {
            "write costs = \"costs/stable_sort.txt\" (relative to this claim file)");
     }
     code.costs_as_written = s->get();
+    code.claim_folder = std::filesystem::path(file_->name).parent_path().string();
+    if (code.claim_folder.empty()) code.claim_folder = ".";
     std::filesystem::path path(s->get());
-    if (path.is_relative()) path = std::filesystem::path(file_->name).parent_path() / path;
+    if (path.is_relative()) path = std::filesystem::path(code.claim_folder) / path;
     code.costs_path = path.lexically_normal().string();
     code.costs_where = locate(costs->source().begin);
   }

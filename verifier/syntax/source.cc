@@ -70,22 +70,6 @@ std::string SourceText::line_at(size_t pos) const {
   return line;
 }
 
-std::string escape_controls(const std::string& s) {
-  std::string out;
-  for (char ch : s) {
-    unsigned char c = static_cast<unsigned char>(ch);
-    if (c < 0x20 || c == 0x7f) {
-      static const char* const kDigits = "0123456789abcdef";
-      out += "\\x";
-      out += kDigits[c >> 4];
-      out += kDigits[c & 15];
-    } else {
-      out += ch;
-    }
-  }
-  return out;
-}
-
 void fail_at(const SourceText& source, size_t pos, std::string message, std::string hint) {
   Diagnostic d;
   d.where = source.locate(pos);
@@ -126,10 +110,8 @@ std::string format_diagnostic(const Diagnostic& d) {
       if (to < line.size()) window += "...";
       line = window;
     }
-    // One character for each control byte, so the caret stays in place.
-    for (char& c : line) {
-      if ((static_cast<unsigned char>(c) < 0x20 && c != '\t') || c == 0x7f) c = '?';
-    }
+    // One character for each control character, so the caret stays in place.
+    line = engine::masked_line(line);
     out += "\n" + line + "\n";
     // Keep tabs so the caret lines up under tab-indented text.
     int at = 1;

@@ -10,6 +10,7 @@
 #include <string>
 
 #include "thetagate/errors.h"
+#include "verifier/syntax/terminal_text.h"
 
 namespace thetagate::engine {
 
@@ -48,10 +49,6 @@ struct SourceText {
 // Builds and throws an InputError at byte `pos` of `source`.
 [[noreturn]] void fail_at(const SourceText& source, size_t pos, std::string message,
                           std::string hint = "");
-
-// `s` with control bytes (escape sequences, NUL, line breaks) written as
-// \xNN, for text that reaches a terminal.
-std::string escape_controls(const std::string& s);
 
 // The UTF-8 column helpers: every conversion between bytes and columns
 // (characters) goes through these two.
