@@ -47,5 +47,44 @@ TEST(Consistency, AHugeCoefficientStepsTheRatioByItself) {
   EXPECT_EQ(r.basis.kind, BasisKind::kDerivationAgrees);
 }
 
+TEST(Consistency, ASlowlyConvergingRatioIsNoInconsistency) {
+  // T(n) = T(n/2) + T(n/3) + T(n/7) + n: 1/2 + 1/3 + 1/7 < 1, so Θ(n)
+  // (Akra–Bazzi with p < 1; common practice), with T(n)/n climbing towards
+  // 1/(1 - 1/2 - 1/3 - 1/7) = 42 from below. With little memory only small
+  // scales are seen, where the climb looked like a trend.
+  std::vector<ClaimEntry> entries = load_claim_text(
+      "[[claim]]\nname = \"orchard::split3\"\n"
+      "recurrence = \"T(n) = T(n/2) + T(n/3) + T(n/7) + n; T(n) = 1 for n < 7\"\n"
+      "bound = \"Theta(n)\"\n",
+      "consistency.toml");
+  ASSERT_EQ(entries.size(), 1u);
+  for (uint64_t memo_bytes : {uint64_t{1} << 20, uint64_t{4} << 20, uint64_t{512} << 20}) {
+    SCOPED_TRACE(memo_bytes);
+    CheckOptions options;
+    options.budget.max_memo_bytes = memo_bytes;
+    ClaimResult r = check_entry(entries.front(), options);
+    EXPECT_EQ(r.verdict, Verdict::kHolds) << r.internal_error;
+  }
+}
+
+TEST(TrendReading, TheLastPartlySearchedScaleCountsForAnEscape) {
+  // Catalan numbers, C(n) = sum C(k) C(n-1-k), grow like 4^n / n^(3/2)
+  // (from memory; common practice): O(3.5^n) is false. The ladder holds a
+  // certified rung at c = 10^6 (n = 166), in the scale where the search
+  // stopped; without that scale the band "only" rose 10^5 and the claim
+  // stayed undecided.
+  std::vector<ClaimEntry> entries = load_claim_text(
+      "[[claim]]\nname = \"orchard::shapes / count\"\n"
+      "recurrence = \"T(n) = sum(k, 0, n - 1, T(k) T(n - 1 - k)); T(0) = 1\"\n"
+      "bound = \"O(3.5^n)\"\n",
+      "catalan.toml");
+  ASSERT_EQ(entries.size(), 1u);
+  ClaimResult r = check_entry(entries.front(), CheckOptions{});
+  EXPECT_EQ(r.verdict, Verdict::kRefuted);
+  EXPECT_EQ(r.basis.kind, BasisKind::kNumericTrend);
+  ASSERT_FALSE(r.witnesses.empty());
+  EXPECT_EQ(r.witnesses.back().factor, "1000000");
+}
+
 }  // namespace
 }  // namespace thetagate::engine

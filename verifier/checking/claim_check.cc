@@ -248,4 +248,12 @@ std::vector<BandRow> ClaimCheck::complete_scales(const std::vector<BandRow>& row
   return out;
 }
 
+std::vector<BandRow> ClaimCheck::scales_for_escape(const std::vector<BandRow>& rows) const {
+  std::vector<BandRow> out;
+  for (const BandRow& row : rows) {
+    if ((!partial_scale_ || row.scale <= *partial_scale_) && row.samples >= 3) out.push_back(row);
+  }
+  return out;
+}
+
 }  // namespace thetagate::engine::checker_internal

@@ -117,6 +117,12 @@ class ClaimCheck {
   // in the scales c·2^k spills into, a row holds one or two shapes (often
   // only even sizes), and its edges would bend the trend.
   std::vector<BandRow> complete_scales(const std::vector<BandRow>& rows) const;
+  // complete_scales plus the scale where the search stopped, when it holds
+  // at least 3 samples. Sound for reading an escape only: a partly sampled
+  // scale's highest ratio can only be below the scale's true highest (and
+  // its lowest above the true lowest), so an edge that escapes with it
+  // escapes without the cut too; a steady reading would not be sound.
+  std::vector<BandRow> scales_for_escape(const std::vector<BandRow>& rows) const;
 
   // witness_search.cc: the hunt for witnesses.
 
