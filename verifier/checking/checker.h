@@ -29,6 +29,10 @@ struct CheckOptions {
   static constexpr uint64_t kDefaultWorkBudget = 400'000;
   // Multiplies work_budget (--effort): nightly runs search deeper.
   uint64_t effort = 1;
+  // The wall-clock guard per claim in seconds, as given (--clock-limit): all
+  // readings of the claim share it, and the effort does not scale it; 0: no
+  // clock. Unset: budget.max_seconds times the effort, per reading.
+  std::optional<double> clock_limit;
 
   static Budget default_check_budget();
 };
