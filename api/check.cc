@@ -64,7 +64,7 @@ engine::CheckOptions engine_options(const CheckOptions& options) {
   if (options.rounding) e.rounding = detail::to_engine(*options.rounding);
   if (options.clock_limit) {
     if (*options.clock_limit < 0) bad("clock_limit must not be negative", "0 means no clock");
-    e.budget.max_seconds = *options.clock_limit;
+    e.clock_limit = *options.clock_limit;
   }
   return e;
 }

@@ -70,6 +70,8 @@ std::string write_files_whole(const std::vector<std::pair<std::string, std::stri
   return engine::write_files_whole(files);
 }
 
+void remove_unfinished_reports() noexcept { engine::remove_unfinished_reports(); }
+
 BaselineChanges compare_with_baseline(const Report& baseline, const Report& current) {
   return detail::Access::make_changes(
       engine::compare_runs(detail::Access::run(baseline), detail::Access::run(current)));

@@ -3,6 +3,7 @@
 // into exit codes (cli/exit_policy.h): 0 fine, 1 refuted (or what --fail-on
 // names), 2 bad input or usage (bad input wins over 1), 3 an internal error
 // (a bug).
+#include <signal.h>
 #include <unistd.h>
 
 #include <CLI/CLI.hpp>
@@ -199,9 +200,32 @@ int run_eval(const std::string& recurrence_text, const std::vector<std::string>&
   return 0;
 }
 
+// SIGTERM, SIGHUP, SIGINT: no half-written report may stay behind. The
+// handler removes the temporary files and ends the process by the signal.
+extern "C" void end_by_signal(int signal_number) {
+  remove_unfinished_reports();
+  ::signal(signal_number, SIG_DFL);
+  ::raise(signal_number);
+}
+
+void install_signal_handlers() {
+  // A report over the file size limit (ulimit -f) is a write that fails with
+  // "File too large" (exit 2), not a process killed by SIGXFSZ.
+  ::signal(SIGXFSZ, SIG_IGN);
+  for (int signal_number : {SIGTERM, SIGHUP, SIGINT}) {
+    struct sigaction action {};
+    // A signal ignored on entry (nohup, a background shell job) stays ignored.
+    if (::sigaction(signal_number, nullptr, &action) == 0 && action.sa_handler == SIG_IGN) continue;
+    action.sa_handler = end_by_signal;
+    sigemptyset(&action.sa_mask);
+    ::sigaction(signal_number, &action, nullptr);
+  }
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
+  install_signal_handlers();
   CLI::App app{"thetagate: checks claimed complexity bounds of recurrences"};
   app.require_subcommand(1);
 
@@ -224,8 +248,9 @@ int main(int argc, char** argv) {
       ->check(CLI::Range(1, 10000));
   check_command
       ->add_option("--clock-limit", check.clock_limit,
-                   "wall-clock guard per claim against hangs, in seconds (default 60 x effort); "
-                   "0: none, so only the work budgets end a search")
+                   "wall-clock guard per claim against hangs, in seconds, as given (--effort does "
+                   "not scale it; default 60 x effort); 0: none, so only the work budgets end a "
+                   "search")
       ->check(CLI::Range(0.0, 1e6));
   check_command->add_option("--claim", check.claims,
                             "check only the claim with this name (repeatable)");
@@ -237,8 +262,9 @@ int main(int argc, char** argv) {
       ->check(CLI::Range(1, 256));
   check_command
       ->add_option("--memory", check.memory_mib,
-                   "MiB all workers may hold together (default 2048); each claim may use 512, "
-                   "so this caps --jobs")
+                   "MiB of memo tables and pending sizes all workers may hold together "
+                   "(default 2048): each claim may hold the smaller of 512 and this, so it also "
+                   "caps --jobs; not a cap on the whole process")
       ->check(CLI::Range(1, 1 << 24));
   check_command->add_option("--costs-root", check.costs_root,
                             "a folder whose files claims may name as costs files, besides each "
@@ -307,6 +333,11 @@ int main(int argc, char** argv) {
     std::cerr << "thetagate: " << engine::terminal_safe(e.what())
               << "\n  please report it with the command line\n";
     return kExitInternalError;
+  } catch (const std::bad_alloc&) {
+    // Outside a claim's check (eval, derive, reading input): a limit, like
+    // memory inside a check.
+    std::cerr << "thetagate: out of budget (memory): memory ran out\n";
+    return kExitBadInput;
   } catch (const std::exception& e) {
     std::cerr << "thetagate: " << engine::terminal_safe(InternalError("", e.what()).what())
               << "\n  please report it with the command line\n";

@@ -249,6 +249,15 @@ class ReportReader {
   uint64_t unsigned_at(const Json& o, const std::string& path, const std::string& key) {
     return unsigned_value(require(o, path, key), join(path, key));
   }
+  // A line or column: a whole number that fits an int.
+  int position_at(const Json& o, const std::string& path, const std::string& key) {
+    uint64_t v = unsigned_at(o, path, key);
+    if (v > static_cast<uint64_t>(std::numeric_limits<int>::max())) {
+      fail(join(path, key), "'" + join(path, key) + "' is " + std::to_string(v) +
+                                ", more than any line or column (2147483647)");
+    }
+    return static_cast<int>(v);
+  }
   std::string optional_string(const Json& o, const std::string& path, const std::string& key) {
     const Json* j = optional_key(o, key);
     return j ? string_value(*j, join(path, key)) : "";
@@ -340,8 +349,8 @@ class ReportReader {
     expect_object(*j, at);
     Diagnostic d;
     d.where.file = string_at(*j, at, "file");
-    d.where.line = static_cast<int>(unsigned_at(*j, at, "line"));
-    d.where.column = static_cast<int>(unsigned_at(*j, at, "column"));
+    d.where.line = position_at(*j, at, "line");
+    d.where.column = position_at(*j, at, "column");
     d.message = string_at(*j, at, "message");
     d.hint = optional_string(*j, at, "hint");
     // format_diagnostic puts the source line second, with a caret line below.
@@ -530,7 +539,7 @@ class ReportReader {
     ClaimResult c;
     c.name = string_at(j, path, "name");
     c.file = string_at(j, path, "file");
-    c.line = static_cast<int>(unsigned_at(j, path, "line"));
+    c.line = position_at(j, path, "line");
     c.verdict = verdict_value(require(j, path, "verdict"), join(path, "verdict"));
     c.claimed = string_at(j, path, "claimed");
     c.derived = string_at(j, path, "derived");

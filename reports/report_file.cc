@@ -29,6 +29,35 @@ std::string write_all(int fd, const std::string& text) {
   return "";
 }
 
+// The temporary files of writes in progress, for a signal handler: fixed
+// slots, so remove_unfinished_reports neither allocates nor locks. A write
+// that finds no free slot (more than kTemporarySlots files at once, or a
+// longer path) still works; only a signal may then leave its file behind.
+constexpr size_t kTemporarySlots = 32;
+constexpr size_t kTemporaryPathBytes = 4096;
+enum SlotState : int { kSlotFree, kSlotFilling, kSlotListed };
+struct TemporarySlot {
+  std::atomic<int> state{kSlotFree};
+  char path[kTemporaryPathBytes];
+};
+TemporarySlot temporary_slots[kTemporarySlots];
+
+int remember_temporary(const std::string& path) {
+  if (path.size() >= kTemporaryPathBytes) return -1;
+  for (size_t i = 0; i < kTemporarySlots; ++i) {
+    int expected = kSlotFree;
+    if (!temporary_slots[i].state.compare_exchange_strong(expected, kSlotFilling)) continue;
+    std::memcpy(temporary_slots[i].path, path.c_str(), path.size() + 1);
+    temporary_slots[i].state.store(kSlotListed);
+    return static_cast<int>(i);
+  }
+  return -1;
+}
+
+void forget_temporary(int slot) {
+  if (slot >= 0) temporary_slots[slot].state.store(kSlotFree);
+}
+
 std::string folder_of(const std::string& path) {
   std::string parent = std::filesystem::path(path).parent_path().string();
   return parent.empty() ? "." : parent;
@@ -61,50 +90,59 @@ std::string write_files_whole(const std::vector<std::pair<std::string, std::stri
   static std::atomic<unsigned> counter{0};
   struct Staged {
     std::string path;
-    std::string temporary;  // empty: written in place
+    std::string temporary;
+    int slot;  // in the signal handler's list, or -1
   };
   std::vector<Staged> staged;
-  auto discard = [&staged] {
-    for (const Staged& s : staged) {
-      if (!s.temporary.empty()) ::unlink(s.temporary.c_str());
+  // Every way out (a failure, an exception such as bad_alloc) removes the
+  // temporary files not yet renamed; a signal is handled by
+  // remove_unfinished_reports.
+  struct Discard {
+    std::vector<Staged>& staged;
+    ~Discard() {
+      for (const Staged& s : staged) {
+        if (!s.temporary.empty()) ::unlink(s.temporary.c_str());
+        forget_temporary(s.slot);
+      }
     }
-  };
+  } discard{staged};
   for (const auto& [path, text] : files) {
     struct stat info;
     bool special = ::stat(path.c_str(), &info) == 0 && !S_ISREG(info.st_mode);
-    std::string target = path;
     int fd;
     if (special) {
       fd = ::open(path.c_str(), O_WRONLY | O_TRUNC | O_CLOEXEC);
     } else {
       std::filesystem::path p(path);
-      target =
+      std::string temporary =
           (p.parent_path() / ("." + p.filename().string() + ".tmp-" + std::to_string(::getpid()) +
                               "-" + std::to_string(counter.fetch_add(1))))
               .string();
-      fd = ::open(target.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, 0644);
+      // Listed before it exists, so no signal finds it unlisted.
+      staged.push_back({path, temporary, remember_temporary(temporary)});
+      fd = ::open(temporary.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, 0644);
+      if (fd < 0) staged.back().temporary.clear();  // not ours to remove
     }
-    if (fd < 0) {
-      std::string reason = std::strerror(errno);
-      discard();
-      return "cannot write " + path + ": " + reason;
-    }
-    if (!special) staged.push_back({path, target});
+    if (fd < 0) return "cannot write " + path + ": " + std::strerror(errno);
     std::string reason = write_all(fd, text);
     if (::close(fd) != 0 && reason.empty()) reason = std::strerror(errno);
-    if (!reason.empty()) {
-      discard();
-      return "cannot write " + path + ": " + reason;
-    }
+    if (!reason.empty()) return "cannot write " + path + ": " + reason;
   }
-  for (size_t i = 0; i < staged.size(); ++i) {
-    if (::rename(staged[i].temporary.c_str(), staged[i].path.c_str()) != 0) {
-      std::string reason = std::strerror(errno);
-      for (size_t j = i; j < staged.size(); ++j) ::unlink(staged[j].temporary.c_str());
-      return "cannot write " + staged[i].path + ": " + reason;
+  for (Staged& s : staged) {
+    if (::rename(s.temporary.c_str(), s.path.c_str()) != 0) {
+      return "cannot write " + s.path + ": " + std::strerror(errno);
     }
+    s.temporary.clear();
+    forget_temporary(s.slot);
+    s.slot = -1;
   }
   return "";
+}
+
+void remove_unfinished_reports() noexcept {
+  for (TemporarySlot& slot : temporary_slots) {
+    if (slot.state.load() == kSlotListed) ::unlink(slot.path);
+  }
 }
 
 }  // namespace thetagate::engine

@@ -23,7 +23,16 @@ void check_output_location(const std::string& out, bool folder);
 // regular file (/dev/stdout, a pipe) is written directly. Returns "" on
 // success, else "cannot write PATH: REASON"; on failure no file that was
 // being replaced has changed.
+// Temporary files are removed on every way out of it, exceptions included.
+// A file size limit (ulimit -f) is a failure with the reason "File too
+// large" only where SIGXFSZ is ignored (the command line ignores it);
+// otherwise the system ends the process.
 std::string write_files_whole(const std::vector<std::pair<std::string, std::string>>& files);
+
+// Removes the temporary files of every write_files_whole in progress.
+// Async-signal-safe: for a handler of SIGTERM, SIGHUP or SIGINT, which
+// should then end the process (the interrupted writes cannot go on).
+void remove_unfinished_reports() noexcept;
 
 }  // namespace thetagate::engine
 

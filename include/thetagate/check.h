@@ -114,11 +114,15 @@ struct CheckOptions {
   std::optional<Rounding> rounding;   // overrides every claim's rounding
   std::vector<std::string> families;  // overrides every claim's families; empty = keep
   unsigned jobs = 1;                  // claims checked at once (same report as 1)
-  // Memory all workers may hold together; each claim may use 512 MiB, so
-  // this caps `jobs` (the report stays the same).
+  // Memory all workers may hold together in memo tables and pending sizes
+  // (as the evaluators account for them, not the whole process): each claim
+  // may hold the smaller of 512 MiB and this, so it also caps `jobs` (the
+  // report does not depend on `jobs`).
   uint64_t memory_limit = uint64_t{2} << 30;
-  // Wall-clock guard per claim against hangs, in seconds (default: 60 times
-  // the effort); 0: none, so only the deterministic work budgets end a search.
+  // Wall-clock guard per claim against hangs, in seconds: as given, whatever
+  // the effort, and shared by the claim's readings (rounding "both"); unset:
+  // 60 s times the effort per reading; 0: none, so only the deterministic
+  // work budgets end a search.
   std::optional<double> clock_limit;
   // A folder whose files claims may name as `costs`, besides each claim
   // file's own folder tree (the only place by default: a claim file from an

@@ -62,8 +62,9 @@ class THETAGATE_API Claim {
 // for *.toml recursively, in sorted order), in order. Never throws for bad
 // file content: a malformed claim (or a file that is not TOML) becomes a
 // Claim with error(); a second claim with a name already used becomes an
-// error pointing at the first. Throws InputError for a path that does not
-// exist or a folder that cannot be listed.
+// error pointing at the first. A file named twice (a.toml ./a.toml, or inside
+// a folder also given) is read once. Throws InputError for a path that does
+// not exist or a folder that cannot be listed.
 THETAGATE_API std::vector<Claim> load_claims(const std::vector<std::string>& paths);
 
 // The claims of one TOML document; `display_name` is the file name shown in
@@ -71,9 +72,9 @@ THETAGATE_API std::vector<Claim> load_claims(const std::vector<std::string>& pat
 THETAGATE_API std::vector<Claim> load_claims_from_text(const std::string& toml,
                                                        const std::string& display_name);
 
-// The claims whose name is exactly one of `names`, in the order of `names`;
-// all of them when `names` is empty. Throws InputError naming an unknown
-// name, with the closest names as a hint.
+// The claims whose name is exactly one of `names`, in the order of `names`,
+// each once however often its name is given; all of them when `names` is empty. Throws InputError
+// naming an unknown name, with the closest names as a hint.
 THETAGATE_API std::vector<Claim> select_claims(const std::vector<Claim>& claims,
                                                const std::vector<std::string>& names);
 

@@ -71,8 +71,16 @@ THETAGATE_API void check_output_location(const std::string& out, bool folder);
 // place only when all are complete, so a reader never sees a cut file. A
 // path that is not a regular file (/dev/stdout, a pipe) is written directly.
 // Returns "" on success, else "cannot write PATH: REASON" (nothing replaced).
+// Temporary files are removed on every way out, exceptions included. A file
+// size limit (ulimit -f) gives "File too large" only in a process that
+// ignores SIGXFSZ (the command line does); otherwise the system ends it.
 THETAGATE_API std::string write_files_whole(
     const std::vector<std::pair<std::string, std::string>>& files);
+
+// Removes the temporary files of every write_files_whole in progress.
+// Async-signal-safe: for a handler of SIGTERM, SIGHUP or SIGINT that then
+// ends the process.
+THETAGATE_API void remove_unfinished_reports() noexcept;
 
 // Every change from `baseline` to `current`. Never throws.
 THETAGATE_API BaselineChanges compare_with_baseline(const Report& baseline, const Report& current);

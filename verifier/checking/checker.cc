@@ -1,11 +1,15 @@
 #include "verifier/checking/checker.h"
 
+#include <mpfr.h>
+
 #include <algorithm>
+#include <chrono>
 #include <new>
 #include <set>
 
 #include "verifier/checking/claim_check.h"
 #include "verifier/checking/code_check.h"
+#include "verifier/numbers/allocation.h"
 
 namespace thetagate::engine {
 
@@ -148,8 +152,15 @@ ClaimResult check_model(const Claim& claim, const CheckOptions& options) {
   Claim ceil_claim = claim;
   ceil_claim.recurrence = read_quotients_as_ceilings(*claim.recurrence);
   if (rounding == Rounding::kCeil) return check_one_reading(ceil_claim, options);
-  return combine_readings(check_one_reading(claim, options),
-                          check_one_reading(ceil_claim, options));
+  // A clock limit is per claim: the second reading gets what the first left.
+  auto start = std::chrono::steady_clock::now();
+  ClaimResult floor_result = check_one_reading(claim, options);
+  CheckOptions rest = options;
+  if (options.clock_limit && *options.clock_limit > 0) {
+    double used = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+    rest.clock_limit = std::max(*options.clock_limit - used, 1e-3);  // 0 would mean no clock
+  }
+  return combine_readings(std::move(floor_result), check_one_reading(ceil_claim, rest));
 }
 
 }  // namespace
@@ -182,9 +193,13 @@ ClaimResult check_entry(const ClaimEntry& entry, const CheckOptions& options) {
   // The one place that catches everything: what escapes check_claim is not
   // about the input (check_claim turns input errors and limits into
   // verdicts), so it is reported as a bug, on this claim only.
+  install_gmp_memory_functions();  // GMP's allocation failures throw bad_alloc, below
   try {
     return check_claim(*entry.claim, options);
   } catch (const std::bad_alloc&) {
+    // It may have come through MPFR (verifier/numbers/allocation.h): this
+    // thread's constant caches may be half-updated, so they go.
+    mpfr_free_cache();
     base.claimed = entry.claim->bound.text();
     return budget_result(base, "memory ran out while checking this claim");
   } catch (const std::exception& e) {

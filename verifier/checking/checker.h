@@ -32,6 +32,10 @@ struct CheckOptions {
   // The folder costs files may lie in, besides each claim file's own
   // folder tree (empty: only that tree). See confined_costs_path.
   std::string costs_root;
+  // The wall-clock guard per claim in seconds, as given (--clock-limit): all
+  // readings of the claim share it, and the effort does not scale it; 0: no
+  // clock. Unset: budget.max_seconds times the effort, per reading.
+  std::optional<double> clock_limit;
 
   static Budget default_check_budget();
 };

@@ -66,23 +66,29 @@ uint64_t effort_of(const Claim& claim, const CheckOptions& options) {
   return std::max<uint64_t>(1, options.effort) * std::max<uint64_t>(1, claim.sizes.effort);
 }
 
+}  // namespace
+
 // The evaluator's limits grow with the effort: a deeper search may need
 // larger single sizes (the per-size limit), more steps in all, and more
-// time before the hang guard, which must never be what ends a search.
-Budget scaled(Budget b, uint64_t effort) {
+// time before the default hang guard, which must never be what ends a
+// search. A clock limit the caller gave is kept as given.
+Budget reading_budget(const CheckOptions& options, uint64_t effort) {
+  Budget b = options.budget;
   b.max_steps *= effort;
   if (b.max_steps_per_size != 0) b.max_steps_per_size *= effort;
-  b.max_seconds *= static_cast<double>(effort);
+  if (options.clock_limit) {
+    b.max_seconds = *options.clock_limit;
+  } else {
+    b.max_seconds *= static_cast<double>(effort);
+  }
   return b;
 }
-
-}  // namespace
 
 ClaimCheck::ClaimCheck(const Claim& claim, const CheckOptions& options, ClaimResult& result)
     : claim_(claim),
       options_(options),
       result_(result),
-      evaluator_(claim.recurrence, scaled(options.budget, effort_of(claim, options))),
+      evaluator_(claim.recurrence, reading_budget(options, effort_of(claim, options))),
       t_of_n_(make_call(claim.recurrence->main.name, {make_variable()})),
       effort_(effort_of(claim, options)) {}
 
@@ -128,6 +134,26 @@ std::vector<Size> ClaimCheck::plan_sizes() {
   plan.seed = options_.seed;
   plan.families = claim_.sizes.families;
   min_n_ = plan.min_n;
+  if (plan.min_n >= (BigInt(1) << plan.max_bits)) {
+    // Sizes are below 2^max_bits: nothing would be checked. An error at the
+    // smallest size, not a verdict on no evidence.
+    std::string what = fmt::format(
+        "the smallest size, {} bits long, is not below 2^{}, the largest size checked (max_bits): "
+        "no size is left to check",
+        bit_length(plan.min_n), plan.max_bits);
+    std::string hint = fmt::format(
+        "lower it, or raise max_bits ([claim.sizes] or --max-bits, at "
+        "most 65536)");
+    if (claim_.sizes.min_n && *claim_.sizes.min_n == plan.min_n) {
+      Diagnostic d = claim_.sizes.min_n_where;
+      d.message = "'min_n': " + what;
+      d.hint = hint;
+      throw InputError(d);
+    }
+    // Else the bound's own "for n >= N0" asked for it.
+    size_t at = claim_.bound.source.text.rfind(">=");
+    fail_at(claim_.bound.source, at == std::string::npos ? 0 : at, "'for n >= ...': " + what, hint);
+  }
   return generate_sizes(plan);
 }
 
@@ -205,6 +231,10 @@ std::optional<double> ClaimCheck::log2_ratio(const Value& t, const Target& targe
   } catch (const InputError&) {
     if (n < kSmallSize) return std::nullopt;
     throw;
+  } catch (const BudgetExceeded&) {
+    // g(n) too large to hold (n^(10^10)): no band point here; the exact
+    // comparison may still decide, and the derivation can decide the claim.
+    return std::nullopt;
   }
   int r_sign = sign_of(*r), t_sign = sign_of(t);
   if (r_sign <= 0 || t_sign <= 0) {

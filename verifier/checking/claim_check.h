@@ -61,6 +61,11 @@ struct Target {
   std::optional<Sample> violation;  // explicit bounds: the first certified break
 };
 
+// The evaluator's budget for one reading of a claim at `effort` (--effort
+// times the claim's own): the step limits times the effort; the clock as
+// options.clock_limit gives it, else the default clock times the effort.
+Budget reading_budget(const CheckOptions& options, uint64_t effort);
+
 // Checks one claim under one reading of its quotients and fills `result`.
 // REQUIRES: claim.recurrence is set; claim, options and result outlive the
 // ClaimCheck.

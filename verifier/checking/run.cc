@@ -2,6 +2,7 @@
 
 #include <mpfr.h>
 
+#include <algorithm>
 #include <atomic>
 #include <exception>
 #include <map>
@@ -59,11 +60,13 @@ std::vector<ClaimEntry> load_entries(const std::vector<std::string>& paths) {
 std::vector<size_t> select_names(const std::vector<std::string>& all,
                                  const std::vector<std::string>& names) {
   std::vector<size_t> picked;
+  std::vector<bool> taken(all.size(), false);  // a name given twice picks its claims once
   for (const std::string& name : names) {
     bool found = false;
     for (size_t i = 0; i < all.size(); ++i) {
       if (all[i] == name) {
-        picked.push_back(i);
+        if (!taken[i]) picked.push_back(i);
+        taken[i] = true;
         found = true;
       }
     }
@@ -102,10 +105,15 @@ std::vector<size_t> select_names(const std::vector<std::string>& all,
   return picked;
 }
 
-RunResult check_in_parallel(const std::vector<ClaimEntry>& entries, const CheckOptions& options,
+RunResult check_in_parallel(const std::vector<ClaimEntry>& entries, const CheckOptions& requested,
                             unsigned jobs,
                             const std::function<void(size_t, size_t, const std::string&)>& progress,
                             uint64_t memory_limit) {
+  // A memory limit below one claim's budget lowers that budget. It never
+  // depends on `jobs`, so neither does the report.
+  CheckOptions options = requested;
+  options.budget.max_memo_bytes =
+      std::max<uint64_t>(1, std::min(options.budget.max_memo_bytes, memory_limit));
   RunResult run;
   run.seed = options.seed;
   run.max_bits = options.max_bits;

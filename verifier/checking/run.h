@@ -18,10 +18,12 @@ struct RunRequest {
   std::vector<std::string> claim_names;  // only these claims (exact names); empty = all
   CheckOptions options;
   unsigned jobs = 1;  // claims checked at once, at most (see memory_limit)
-  // The memory all workers may hold together. Each claim may use up to its
-  // budget's max_memo_bytes, so at most memory_limit / max_memo_bytes claims
-  // (and at least one) are checked at once, whatever `jobs` says. Only the
-  // number of threads changes: the report is the same.
+  // The memory all workers may hold together (memo tables and pending sizes,
+  // as the evaluators account for them). Each claim may use up to its
+  // budget's max_memo_bytes, lowered to memory_limit when that is smaller, so
+  // at most memory_limit / max_memo_bytes claims (and at least one) are
+  // checked at once, whatever `jobs` says. Only the number of threads
+  // depends on `jobs`: the report is the same.
   uint64_t memory_limit = uint64_t{2} << 30;
   // Called after each claim finishes, from the thread that checked it,
   // serialised: (claims done, claims in total, the claim's name).
@@ -44,14 +46,16 @@ unsigned workers_for(const RunRequest& request, size_t claims);
 std::vector<ClaimEntry> load_entries(const std::vector<std::string>& paths);
 
 // The indices into `all` of the entries named `names` (exact names, in the
-// order of `names`; every index of a repeated name). Throws InputError for a
+// order of `names`; every index of a name `all` repeats; each index once,
+// however often its name is given). Throws InputError for a
 // name that is not in `all`, with the names containing it or the closest
 // one as a hint.
 std::vector<size_t> select_names(const std::vector<std::string>& all,
                                  const std::vector<std::string>& names);
 
-// Checks the entries with check_entry, at most `jobs` at once (fewer when
-// memory_limit / the budget's max_memo_bytes is smaller): the result is the
+// Checks the entries with check_entry, each with max_memo_bytes at most
+// memory_limit, at most `jobs` at once (fewer when memory_limit / the
+// budget's max_memo_bytes is smaller): the result is the
 // same as a serial run, claim for claim, and a bug in one claim stays on
 // that claim. `progress` may be empty; if it throws, no further claims are
 // started and its exception is rethrown here once the workers stop.

@@ -2,7 +2,9 @@
 
 #include <algorithm>
 #include <cmath>
+#include <filesystem>
 #include <map>
+#include <optional>
 
 namespace thetagate::engine {
 
@@ -64,6 +66,34 @@ ClaimDrift drift_of_claim(const ClaimResult& before, const ClaimResult& after) {
   return d;
 }
 
+// Each claim's file, lexically normalised ("./a/../b.toml" is "b.toml") and
+// relative to the run's root: the deepest folder that holds every file of
+// the run. "claims/x.toml" and "./claims/x.toml", or the same tree checked
+// from another folder, give the same names.
+std::vector<std::string> files_below_root(const RunResult& run) {
+  namespace fs = std::filesystem;
+  std::vector<fs::path> files;
+  for (const ClaimResult& c : run.claims) files.push_back(fs::path(c.file).lexically_normal());
+  std::optional<fs::path> root;
+  for (const fs::path& f : files) {
+    fs::path folder = f.parent_path();
+    if (!root) {
+      root = folder;
+      continue;
+    }
+    fs::path common;
+    auto a = root->begin(), b = folder.begin();
+    for (; a != root->end() && b != folder.end() && *a == *b; ++a, ++b) common /= *a;
+    root = common;
+  }
+  std::vector<std::string> out;
+  for (const fs::path& f : files) {
+    fs::path relative = root && !root->empty() ? f.lexically_relative(*root) : f;
+    out.push_back(relative.empty() ? f.generic_string() : relative.generic_string());
+  }
+  return out;
+}
+
 bool drifted(const ClaimDrift& d) {
   return d.is_new() || d.is_lost() || d.verdict_changed() || d.derived_changed() ||
          !d.new_witnesses.empty() || !d.lost_witnesses.empty() || !d.band_moves.empty();
@@ -75,15 +105,37 @@ DriftReport compare_runs(const RunResult& baseline, const RunResult& current) {
   DriftReport report;
   report.baseline_seed = baseline.seed;
   report.current_seed = current.seed;
-  // Names are unique in a run; should a baseline repeat one, the copies pair
-  // up in order.
-  std::multimap<ClaimKey, size_t> unmatched;
+  std::vector<std::string> before_files = files_below_root(baseline);
+  std::vector<std::string> after_files = files_below_root(current);
+  // First by name and file below each run's root; a repeated copy of a
+  // baseline claim (an older run that checked it twice) is neither compared
+  // nor lost.
+  std::map<ClaimKey, size_t> by_key;
+  std::vector<bool> matched(baseline.claims.size(), false);
+  std::vector<bool> copy(baseline.claims.size(), false);
   for (size_t i = 0; i < baseline.claims.size(); ++i) {
-    unmatched.emplace(ClaimKey{baseline.claims[i].name, baseline.claims[i].file}, i);
+    copy[i] = !by_key.emplace(ClaimKey{baseline.claims[i].name, before_files[i]}, i).second;
   }
-  for (const ClaimResult& c : current.claims) {
-    auto it = unmatched.find(ClaimKey{c.name, c.file});
-    if (it == unmatched.end()) {
+  std::vector<std::optional<size_t>> partner(current.claims.size());
+  for (size_t i = 0; i < current.claims.size(); ++i) {
+    auto it = by_key.find(ClaimKey{current.claims[i].name, after_files[i]});
+    if (it == by_key.end()) continue;
+    partner[i] = it->second;
+    matched[it->second] = true;
+  }
+  // Then by name alone: a claim whose file moved or was named another way.
+  for (size_t i = 0; i < current.claims.size(); ++i) {
+    if (partner[i]) continue;
+    for (size_t j = 0; j < baseline.claims.size(); ++j) {
+      if (matched[j] || copy[j] || baseline.claims[j].name != current.claims[i].name) continue;
+      partner[i] = j;
+      matched[j] = true;
+      break;
+    }
+  }
+  for (size_t i = 0; i < current.claims.size(); ++i) {
+    const ClaimResult& c = current.claims[i];
+    if (!partner[i]) {
       ClaimDrift d;
       d.name = c.name;
       d.file = c.file;
@@ -94,13 +146,13 @@ DriftReport compare_runs(const RunResult& baseline, const RunResult& current) {
       continue;
     }
     ++report.compared;
-    ClaimDrift d = drift_of_claim(baseline.claims[it->second], c);
-    unmatched.erase(it);
+    ClaimDrift d = drift_of_claim(baseline.claims[*partner[i]], c);
     if (drifted(d)) report.claims.push_back(std::move(d));
   }
   std::vector<size_t> lost;
-  for (const auto& [key, index] : unmatched) lost.push_back(index);
-  std::sort(lost.begin(), lost.end());
+  for (size_t j = 0; j < baseline.claims.size(); ++j) {
+    if (!matched[j] && !copy[j]) lost.push_back(j);
+  }
   for (size_t index : lost) {
     const ClaimResult& c = baseline.claims[index];
     ClaimDrift d;

@@ -30,8 +30,13 @@ struct BandMove {
   bool high_moved = false;
 };
 
-// One claim that drifted. Claims are matched by name and file (the path as
-// given on the command line, so run nightly jobs from the same folder).
+// One claim that drifted. Claims are matched by name and file, the file
+// taken relative to its run's root (the deepest folder holding every file of
+// the run, after "./" and ".." are resolved by their spelling): `check
+// claims` and `check ./claims`, or the tree checked from another folder,
+// match. A claim left unmatched then pairs with a baseline claim of the same
+// name (its file moved). `file` is this run's path, or the baseline's for a
+// lost claim.
 struct ClaimDrift {
   std::string name;
   std::string file;
@@ -59,7 +64,8 @@ struct DriftReport {
   bool any() const { return !claims.empty(); }
 };
 
-// Every change from `baseline` to `current`: verdicts, new and lost claims,
+// Every change from `baseline` to `current` (claims matched as ClaimDrift
+// says; a repeated copy of a baseline claim is ignored): verdicts, new and lost claims,
 // new and lost witnesses (by n and side), band moves (kBandMoveLog2) and
 // changes of the derived class. Witnesses of a new or lost claim are not
 // listed again. With different seeds, witnesses and band ends found at

@@ -1,9 +1,12 @@
 #include "verifier/evaluation/evaluator.h"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <stdexcept>
 
 #include "verifier/evaluation/expression_eval.h"
+#include "verifier/numbers/allocation.h"
 #include "verifier/syntax/parser.h"
 
 namespace thetagate::engine {
@@ -60,6 +63,7 @@ class Evaluator::KernelLink : public KernelHooks {
 Evaluator::Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget,
                      EvaluationPath path)
     : recurrence_(std::move(recurrence)), budget_(budget) {
+  install_gmp_memory_functions();  // big numbers that cannot grow throw bad_alloc
   ctx_.precision_bits = budget_.start_precision_bits;
   ctx_.max_value_bits = budget_.max_value_bits;
   deadline_ =
@@ -126,8 +130,8 @@ void Evaluator::charge_step(uint64_t pending_bytes) {
   // every machine) can stop an evaluation; tests run that way.
   if (budget_.max_seconds > 0 && (stats_.steps & 1023) == 0 &&
       std::chrono::steady_clock::now() > deadline_) {
-    throw BudgetExceeded(
-        Limit::kTime, "the time budget of " + std::to_string(budget_.max_seconds) + " s ran out");
+    throw BudgetExceeded(Limit::kTime,
+                         fmt::format("the time budget of {:g} s ran out", budget_.max_seconds));
   }
 }
 

@@ -18,6 +18,7 @@ struct SizeOptions {
   std::optional<uint64_t> max_bits;   // largest size, in bits
   std::vector<std::string> families;  // names of size families; empty = all
   std::optional<BigInt> min_n;        // smallest size checked
+  Diagnostic min_n_where;             // where min_n is written (file, line, source line)
   uint64_t effort = 1;                // search work, a multiple of the default (times --effort)
 };
 

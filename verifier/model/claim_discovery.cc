@@ -1,7 +1,11 @@
 #include "verifier/model/claim_discovery.h"
 
+#include <sys/stat.h>
+
 #include <algorithm>
 #include <filesystem>
+#include <set>
+#include <utility>
 
 #include "verifier/syntax/source.h"
 
@@ -63,8 +67,18 @@ std::vector<std::string> find_claim_files(const std::vector<std::string>& paths,
                                           std::vector<ClaimEntry>* unreadable) {
   namespace fs = std::filesystem;
   std::vector<std::string> files;
-  auto add = [&files](const std::string& f) {
-    if (std::find(files.begin(), files.end(), f) == files.end()) files.push_back(f);
+  // A file named twice (a.toml ./a.toml, a folder and a file in it, a link
+  // to it) is read once, as first named: the same claims twice would be a
+  // duplicate-name error. Files are the same when the system says so (device
+  // and inode), else when their normalised spellings are.
+  std::set<std::pair<dev_t, ino_t>> seen_ids;
+  std::set<std::string> seen_paths;
+  auto add = [&](const std::string& f) {
+    struct stat info;
+    bool fresh = ::stat(f.c_str(), &info) == 0
+                     ? seen_ids.emplace(info.st_dev, info.st_ino).second
+                     : seen_paths.insert(fs::path(f).lexically_normal().string()).second;
+    if (fresh) files.push_back(f);
   };
   for (const std::string& path : paths) {
     std::error_code ec;

@@ -296,6 +296,7 @@ void ClaimFileReader::read_sizes(const toml::node& node, SizeOptions& sizes) con
     }
   }
   if (const toml::node* min_n = t->get("min_n")) {
+    sizes.min_n_where = diagnostic(min_n->source().begin, "", "");
     if (const auto* i = min_n->as_integer()) {
       if (i->get() < 0) {
         fail(min_n->source().begin,

@@ -95,8 +95,10 @@ std::string format_diagnostic(const Diagnostic& d) {
   if (!d.source_line.empty()) {
     // A long line shows a window around the caret, marked with "...".
     std::string line = d.source_line;
-    int column = d.where.column;
     int total = engine::utf8_columns(line, line.size());
+    // The caret stays on the line (or just past its end): a column read back
+    // from a report may be anything.
+    int column = std::clamp(d.where.column, 1, total + 1);
     if (total > kShownColumns) {
       int first = std::max(1, std::min(column - kShownColumns / 2, total - kShownColumns + 1));
       size_t from = engine::utf8_advance(line, 0, first - 1);
