@@ -119,6 +119,7 @@ struct CheckOptions {
   uint64_t memory_limit = uint64_t{2} << 30;
   // Wall-clock guard per claim against hangs, in seconds (default: 60 times
   // the effort); 0: none, so only the deterministic work budgets end a search.
+  // From 0 to 1e6 (the command line's range); NaN or more is an InputError.
   std::optional<double> clock_limit;
   // Called after each claim, serialised: (claims done, claims in all, name).
   // If it throws, no further claim starts and check() rethrows it.
