@@ -63,7 +63,12 @@ engine::CheckOptions engine_options(const CheckOptions& options) {
   e.effort = options.effort;
   if (options.rounding) e.rounding = detail::to_engine(*options.rounding);
   if (options.clock_limit) {
-    if (*options.clock_limit < 0) bad("clock_limit must not be negative", "0 means no clock");
+    // !(0 <= x <= 1e6) also refuses NaN, which every comparison would let through.
+    if (!(*options.clock_limit >= 0 && *options.clock_limit <= 1e6)) {
+      bad("clock_limit must be a number of seconds from 0 to 1000000, found " +
+              std::to_string(*options.clock_limit),
+          "0 means no clock");
+    }
     e.clock_limit = *options.clock_limit;
   }
   return e;

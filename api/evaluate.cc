@@ -30,7 +30,9 @@ Evaluator::Evaluator(Evaluator&&) noexcept = default;
 Evaluator& Evaluator::operator=(Evaluator&&) noexcept = default;
 
 std::string Evaluator::value_at(const std::string& n) {
-  return impl_->evaluator.value_at(engine::evaluate_size(n, "<size>")).str();
+  engine::BigInt size = engine::evaluate_size(n, "<size>");
+  impl_->evaluator.start_query();  // budgets per call, not per evaluator (evaluate.h)
+  return impl_->evaluator.value_at(size).str();
 }
 
 std::string exact_size(const std::string& expression, const std::string& origin) {

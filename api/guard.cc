@@ -12,7 +12,9 @@
 #include "reports/text_report.h"
 #include "verifier/checking/checker.h"
 #include "verifier/checking/code_check.h"
+#include "verifier/model/bound.h"
 #include "verifier/model/claim.h"
+#include "verifier/model/recurrence.h"
 #include "verifier/syntax/spelling.h"
 
 namespace thetagate::guard {
@@ -128,30 +130,27 @@ Model Model::from_file(const std::string& path, const std::string& claim_name) {
 
 Model Model::from_text(const std::string& name, const std::string& recurrence,
                        const std::string& bound, Relation relation, uint64_t max_n) {
-  auto quote = [](const std::string& s) {
-    std::string out = "'''";
-    out += s;
-    out += "'''";
-    return out;
+  // Built from its parts, as Claim::from_text does, not through a claim
+  // file: an error is located in the text the caller wrote (<recurrence>,
+  // <bound>), never in TOML they did not write.
+  auto refuse = [](const std::string& message, const std::string& hint) {
+    throw InputError(Diagnostic{Location{"<claim>", 1, 1}, message, hint, ""});
   };
-  if (name.find('\'') != std::string::npos || recurrence.find("'''") != std::string::npos ||
-      bound.find("'''") != std::string::npos) {
-    Diagnostic d;
-    d.where.file = "<claim " + name + ">";
-    d.message = "a claim built in code cannot contain ''' (nor ' in its name)";
-    throw InputError(d);
+  if (name.find_first_not_of(" \t") == std::string::npos) {
+    refuse("the claim name is empty", "name it, e.g. \"orchard::stable_sort / comparisons\"");
   }
-  // The claim-file reader is the one place that builds claims: reuse it.
-  std::string text = "[[claim]]\nname = '" + name + "'\nrecurrence = " + quote(recurrence) +
-                     "\nbound = " + quote(bound) + "\n";
-  std::vector<ClaimEntry> entries = engine::load_claim_text(text, "<claim " + name + ">");
-  if (entries.size() != 1 || !entries.front().claim) {
-    Diagnostic d = entries.empty() ? Diagnostic{} : entries.front().error.value_or(Diagnostic{});
-    throw InputError(d);
+  bool control = std::any_of(name.begin(), name.end(), [](char c) {
+    return (static_cast<unsigned char>(c) < 0x20 && c != '\t') || c == '\x7f';
+  });
+  if (control) {
+    refuse("a claim name cannot contain a line break or another control character",
+           "give the claim a one-line name: reports show it on one line");
   }
   auto impl = std::make_unique<Impl>();
-  impl->claim = std::move(*entries.front().claim);
-  impl->claim.where.file.clear();
+  impl->claim.name = name;
+  impl->claim.recurrence = engine::recurrence_from_text(recurrence, "<recurrence>");
+  impl->claim.bound = engine::parse_bound(engine::SourceText::whole("<bound>", bound),
+                                          impl->claim.recurrence->main.name);
   impl->relation = relation;
   impl->max_n = std::max<uint64_t>(max_n, 1);
   return Model(std::move(impl));
@@ -191,12 +190,17 @@ ModelValue Model::value_at(uint64_t n) {
   ModelValue v;
   try {
     CostModel& model = impl_->cost_model();
+    model.start_query();  // limits per query: a Model lives as long as a test suite
     v.text = model.model_text(BigInt(n));
     bool digits = !v.text.empty() && v.text.find_first_not_of("0123456789") == std::string::npos;
     v.exact_integer = digits;
     if (digits && v.text.size() <= 20) {
       BigInt value(v.text);
       if (value <= std::numeric_limits<uint64_t>::max()) v.integer = value.convert_to<uint64_t>();
+    }
+    if (std::optional<BigInt> most = model.allowed_max(BigInt(n))) {
+      if (*most <= std::numeric_limits<uint64_t>::max())
+        v.allowed_max = most->convert_to<uint64_t>();
     }
   } catch (const InputError& e) {
     rethrow_input(e,
@@ -210,7 +214,9 @@ ModelValue Model::value_at(uint64_t n) {
 
 int Model::compare(uint64_t n, uint64_t cost) {
   try {
-    return impl_->cost_model().compare(BigInt(n), BigInt(cost));
+    CostModel& model = impl_->cost_model();
+    model.start_query();
+    return model.compare(BigInt(n), BigInt(cost));
   } catch (const InputError& e) {
     rethrow_input(e,
                   fmt::format("the model of '{}' has no value at n = {}: ", impl_->claim.name, n));
@@ -271,6 +277,11 @@ std::string GuardResult::report() const {
   std::string link = engine::code_link_text(code, "", 1, 12);
   if (violation) {
     out += "the code breaks its model '" + claim + "' (seed " + std::to_string(seed) + ")\n";
+    if (violation->stopped) {
+      out += "the run at n = " + std::to_string(violation->n) +
+             " was stopped as soon as its count passed T(n): its full cost is at least " +
+             std::to_string(violation->cost) + "\n";
+    }
   }
   out += link;
   if (!bound.failed() && bound.verdict) {

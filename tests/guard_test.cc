@@ -161,7 +161,11 @@ TEST(Guard, ThrowingRunnerAndOverflowAreErrorsNamingSizeAndInput) {
     cost.add(std::numeric_limits<uint64_t>::max());
     cost.add(n);
   };
-  GuardResult overflow = check_code(model, r, quick());
+  // Under a lower-bound model no ceiling stops the count first (under an
+  // upper bound, 2^64 - 1 already passes T(1) = 0: a violation).
+  Model floor =
+      Model::from_text("merge floor", kMergeRecurrence, "Theta(n lg n)", Relation::kLowerBound);
+  GuardResult overflow = check_code(floor, r, quick());
   ASSERT_TRUE(overflow.error.has_value());
   EXPECT_EQ(overflow.error->rfind("the cost overflowed at n = 1 on input [", 0), 0u)
       << *overflow.error;

@@ -123,6 +123,7 @@ struct CheckOptions {
   // the effort, and shared by the claim's readings (rounding "both"); unset:
   // 60 s times the effort per reading; 0: none, so only the deterministic
   // work budgets end a search.
+  // From 0 to 1e6 (the command line's range); NaN or more is an InputError.
   std::optional<double> clock_limit;
   // A folder whose files claims may name as `costs`, besides each claim
   // file's own folder tree (the only place by default: a claim file from an

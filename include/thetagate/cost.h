@@ -11,6 +11,13 @@
 // CostOverflow and leaves the count unchanged, so a runaway loop cannot come
 // back as a small, plausible cost.
 //
+// Stopping a guarded run. The guard (thetagate/testing/rapidcheck.h) gives the
+// counter of each run a ceiling (the most the claim's relation allows at that
+// size) and a stop flag (the run's time limit): add() throws RunStopped once
+// the count passes the ceiling or the flag is set, so code that counts cannot
+// run on after its cost is decided. A plain counter has neither and never
+// throws RunStopped.
+//
 // Thread safety. CostCounter is a plain value like std::vector: any number of
 // threads may read one concurrently, but an add() concurrent with any other
 // access to the same counter is a data race. Give each thread its own counter
@@ -51,24 +58,67 @@ class CostOverflow : public std::overflow_error {
   uint64_t added_;
 };
 
+// Thrown by CostCounter::add() to stop a guarded run: the count passed the
+// counter's ceiling, or its stop flag was set. Deliberately not derived from
+// std::exception, so code under test that recovers from its own errors with
+// `catch (const std::exception&)` lets it through; code that catches
+// everything (`catch (...)`) should rethrow it. If it does not, the count
+// still shows the passed ceiling and every later add() throws again.
+class RunStopped {
+ public:
+  enum class Reason {
+    kCeiling,  // the count passed the ceiling
+    kStopped,  // the stop flag was set (the guard: the run's time limit passed)
+  };
+  RunStopped(Reason reason, uint64_t count) noexcept : reason_(reason), count_(count) {}
+  Reason reason() const noexcept { return reason_; }
+  uint64_t count() const noexcept { return count_; }  // the count after the add
+
+ private:
+  Reason reason_;
+  uint64_t count_;
+};
+
+namespace detail {
+// The stop flag of a counter that has none: never set.
+inline const std::atomic<bool> kNeverStop{false};
+}  // namespace detail
+
 // A count of operations. Starts at 0.
 class CostCounter {
  public:
   CostCounter() = default;
   explicit CostCounter(uint64_t start) noexcept : count_(start) {}
 
-  // Adds k. Throws CostOverflow (count unchanged) if the sum exceeds 2^64 − 1.
+  // Adds k. Throws CostOverflow (count unchanged) if the sum exceeds 2^64 − 1;
+  // RunStopped (count includes k) if the sum passes the ceiling or the stop
+  // flag is set.
   void add(uint64_t k = 1) {
     uint64_t sum;
     if (__builtin_add_overflow(count_, k, &sum)) [[unlikely]]
       throw CostOverflow(count_, k);
     count_ = sum;
+    if ((sum > ceiling_) | stop_->load(std::memory_order_relaxed)) [[unlikely]] {
+      throw RunStopped(sum > ceiling_ ? RunStopped::Reason::kCeiling : RunStopped::Reason::kStopped,
+                       sum);
+    }
   }
   uint64_t count() const noexcept { return count_; }
+  // Sets the count to 0; the ceiling and the stop flag stay.
   void reset() noexcept { count_ = 0; }
+
+  // The largest count add() accepts without throwing RunStopped; default
+  // 2^64 − 1 (none).
+  void set_ceiling(uint64_t ceiling) noexcept { ceiling_ = ceiling; }
+  uint64_t ceiling() const noexcept { return ceiling_; }
+  // add() throws RunStopped once `flag` is true; another thread may set it.
+  // REQUIRES: `flag` outlives every add() on this counter and its copies.
+  void stop_when(const std::atomic<bool>& flag) noexcept { stop_ = &flag; }
 
  private:
   uint64_t count_ = 0;
+  uint64_t ceiling_ = ~uint64_t{0};
+  const std::atomic<bool>* stop_ = &detail::kNeverStop;
 };
 
 // The sum of several counters' counts (one per thread). Throws CostOverflow.

@@ -44,7 +44,10 @@ class THETAGATE_API Evaluator {
 
   // Exact T(n): "159", "7/2", or "[lo, hi]". `n` is a constant expression
   // ("37", "2^64 + 7"). Throws InputError (a bad or negative size, a call
-  // that does not shrink, lg 0, no case line for n) or LimitReached.
+  // that does not shrink, lg 0, no case line for n) or LimitReached. The
+  // limits on steps (30 million subproblems) and time (20 s) apply to each
+  // call on its own, however many calls came before; memory (the memo of
+  // earlier calls, 512 MiB) is shared, and the memo is cleared when full.
   std::string value_at(const std::string& n);
 
  private:

@@ -45,6 +45,12 @@ struct ModelValue {
   std::string text;
   std::optional<uint64_t> integer;
   bool exact_integer = false;  // T(n) is a whole number (perhaps beyond 64 bits)
+  // Upper-bound and exact models: a count every larger count breaks the
+  // relation beyond doubt (floor T(n), or at most the floor of the upper end
+  // of an irrational value's enclosure; 0 for a negative T(n)), when it fits
+  // in 64 bits. The guard stops a run whose count passes it. Lower-bound
+  // models allow any larger count: nullopt.
+  std::optional<uint64_t> allowed_max;
 };
 
 // The verdict of model -> bound, as `thetagate check` gives it.
@@ -65,7 +71,9 @@ class THETAGATE_API Model {
   // error, or no claim of that name (the hint names the closest one).
   static Model from_file(const std::string& path, const std::string& claim_name);
   // Builds a claim in code, as a claim file would ("T(n) = 2T(n/2) + n;
-  // T(1) = 0", "Theta(n lg n)"). Throws InputError, located.
+  // T(1) = 0", "Theta(n lg n)"). Throws InputError, located in <recurrence>
+  // or <bound>, or at <claim> for a blank name or one with a line break or
+  // another control character (a tab is fine).
   static Model from_text(const std::string& name, const std::string& recurrence,
                          const std::string& bound, Relation relation = Relation::kUpperBound,
                          uint64_t max_n = 65536);
@@ -88,7 +96,9 @@ class THETAGATE_API Model {
   std::vector<SizeSample> sizes(uint64_t max_n, uint64_t seed, uint64_t small_limit = 32) const;
 
   // T(n), exactly. Throws InputError where the recurrence has no value (lg 0,
-  // no case line), LimitReached when evaluating it exceeds the limits.
+  // no case line), LimitReached when evaluating it exceeds the limits. The
+  // evaluation limits (steps, time) apply to each call of value_at() and
+  // compare() on its own, however long the Model lives.
   ModelValue value_at(uint64_t n);
   // Sign of cost − T(n), exactly. Throws as value_at.
   int compare(uint64_t n, uint64_t cost);
@@ -123,6 +133,9 @@ struct Violation {
   std::string input;     // shrunk, as text
   uint64_t shrinks = 0;  // shrinking steps taken
   std::string replay;    // the command that replays it
+  // The run was stopped as soon as its count passed T(n) (ModelValue::
+  // allowed_max): `cost` is the count then, and the full cost is at least that.
+  bool stopped = false;
 };
 
 // The outcome of guarding one claim with one runner.
@@ -135,8 +148,12 @@ struct THETAGATE_API GuardResult {
   std::vector<CostRow> rows;  // code -> model, ascending n
   uint64_t runs = 0;
   std::optional<Violation> violation;  // the first (smallest n) found
-  // A runner that threw, or a cost that overflowed: the size, the input and
-  // the exception's text. The check stops there.
+  // Why the check could not finish, naming the size (and the input, where
+  // there is one): the runner threw or ran past its time limit, a cost
+  // overflowed, the runner's inputs/mutate/shrink/show threw, the runner is
+  // not deterministic (a witness re-run no longer breaks the model), or a
+  // replay setting (THETAGATE_GUARD_N, THETAGATE_GUARD_SEED, GuardOptions) is
+  // refused. The check stops there.
   std::optional<std::string> error;
 
   bool passed() const { return !bound.failed() && !violation && !error; }

@@ -44,6 +44,23 @@ int CostModel::compare(const BigInt& n, const BigInt& cost) {
 
 std::string CostModel::model_text(const BigInt& n) { return readings_.front()->value_at(n).str(); }
 
+std::optional<BigInt> CostModel::allowed_max(const BigInt& n) {
+  if (relation_ == ModelRelation::kLowerBound) return std::nullopt;
+  std::optional<BigInt> least;
+  for (auto& evaluator : readings_) {
+    Value v = evaluator->value_at(n);
+    Value top = v.is_exact() ? v : Value(v.as_interval().upper());
+    BigInt floor = floor_value(top).integer();
+    if (floor < 0) floor = 0;
+    if (!least || floor < *least) least = floor;
+  }
+  return least;
+}
+
+void CostModel::start_query() {
+  for (auto& evaluator : readings_) evaluator->start_query();
+}
+
 bool CostModel::violates(int sign) const { return relation_broken(relation_, sign); }
 
 void CostRows::add(const BigInt& n, const BigInt& cost, const std::string& model, int sign,

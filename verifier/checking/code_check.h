@@ -7,6 +7,7 @@
 #include <cstdint>
 #include <map>
 #include <memory>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -32,6 +33,13 @@ class CostModel {
   int compare(const BigInt& n, const BigInt& cost);
   // T(n) as text (the floor reading's first).
   std::string model_text(const BigInt& n);
+  // For upper-bound and exact relations, a count every larger count breaks
+  // the relation at n beyond doubt: the least, over the readings, of floor
+  // T(n) (of the upper end of an interval's enclosure), 0 if that is
+  // negative. nullopt for a lower bound. Throws as compare().
+  std::optional<BigInt> allowed_max(const BigInt& n);
+  // Renews each reading's step and time budgets (Evaluator::start_query).
+  void start_query();
   // Whether sign(cost − T(n)) breaks the relation.
   bool violates(int sign) const;
   ModelRelation relation() const { return relation_; }

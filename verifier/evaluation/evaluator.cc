@@ -66,9 +66,7 @@ Evaluator::Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget
   install_gmp_memory_functions();  // big numbers that cannot grow throw bad_alloc
   ctx_.precision_bits = budget_.start_precision_bits;
   ctx_.max_value_bits = budget_.max_value_bits;
-  deadline_ =
-      std::chrono::steady_clock::now() +
-      std::chrono::microseconds(static_cast<int64_t>(std::min(budget_.max_seconds, 1e9) * 1e6));
+  start_query();
   resolver_ = std::make_unique<Resolver>(*this);
   int64_t window = 0;
   bool all_subtractive = true;
@@ -94,6 +92,14 @@ Evaluator::Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget
 
 Evaluator::~Evaluator() = default;
 
+void Evaluator::start_query() {
+  query_start_steps_ = stats_.steps;
+  // !(x > 0) also catches NaN: no clock, as for 0.
+  double seconds = budget_.max_seconds > 0 ? std::min(budget_.max_seconds, 1e9) : 0.0;
+  deadline_ = std::chrono::steady_clock::now() +
+              std::chrono::microseconds(static_cast<int64_t>(seconds * 1e6));
+}
+
 EvalScope Evaluator::scope(const SourceText& source) {
   EvalScope s;
   s.source = &source;
@@ -114,7 +120,7 @@ void Evaluator::charge_step(uint64_t pending_bytes) {
                              std::to_string(budget_.max_memo_bytes >> 20) + " MiB");
   }
   ++stats_.steps;
-  if (stats_.steps > budget_.max_steps) {
+  if (stats_.steps - query_start_steps_ > budget_.max_steps) {
     throw BudgetExceeded(Limit::kSteps,
                          "more than " + std::to_string(budget_.max_steps) + " evaluation steps");
   }
@@ -453,7 +459,7 @@ Value Evaluator::sweep_up(const BigInt& n) {
     next_ = 0;
   }
   uint64_t needed = static_cast<uint64_t>(std::max<int64_t>(0, target - next_ + 1));
-  if (stats_.steps + needed > budget_.max_steps) {
+  if (stats_.steps - query_start_steps_ + needed > budget_.max_steps) {
     throw BudgetExceeded(
         Limit::kSteps, "reaching n = " + n.str() + " bottom-up needs " + std::to_string(needed) +
                            " more steps, over the budget of " + std::to_string(budget_.max_steps));
@@ -600,7 +606,7 @@ Value Evaluator::sweep_history(const BigInt& n) {
     return *history_values_[slot];
   }
   uint64_t needed = static_cast<uint64_t>(target - next_ + 1);
-  if (stats_.steps + needed > budget_.max_steps) {
+  if (stats_.steps - query_start_steps_ + needed > budget_.max_steps) {
     throw BudgetExceeded(
         Limit::kSteps, "reaching n = " + n.str() + " bottom-up needs " + std::to_string(needed) +
                            " more steps, over the budget of " + std::to_string(budget_.max_steps));

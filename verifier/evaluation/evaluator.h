@@ -25,9 +25,11 @@ struct Budget {
   uint64_t max_memo_entries = 2'000'000;
   uint64_t max_memo_bytes = 512ull << 20;
   uint64_t max_value_bits = 1u << 20;
+  // max_steps and max_seconds count from the evaluator's creation, or from
+  // its last start_query().
   uint64_t max_steps = 30'000'000;  // case lines evaluated, in total
   uint64_t max_steps_per_size = 0;  // for one value_at(); 0: no separate limit
-  double max_seconds = 20.0;        // wall time from the evaluator's creation; 0: no clock
+  double max_seconds = 20.0;        // wall time; 0 (or NaN): no clock
   // max_memo_bytes also bounds the sizes waiting on the work stack.
   long start_precision_bits = 128;  // intervals; doubled on a shortfall
   long max_precision_bits = 1 << 16;
@@ -52,6 +54,12 @@ class Evaluator {
   ~Evaluator();
   Evaluator(const Evaluator&) = delete;
   Evaluator& operator=(const Evaluator&) = delete;
+
+  // Renews the step and time budgets: max_steps and max_seconds count from
+  // here. For evaluators that answer independent queries over a long life
+  // (the public Evaluator, the guard's model); a check's search does not
+  // call it, so its budgets cover the whole claim.
+  void start_query();
 
   // T(n). REQUIRES: n >= 0. Throws InputError (a call that does not shrink,
   // a domain error such as lg 0, no case line for n), BudgetExceeded.
@@ -146,6 +154,7 @@ class Evaluator {
   const Value* const* current_values_ = nullptr;
   bool probed_ = false;
   uint64_t call_start_steps_ = 0;
+  uint64_t query_start_steps_ = 0;  // steps before the last start_query()
 };
 
 // Evaluator::probe() for a recurrence not otherwise evaluated (derive).

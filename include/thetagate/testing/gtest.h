@@ -45,8 +45,11 @@ inline std::string current_test_command() {
 }  // namespace detail
 
 // Checks both links; the message is GuardResult::report(). A model that
-// cannot be loaded or evaluated at a size fails with the error's text
-// (thetagate::Error: InputError or LimitReached).
+// cannot be evaluated at a size fails with the error's text
+// (thetagate::Error: InputError or LimitReached). What the runner's own
+// callbacks throw, a hung or non-deterministic runner and a refused replay
+// setting fail with GuardResult::error, naming n (check_code); a run that
+// never ends and never counts aborts the process (GuardOptions::run_time_limit).
 template <class Input>
 ::testing::AssertionResult Guards(Model& model, const Runner<Input>& runner,
                                   GuardOptions options = {}) {
