@@ -39,6 +39,9 @@ class Evaluator::Resolver : public CallResolver {
   Value sum(const Expr& sum, const Value& n, const EvalScope& scope) override {
     return owner_.sum_value(sum, n, scope);
   }
+  Value helper(const Function& f, const Value& argument, const EvalScope& scope) override {
+    return owner_.helper_value(f, argument, scope);
+  }
 
  private:
   Evaluator& owner_;
@@ -140,7 +143,35 @@ const Value* Evaluator::remember(const Value& m, const Value& v) {
 }
 
 size_t Evaluator::memo_size() const {
-  return memo_.size() + (kernel_ ? kernel_->memo_size() : 0) + history_values_.size();
+  return memo_.size() + (kernel_ ? kernel_->memo_size() : 0) + history_values_.size() +
+         helper_entries_;
+}
+
+Value Evaluator::helper_value(const Function& f, const Value& argument, const EvalScope& scope) {
+  // Helpers that fan out (f(n) = g(n) + g(n), forty levels deep) repeat
+  // their arguments: remembered, each distinct value is computed once.
+  HelperMemo& memo = helper_memo_[&f];
+  Value key;
+  if (argument.is_integer()) {
+    key = canonical_integer(argument);
+    if (const Value* known = memo.integers.find(key)) return *known;
+  } else if (argument.is_exact()) {
+    auto it = memo.fractions.find(argument.exact());
+    if (it != memo.fractions.end()) return it->second;
+  }
+  charge_step();
+  Value v = evaluate_helper(f, argument, scope);
+  if (!v.is_exact()) memo_has_intervals_ = true;
+  if (argument.is_integer()) {
+    memo.integers.insert(key, v);
+  } else if (argument.is_exact()) {
+    memo.fractions.emplace(argument.exact(), v);
+  } else {
+    return v;
+  }
+  ++helper_entries_;
+  account_memo(argument.magnitude_bits(), v.magnitude_bits());
+  return v;
 }
 
 void Evaluator::account_memo(uint64_t key_bits, uint64_t value_bits) {
@@ -158,6 +189,8 @@ void Evaluator::account_memo(uint64_t key_bits, uint64_t value_bits) {
 
 void Evaluator::clear_memo() {
   memo_.clear();
+  helper_memo_.clear();
+  helper_entries_ = 0;
   if (kernel_) kernel_->clear_memo();
   memo_bytes_ = 0;
   memo_has_intervals_ = false;
@@ -223,6 +256,10 @@ Value Evaluator::default_base_value(const BigInt& n, const Expr& call, const Big
   const Recurrence& r = *recurrence_;
   std::string head =
       print(call) + " at n = " + n.str() + " calls " + r.main.name + "(" + m.str() + "), ";
+  // Calls shrink at large n (probe passed) and base cases are written, so the
+  // gap is below them (T(n) = 3T(n/4) + n with T(1) = 1: T(2) and T(3) call
+  // T(0)). Name the sizes that fall into it and the base case that closes it.
+  if (large_sizes_shrink_ && !r.default_base && n < 64) small_size_gap(n, call, m, head);
   if (m >= n) {
     fail_at(r.source, call.pos, head + "which does not shrink",
             "each call must reach a smaller size, such as " + r.main.name + "(n/2) or " +
@@ -231,6 +268,75 @@ Value Evaluator::default_base_value(const BigInt& n, const Expr& call, const Big
   fail_at(r.source, call.pos, head + "which is not a size",
           "add a base case such as " + r.main.name + "(" + n.str() +
               ") = 1, or a line 'if n <= " + n.str() + "'");
+}
+
+void Evaluator::small_size_gap(const BigInt& n, const Expr& call, const BigInt& m,
+                               const std::string& head) {
+  const Recurrence& r = *recurrence_;
+  EvalScope s = scope(r.source);
+  constexpr int64_t kScan = 64;
+  // roots: sizes whose own call does not shrink; direct: other sizes (not
+  // base cases) whose call lands on a root.
+  std::vector<bool> root(kScan, false);
+  std::vector<int64_t> direct;
+  const Expr* example_call = nullptr;
+  int64_t example_size = 0, example_target = 0;
+  for (int64_t k = 0; k < kScan; ++k) {
+    Value kv(k);
+    try {
+      const CaseLine& line = select_case(r.main, kv, s);
+      for (const Expr* c : line.calls) {
+        BigInt target = call_argument(*c, kv, s);
+        if (target < 0 || target >= k) {
+          root[k] = true;
+          break;
+        }
+        if (root[static_cast<size_t>(target)]) {
+          direct.push_back(k);
+          if (example_call == nullptr) {
+            example_call = c;
+            example_size = k;
+            example_target = static_cast<int64_t>(target);
+          }
+          break;
+        }
+      }
+    } catch (const InputError&) {
+      continue;  // no line applies there, or a domain error: not this gap
+    }
+  }
+  if (direct.empty() || direct.back() >= kScan - 8) return;  // not a gap at small sizes
+  int64_t below = direct.back() + 1;
+  for (int64_t k = 0; k < kScan; ++k) {
+    if (root[k]) below = std::max(below, k + 1);
+  }
+  // n = 2..3, or n = 2, 5..7.
+  std::string sizes;
+  for (size_t i = 0; i < direct.size();) {
+    size_t j = i;
+    while (j + 1 < direct.size() && direct[j + 1] == direct[j] + 1) ++j;
+    sizes += (sizes.empty() ? "" : ", ") + std::to_string(direct[i]);
+    if (j > i) sizes += ".." + std::to_string(direct[j]);
+    i = j + 1;
+  }
+  // The value of the smallest written point case, when it is a constant.
+  std::string value = "1";
+  for (const CaseLine& point : r.main.points) {
+    if (!mentions_n(*point.body) && !has_free_bound(*point.body)) {
+      value = print(*point.body);
+      break;
+    }
+  }
+  std::string f = r.main.name;
+  std::string what = m >= n ? "which does not shrink" : "which is not a size";
+  fail_at(r.source, call.pos,
+          head + what + "; the sizes n = " + sizes + " reach it (" + print(*example_call) +
+              " at n = " + std::to_string(example_size) + " is " + f + "(" +
+              std::to_string(example_target) + ")), and no base case covers them",
+          "add a base case for n < " + std::to_string(below) + ", e.g. " + f + "(n) = " + value +
+              " if n < " + std::to_string(below) +
+              " (once base cases are written, no other small size is assumed: see 'Base "
+              "cases' in docs/language.md)");
 }
 
 void Evaluator::probe_calls() {
@@ -273,6 +379,7 @@ void Evaluator::probe_calls() {
     }
     not_shrinking(n, *bad->first, bad->second);
   }
+  large_sizes_shrink_ = true;
 }
 
 void check_calls_shrink(const Recurrence& recurrence) {
