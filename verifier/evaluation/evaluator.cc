@@ -102,7 +102,7 @@ EvalScope Evaluator::scope(const SourceText& source) {
   return s;
 }
 
-void Evaluator::charge_step(uint64_t pending_bytes) {
+void Evaluator::charge_step(uint64_t pending_bytes, bool helper) {
   // The work stack of a deep descent (T(n/2) from 10^100000) holds every
   // pending size at once: it counts against the memory budget with the memo.
   if (pending_bytes > budget_.max_memo_bytes ||
@@ -112,22 +112,26 @@ void Evaluator::charge_step(uint64_t pending_bytes) {
                          "than " +
                              std::to_string(budget_.max_memo_bytes >> 20) + " MiB");
   }
-  ++stats_.steps;
-  if (stats_.steps > budget_.max_steps) {
+  // Helper values count toward every limit below, but not as subproblems
+  // (stats_.steps): the checker's work units are calibrated on those.
+  ++(helper ? stats_.helper_steps : stats_.steps);
+  uint64_t total = stats_.steps + stats_.helper_steps;
+  if (total > budget_.max_steps) {
     throw BudgetExceeded(Limit::kSteps,
-                         "more than " + std::to_string(budget_.max_steps) + " evaluation steps");
+                         "more than " + std::to_string(budget_.max_steps) + " evaluation steps" +
+                             (stats_.helper_steps > 0 ? " (helper values count)" : ""));
   }
   // Bottom-up sweeps continue from one size to the next; only the total
   // budget applies to them.
   if (budget_.max_steps_per_size != 0 && window_ == 0 && !history_ &&
-      stats_.steps - call_start_steps_ > budget_.max_steps_per_size) {
-    throw BudgetExceeded(
-        Limit::kSteps,
-        "one size needs more than " + std::to_string(budget_.max_steps_per_size) + " subproblems");
+      total - call_start_steps_ > budget_.max_steps_per_size) {
+    throw BudgetExceeded(Limit::kSteps, "one size needs more than " +
+                                            std::to_string(budget_.max_steps_per_size) +
+                                            " subproblems and helper values");
   }
   // max_seconds <= 0: no clock at all, so only the work budgets (the same on
   // every machine) can stop an evaluation; tests run that way.
-  if (budget_.max_seconds > 0 && (stats_.steps & 1023) == 0 &&
+  if (budget_.max_seconds > 0 && (total & 1023) == 0 &&
       std::chrono::steady_clock::now() > deadline_) {
     throw BudgetExceeded(
         Limit::kTime, "the time budget of " + std::to_string(budget_.max_seconds) + " s ran out");
@@ -159,7 +163,7 @@ Value Evaluator::helper_value(const Function& f, const Value& argument, const Ev
     auto it = memo.fractions.find(argument.exact());
     if (it != memo.fractions.end()) return it->second;
   }
-  charge_step();
+  charge_step(0, /*helper=*/true);
   Value v = evaluate_helper(f, argument, scope);
   if (!v.is_exact()) memo_has_intervals_ = true;
   if (argument.is_integer()) {
@@ -226,7 +230,7 @@ auto Evaluator::with_precision(F&& f) -> decltype(f()) {
 Value Evaluator::value_at(const BigInt& n) {
   if (n < 0) throw std::invalid_argument("sizes are non-negative");
   probe();
-  call_start_steps_ = stats_.steps;
+  call_start_steps_ = stats_.steps + stats_.helper_steps;
   // A full history cannot be dropped and rebuilt larger: its budget ends it.
   if (!history_ && (memo_bytes_ > budget_.max_memo_bytes / 4 * 3 ||
                     memo_size() > budget_.max_memo_entries / 4 * 3)) {
@@ -536,7 +540,7 @@ Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope
     // Not through value_at(): that would restart the precision this
     // expression's evaluation may be raising (with_precision). The
     // per-size step limit still counts from here, as for a size of its own.
-    call_start_steps_ = stats_.steps;
+    call_start_steps_ = stats_.steps + stats_.helper_steps;
     if (std::optional<Value> fast = kernel_value(m.integer())) return std::move(*fast);
   }
   // Only reachable from evaluate() on an expression that calls T directly.
@@ -556,7 +560,7 @@ Value Evaluator::sweep_up(const BigInt& n) {
     next_ = 0;
   }
   uint64_t needed = static_cast<uint64_t>(std::max<int64_t>(0, target - next_ + 1));
-  if (stats_.steps + needed > budget_.max_steps) {
+  if (stats_.steps + stats_.helper_steps + needed > budget_.max_steps) {
     throw BudgetExceeded(
         Limit::kSteps, "reaching n = " + n.str() + " bottom-up needs " + std::to_string(needed) +
                            " more steps, over the budget of " + std::to_string(budget_.max_steps));
@@ -703,7 +707,7 @@ Value Evaluator::sweep_history(const BigInt& n) {
     return *history_values_[slot];
   }
   uint64_t needed = static_cast<uint64_t>(target - next_ + 1);
-  if (stats_.steps + needed > budget_.max_steps) {
+  if (stats_.steps + stats_.helper_steps + needed > budget_.max_steps) {
     throw BudgetExceeded(
         Limit::kSteps, "reaching n = " + n.str() + " bottom-up needs " + std::to_string(needed) +
                            " more steps, over the budget of " + std::to_string(budget_.max_steps));

@@ -26,7 +26,7 @@ struct Budget {
   uint64_t max_memo_entries = 2'000'000;
   uint64_t max_memo_bytes = 512ull << 20;
   uint64_t max_value_bits = 1u << 20;
-  uint64_t max_steps = 30'000'000;  // case lines evaluated, in total
+  uint64_t max_steps = 30'000'000;  // case lines and helper values evaluated, in total
   uint64_t max_steps_per_size = 0;  // for one value_at(); 0: no separate limit
   double max_seconds = 20.0;        // wall time from the evaluator's creation; 0: no clock
   // max_memo_bytes also bounds the sizes waiting on the work stack.
@@ -35,7 +35,8 @@ struct Budget {
 };
 
 struct EvaluatorStats {
-  uint64_t steps = 0;
+  uint64_t steps = 0;         // subproblems: what the checker's work units count
+  uint64_t helper_steps = 0;  // helper values computed; with steps, under max_steps
   uint64_t memo_entries = 0;
   uint64_t memo_clears = 0;
   uint64_t precision_retries = 0;
@@ -111,7 +112,9 @@ class Evaluator {
   void small_size_gap(const BigInt& n, const Expr& call, const BigInt& m, const std::string& head);
   // One subproblem expanded; `pending_bytes` are held by the sizes waiting
   // on a work stack, counted with the memo against max_memo_bytes.
-  void charge_step(uint64_t pending_bytes = 0);
+  // A helper's value (`helper`) counts toward the same limits, kept apart
+  // in stats().helper_steps.
+  void charge_step(uint64_t pending_bytes = 0, bool helper = false);
   // Returns the remembered value (stable: memo_'s elements never move).
   const Value* remember(const Value& m, const Value& v);
   const Value* remembered(const Value& m) const;  // REQUIRES: m was remembered
