@@ -9,6 +9,7 @@
 #include <CLI/CLI.hpp>
 #include <algorithm>
 #include <chrono>
+#include <cstdio>
 #include <filesystem>
 #include <iostream>
 #include <random>
@@ -85,7 +86,41 @@ class Progress {
   std::chrono::steady_clock::time_point start_;
 };
 
-int list_families() {
+std::string json_string(const std::string& text) {
+  std::string out = "\"";
+  for (char c : text) {
+    unsigned char u = static_cast<unsigned char>(c);
+    if (c == '"' || c == '\\') {
+      out += '\\';
+      out += c;
+    } else if (u < 0x20) {
+      char escaped[8];
+      std::snprintf(escaped, sizeof escaped, "\\u%04x", u);
+      out += escaped;
+    } else {
+      out += c;
+    }
+  }
+  return out + "\"";
+}
+
+// The size families as a table (text) or as a JSON array of {name, description}.
+int list_families(const std::string& format) {
+  if (format == "json") {
+    std::cout << "[";
+    bool first = true;
+    for (const SizeFamily& f : size_families()) {
+      std::cout << (first ? "\n" : ",\n") << "  {\"name\": " << json_string(f.name)
+                << ", \"description\": " << json_string(f.description) << "}";
+      first = false;
+    }
+    std::cout << "\n]\n";
+    return 0;
+  }
+  if (format != "text") {
+    std::cerr << "thetagate: --list-families prints text or json, not " << format << "\n";
+    return kExitBadInput;
+  }
   for (const SizeFamily& f : size_families()) {
     std::cout << f.name << std::string(f.name.size() < 18 ? 18 - f.name.size() : 1, ' ')
               << f.description << '\n';
@@ -94,7 +129,7 @@ int list_families() {
 }
 
 int run_check(const CheckArguments& args) {
-  if (args.list_families) return list_families();
+  if (args.list_families) return list_families(args.format);
   cli::FailOn fail_on = args.fail_on.empty() ? cli::FailOn{} : cli::parse_fail_on(args.fail_on);
   if (fail_on.drift && args.baseline.empty()) {
     std::cerr << "thetagate: --fail-on drift needs --baseline OLD.json\n";

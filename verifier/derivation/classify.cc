@@ -205,6 +205,11 @@ class Classifier {
   // (n <= 10, n == 1), must share one class.
   Expansion helper(const Function& f, const Expr& call_expr) {
     if (call_expr.args.size() != 1) throw Refusal{"'" + print(call_expr) + "' takes one argument"};
+    if (f.inlined_size > kMaxInlinedHelperSize) {
+      throw Refusal{"helper " + f.name + " expands to more than " +
+                    std::to_string(kMaxInlinedHelperSize) +
+                    " terms with the helpers it calls written out"};
+    }
     const ExprPtr& argument = call_expr.args[0];
     std::vector<std::pair<std::string, Expansion>> cases;
     for (const CaseLine* line : f.lines_in_order()) {

@@ -475,6 +475,9 @@ Series rounded(const Series& x, bool ceiling, const SeriesContext& ctx) {
 // The value of a helper f(x) for x = `argument`: the line that applies on
 // this residue class for every n >= from, expanded.
 Series expand_helper(const Function& f, const Series& argument, const SeriesContext& ctx) {
+  if (f.inlined_size > kMaxInlinedHelperSize) {
+    throw SeriesUnsupported{"helper " + f.name + " expands to too many terms"};
+  }
   std::optional<std::pair<Rational, Rational>> aff = as_affine(argument);
   for (const CaseLine& p : f.points) {
     if (!aff || aff->first <= 0 ||

@@ -42,6 +42,9 @@ class Evaluator::Resolver : public CallResolver {
   Value sum(const Expr& sum, const Value& n, const EvalScope& scope) override {
     return owner_.sum_value(sum, n, scope);
   }
+  Value helper(const Function& f, const Value& argument, const EvalScope& scope) override {
+    return owner_.helper_value(f, argument, scope);
+  }
 
  private:
   Evaluator& owner_;
@@ -93,7 +96,7 @@ Evaluator::Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget
 Evaluator::~Evaluator() = default;
 
 void Evaluator::start_query() {
-  query_start_steps_ = stats_.steps;
+  query_start_steps_ = stats_.steps + stats_.helper_steps;
   // !(x > 0) also catches NaN: no clock, as for 0.
   double seconds = budget_.max_seconds > 0 ? std::min(budget_.max_seconds, 1e9) : 0.0;
   deadline_ = std::chrono::steady_clock::now() +
@@ -109,7 +112,7 @@ EvalScope Evaluator::scope(const SourceText& source) {
   return s;
 }
 
-void Evaluator::charge_step(uint64_t pending_bytes) {
+void Evaluator::charge_step(uint64_t pending_bytes, bool helper) {
   // The work stack of a deep descent (T(n/2) from 10^100000) holds every
   // pending size at once: it counts against the memory budget with the memo.
   if (pending_bytes > budget_.max_memo_bytes ||
@@ -119,22 +122,26 @@ void Evaluator::charge_step(uint64_t pending_bytes) {
                          "than " +
                              std::to_string(budget_.max_memo_bytes >> 20) + " MiB");
   }
-  ++stats_.steps;
-  if (stats_.steps - query_start_steps_ > budget_.max_steps) {
+  // Helper values count toward every limit below, but not as subproblems
+  // (stats_.steps): the checker's work units are calibrated on those.
+  ++(helper ? stats_.helper_steps : stats_.steps);
+  uint64_t total = stats_.steps + stats_.helper_steps;
+  if (total - query_start_steps_ > budget_.max_steps) {
     throw BudgetExceeded(Limit::kSteps,
-                         "more than " + std::to_string(budget_.max_steps) + " evaluation steps");
+                         "more than " + std::to_string(budget_.max_steps) + " evaluation steps" +
+                             (stats_.helper_steps > 0 ? " (helper values count)" : ""));
   }
   // Bottom-up sweeps continue from one size to the next; only the total
   // budget applies to them.
   if (budget_.max_steps_per_size != 0 && window_ == 0 && !history_ &&
-      stats_.steps - call_start_steps_ > budget_.max_steps_per_size) {
-    throw BudgetExceeded(
-        Limit::kSteps,
-        "one size needs more than " + std::to_string(budget_.max_steps_per_size) + " subproblems");
+      total - call_start_steps_ > budget_.max_steps_per_size) {
+    throw BudgetExceeded(Limit::kSteps, "one size needs more than " +
+                                            std::to_string(budget_.max_steps_per_size) +
+                                            " subproblems and helper values");
   }
   // max_seconds <= 0: no clock at all, so only the work budgets (the same on
   // every machine) can stop an evaluation; tests run that way.
-  if (budget_.max_seconds > 0 && (stats_.steps & 1023) == 0 &&
+  if (budget_.max_seconds > 0 && (total & 1023) == 0 &&
       std::chrono::steady_clock::now() > deadline_) {
     throw BudgetExceeded(Limit::kTime,
                          fmt::format("the time budget of {:g} s ran out", budget_.max_seconds));
@@ -150,7 +157,35 @@ const Value* Evaluator::remember(const Value& m, const Value& v) {
 }
 
 size_t Evaluator::memo_size() const {
-  return memo_.size() + (kernel_ ? kernel_->memo_size() : 0) + history_values_.size();
+  return memo_.size() + (kernel_ ? kernel_->memo_size() : 0) + history_values_.size() +
+         helper_entries_;
+}
+
+Value Evaluator::helper_value(const Function& f, const Value& argument, const EvalScope& scope) {
+  // Helpers that fan out (f(n) = g(n) + g(n), forty levels deep) repeat
+  // their arguments: remembered, each distinct value is computed once.
+  HelperMemo& memo = helper_memo_[&f];
+  Value key;
+  if (argument.is_integer()) {
+    key = canonical_integer(argument);
+    if (const Value* known = memo.integers.find(key)) return *known;
+  } else if (argument.is_exact()) {
+    auto it = memo.fractions.find(argument.exact());
+    if (it != memo.fractions.end()) return it->second;
+  }
+  charge_step(0, /*helper=*/true);
+  Value v = evaluate_helper(f, argument, scope);
+  if (!v.is_exact()) memo_has_intervals_ = true;
+  if (argument.is_integer()) {
+    memo.integers.insert(key, v);
+  } else if (argument.is_exact()) {
+    memo.fractions.emplace(argument.exact(), v);
+  } else {
+    return v;
+  }
+  ++helper_entries_;
+  account_memo(argument.magnitude_bits(), v.magnitude_bits());
+  return v;
 }
 
 void Evaluator::account_memo(uint64_t key_bits, uint64_t value_bits) {
@@ -168,6 +203,8 @@ void Evaluator::account_memo(uint64_t key_bits, uint64_t value_bits) {
 
 void Evaluator::clear_memo() {
   memo_.clear();
+  helper_memo_.clear();
+  helper_entries_ = 0;
   if (kernel_) kernel_->clear_memo();
   memo_bytes_ = 0;
   memo_has_intervals_ = false;
@@ -203,7 +240,7 @@ auto Evaluator::with_precision(F&& f) -> decltype(f()) {
 Value Evaluator::value_at(const BigInt& n) {
   if (n < 0) throw std::invalid_argument("sizes are non-negative");
   probe();
-  call_start_steps_ = stats_.steps;
+  call_start_steps_ = stats_.steps + stats_.helper_steps;
   // A full history cannot be dropped and rebuilt larger: its budget ends it.
   if (!history_ && (memo_bytes_ > budget_.max_memo_bytes / 4 * 3 ||
                     memo_size() > budget_.max_memo_entries / 4 * 3)) {
@@ -233,6 +270,10 @@ Value Evaluator::default_base_value(const BigInt& n, const Expr& call, const Big
   const Recurrence& r = *recurrence_;
   std::string head =
       print(call) + " at n = " + n.str() + " calls " + r.main.name + "(" + m.str() + "), ";
+  // Calls shrink at large n (probe passed) and base cases are written, so the
+  // gap is below them (T(n) = 3T(n/4) + n with T(1) = 1: T(2) and T(3) call
+  // T(0)). Name the sizes that fall into it and the base case that closes it.
+  if (large_sizes_shrink_ && !r.default_base && n < 64) small_size_gap(n, call, m, head);
   if (m >= n) {
     fail_at(r.source, call.pos, head + "which does not shrink",
             "each call must reach a smaller size, such as " + r.main.name + "(n/2) or " +
@@ -241,6 +282,75 @@ Value Evaluator::default_base_value(const BigInt& n, const Expr& call, const Big
   fail_at(r.source, call.pos, head + "which is not a size",
           "add a base case such as " + r.main.name + "(" + n.str() +
               ") = 1, or a line 'if n <= " + n.str() + "'");
+}
+
+void Evaluator::small_size_gap(const BigInt& n, const Expr& call, const BigInt& m,
+                               const std::string& head) {
+  const Recurrence& r = *recurrence_;
+  EvalScope s = scope(r.source);
+  constexpr int64_t kScan = 64;
+  // roots: sizes whose own call does not shrink; direct: other sizes (not
+  // base cases) whose call lands on a root.
+  std::vector<bool> root(kScan, false);
+  std::vector<int64_t> direct;
+  const Expr* example_call = nullptr;
+  int64_t example_size = 0, example_target = 0;
+  for (int64_t k = 0; k < kScan; ++k) {
+    Value kv(k);
+    try {
+      const CaseLine& line = select_case(r.main, kv, s);
+      for (const Expr* c : line.calls) {
+        BigInt target = call_argument(*c, kv, s);
+        if (target < 0 || target >= k) {
+          root[k] = true;
+          break;
+        }
+        if (root[static_cast<size_t>(target)]) {
+          direct.push_back(k);
+          if (example_call == nullptr) {
+            example_call = c;
+            example_size = k;
+            example_target = static_cast<int64_t>(target);
+          }
+          break;
+        }
+      }
+    } catch (const InputError&) {
+      continue;  // no line applies there, or a domain error: not this gap
+    }
+  }
+  if (direct.empty() || direct.back() >= kScan - 8) return;  // not a gap at small sizes
+  int64_t below = direct.back() + 1;
+  for (int64_t k = 0; k < kScan; ++k) {
+    if (root[k]) below = std::max(below, k + 1);
+  }
+  // n = 2..3, or n = 2, 5..7.
+  std::string sizes;
+  for (size_t i = 0; i < direct.size();) {
+    size_t j = i;
+    while (j + 1 < direct.size() && direct[j + 1] == direct[j] + 1) ++j;
+    sizes += (sizes.empty() ? "" : ", ") + std::to_string(direct[i]);
+    if (j > i) sizes += ".." + std::to_string(direct[j]);
+    i = j + 1;
+  }
+  // The value of the smallest written point case, when it is a constant.
+  std::string value = "1";
+  for (const CaseLine& point : r.main.points) {
+    if (!mentions_n(*point.body) && !has_free_bound(*point.body)) {
+      value = print(*point.body);
+      break;
+    }
+  }
+  std::string f = r.main.name;
+  std::string what = m >= n ? "which does not shrink" : "which is not a size";
+  fail_at(r.source, call.pos,
+          head + what + "; the sizes n = " + sizes + " reach it (" + print(*example_call) +
+              " at n = " + std::to_string(example_size) + " is " + f + "(" +
+              std::to_string(example_target) + ")), and no base case covers them",
+          "add a base case for n < " + std::to_string(below) + ", e.g. " + f + "(n) = " + value +
+              " if n < " + std::to_string(below) +
+              " (once base cases are written, no other small size is assumed: see 'Base "
+              "cases' in docs/language.md)");
 }
 
 void Evaluator::probe_calls() {
@@ -283,6 +393,7 @@ void Evaluator::probe_calls() {
     }
     not_shrinking(n, *bad->first, bad->second);
   }
+  large_sizes_shrink_ = true;
 }
 
 void check_calls_shrink(const Recurrence& recurrence) {
@@ -439,7 +550,7 @@ Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope
     // Not through value_at(): that would restart the precision this
     // expression's evaluation may be raising (with_precision). The
     // per-size step limit still counts from here, as for a size of its own.
-    call_start_steps_ = stats_.steps;
+    call_start_steps_ = stats_.steps + stats_.helper_steps;
     if (std::optional<Value> fast = kernel_value(m.integer())) return std::move(*fast);
   }
   // Only reachable from evaluate() on an expression that calls T directly.
@@ -459,7 +570,7 @@ Value Evaluator::sweep_up(const BigInt& n) {
     next_ = 0;
   }
   uint64_t needed = static_cast<uint64_t>(std::max<int64_t>(0, target - next_ + 1));
-  if (stats_.steps - query_start_steps_ + needed > budget_.max_steps) {
+  if (stats_.steps + stats_.helper_steps - query_start_steps_ + needed > budget_.max_steps) {
     throw BudgetExceeded(
         Limit::kSteps, "reaching n = " + n.str() + " bottom-up needs " + std::to_string(needed) +
                            " more steps, over the budget of " + std::to_string(budget_.max_steps));
@@ -606,7 +717,7 @@ Value Evaluator::sweep_history(const BigInt& n) {
     return *history_values_[slot];
   }
   uint64_t needed = static_cast<uint64_t>(target - next_ + 1);
-  if (stats_.steps - query_start_steps_ + needed > budget_.max_steps) {
+  if (stats_.steps + stats_.helper_steps - query_start_steps_ + needed > budget_.max_steps) {
     throw BudgetExceeded(
         Limit::kSteps, "reaching n = " + n.str() + " bottom-up needs " + std::to_string(needed) +
                            " more steps, over the budget of " + std::to_string(budget_.max_steps));

@@ -7,6 +7,7 @@
 
 #include <chrono>
 #include <cstdint>
+#include <map>
 #include <memory>
 #include <optional>
 #include <unordered_map>
@@ -27,7 +28,7 @@ struct Budget {
   uint64_t max_value_bits = 1u << 20;
   // max_steps and max_seconds count from the evaluator's creation, or from
   // its last start_query().
-  uint64_t max_steps = 30'000'000;  // case lines evaluated, in total
+  uint64_t max_steps = 30'000'000;  // case lines and helper values evaluated, in total
   uint64_t max_steps_per_size = 0;  // for one value_at(); 0: no separate limit
   double max_seconds = 20.0;        // wall time; 0 (or NaN): no clock
   // max_memo_bytes also bounds the sizes waiting on the work stack.
@@ -36,7 +37,8 @@ struct Budget {
 };
 
 struct EvaluatorStats {
-  uint64_t steps = 0;
+  uint64_t steps = 0;         // subproblems: what the checker's work units count
+  uint64_t helper_steps = 0;  // helper values computed; with steps, under max_steps
   uint64_t memo_entries = 0;
   uint64_t memo_clears = 0;
   uint64_t precision_retries = 0;
@@ -106,12 +108,21 @@ class Evaluator {
   Value prefix_at(PrefixSums& p, const Expr& sum, int64_t m, const Value& n,
                   const EvalScope& scope);
   Value lookup(const Expr& call, const Value& n, const EvalScope& scope);
+  // A helper's value at an argument: remembered by exact argument, and each
+  // one computed is a step (budgets, the clock, the per-size limit).
+  Value helper_value(const Function& f, const Value& argument, const EvalScope& scope);
   void probe_calls();
   Value default_base_value(const BigInt& n, const Expr& call, const BigInt& m);
   [[noreturn]] void not_shrinking(const BigInt& n, const Expr& call, const BigInt& m);
+  // When a small size's call fails below written base cases: throws the
+  // error naming the sizes that reach it and the base case that closes the
+  // gap; returns when the failure is not of that kind.
+  void small_size_gap(const BigInt& n, const Expr& call, const BigInt& m, const std::string& head);
   // One subproblem expanded; `pending_bytes` are held by the sizes waiting
   // on a work stack, counted with the memo against max_memo_bytes.
-  void charge_step(uint64_t pending_bytes = 0);
+  // A helper's value (`helper`) counts toward the same limits, kept apart
+  // in stats().helper_steps.
+  void charge_step(uint64_t pending_bytes = 0, bool helper = false);
   // Returns the remembered value (stable: memo_'s elements never move).
   const Value* remember(const Value& m, const Value& v);
   const Value* remembered(const Value& m) const;  // REQUIRES: m was remembered
@@ -133,6 +144,14 @@ class Evaluator {
   MemoTable memo_;
   std::unique_ptr<IntegerKernel> kernel_;  // null: the general path only
   std::unique_ptr<KernelLink> kernel_link_;
+  // Helper values by argument: whole numbers in a MemoTable, other exact
+  // arguments (f(n/2) at odd n) in a map; interval arguments are not kept.
+  struct HelperMemo {
+    MemoTable integers;
+    std::map<Rational, Value> fractions;
+  };
+  std::unordered_map<const Function*, HelperMemo> helper_memo_;
+  size_t helper_entries_ = 0;
   uint64_t memo_bytes_ = 0;
   bool memo_has_intervals_ = false;
   // Bottom-up state: window_ = largest c in T(n - c); the ring holds the
@@ -153,8 +172,9 @@ class Evaluator {
   const std::vector<const Expr*>* current_calls_ = nullptr;
   const Value* const* current_values_ = nullptr;
   bool probed_ = false;
+  bool large_sizes_shrink_ = false;  // probe_calls() passed
   uint64_t call_start_steps_ = 0;
-  uint64_t query_start_steps_ = 0;  // steps before the last start_query()
+  uint64_t query_start_steps_ = 0;  // steps and helper steps before the last start_query()
 };
 
 // Evaluator::probe() for a recurrence not otherwise evaluated (derive).

@@ -50,18 +50,43 @@ std::optional<Value> exact_log_power(const Rational& b, const Expr& exponent) {
   return Value(*p1 * *p2);
 }
 
+bool calls_function(const Expr& e, const std::string& name) {
+  if (e.kind == ExprKind::kCall && e.name == name) return true;
+  for (const ExprPtr& a : e.args) {
+    if (calls_function(*a, name)) return true;
+  }
+  return false;
+}
+
 [[noreturn]] void domain_failure(const DomainError& error, const Expr& at, const Value& n,
                                  const EvalScope& scope) {
   std::string hint = "add a base case for the small sizes where this is undefined, e.g. T(1) = 1";
+  auto constant = [](const Expr& e) { return !mentions_n(e) && !has_free_bound(e); };
+  bool everywhere = false;
   // A divisor that does not depend on n is zero at every size: no base case helps.
   bool divides = at.kind == ExprKind::kDiv || (at.kind == ExprKind::kCall && at.name == "mod");
   if (divides && at.args.size() == 2 && !mentions_n(*at.args[1])) {
     hint = "the divisor '" + print(*at.args[1]) +
            "' does not depend on n: it is zero at every "
            "size; fix the expression";
+  } else if (at.kind == ExprKind::kCall && at.name == "log" && at.args.size() == 2 &&
+             constant(*at.args[0]) && std::string(error.what()).find("base") != std::string::npos) {
+    everywhere = true;
+    hint = "the base '" + print(*at.args[0]) +
+           "' is the same at every size, and a logarithm's base must be positive and not 1: "
+           "write log(2, n), lg n or ln n";
+  } else if (constant(at)) {
+    everywhere = true;
+    hint = "'" + print(at) +
+           "' does not depend on n: it is undefined at every size, so no base case helps; fix "
+           "the expression";
+  } else if (!mentions_n(at)) {
+    hint = "it is undefined at a value of the sum's variable: start the sum where it is defined";
   }
-  fail_at(*scope.source, at.pos,
-          std::string(error.what()) + " at n = " + n.str() + " (in '" + print(at) + "')", hint);
+  // Undefined at every size: the size it was met at would mislead.
+  std::string where = everywhere ? "" : " at n = " + n.str();
+  fail_at(*scope.source, at.pos, std::string(error.what()) + where + " (in '" + print(at) + "')",
+          hint);
 }
 
 // The value of a builtin call; nullopt when `e` names no builtin.
@@ -101,14 +126,25 @@ std::optional<Value> builtin(const Expr& e, const Value& n, const EvalScope& sco
 Value call_helper(const Function& helper, const Expr& call, const Value& n,
                   const EvalScope& scope) {
   Value argument = evaluate_expr(*call.args[0], n, scope);
-  const CaseLine& line = select_case(helper, argument, scope);
-  return evaluate_expr(*line.body, argument, scope);
+  if (scope.resolver) return scope.resolver->helper(helper, argument, scope);
+  return evaluate_helper(helper, argument, scope);
 }
 
 }  // namespace
 
 Value CallResolver::sum(const Expr& sum, const Value& n, const EvalScope& scope) {
   return sum_directly(sum, n, scope);
+}
+
+Value CallResolver::helper(const Function& f, const Value& argument, const EvalScope& scope) {
+  return evaluate_helper(f, argument, scope);
+}
+
+Value evaluate_helper(const Function& f, const Value& argument, const EvalScope& scope) {
+  EvalScope inner = scope;
+  inner.bound = nullptr;
+  const CaseLine& line = select_case(f, argument, inner);
+  return evaluate_expr(*line.body, argument, inner);
 }
 
 std::pair<int64_t, int64_t> sum_limits(const Expr& sum, const Value& n, const EvalScope& scope) {
@@ -219,6 +255,20 @@ Value evaluate_expr(const Expr& e, const Value& n, const EvalScope& scope) {
     }
   } catch (const DomainError& error) {
     domain_failure(error, e, n, scope);
+  } catch (const BudgetExceeded& limit) {
+    // A constant beyond the value-size limit (2^(2^20)) is too large at every
+    // size: the input's fault, located at the constant, not a budget that a
+    // smaller size would stay within.
+    if (limit.limit() != Limit::kValueSize || scope.recurrence == nullptr || mentions_n(e) ||
+        has_free_bound(e) || calls_function(e, scope.recurrence->main.name)) {
+      throw;
+    }
+    fail_at(
+        *scope.source, e.pos,
+        "the constant '" + print(e) + "' is too large to compute exactly (" + limit.what() + ")",
+        "it does not depend on n, so every size needs it; write a smaller constant (values "
+        "are limited to " +
+            std::to_string(scope.ctx->max_value_bits) + " bits)");
   }
 }
 

@@ -21,6 +21,11 @@ class CallResolver {
   // The value of a sum node at n. The default adds its terms one by one
   // (sum_directly); the recurrence evaluator keeps running sums instead.
   virtual Value sum(const Expr& sum, const Value& n, const struct EvalScope& scope);
+  // The value of helper `f` at `argument` (the value of the call's
+  // argument). The default evaluates its line (evaluate_helper); the
+  // recurrence evaluator remembers values by argument and charges each one
+  // it computes to its step budget and clock.
+  virtual Value helper(const Function& f, const Value& argument, const struct EvalScope& scope);
 };
 
 // The value of a variable bound by an enclosing sum; a chain, innermost first.
@@ -53,6 +58,10 @@ Value sum_directly(const Expr& sum, const Value& n, const EvalScope& scope,
 // unknown functions and recurrence calls where none are allowed;
 // PrecisionShortfall and BudgetExceeded pass through.
 Value evaluate_expr(const Expr& e, const Value& n, const EvalScope& scope);
+
+// Helper `f` at `argument`: its applicable line, evaluated with the
+// argument as n (and no enclosing sum variables: helpers cannot see them).
+Value evaluate_helper(const Function& f, const Value& argument, const EvalScope& scope);
 
 // The truth of a condition at n.
 bool test_condition(const Expr& cond, const Value& n, const EvalScope& scope);

@@ -69,6 +69,26 @@ const char* bound_kind_name(BoundKind kind) {
   return "?";
 }
 
+namespace {
+
+// A sum variable named like the recurrence's function would hide it inside
+// the sum's body (sum(T, 1, n, T(T)) reads T(T) as T*T).
+void check_sum_shadowing(const Bound& b, const SourceText& source, const std::string& function) {
+  auto is_function = [&](const std::string& name) { return name == function; };
+  for (const ExprPtr& side : {b.lower, b.upper, b.growth}) {
+    if (!side) continue;
+    if (const Expr* sum = find_sum_shadowing(*side, is_function)) {
+      size_t at = source.text.find(sum->name, sum->pos + 3);
+      fail_at(source, at == std::string::npos ? sum->pos : at,
+              "the sum's variable '" + sum->name + "' has the name of the function " + function +
+                  ", which it would hide inside the sum",
+              "name the variable k, i or j: sum(k, 1, n, " + function + "(k))");
+    }
+  }
+}
+
+}  // namespace
+
 Bound parse_bound(const SourceText& source, const std::string& function) {
   Parser p(source);
   while (p.accept(TokenKind::kNewline)) {
@@ -80,7 +100,9 @@ Bound parse_bound(const SourceText& source, const std::string& function) {
   if (p.at(TokenKind::kName) &&
       (p.peek().text == "Theta" || p.peek().text == "O" || p.peek().text == "Omega") &&
       p.peek(1).kind == TokenKind::kLeftParen) {
-    return parse_asymptotic(p, source);
+    Bound b = parse_asymptotic(p, source);
+    check_sum_shadowing(b, source, function);
+    return b;
   }
 
   Bound b;
@@ -195,6 +217,7 @@ Bound parse_bound(const SourceText& source, const std::string& function) {
   while (p.accept(TokenKind::kNewline)) {
   }
   if (!p.at(TokenKind::kEnd)) p.fail_expected("the end of the bound", hint);
+  check_sum_shadowing(b, source, function);
   return b;
 }
 

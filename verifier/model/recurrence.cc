@@ -1,6 +1,6 @@
 #include "verifier/model/recurrence.h"
 
-#include <functional>
+#include <algorithm>
 #include <set>
 
 #include "verifier/model/definitions.h"
@@ -76,34 +76,201 @@ void check_calls(const Expr& e, const SourceText& source, const std::string& mai
   }
 }
 
-// Helpers may call helpers but never in a cycle.
-void check_helper_cycles(const std::map<std::string, Function>& helpers, const SourceText& source) {
-  std::map<std::string, int> state;  // 0 new, 1 on stack, 2 done
-  std::function<void(const std::string&)> visit = [&](const std::string& name) {
-    state[name] = 1;
-    const Function& f = helpers.at(name);
+// The byte offset of a sum's variable: the first name after "sum(".
+size_t sum_variable_pos(const SourceText& source, const Expr& sum) {
+  size_t at = source.text.find(sum.name, sum.pos + 3);
+  return at == std::string::npos ? sum.pos : at;
+}
+
+// A sum variable named like the recursive function or a helper would hide
+// it inside the body (sum(T, 1, n, T(T)) reads T(T) as T*T).
+void check_sum_variables(const Recurrence& r, const SourceText& source) {
+  auto is_function = [&](const std::string& name) {
+    return name == r.main.name || r.helpers.count(name) != 0;
+  };
+  auto check = [&](const ExprPtr& e) {
+    if (!e) return;
+    const Expr* sum = find_sum_shadowing(*e, is_function);
+    if (sum == nullptr) return;
+    bool helper = sum->name != r.main.name;
+    fail_at(source, sum_variable_pos(source, *sum),
+            "the sum's variable '" + sum->name + "' has the name of " +
+                (helper ? "the helper function " : "the function ") + sum->name +
+                ", which it would hide inside the sum",
+            "name the variable k, i or j: sum(k, 1, n - 1, " + r.main.name + "(k))");
+  };
+  for (const CaseLine* line : r.main.lines_in_order()) {
+    check(line->body);
+    check(line->condition);
+  }
+  for (const auto& [name, h] : r.helpers) {
+    for (const CaseLine* line : h.lines_in_order()) {
+      check(line->body);
+      check(line->condition);
+    }
+  }
+}
+
+struct HelperCall {
+  const Function* callee;
+  const Expr* call;
+};
+
+// The calls of helpers in `e`, left to right; each tree is walked once, so
+// this is linear in the text however many helpers there are.
+void collect_helper_calls(const Expr& e, const std::map<std::string, Function>& helpers,
+                          std::vector<HelperCall>& out) {
+  if (e.kind == ExprKind::kCall) {
+    auto it = helpers.find(e.name);
+    if (it != helpers.end()) out.push_back({&it->second, &e});
+  }
+  for (const ExprPtr& a : e.args) collect_helper_calls(*a, helpers, out);
+}
+
+uint64_t saturating_add(uint64_t a, uint64_t b) { return std::min(a + b, kInlinedSizeCap); }
+uint64_t saturating_mul(uint64_t a, uint64_t b) {
+  if (a != 0 && b > kInlinedSizeCap / a) return kInlinedSizeCap;
+  return std::min(a * b, kInlinedSizeCap);
+}
+
+// Levels and nodes of `e` with every helper call inlined: a call counts its
+// argument plus the callee (whose measures are known: callees come first).
+// Depth is a sum, not a maximum: substituting the argument for n (as the
+// classifier does) stacks the one on the other.
+struct Inlined {
+  size_t depth = 0;
+  uint64_t size = 0;
+  const Expr* deepest_call = nullptr;  // the helper call on the deepest path
+};
+
+Inlined measure_inlined(const Expr& e, const std::map<std::string, Function>& helpers) {
+  Inlined out;
+  for (const ExprPtr& a : e.args) {
+    Inlined child = measure_inlined(*a, helpers);
+    out.size = saturating_add(out.size, child.size);
+    if (child.depth > out.depth) {
+      out.depth = child.depth;
+      out.deepest_call = child.deepest_call;
+    }
+  }
+  out.depth += 1;
+  out.size = saturating_add(out.size, 1);
+  if (e.kind == ExprKind::kCall) {
+    auto it = helpers.find(e.name);
+    if (it != helpers.end()) {
+      const Function& callee = it->second;
+      out.depth += callee.inlined_depth;
+      // Each n in the callee's lines becomes a copy of the argument.
+      out.size = saturating_add(out.size, saturating_mul(callee.inlined_size, out.size));
+      out.deepest_call = &e;
+    }
+  }
+  return out;
+}
+
+// Helpers may call helpers, never in a cycle, and their calls may nest at
+// most kMaxTreeDepth levels counting each helper's own expression: every
+// walk that follows a helper call (evaluation, classification, expansion)
+// recurses that deep. Fills in each helper's inlined depth and size.
+// Iterative: a chain of thousands of helpers is an error, not a deep stack.
+void check_helpers(Recurrence& r, const SourceText& source) {
+  std::map<std::string, Function>& helpers = r.helpers;
+  std::map<const Function*, std::vector<HelperCall>> calls;
+  for (auto& [name, f] : helpers) {
+    std::vector<HelperCall>& out = calls[&f];
     for (const CaseLine* line : f.lines_in_order()) {
-      for (const ExprPtr& part : {line->body, line->condition}) {
+      if (line->condition) collect_helper_calls(*line->condition, helpers, out);
+      collect_helper_calls(*line->body, helpers, out);
+    }
+  }
+  // Depth-first over the call graph with an explicit stack; post-order
+  // (callees first) is the order in which the measures can be computed.
+  std::map<const Function*, int> state;  // 0 new, 1 on the stack, 2 done
+  std::vector<const Function*> order;
+  for (auto& [root_name, root] : helpers) {
+    if (state[&root] != 0) continue;
+    std::vector<std::pair<const Function*, size_t>> stack = {{&root, 0}};
+    state[&root] = 1;
+    while (!stack.empty()) {
+      auto& [f, next] = stack.back();
+      const std::vector<HelperCall>& out = calls[f];
+      if (next == out.size()) {
+        state[f] = 2;
+        order.push_back(f);
+        stack.pop_back();
+        continue;
+      }
+      const HelperCall& c = out[next++];
+      int& s = state[c.callee];
+      if (s == 1) {
+        fail_at(source, c.call->pos,
+                "helper '" + c.callee->name +
+                    "' is used recursively (recursion among helpers, or "
+                    "mutual recursion, is not supported)",
+                "only the main function may recurse; helpers are plain formulas");
+      }
+      if (s == 0) {
+        s = 1;
+        stack.push_back({c.callee, 0});
+      }
+    }
+  }
+  // The deepest callee of each helper, to name the chain in an error.
+  std::map<const Function*, const Expr*> deepest;
+  for (const Function* f : order) {
+    Function& h = helpers.at(f->name);
+    Inlined total;
+    for (const CaseLine* line : h.lines_in_order()) {
+      for (const ExprPtr& part : {line->condition, line->body}) {
         if (!part) continue;
-        for (const auto& [other, _] : helpers) {
-          std::vector<const Expr*> calls;
-          collect_calls(part, other, calls);
-          if (calls.empty()) continue;
-          if (state[other] == 1) {
-            fail_at(source, calls.front()->pos,
-                    "helper '" + other +
-                        "' is used recursively (recursion among helpers, or "
-                        "mutual recursion, is not supported)",
-                    "only the main function may recurse; helpers are plain formulas");
-          }
-          if (state[other] == 0) visit(other);
+        Inlined m = measure_inlined(*part, helpers);
+        total.size = saturating_add(total.size, m.size);
+        if (m.depth > total.depth) {
+          total.depth = m.depth;
+          total.deepest_call = m.deepest_call;
         }
       }
     }
-    state[name] = 2;
-  };
-  for (const auto& [name, _] : helpers) {
-    if (state[name] == 0) visit(name);
+    // Saturate too: a long chain would otherwise add up without bound.
+    h.inlined_depth = std::min<size_t>(total.depth, 4 * kMaxTreeDepth);
+    h.inlined_size = total.size;
+    deepest[f] = total.deepest_call;
+  }
+  // The first line, in the order written, whose helper calls nest too deep.
+  std::vector<const CaseLine*> lines = r.main.lines_in_order();
+  for (const auto& [name, h] : helpers) {
+    for (const CaseLine* line : h.lines_in_order()) lines.push_back(line);
+  }
+  std::sort(lines.begin(), lines.end(),
+            [](const CaseLine* a, const CaseLine* b) { return a->pos < b->pos; });
+  for (const CaseLine* line : lines) {
+    for (const ExprPtr& part : {line->condition, line->body}) {
+      if (!part) continue;
+      Inlined m = measure_inlined(*part, helpers);
+      if (m.depth <= kMaxTreeDepth || m.deepest_call == nullptr) continue;
+      // Name the chain: the first few helpers, then the last.
+      std::vector<std::string> chain;
+      for (const Expr* call = m.deepest_call; call != nullptr;) {
+        const Function* callee = &helpers.at(call->name);
+        chain.push_back(callee->name);
+        call = deepest[callee];
+      }
+      std::string names;
+      for (size_t i = 0; i < chain.size(); ++i) {
+        if (chain.size() > 5 && i >= 3 && i + 1 < chain.size()) {
+          if (i == 3) names += " → …";
+          continue;
+        }
+        names += (i == 0 ? "" : " → ") + chain[i];
+      }
+      size_t length = chain.size();
+      fail_at(source, m.deepest_call->pos,
+              "helper calls nest too deeply: " + names + " (" + std::to_string(length) +
+                  " helpers) reach more than " + std::to_string(kMaxTreeDepth) +
+                  " levels, counting each helper's own expression",
+              "a chain of helpers this long is a recurrence: write it as one recursive "
+              "function with a base case, or substitute helpers into their callers");
+    }
   }
 }
 
@@ -213,7 +380,8 @@ std::shared_ptr<const Recurrence> build_recurrence(const SourceText& source) {
         check_calls(*line->condition, source, r->main.name, r->helpers, true, true, false);
     }
   }
-  check_helper_cycles(r->helpers, source);
+  check_helpers(*r, source);
+  check_sum_variables(*r, source);
 
   // Record the recursive calls of each line; note base cases and floors.
   bool has_base = false;

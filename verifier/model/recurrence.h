@@ -4,6 +4,7 @@
 #ifndef THETAGATE_VERIFIER_MODEL_RECURRENCE_H_
 #define THETAGATE_VERIFIER_MODEL_RECURRENCE_H_
 
+#include <cstdint>
 #include <map>
 #include <memory>
 #include <optional>
@@ -31,11 +32,24 @@ struct Function {
   std::vector<CaseLine> conditional;  // then these, in the order written
   std::optional<CaseLine> fallback;   // then the line without a condition
   size_t pos = 0;
+  // Helpers only (build_recurrence fills them in): the levels of the
+  // deepest line with every helper call inlined (a call counts its
+  // argument's levels plus the callee's), at most kMaxTreeDepth; and the
+  // nodes of all lines so inlined (saturating at kInlinedSizeCap), which
+  // the derivation refuses to expand past kMaxInlinedHelperSize.
+  size_t inlined_depth = 0;
+  uint64_t inlined_size = 0;
 
   // The case line that applies at n is found by the evaluator (conditions
   // may need exact arithmetic); these are the lines in the order tried.
   std::vector<const CaseLine*> lines_in_order() const;
 };
+
+// Saturation point of Function::inlined_size (fan-out doubles it per level).
+inline constexpr uint64_t kInlinedSizeCap = uint64_t{1} << 40;
+// The largest inlined helper the derivation expands (classify, series):
+// 40 levels of f(n) = g(n) + g(n) would otherwise be 2^40 expansions.
+inline constexpr uint64_t kMaxInlinedHelperSize = 100'000;
 
 struct Recurrence {
   SourceText source;
@@ -56,7 +70,9 @@ struct Recurrence {
 
 // Parses and checks a recurrence. Throws InputError naming the offending
 // line and column: unknown functions, helpers that recurse or call the main
-// function, T inside T's argument, two default lines, duplicate points.
+// function, T inside T's argument, two default lines, duplicate points,
+// helper calls nested deeper than kMaxTreeDepth levels (counting each
+// helper's own expression), a sum variable named like a function.
 std::shared_ptr<const Recurrence> build_recurrence(const SourceText& source);
 
 // True when some call of the recursive function has a quotient that is not

@@ -324,6 +324,15 @@ bool free_bound(const Expr& e, std::vector<const std::string*>& bound) {
 }
 }  // namespace
 
+const Expr* find_sum_shadowing(const Expr& e,
+                               const std::function<bool(const std::string&)>& is_function) {
+  if (e.kind == ExprKind::kSum && is_function(e.name)) return &e;
+  for (const ExprPtr& a : e.args) {
+    if (const Expr* found = find_sum_shadowing(*a, is_function)) return found;
+  }
+  return nullptr;
+}
+
 bool has_free_bound(const Expr& e) {
   std::vector<const std::string*> bound;
   return free_bound(e, bound);

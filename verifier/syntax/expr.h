@@ -4,6 +4,7 @@
 #define THETAGATE_VERIFIER_SYNTAX_EXPR_H_
 
 #include <cstddef>
+#include <functional>
 #include <memory>
 #include <string>
 #include <vector>
@@ -97,6 +98,11 @@ bool contains_sum(const Expr& e);
 // True if `e` uses a bound variable that no sum inside `e` binds (a body
 // that depends on an outer sum's variable).
 bool has_free_bound(const Expr& e);
+// The first sum node in `e` (outermost, left to right) whose variable is
+// named like a function for which is_function holds, or null: such a
+// variable would shadow the function inside the sum's body.
+const Expr* find_sum_shadowing(const Expr& e,
+                               const std::function<bool(const std::string&)>& is_function);
 // True if the body of the sum node `sum` depends on its own variable only
 // (not on n, not on an outer sum's variable): its partial sums can be kept.
 bool sum_body_closed(const Expr& sum);

@@ -80,18 +80,26 @@ ExprPtr Parser::bounded(ExprPtr e) const {
   return e;
 }
 
+// One level per recursion of the parser: a parenthesis (or argument list,
+// or sum), a prefix '-', '+' or 'not', a power's exponent, a prefix function
+// (lg lg n). So kMaxTreeDepth nested parentheses parse, as
+// docs/decisions.md promises, and any deeper input is a located error
+// before the stack grows further.
 class Parser::Nesting {
  public:
   explicit Nesting(Parser& p) : parser_(p) {
     if (++parser_.depth_ > kMaxDepth) {
       parser_.fail(parser_.peek(), "the expression is nested too deeply",
-                   "more than " + std::to_string(kMaxDepth) + " levels of nesting; simplify it");
+                   "more than " + std::to_string(kMaxTreeDepth) +
+                       " levels of parentheses and prefix operators; simplify it");
     }
   }
   ~Nesting() { --parser_.depth_; }
 
  private:
-  static constexpr int kMaxDepth = 400;
+  // The margin is for the levels around the expression itself (a call's
+  // argument list, the line's own value).
+  static constexpr int kMaxDepth = static_cast<int>(kMaxTreeDepth) + 16;
   Parser& parser_;
 };
 
@@ -193,8 +201,8 @@ ExprPtr Parser::parse_and() {
 }
 
 ExprPtr Parser::parse_not() {
-  Nesting guard(*this);
   if (at_name("not")) {
+    Nesting guard(*this);
     const Token& op = next();
     return bounded(make_unary(ExprKind::kNot, parse_not(), op.pos));
   }
@@ -235,12 +243,13 @@ ExprPtr Parser::parse_product() {
 }
 
 ExprPtr Parser::parse_unary() {
-  Nesting guard(*this);
   if (at(TokenKind::kMinus)) {
+    Nesting guard(*this);
     const Token& op = next();
     return bounded(make_unary(ExprKind::kNeg, parse_unary(), op.pos));
   }
   if (at(TokenKind::kPlus)) {
+    Nesting guard(*this);
     next();
     return parse_unary();
   }
@@ -277,9 +286,9 @@ ExprPtr Parser::parse_juxtaposition() {
 }
 
 ExprPtr Parser::parse_power() {
-  Nesting guard(*this);
   ExprPtr base = parse_atom();
   if (at(TokenKind::kCaret)) {
+    Nesting guard(*this);
     const Token& op = next();
     return bounded(make_binary(ExprKind::kPow, base, parse_exponent(), op.pos));
   }
@@ -287,8 +296,8 @@ ExprPtr Parser::parse_power() {
 }
 
 ExprPtr Parser::parse_exponent() {
-  Nesting guard(*this);
   if (at(TokenKind::kMinus)) {
+    Nesting guard(*this);
     const Token& op = next();
     return bounded(make_unary(ExprKind::kNeg, parse_exponent(), op.pos));
   }
@@ -422,6 +431,7 @@ ExprPtr Parser::parse_sum_form(const Token& name) {
 
 // lg n, lg^2 n, lg lg n, sqrt n, √n, and lg(n) as an ordinary call.
 ExprPtr Parser::parse_prefix_function(const Token& name) {
+  Nesting guard(*this);  // lg lg lg n, lg^lg^... n recurse without parentheses
   std::string function = name.kind == TokenKind::kSqrt ? "sqrt" : name.text;
   if (name.kind == TokenKind::kSqrt) next();
   ExprPtr exponent;
