@@ -42,6 +42,7 @@ struct CheckArguments {
   std::optional<double> clock_limit;
   uint64_t memory_mib = 2048;
   std::string costs_root;
+  bool format_given = false;  // --format was on the command line
 };
 
 uint64_t parse_seed(const std::string& text) {
@@ -53,6 +54,48 @@ uint64_t parse_seed(const std::string& text) {
   uint64_t seed = std::stoull(text, &used);
   if (used != text.size() || text.empty() || text[0] == '-') throw std::invalid_argument(text);
   return seed;
+}
+
+// The summary line of a text report, for the log when reports go to files.
+std::string summary_line(const Report& report) {
+  size_t count[4] = {0, 0, 0, 0};
+  for (const ClaimResult& c : report.claims()) ++count[static_cast<size_t>(c.verdict)];
+  size_t total = report.claims().size();
+  return std::to_string(total) + (total == 1 ? " claim: " : " claims: ") +
+         std::to_string(count[0]) + " holds, " + std::to_string(count[1]) + " refuted, " +
+         std::to_string(count[2]) + " undecided, " + std::to_string(count[3]) +
+         (count[3] == 1 ? " error\n" : " errors\n");
+}
+
+// Whether --out names a folder: an existing one, or a path ending in '/'.
+bool out_is_folder_path(const std::string& out) {
+  std::error_code ec;
+  return out.back() == '/' || std::filesystem::is_directory(out, ec);
+}
+
+// The format a report file's extension names, if it names one.
+std::optional<Format> format_of_extension(const std::string& path) {
+  std::string extension = std::filesystem::path(path).extension().string();
+  for (char& c : extension) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  if (extension == ".txt") return Format::kText;
+  if (extension == ".json") return Format::kJson;
+  if (extension == ".xml") return Format::kJunit;
+  if (extension == ".html" || extension == ".htm") return Format::kHtml;
+  return std::nullopt;
+}
+
+const char* format_name(Format format) {
+  switch (format) {
+    case Format::kJson:
+      return "json";
+    case Format::kJunit:
+      return "junit";
+    case Format::kHtml:
+      return "html";
+    case Format::kText:
+      break;
+  }
+  return "text";
 }
 
 Format format_of(const std::string& name) {
@@ -136,12 +179,35 @@ int run_check(const CheckArguments& args) {
     return kExitBadInput;
   }
   std::optional<Report> baseline;
-  if (!args.baseline.empty()) baseline = read_json_report_file(args.baseline);
+  if (!args.baseline.empty()) {
+    // The first night has no last night: a baseline that does not exist yet
+    // is a note, and drift has nothing to fail on. One that exists but cannot
+    // be read (a folder, a cut file, not a report) is still an error.
+    std::error_code ec;
+    if (std::filesystem::symlink_status(args.baseline, ec).type() ==
+        std::filesystem::file_type::not_found) {
+      std::cerr << "thetagate: no baseline yet at '" << engine::escape_controls(args.baseline)
+                << "': this run becomes the first (nothing to compare, no drift)\n";
+    } else {
+      baseline = read_json_report_file(args.baseline);
+    }
+  }
+  Format format = format_of(args.format);
+  if (!args.out.empty() && !out_is_folder_path(args.out)) {
+    // --out FILE: the extension names the format; --format may only agree.
+    std::optional<Format> by_extension = format_of_extension(args.out);
+    if (by_extension && args.format_given && *by_extension != format) {
+      std::cerr << "thetagate: --out '" << engine::escape_controls(args.out)
+                << "' asks by its extension for the " << format_name(*by_extension)
+                << " format, but --format says " << args.format
+                << "\n  hint: drop --format (the extension decides), or change the extension\n";
+      return kExitBadInput;
+    }
+    if (by_extension) format = *by_extension;
+  }
   // Where the reports go is checked before any claim is: a bad --out must
   // not cost the run.
-  std::error_code ec;
-  bool out_is_folder =
-      !args.out.empty() && (args.out.back() == '/' || std::filesystem::is_directory(args.out, ec));
+  bool out_is_folder = !args.out.empty() && out_is_folder_path(args.out);
   if (!args.out.empty()) check_output_location(args.out, out_is_folder);
   CheckOptions options;
   try {
@@ -188,8 +254,9 @@ int run_check(const CheckArguments& args) {
                          render(report, format, render_options, changes_ptr));
     }
   } else {
-    render_options.colour = args.out.empty() && args.format == "text" && want_colour(STDOUT_FILENO);
-    std::string text = render(report, format_of(args.format), render_options, changes_ptr);
+    render_options.colour =
+        args.out.empty() && format == Format::kText && want_colour(STDOUT_FILENO);
+    std::string text = render(report, format, render_options, changes_ptr);
     if (args.out.empty()) {
       std::cout << text;
     } else {
@@ -199,6 +266,15 @@ int run_check(const CheckArguments& args) {
   if (std::string failure = write_files_whole(files); !failure.empty()) {
     std::cerr << "thetagate: " << engine::terminal_safe(failure) << '\n';
     return kExitBadInput;
+  }
+  bool to_a_device = args.out.rfind("/dev/", 0) == 0 || args.out.rfind("/proc/", 0) == 0;
+  if (!files.empty() && !to_a_device) {
+    // Reports went to files: the CI log still shows the outcome and where
+    // the reports are (not when "the file" is this very output).
+    std::cout << summary_line(report);
+    for (const auto& [path, text] : files) {
+      std::cout << "wrote " << engine::escape_controls(path) << '\n';
+    }
   }
   for (const ClaimResult& c : report.claims()) {
     if (c.internal_error.empty()) continue;
@@ -271,8 +347,9 @@ int main(int argc, char** argv) {
   check_command->add_option("--format", check.format, "report format: text, json, junit or html")
       ->check(CLI::IsMember({"text", "json", "junit", "html"}));
   check_command->add_option("--out", check.out,
-                            "write the report to FILE; to a folder (existing, or ending in '/'): "
-                            "every format at once");
+                            "write the report to FILE (.txt, .json, .xml or .html picks the "
+                            "format); to a folder (existing, or ending in '/'): every format at "
+                            "once");
   check_command->add_option("--seed", check.seed, "seed for random sizes: a number, or 'random'");
   check_command->add_option("--max-bits", check.max_bits, "largest size in bits (default 4096)")
       ->check(CLI::Range(1, 65536));
@@ -354,6 +431,7 @@ int main(int argc, char** argv) {
   }
   // The one place that maps outcomes to exit codes; nothing escapes main.
   try {
+    check.format_given = check_command->count("--format") > 0;
     if (*check_command) return run_check(check);
     if (*derive_command) return run_derive(recurrence_text, derive_format);
     if (*eval_command) return run_eval(recurrence_text, sizes);
