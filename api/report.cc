@@ -41,6 +41,11 @@ std::string render(const Report& report, Format format, const RenderOptions& opt
       return engine::render_junit(run, engine::JunitOptions{options.undecided_fails});
     case Format::kHtml:
       return engine::render_html(run);
+    case Format::kBrief: {
+      engine::TextStyle style;
+      style.colour = options.colour;
+      return engine::render_brief(run, style);
+    }
     case Format::kText:
       break;
   }

@@ -43,7 +43,61 @@ struct CheckArguments {
   uint64_t memory_mib = 2048;
   std::string costs_root;
   bool format_given = false;  // --format was on the command line
+  bool brief = false;
+  std::string recurrence;      // a claim given on the command line: --recurrence,
+  std::string bound;           // --bound and
+  std::string name = "claim";  // --name
 };
+
+// Standard input holds at most a claim file's worth.
+constexpr size_t kMaxStdinBytes = size_t{16} << 20;
+
+// The claims a check run reads: files and folders, '-' for a claim file on
+// standard input, or one claim given with --recurrence and --bound.
+std::vector<Claim> claims_of(const CheckArguments& args) {
+  if (!args.recurrence.empty() || !args.bound.empty()) {
+    ClaimSettings settings;
+    // A reviewer pastes the right-hand side as often as the whole line:
+    // "2T(n/2) + n lg n; T(1) = 1" means T(n) = 2T(n/2) + n lg n.
+    std::string recurrence = args.recurrence;
+    size_t first_end = recurrence.find_first_of(";\n");
+    if (recurrence.substr(0, first_end).find('=') == std::string::npos) {
+      recurrence = "T(n) = " + recurrence;
+    }
+    return {Claim::from_text(args.name, recurrence, args.bound, settings)};
+  }
+  std::vector<std::string> paths =
+      args.paths.empty() ? std::vector<std::string>{"claims"} : args.paths;
+  std::vector<Claim> claims;
+  std::vector<std::string> files;
+  auto flush_files = [&] {
+    if (files.empty()) return;
+    std::vector<Claim> loaded = load_claims(files);
+    claims.insert(claims.end(), loaded.begin(), loaded.end());
+    files.clear();
+  };
+  for (const std::string& path : paths) {
+    if (path != "-") {
+      files.push_back(path);
+      continue;
+    }
+    flush_files();
+    std::string text;
+    char buffer[65536];
+    while (std::cin.read(buffer, sizeof buffer) || std::cin.gcount() > 0) {
+      text.append(buffer, static_cast<size_t>(std::cin.gcount()));
+      if (text.size() > kMaxStdinBytes) {
+        throw InputError(Diagnostic{Location{"<stdin>", 1, 1},
+                                    "standard input holds more than 16 MiB",
+                                    "a claim file is a few kilobytes; give a file instead", ""});
+      }
+    }
+    std::vector<Claim> loaded = load_claims_from_text(text, "<stdin>");
+    claims.insert(claims.end(), loaded.begin(), loaded.end());
+  }
+  flush_files();
+  return claims;
+}
 
 uint64_t parse_seed(const std::string& text) {
   if (text == "random") {
@@ -92,6 +146,8 @@ const char* format_name(Format format) {
       return "junit";
     case Format::kHtml:
       return "html";
+    case Format::kBrief:
+      return "brief";
     case Format::kText:
       break;
   }
@@ -192,7 +248,26 @@ int run_check(const CheckArguments& args) {
       baseline = read_json_report_file(args.baseline);
     }
   }
+  if (args.recurrence.empty() != args.bound.empty()) {
+    std::cerr << "thetagate: --recurrence and --bound go together\n  hint: thetagate check "
+                 "--recurrence 'T(n) = 2T(n/2) + n; T(1) = 0' --bound 'Theta(n lg n)'\n";
+    return kExitBadInput;
+  }
+  if (!args.recurrence.empty() && !args.paths.empty()) {
+    std::cerr << "thetagate: a claim given with --recurrence and --bound is checked alone\n"
+                 "  hint: drop the paths, or put the claim into a claim file\n";
+    return kExitBadInput;
+  }
   Format format = format_of(args.format);
+  // One claim on the command line is a reviewer's question: one line answers
+  // it, unless a format was asked for.
+  if (args.brief || (!args.recurrence.empty() && !args.format_given)) {
+    if (args.format_given && format != Format::kText) {
+      std::cerr << "thetagate: --brief is a text report; --format says " << args.format << "\n";
+      return kExitBadInput;
+    }
+    format = Format::kBrief;
+  }
   if (!args.out.empty() && !out_is_folder_path(args.out)) {
     // --out FILE: the extension names the format; --format may only agree.
     std::optional<Format> by_extension = format_of_extension(args.out);
@@ -234,9 +309,7 @@ int run_check(const CheckArguments& args) {
   options.progress = [&progress](size_t done, size_t total, const std::string& name) {
     progress.update(done, total, name);
   };
-  std::vector<std::string> paths =
-      args.paths.empty() ? std::vector<std::string>{"claims"} : args.paths;
-  Report report = check(select_claims(load_claims(paths), args.claims), options);
+  Report report = check(select_claims(claims_of(args), args.claims), options);
   std::optional<BaselineChanges> changes;
   if (baseline) changes = compare_with_baseline(*baseline, report);
   const BaselineChanges* changes_ptr = changes ? &*changes : nullptr;
@@ -254,8 +327,9 @@ int run_check(const CheckArguments& args) {
                          render(report, format, render_options, changes_ptr));
     }
   } else {
-    render_options.colour =
-        args.out.empty() && format == Format::kText && want_colour(STDOUT_FILENO);
+    render_options.colour = args.out.empty() &&
+                            (format == Format::kText || format == Format::kBrief) &&
+                            want_colour(STDOUT_FILENO);
     std::string text = render(report, format, render_options, changes_ptr);
     if (args.out.empty()) {
       std::cout << text;
@@ -343,7 +417,18 @@ int main(int argc, char** argv) {
   CheckArguments check;
   auto* check_command =
       app.add_subcommand("check", "check the claims in files or folders (default: claims/)");
-  check_command->add_option("paths", check.paths, "claim files (.toml) or folders");
+  check_command->add_option("paths", check.paths,
+                            "claim files (.toml) or folders; '-' reads a claim file from standard "
+                            "input");
+  check_command->add_option("--recurrence", check.recurrence,
+                            "check one claim given here: its recurrence ('; ' separates lines), "
+                            "with --bound; prints the brief report unless --format is given");
+  check_command->add_option("--bound", check.bound,
+                            "the claimed bound of --recurrence: 'Theta(n lg n)', "
+                            "'T(n) <= 2 n lg n for n >= 2'");
+  check_command->add_option("--name", check.name, "the name of the --recurrence claim");
+  check_command->add_flag("--brief", check.brief,
+                          "one line per claim (its proof or first witness), then the summary");
   check_command->add_option("--format", check.format, "report format: text, json, junit or html")
       ->check(CLI::IsMember({"text", "json", "junit", "html"}));
   check_command->add_option("--out", check.out,

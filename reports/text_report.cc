@@ -310,6 +310,39 @@ std::string render_text(const RunResult& raw_run, const TextStyle& style) {
   return terminal_safe(out, style.colour);
 }
 
+std::string render_brief(const RunResult& raw_run, const TextStyle& style) {
+  RunResult run = raw_run;
+  for (ClaimResult& c : run.claims) c.name = escape_controls(c.name);
+  Painter painter(style);
+  int name_column = 0;
+  for (const ClaimResult& c : run.claims) {
+    name_column = std::max(name_column, std::min(display_width(c.name), kMaxNameColumn));
+  }
+  std::string out;
+  for (const ClaimResult& c : run.claims) {
+    std::string line = claim_line(c, name_column, painter);
+    line.pop_back();  // the newline
+    if (c.verdict == Verdict::kError && c.error) {
+      line += " \u00b7 " + c.error->where.file + ":" + std::to_string(c.error->where.line) + ":" +
+              std::to_string(c.error->where.column) + ": " + c.error->message;
+    } else if (c.verdict != Verdict::kHolds && !c.witnesses.empty()) {
+      const Witness& w = c.witnesses.front();
+      line +=
+          " \u00b7 witness n = " + short_decimal(w.n) + ": T(n)/g(n) = " + format_ratio(w.ratio);
+    } else if (c.verdict != Verdict::kHolds) {
+      // The first clause of why: the whole story is in the full report.
+      std::string why = verdict_message(c);
+      size_t end = why.find_first_of(":;(");
+      if (end != std::string::npos) why.resize(end);
+      while (!why.empty() && why.back() == ' ') why.pop_back();
+      if (!why.empty()) line += " \u00b7 " + why;
+    }
+    out += line + "\n";
+  }
+  out += summary_line(run);
+  return terminal_safe(out, style.colour);
+}
+
 bool want_colour(int fd) {
   const char* no_colour = std::getenv("NO_COLOR");
   if (no_colour != nullptr && no_colour[0] != '\0') return false;

@@ -26,6 +26,13 @@ struct TextStyle {
 // JUnit writers keep every digit.
 std::string render_text(const RunResult& run, const TextStyle& style);
 
+// The brief report: one line per claim (its verdict line, and for a claim
+// that did not hold the first witness, or the first clause of why), then the
+// summary line. For a reviewer pasting a bound into a pull request.
+//   refuted    <name>   claimed O(n) · derived Θ(n lg n) by master theorem · witness n = 2^19:
+//              T(n)/g(n) = 10.3
+std::string render_brief(const RunResult& run, const TextStyle& style);
+
 // True when output to `fd` should be coloured: `fd` is a terminal and the
 // NO_COLOR environment variable is unset or empty (no-color.org convention).
 bool want_colour(int fd);

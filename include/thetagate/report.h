@@ -23,6 +23,7 @@ enum class Format {
   kJson,   // for programs (docs/json-schema.md)
   kJunit,  // JUnit XML for CI systems
   kHtml,   // one self-contained page with SVG band plots
+  kBrief,  // for a person in a hurry: one line per claim (proof or first witness), the summary
 };
 
 struct RenderOptions {
