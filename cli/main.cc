@@ -413,6 +413,8 @@ int main(int argc, char** argv) {
   install_signal_handlers();
   CLI::App app{"thetagate: checks claimed complexity bounds of recurrences"};
   app.require_subcommand(1);
+  app.set_version_flag("--version", std::string("thetagate ") + version(),
+                       "print the version and exit");
 
   CheckArguments check;
   auto* check_command =

@@ -7,6 +7,7 @@
 #include <string>
 
 #include "tests/test_support.h"
+#include "thetagate/version.h"
 
 namespace {
 
@@ -86,6 +87,12 @@ TEST(ReviewCli, AClaimFileOnStandardInput) {
                                 std::string(THETAGATE_BINARY) + "' check -");
   EXPECT_EQ(bad.status, 2) << bad.out;
   EXPECT_NE(bad.out.find("<stdin>:2:"), std::string::npos) << bad.out;
+}
+
+TEST(ReviewCli, VersionPrintsTheLibrarysVersion) {
+  CommandResult r = tg("--version");
+  EXPECT_EQ(r.status, 0);
+  EXPECT_EQ(r.out, std::string("thetagate ") + THETAGATE_VERSION_STRING + "\n");
 }
 
 }  // namespace
