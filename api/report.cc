@@ -38,7 +38,9 @@ std::string render(const Report& report, Format format, const RenderOptions& opt
     case Format::kJson:
       return drift ? engine::render_json_with_drift(run, *drift) : engine::render_json(run);
     case Format::kJunit:
-      return engine::render_junit(run, engine::JunitOptions{options.undecided_fails});
+      return engine::render_junit(
+          run, engine::JunitOptions{options.undecided_fails,
+                                    options.drift_fails && drift ? drift : nullptr});
     case Format::kHtml:
       return engine::render_html(run);
     case Format::kBrief: {

@@ -316,6 +316,7 @@ int run_check(const CheckArguments& args) {
 
   RenderOptions render_options;
   render_options.undecided_fails = args.undecided_fails;
+  render_options.drift_fails = fail_on.drift;
   std::vector<std::pair<std::string, std::string>> files;
   if (out_is_folder) {
     const std::pair<Format, const char*> formats[] = {{Format::kText, "report.txt"},

@@ -156,6 +156,8 @@ std::string render_drift_text(const DriftReport& drift, const TextStyle& style) 
   return terminal_safe(s, style.colour);
 }
 
+std::string render_claim_drift_text(const ClaimDrift& d) { return claim_text(d, TextStyle{}); }
+
 std::string render_json_with_drift(const RunResult& run, const DriftReport& drift) {
   // Re-reading our own output keeps render_json the one writer of the claims;
   // ordered_json keeps the key order and doubles print back identically.

@@ -26,6 +26,10 @@ namespace thetagate::engine {
 //   new        orchard::sort / merges   claims/sorting.toml:30   refuted
 std::string render_drift_text(const DriftReport& drift, const TextStyle& style);
 
+// One claim's part of that section, without colour: its heading line and the
+// indented changes ("verdict holds → refuted", witnesses, band moves).
+std::string render_claim_drift_text(const ClaimDrift& d);
+
 // render_json(run) with one more top-level key, "drift", after "claims":
 //   {"baseline_seed", "claims_compared", "band_move_log2", "changed" (bool),
 //    "claims": [{"name", "file", "line", "change": "changed"|"new"|"lost",

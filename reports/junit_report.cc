@@ -6,6 +6,7 @@
 #include <cstdint>
 
 #include "reports/code_text.h"
+#include "reports/drift.h"
 #include "reports/number_text.h"
 #include "reports/verdict_text.h"
 #include "reports/xml_escape.h"
@@ -107,13 +108,48 @@ std::string system_out(const ClaimResult& c) {
   return "      <system-out>" + xml_escape_text(s) + "</system-out>\n";
 }
 
+// The drift of claim `c` when drift fails the run, else null.
+const ClaimDrift* drift_of(const ClaimResult& c, const JunitOptions& options) {
+  if (!options.drift_fails) return nullptr;
+  for (const ClaimDrift& d : options.drift_fails->claims) {
+    if (!d.is_lost() && d.name == c.name && d.file == c.file) return &d;
+  }
+  return nullptr;
+}
+
+// A claim that drifted and would otherwise pass (or be skipped) fails as
+// drift; a refuted one keeps its failure and says how it drifted.
+std::string drift_element(const ClaimResult& c, const ClaimDrift& d, const JunitOptions& options) {
+  std::string text = render_claim_drift_text(d);
+  if (c.verdict == Verdict::kRefuted || c.verdict == Verdict::kError ||
+      (c.verdict == Verdict::kUndecided && options.undecided_fails)) {
+    return "";
+  }
+  std::string message = "drifted from the baseline";
+  if (d.verdict_changed()) {
+    message += std::string(": verdict ") + verdict_name(*d.before) + " → " + verdict_name(*d.after);
+  } else if (d.is_new()) {
+    message += ": a new claim";
+  }
+  return "      <failure" + attr("message", message) + attr("type", "drift") + ">" +
+         xml_escape_text(text) + "</failure>\n";
+}
+
 struct Counts {
   size_t tests = 0, failures = 0, errors = 0, skipped = 0;
   void add(const ClaimResult& c, const JunitOptions& options) {
     ++tests;
+    bool drifted = drift_of(c, options) != nullptr;
     if (c.verdict == Verdict::kRefuted) ++failures;
     if (c.verdict == Verdict::kError) ++errors;
-    if (c.verdict == Verdict::kUndecided) ++(options.undecided_fails ? failures : skipped);
+    if (c.verdict == Verdict::kUndecided) {
+      ++(options.undecided_fails || drifted ? failures : skipped);
+    }
+    if (c.verdict == Verdict::kHolds && drifted) ++failures;
+  }
+  void add_lost() {
+    ++tests;
+    ++failures;
   }
   std::string attributes() const {
     return fmt::format(" tests=\"{}\" failures=\"{}\" errors=\"{}\" skipped=\"{}\"", tests,
@@ -133,6 +169,13 @@ std::string render_junit(const RunResult& run, const JunitOptions& options) {
   }
   Counts total;
   for (const ClaimResult& c : run.claims) total.add(c, options);
+  std::vector<const ClaimDrift*> lost;
+  if (options.drift_fails) {
+    for (const ClaimDrift& d : options.drift_fails->claims) {
+      if (d.is_lost()) lost.push_back(&d);
+    }
+  }
+  for (size_t i = 0; i < lost.size(); ++i) total.add_lost();
 
   std::string out = "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n";
   out += "<testsuites" + attr("name", "thetagate") + total.attributes() + ">\n";
@@ -150,12 +193,40 @@ std::string render_junit(const RunResult& run, const JunitOptions& options) {
       if (suite_name(c) != suite) continue;
       out += "    <testcase" + attr("name", c.name) + attr("classname", class_name(c.file));
       if (!c.file.empty()) out += attr("file", c.file) + attr("line", std::to_string(c.line));
-      std::string inner = outcome_element(c, options) + system_out(c);
+      const ClaimDrift* drift = drift_of(c, options);
+      std::string outcome = outcome_element(c, options);
+      if (drift) {
+        std::string as_drift = drift_element(c, *drift, options);
+        if (!as_drift.empty()) {
+          outcome = as_drift;
+        } else {
+          // Already failing: the drift goes with the failure's detail.
+          size_t close = outcome.rfind("</");
+          if (close != std::string::npos) {
+            outcome.insert(close, xml_escape_text("drift:\n" + render_claim_drift_text(*drift)));
+          }
+        }
+      }
+      std::string inner = outcome + system_out(c);
       if (inner.empty()) {
         out += "/>\n";
       } else {
         out += ">\n" + inner + "    </testcase>\n";
       }
+    }
+    out += "  </testsuite>\n";
+  }
+  if (!lost.empty()) {
+    // Claims the baseline had and this run has not: failing test cases, so
+    // the count of failures matches what made the run fail.
+    Counts counts;
+    for (size_t i = 0; i < lost.size(); ++i) counts.add_lost();
+    out += "  <testsuite" + attr("name", "lost since the baseline") + counts.attributes() + ">\n";
+    for (const ClaimDrift* d : lost) {
+      out += "    <testcase" + attr("name", d->name) + attr("classname", class_name(d->file)) +
+             attr("file", d->file) + attr("line", std::to_string(d->line)) + ">\n";
+      out += "      <failure" + attr("message", "lost since the baseline") + attr("type", "drift") +
+             ">" + xml_escape_text(render_claim_drift_text(*d)) + "</failure>\n    </testcase>\n";
     }
     out += "  </testsuite>\n";
   }

@@ -88,6 +88,31 @@ TEST(NightlyLoop, TheReadmeRecipeWorksFromTheFirstNightOn) {
   std::string text = read(dir / "nightly" / "report.txt");
   EXPECT_NE(text.find("drift against the baseline: 1 of 2 claims changed"), std::string::npos)
       << text;
+  // The CI's test view agrees with the exit code: the drifted claim is a
+  // failure in JUnit (it is refuted now, and says how it drifted).
+  std::string junit = read(dir / "nightly" / "report.junit.xml");
+  EXPECT_NE(junit.find("<testsuites name=\"thetagate\" tests=\"2\" failures=\"1\""),
+            std::string::npos)
+      << junit;
+  EXPECT_NE(junit.find("verdict holds → refuted"), std::string::npos) << junit;
+
+  // A drift-only night: the bound loosened (still holds), a claim renamed
+  // away (lost) and one added (new). Every change is a JUnit failure.
+  fs::copy_file(dir / "nightly" / "report.json", dir / "last" / "report.json",
+                fs::copy_options::overwrite_existing);
+  std::ofstream(dir / "claims" / "search.toml", std::ios::trunc)
+      << std::string(kHalving).replace(std::string(kHalving).find("Theta(lg n)"), 11, "O(n)");
+  std::ofstream(dir / "claims" / "sorting.toml", std::ios::trunc)
+      << std::string(kMerge).replace(std::string(kMerge).find("comparisons"), 11, "compares");
+  CommandResult fourth = run_shell(night);
+  EXPECT_EQ(fourth.status, 1) << fourth.out;
+  junit = read(dir / "nightly" / "report.junit.xml");
+  EXPECT_NE(junit.find("type=\"drift\""), std::string::npos) << junit;
+  EXPECT_NE(junit.find("<testsuite name=\"lost since the baseline\" tests=\"1\" "
+                       "failures=\"1\""),
+            std::string::npos)
+      << junit;
+  EXPECT_EQ(junit.find("failures=\"0\""), std::string::npos) << junit;
   fs::remove_all(dir);
 }
 

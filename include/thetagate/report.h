@@ -29,6 +29,9 @@ enum class Format {
 struct RenderOptions {
   bool colour = false;           // text: ANSI colour (see want_colour)
   bool undecided_fails = false;  // JUnit: undecided claims as failures, not skipped
+  // JUnit, with `changes`: drifted claims as failures (type "drift") and lost
+  // claims as failing test cases, as --fail-on drift fails the run.
+  bool drift_fails = false;
 };
 
 // What changed between a baseline run and this one: verdicts, new and lost
@@ -48,7 +51,8 @@ class THETAGATE_API BaselineChanges {
 
 // The report in `format`, ending with a newline. Deterministic: the same
 // report gives the same bytes. With `changes`, the text report gains a
-// section and the JSON report a "drift" key (the other formats ignore it).
+// section, the JSON report a "drift" key, and the JUnit report (with
+// RenderOptions::drift_fails) a failure per drifted or lost claim.
 THETAGATE_API std::string render(const Report& report, Format format,
                                  const RenderOptions& options = {},
                                  const BaselineChanges* changes = nullptr);
