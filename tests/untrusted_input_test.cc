@@ -349,5 +349,25 @@ TEST_F(UntrustedInput, CommentsAndSizeOrderDoNotChangeTheRows) {
   }
 }
 
+TEST_F(UntrustedInput, ACommaSeparatesSizeAndCostAsInACsvExport) {
+  write("repo/claims/costs/csv.txt", "n,comparisons\n");  // a header is not a measurement
+  ClaimResult header = check_one(claim_file("costs/csv.txt"));
+  ASSERT_EQ(header.verdict, Verdict::kError);
+  EXPECT_EQ(header.error->where.line, 1);
+  write("repo/claims/costs/csv.txt", "# n,comparisons\n4,5\n5, 8\n5 ,7\n");
+  ClaimResult r = check_one(claim_file("costs/csv.txt"));
+  EXPECT_EQ(r.verdict, Verdict::kHolds) << (r.error ? r.error->message : "");
+  ASSERT_TRUE(r.code.has_value());
+  EXPECT_EQ(r.code->measurements, 3u);
+  // A thousands separator is not a comma between fields: three fields.
+  write("repo/claims/costs/csv.txt", "1,024 9217\n");
+  ClaimResult thousands = check_one(claim_file("costs/csv.txt"));
+  ASSERT_EQ(thousands.verdict, Verdict::kError);
+  EXPECT_NE(thousands.error->message.find("more than two fields"), std::string::npos);
+  EXPECT_NE(thousands.error->hint.find("no thousands separators"), std::string::npos);
+  write("repo/claims/costs/csv.txt", "4,,5\n");
+  EXPECT_EQ(check_one(claim_file("costs/csv.txt")).verdict, Verdict::kError);
+}
+
 }  // namespace
 }  // namespace thetagate::engine

@@ -266,14 +266,25 @@ CodeResult check_costs_text(const Claim& claim, std::string bytes) {
     // (a search to the end of the file for every line was quadratic).
     size_t hash = std::string_view(text).substr(line_start, content_end - line_start).find('#');
     if (hash != std::string_view::npos) content_end = line_start + hash;
+    // Fields are separated by spaces, tabs, or one comma (a CSV export:
+    // "1024,9217" or "1024, 9217").
     std::vector<Field> fields;
     size_t i = line_start;
+    auto blank = [&](size_t k) { return text[k] == ' ' || text[k] == '\t'; };
+    bool after_comma = false;
     while (i < content_end) {
-      while (i < content_end && (text[i] == ' ' || text[i] == '\t')) ++i;
+      while (i < content_end && blank(i)) ++i;
       if (i >= content_end) break;
+      if (text[i] == ',' && !fields.empty() && !after_comma) {
+        after_comma = true;
+        ++i;
+        continue;
+      }
       size_t begin = i;
-      while (i < content_end && text[i] != ' ' && text[i] != '\t') ++i;
+      while (i < content_end && !blank(i) && text[i] != ',') ++i;
+      if (i == begin) ++i;  // a stray comma: a field of its own, reported below
       fields.push_back({begin, i});
+      after_comma = false;
     }
     if (!fields.empty()) {
       if (fields.size() == 1) {
@@ -281,7 +292,9 @@ CodeResult check_costs_text(const Claim& claim, std::string bytes) {
       }
       if (fields.size() > 2) {
         fail_line(file, fields[2].begin, "more than two fields on a line",
-                  kHint + "; comments start with '#'");
+                  kHint +
+                      " (or \"1024,9217\"); no thousands separators; comments start "
+                      "with '#'");
       }
       BigInt values[2];
       for (int f = 0; f < 2; ++f) {
