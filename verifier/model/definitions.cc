@@ -35,11 +35,15 @@ Definition parse_line(Parser& p) {
            "the left side is " + name.text + "(n) or " + name.text + "(1)");
   p.expect(TokenKind::kAssign, "'='", "a definition reads " + name.text + "(n) = EXPRESSION");
   d.body = p.parse_value();
-  p.accept(TokenKind::kComma);
+  bool comma = p.accept(TokenKind::kComma);
   if (p.accept_name("if") || p.accept_name("when") || p.accept_name("for")) {
     d.condition = p.parse_condition();
   } else if (p.accept_name("otherwise")) {
     d.otherwise = true;
+  } else if (comma && p.at(TokenKind::kName) && p.peek(1).kind == TokenKind::kLeftParen) {
+    // "T(1) = 1, T(2) = 3": base cases listed with commas, as people write
+    // them; the comma ends this definition like ';'.
+    return d;
   }
   if (!p.at_line_end()) {
     p.fail_expected("the end of the definition",

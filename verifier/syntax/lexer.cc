@@ -19,6 +19,7 @@ struct Spelling {
 
 // Longest spellings first so "<=" wins over "<".
 const Spelling kSpellings[] = {
+    {"**", TokenKind::kCaret, nullptr},  // a power, as several languages write it
     {"==", TokenKind::kEqual, nullptr},         {"!=", TokenKind::kNotEqual, nullptr},
     {"<=", TokenKind::kLessEqual, nullptr},     {">=", TokenKind::kGreaterEqual, nullptr},
     {"\u2264", TokenKind::kLessEqual, nullptr}, {"\u2265", TokenKind::kGreaterEqual, nullptr},

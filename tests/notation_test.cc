@@ -1,0 +1,56 @@
+// Notation people already write (issue "Each user's first ten minutes", §2):
+// base cases listed with commas, and ** for a power. Each reads exactly as
+// the canonical form does, so printing and parsing again is unchanged.
+#include <gtest/gtest.h>
+
+#include "verifier/model/recurrence.h"
+#include "verifier/syntax/expr.h"
+#include "verifier/syntax/parser.h"
+
+namespace thetagate::engine {
+namespace {
+
+std::string printed(const std::string& text) {
+  SourceText source = SourceText::whole("<recurrence>", text);
+  std::shared_ptr<const Recurrence> r = build_recurrence(source);
+  std::string out;
+  for (const CaseLine& line : r->main.points)
+    out += print(*line.body) + " @" + line.point->str() + ";";
+  for (const CaseLine& line : r->main.conditional) {
+    out += print(*line.body) + " if " + print(*line.condition) + ";";
+  }
+  if (r->main.fallback) out += print(*r->main.fallback->body) + ";";
+  return out;
+}
+
+TEST(Notation, BaseCasesMayBeListedWithCommas) {
+  EXPECT_EQ(printed("T(n) = 2T(n/2) + n, T(1) = 1, T(2) = 3"),
+            printed("T(n) = 2T(n/2) + n; T(1) = 1; T(2) = 3"));
+  EXPECT_EQ(printed("T(n) = T(n - 1) + n; T(1) = 1, T(2) = 3"),
+            printed("T(n) = T(n - 1) + n\nT(1) = 1\nT(2) = 3"));
+  // A comma before a condition keeps its old meaning.
+  EXPECT_EQ(printed("T(n) = 1, if n < 2; T(n) = T(n/2) + 1, otherwise"),
+            printed("T(n) = 1 if n < 2; T(n) = T(n/2) + 1 otherwise"));
+  // Commas inside calls are arguments, not line ends.
+  EXPECT_EQ(printed("T(n) = T(n/2) + log(2, n), T(1) = 1"),
+            printed("T(n) = T(n/2) + log(2, n); T(1) = 1"));
+}
+
+TEST(Notation, DoubleStarIsAPower) {
+  for (const char* text : {"n**2", "2**n", "n**(1/2) lg n", "2 ** (n - 1)"}) {
+    SCOPED_TRACE(text);
+    std::string caret = text;
+    for (size_t at = caret.find("**"); at != std::string::npos; at = caret.find("**"))
+      caret.replace(at, 2, "^");
+    ExprPtr a = parse_expression(SourceText::whole("<e>", text));
+    ExprPtr b = parse_expression(SourceText::whole("<e>", caret));
+    EXPECT_EQ(print(*a), print(*b));
+    // parse(print(x)) == print(x): the printer writes ^, which reads back.
+    EXPECT_EQ(print(*parse_expression(SourceText::whole("<e>", print(*a)))), print(*a));
+  }
+  // n * *2 is still an error, not a power.
+  EXPECT_THROW(parse_expression(SourceText::whole("<e>", "n * *2")), InputError);
+}
+
+}  // namespace
+}  // namespace thetagate::engine
