@@ -3,6 +3,7 @@
 // the canonical form does, so printing and parsing again is unchanged.
 #include <gtest/gtest.h>
 
+#include "verifier/model/bound.h"
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/expr.h"
 #include "verifier/syntax/parser.h"
@@ -50,6 +51,20 @@ TEST(Notation, DoubleStarIsAPower) {
   }
   // n * *2 is still an error, not a power.
   EXPECT_THROW(parse_expression(SourceText::whole("<e>", "n * *2")), InputError);
+}
+
+TEST(Notation, LogWithoutABaseIsLgWhereOnlyTheClassMatters) {
+  Bound b = parse_bound(SourceText::whole("<bound>", "O(n log n)"));
+  EXPECT_EQ(print(*b.growth),
+            print(*parse_bound(SourceText::whole("<bound>", "O(n lg n)")).growth));
+  ASSERT_EQ(b.notes.size(), 1u);
+  EXPECT_NE(b.notes[0].find("read as lg"), std::string::npos);
+  EXPECT_TRUE(parse_bound(SourceText::whole("<bound>", "Theta(n lg n)")).notes.empty());
+  // log(b, x) keeps its base; in an exact context a bare log is still an error.
+  EXPECT_TRUE(parse_bound(SourceText::whole("<bound>", "Theta(log(3, n))")).notes.empty());
+  EXPECT_THROW(parse_bound(SourceText::whole("<bound>", "T(n) <= n log n")), InputError);
+  EXPECT_THROW(build_recurrence(SourceText::whole("<recurrence>", "T(n) = T(n/2) + log n")),
+               InputError);
 }
 
 }  // namespace

@@ -388,7 +388,8 @@ TEST(ParserDiagnostic, LogWithoutBase) {
             "<recurrence>:1:20: error: 'log' needs its base\n"
             "T(n) = 2T(n/2) + n log n\n"
             "                   ^\n"
-            "  hint: write lg n (base 2), ln n (base e) or log(b, n)");
+            "  hint: write lg n (base 2), ln n (base e) or log(b, n); inside Theta(...), O(...) "
+            "or Omega(...) the base does not matter and log n is read as lg n");
 }
 
 TEST(ParserDiagnostic, EmptyRecurrence) {

@@ -101,6 +101,7 @@ ClaimResult check_one_reading(const Claim& claim, const CheckOptions& options) {
   result.claimed = claim.bound.text();
   result.note = claim.note;
   result.notes = claim.recurrence->notes;
+  result.notes.insert(result.notes.end(), claim.bound.notes.begin(), claim.bound.notes.end());
   try {
     checker_internal::ClaimCheck(claim, options, result).run();
   } catch (const InputError& e) {

@@ -33,7 +33,12 @@ Bound parse_asymptotic(Parser& p, const SourceText& source) {
                             : (name.text == "Omega" ? BoundKind::kOmega : BoundKind::kTheta);
   p.expect(TokenKind::kLeftParen, "'(' after '" + name.text + "'",
            "write " + name.text + "(n lg n)");
+  p.read_unbased_log_as_lg();
   b.growth = p.parse_value();
+  if (p.unbased_logs() > 0) {
+    b.notes.push_back("log without a base in " + name.text +
+                      "(...) is read as lg: the base changes a constant factor only");
+  }
   p.expect(TokenKind::kRightParen, "')'", "close the class: " + name.text + "(...)");
   while (p.accept(TokenKind::kNewline)) {
   }

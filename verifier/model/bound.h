@@ -5,6 +5,7 @@
 #define THETAGATE_VERIFIER_MODEL_BOUND_H_
 
 #include <string>
+#include <vector>
 
 #include "verifier/syntax/expr.h"
 #include "verifier/syntax/source.h"
@@ -24,6 +25,9 @@ struct Bound {
   bool strict_lower = false;  // lower < T(n)
   bool strict_upper = false;  // T(n) < upper
   BigInt n0 = 1;
+
+  // Readings the reader should know of ("log n without a base read as lg n").
+  std::vector<std::string> notes;
 
   bool is_asymptotic() const { return kind != BoundKind::kExplicit; }
   // "Θ(n lg n)"-style text as written by the user (trimmed).

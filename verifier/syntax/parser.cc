@@ -433,6 +433,10 @@ ExprPtr Parser::parse_sum_form(const Token& name) {
 ExprPtr Parser::parse_prefix_function(const Token& name) {
   Nesting guard(*this);  // lg lg lg n, lg^lg^... n recurse without parentheses
   std::string function = name.kind == TokenKind::kSqrt ? "sqrt" : name.text;
+  if (function == "log" && unbased_log_ok_ && !at(TokenKind::kLeftParen)) {
+    function = "lg";
+    ++unbased_logs_;
+  }
   if (name.kind == TokenKind::kSqrt) next();
   ExprPtr exponent;
   if (at(TokenKind::kCaret) && function != "sqrt") {
@@ -446,7 +450,9 @@ ExprPtr Parser::parse_prefix_function(const Token& name) {
     result = bounded(make_call(function, parse_arguments(call_name), name.pos));
   } else {
     if (function == "log") {
-      fail(name, "'log' needs its base", "write lg n (base 2), ln n (base e) or log(b, n)");
+      fail(name, "'log' needs its base",
+           "write lg n (base 2), ln n (base e) or log(b, n); inside Theta(...), O(...) or "
+           "Omega(...) the base does not matter and log n is read as lg n");
     }
     if (!starts_atom(peek()) && !at(TokenKind::kNumber)) {
       fail_expected("the argument of '" + function + "'", "for example " + function + " n");

@@ -45,6 +45,12 @@ class Parser {
   // An additive-level value (no comparisons), for bound sides.
   ExprPtr parse_sum();
 
+  // Where only a growth class matters (inside Theta/O/Omega), `log n`
+  // without a base is read as lg n: the base changes a constant factor only.
+  // Counts how often that happened, for a note.
+  void read_unbased_log_as_lg() { unbased_log_ok_ = true; }
+  int unbased_logs() const { return unbased_logs_; }
+
   [[noreturn]] void fail(const Token& at, std::string message, std::string hint = "") const;
   [[noreturn]] void fail_expected(const std::string& what, const std::string& hint = "") const;
 
@@ -75,6 +81,8 @@ class Parser {
   size_t cursor_ = 0;
   int depth_ = 0;
   std::vector<std::string> bound_;  // variables of the enclosing sums, innermost last
+  bool unbased_log_ok_ = false;
+  int unbased_logs_ = 0;
 };
 
 // Words that end an expression and are never names: if, otherwise, and, or,
