@@ -4,6 +4,8 @@
 
 #include <cstdint>
 
+#include "verifier/syntax/terminal_text.h"
+
 namespace thetagate::engine {
 
 namespace {
@@ -37,10 +39,10 @@ uint32_t code_point(const std::string& text, size_t i, size_t length) {
   return cp;
 }
 
+// C1 controls and bidirectional overrides (terminal_text's list; the C0
+// controls are handled by allowed_sequence).
 bool is_invisible_control(const std::string& text, size_t i, size_t length) {
-  uint32_t cp = code_point(text, i, length);
-  return (cp >= 0x80 && cp <= 0x9F) || (cp >= 0x202A && cp <= 0x202E) ||
-         (cp >= 0x2066 && cp <= 0x2069);
+  return is_control_code_point(code_point(text, i, length));
 }
 
 std::string escape(const std::string& text, bool attribute) {

@@ -43,11 +43,6 @@ size_t utf8_sequence(const std::string& s, size_t i, uint32_t& cp) {
   return length;
 }
 
-bool is_control_code_point(uint32_t cp) {
-  return cp < 0x20 || cp == 0x7F || (cp >= 0x80 && cp <= 0x9F) || (cp >= 0x202A && cp <= 0x202E) ||
-         (cp >= 0x2066 && cp <= 0x2069);
-}
-
 // The length of a colour sequence ESC [ (digits | ;)* m at s[i], or 0.
 size_t colour_sequence(const std::string& s, size_t i) {
   if (i + 2 >= s.size() || s[i] != '\x1b' || s[i + 1] != '[') return 0;
@@ -90,6 +85,11 @@ std::string escape(const std::string& s, bool keep_lines, bool keep_colour) {
 }
 
 }  // namespace
+
+bool is_control_code_point(uint32_t cp) {
+  return cp < 0x20 || cp == 0x7F || (cp >= 0x80 && cp <= 0x9F) || (cp >= 0x202A && cp <= 0x202E) ||
+         (cp >= 0x2066 && cp <= 0x2069);
+}
 
 std::string escape_controls(const std::string& s) {
   if (is_plain_text(s)) return s;

@@ -8,6 +8,7 @@
 #ifndef THETAGATE_VERIFIER_SYNTAX_TERMINAL_TEXT_H_
 #define THETAGATE_VERIFIER_SYNTAX_TERMINAL_TEXT_H_
 
+#include <cstdint>
 #include <string>
 
 namespace thetagate::engine {
@@ -38,6 +39,10 @@ std::string masked_line(const std::string& line);
 // UTF-8 in which these code points occur only inside strings (true of any
 // serialised JSON).
 std::string json_escape_controls(const std::string& json);
+
+// True for the code points escape_controls writes out: C0, DEL, C1 and the
+// bidirectional overrides and isolates. The one list every writer uses.
+bool is_control_code_point(uint32_t cp);
 
 // True when `s` holds no byte that escape_controls would write out.
 bool is_plain_text(const std::string& s);
