@@ -2,6 +2,8 @@
 
 #include <set>
 
+#include "verifier/syntax/large_stack.h"
+
 namespace thetagate::engine {
 
 namespace {
@@ -182,6 +184,17 @@ ExprPtr Parser::parse_sum() {
 }
 
 ExprPtr Parser::parse_or() {
+  // Every parenthesis, bracket and argument list comes through here. Past
+  // a shallow depth the rest of this subexpression moves to a stack of
+  // known size, so the promised depth parses whatever stack we were given.
+  if (depth_ == kLargeStackDepth && !on_large_stack_) {
+    on_large_stack_ = true;
+    struct Restore {
+      bool& flag;
+      ~Restore() { flag = false; }
+    } restore{on_large_stack_};
+    return on_large_stack([this] { return parse_or(); });
+  }
   Nesting guard(*this);
   ExprPtr left = parse_and();
   while (at_name("or")) {

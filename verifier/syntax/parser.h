@@ -80,6 +80,9 @@ class Parser {
   std::vector<Token> tokens_;
   size_t cursor_ = 0;
   int depth_ = 0;
+  // At this depth parsing continues on a large stack (large_stack.h).
+  static constexpr int kLargeStackDepth = 48;
+  bool on_large_stack_ = false;
   std::vector<std::string> bound_;  // variables of the enclosing sums, innermost last
   bool unbased_log_ok_ = false;
   int unbased_logs_ = 0;
