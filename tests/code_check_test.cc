@@ -240,5 +240,26 @@ TEST_F(CostsFile, EveryReportShowsTheMeasuredLink) {
   EXPECT_NE(html.find("class=\"counted broken\""), std::string::npos);
 }
 
+// Issue 22, case 16: a clock limit holds for the costs file too (its own
+// hang guard of 600 s applies only when no limit is given).
+TEST_F(CostsFile, AClockLimitHoldsForTheCostsFile) {
+  write("costs/long.txt", "3000000 3000000\n");
+  write("claims.toml",
+        "[[claim]]\nname = \"walk\"\nrecurrence = \"T(n) = T(n - 1) + 1; T(0) = 0\"\n"
+        "bound = \"Theta(n)\"\n[claim.code]\nmodel = \"exact\"\ncosts = \"costs/long.txt\"\n");
+  std::vector<ClaimEntry> entries = load_claim_file((dir_ / "claims.toml").string());
+  ASSERT_EQ(entries.size(), 1u);
+  ASSERT_TRUE(entries[0].claim.has_value());
+  try {
+    check_costs_file(*entries[0].claim, "", 1e-4);
+    ADD_FAILURE() << "three million steps finished within 0.1 ms";
+  } catch (const BudgetExceeded& e) {
+    EXPECT_NE(std::string(e.what()).find("time budget of 0.0001 s"), std::string::npos)
+        << e.what();
+  }
+  // Without a clock (0), only the work budgets apply: the same file passes.
+  EXPECT_TRUE(check_costs_file(*entries[0].claim, "", 0.0).violations.empty());
+}
+
 }  // namespace
 }  // namespace thetagate::engine

@@ -68,6 +68,15 @@ TEST(QueryBudget, NanMaxSecondsMeansNoClockNotUndefinedBehaviour) {
 
 namespace {
 
+// The public Evaluator renews its step budget (30 million) on every call:
+// two calls of 16 million new subproblems each pass, where one life-long
+// budget ran out in the second.
+TEST(PublicEvaluator, EveryCallGetsTheWholeStepBudget) {
+  thetagate::Evaluator ev(thetagate::Recurrence::parse("T(n) = T(n - 1) + 1; T(0) = 0"));
+  EXPECT_EQ(ev.value_at("16000000"), "16000000");
+  EXPECT_EQ(ev.value_at("32000000"), "32000000");
+}
+
 // Before: clock_limit = NaN passed the "not negative" test and was used.
 TEST(PublicCheckOptions, ClockLimitMustBeANumberOfSecondsInRange) {
   thetagate::Claim claim = thetagate::Claim::from_text(

@@ -167,14 +167,21 @@ ClaimResult check_model(const Claim& claim, const CheckOptions& options) {
 }  // namespace
 
 ClaimResult check_claim(const Claim& claim, const CheckOptions& options) {
+  auto start = std::chrono::steady_clock::now();
   ClaimResult result = check_model(claim, options);
   // Code -> model: a claim's measured costs, checked whatever the bound's
   // verdict (the report shows both links); an error in them is the claim's.
   if (result.verdict == Verdict::kError || !claim.code || claim.code->costs_path.empty()) {
     return result;
   }
+  // The costs file gets what the check of the bound left of a clock limit.
+  std::optional<double> clock_limit = options.clock_limit;
+  if (clock_limit && *clock_limit > 0) {
+    double used = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+    clock_limit = std::max(*clock_limit - used, 1e-3);
+  }
   try {
-    apply_code_result(result, check_costs_file(claim, options.costs_root));
+    apply_code_result(result, check_costs_file(claim, options.costs_root, clock_limit));
   } catch (const InputError& e) {
     return error_result(result, e.diagnostic());
   } catch (const BudgetExceeded& e) {

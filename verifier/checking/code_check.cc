@@ -214,7 +214,8 @@ std::string confined_costs_path(const CodeLink& link, const std::string& widened
   return resolved.string();
 }
 
-CodeResult check_costs_file(const Claim& claim, const std::string& widened_root) {
+CodeResult check_costs_file(const Claim& claim, const std::string& widened_root,
+                            std::optional<double> clock_limit) {
   const CodeLink& link = *claim.code;
   std::string path = confined_costs_path(link, widened_root);
   // A regular file under a cap (a FIFO or a device would block or grow without
@@ -238,10 +239,11 @@ CodeResult check_costs_file(const Claim& claim, const std::string& widened_root)
     }
     throw InputError(d);
   }
-  return check_costs_text(claim, std::move(bytes));
+  return check_costs_text(claim, std::move(bytes), clock_limit);
 }
 
-CodeResult check_costs_text(const Claim& claim, std::string bytes) {
+CodeResult check_costs_text(const Claim& claim, std::string bytes,
+                            std::optional<double> clock_limit) {
   const CodeLink& link = *claim.code;
   SourceText file = SourceText::whole(link.costs_path, std::move(bytes));
   const std::string& text = file.text;
@@ -252,6 +254,7 @@ CodeResult check_costs_text(const Claim& claim, std::string bytes) {
   result.source = link.costs_as_written;
   Budget budget;
   budget.max_seconds = 600;  // a long file is slow, not stuck: steps still bound each size
+  if (clock_limit) budget.max_seconds = *clock_limit;
   CostModel model(claim, link.model, budget);
   CostRows rows(link.model);
   size_t line_start = 0;

@@ -86,11 +86,14 @@ std::string confined_costs_path(const CodeLink& link, const std::string& widened
 // column, hint), and for a size where T is undefined (located at that
 // line). A message never quotes the file's content beyond a short excerpt:
 // the file may be one its claim file named to leak it.
-CodeResult check_costs_file(const Claim& claim, const std::string& widened_root = "");
+// `clock_limit` (seconds, 0 = no clock) replaces the hang guard of 600 s.
+CodeResult check_costs_file(const Claim& claim, const std::string& widened_root = "",
+                            std::optional<double> clock_limit = std::nullopt);
 
 // check_costs_file's work on bytes already read (`bytes` stands for the
 // file link.costs_path): every line checked. The same errors.
-CodeResult check_costs_text(const Claim& claim, std::string bytes);
+CodeResult check_costs_text(const Claim& claim, std::string bytes,
+                            std::optional<double> clock_limit = std::nullopt);
 
 // Folds a code result into a claim result: violations refute the claim (the
 // code breaks its model) whatever the bound's verdict; the message says so.

@@ -14,7 +14,7 @@ namespace thetagate::engine {
 
 namespace {
 
-Budget derivation_budget() {
+Budget derivation_budget(std::optional<double> clock_limit) {
   // The step limit is what ends a long evaluation: at most a few seconds
   // even on the general path (intervals, ~10 µs a step), so the same
   // recurrence always gets the same derivation. The time limit only guards
@@ -23,6 +23,7 @@ Budget derivation_budget() {
   b.max_seconds = 60.0;
   b.max_steps = 400'000;
   b.max_memo_entries = 200'000;
+  if (clock_limit) b.max_seconds = *clock_limit;
   return b;
 }
 
@@ -147,7 +148,7 @@ std::string outcome_reason(const TheoremOutcome& o) {
 
 }  // namespace
 
-Derivation derive(const Recurrence& recurrence) {
+Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limit) {
   Derivation d;
   d.notes = recurrence.notes;
   Shape shape = extract_shape(recurrence);
@@ -157,7 +158,7 @@ Derivation derive(const Recurrence& recurrence) {
   }
   // A non-owning handle: the evaluator lives only inside this call.
   std::shared_ptr<const Recurrence> handle(std::shared_ptr<const Recurrence>(), &recurrence);
-  auto evaluator = std::make_shared<Evaluator>(handle, derivation_budget());
+  auto evaluator = std::make_shared<Evaluator>(handle, derivation_budget(clock_limit));
   DerivationInput input;
   input.shape = &shape;
   input.helpers = &recurrence.helpers;

@@ -32,8 +32,10 @@ struct Derivation {
 
 // REQUIRES: a model from build_recurrence. Evaluates T and f exactly where a
 // theorem needs numbers (initial values, regularity on size families) under
-// a small budget. Never throws for a valid model.
-Derivation derive(const Recurrence& recurrence);
+// a small budget. Never throws for a valid model. The budget's clock is a
+// hang guard of 60 s; `clock_limit` (seconds, 0 = no clock) replaces it, so a check
+// run under --clock-limit derives under that limit too.
+Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limit = std::nullopt);
 
 enum class ClaimAgreement {
   kAgree,                // the claimed class equals the derived one (tight)
