@@ -254,8 +254,7 @@ TEST_F(CostsFile, AClockLimitHoldsForTheCostsFile) {
     check_costs_file(*entries[0].claim, "", 1e-4);
     ADD_FAILURE() << "three million steps finished within 0.1 ms";
   } catch (const BudgetExceeded& e) {
-    EXPECT_NE(std::string(e.what()).find("time budget of 0.0001 s"), std::string::npos)
-        << e.what();
+    EXPECT_NE(std::string(e.what()).find("time budget of 0.0001 s"), std::string::npos) << e.what();
   }
   // Without a clock (0), only the work budgets apply: the same file passes.
   EXPECT_TRUE(check_costs_file(*entries[0].claim, "", 0.0).violations.empty());
