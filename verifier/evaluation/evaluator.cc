@@ -191,7 +191,7 @@ Value Evaluator::helper_value(const Function& f, const Value& argument, const Ev
 void Evaluator::account_memo(uint64_t key_bits, uint64_t value_bits) {
   // A nominal cost per entry, the same on both paths, so the budget (and a
   // report) does not depend on which path evaluated.
-  memo_bytes_ += (key_bits + value_bits) / 8 + 112;
+  memo_bytes_ += (key_bits + value_bits) / 8 + kMemoEntryBytes;
   size_t size = memo_size();
   stats_.memo_entries = size;
   if (size > budget_.max_memo_entries || memo_bytes_ > budget_.max_memo_bytes) {
@@ -446,7 +446,7 @@ Value Evaluator::top_down(const Value& n) {
   std::vector<const Value*> known;
   // Bytes held by args (a frame's size shares its argument's storage).
   uint64_t pending_bytes = 0;
-  auto bytes_of = [](const Value& v) { return v.magnitude_bits() / 8 + sizeof(Value) + 16; };
+  auto bytes_of = [](const Value& v) { return v.magnitude_bits() / 8 + kPendingSizeBytes; };
   auto drop_args = [&](size_t from) {
     for (size_t i = from; i < args.size(); ++i) pending_bytes -= bytes_of(args[i]);
     args.resize(from);

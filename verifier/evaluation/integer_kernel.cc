@@ -516,7 +516,7 @@ void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
   size_t arg_count = 0;
   // Bytes held by the pending arguments, counted against the memory budget.
   uint64_t pending_bytes = 0;
-  auto bytes_of = [](mpz_srcptr z) { return mpz_size(z) * sizeof(mp_limb_t) + 32; };
+  auto bytes_of = [](mpz_srcptr z) { return mpz_size(z) * sizeof(mp_limb_t) + kPendingSizeBytes; };
   auto drop_args = [&](size_t from) {
     for (size_t i = from; i < arg_count; ++i) pending_bytes -= bytes_of(args_[i]->z);
     arg_count = from;

@@ -31,6 +31,16 @@
 
 namespace thetagate::engine {
 
+// The memory budget's nominal costs, the same on both evaluation paths (so
+// a budget ends the same evaluation whichever path ran it), beyond the
+// limbs of the numbers themselves: one remembered value (its key, the
+// table's index and entry, the allocator's headers) and one size waiting
+// on the work stack (its slot, its frame, its allocation). Calibrated on
+// long top-down chains (T(n - floor(sqrt(n))) from 10^12 and 2^64) so that
+// the process's peak resident memory stays close to the budget.
+inline constexpr uint64_t kMemoEntryBytes = 184;
+inline constexpr uint64_t kPendingSizeBytes = 96;
+
 struct KernelDeclines {};
 
 // What the evaluator keeps: the step budget and the memo budget.
