@@ -6,6 +6,7 @@
 #include "reports/html_report.h"
 #include "reports/json_report.h"
 #include "reports/junit_report.h"
+#include "reports/markdown_report.h"
 #include "reports/report_file.h"
 #include "reports/text_report.h"
 #include "verifier/syntax/input_file.h"
@@ -43,6 +44,8 @@ std::string render(const Report& report, Format format, const RenderOptions& opt
                                     options.drift_fails && drift ? drift : nullptr});
     case Format::kHtml:
       return engine::render_html(run);
+    case Format::kMarkdown:
+      return engine::render_markdown(run);
     case Format::kBrief: {
       engine::TextStyle style;
       style.colour = options.colour;

@@ -135,6 +135,7 @@ std::optional<Format> format_of_extension(const std::string& path) {
   if (extension == ".json") return Format::kJson;
   if (extension == ".xml") return Format::kJunit;
   if (extension == ".html" || extension == ".htm") return Format::kHtml;
+  if (extension == ".md") return Format::kMarkdown;
   return std::nullopt;
 }
 
@@ -148,6 +149,8 @@ const char* format_name(Format format) {
       return "html";
     case Format::kBrief:
       return "brief";
+    case Format::kMarkdown:
+      return "markdown";
     case Format::kText:
       break;
   }
@@ -158,6 +161,7 @@ Format format_of(const std::string& name) {
   if (name == "json") return Format::kJson;
   if (name == "junit") return Format::kJunit;
   if (name == "html") return Format::kHtml;
+  if (name == "markdown") return Format::kMarkdown;
   return Format::kText;
 }
 
@@ -322,7 +326,8 @@ int run_check(const CheckArguments& args) {
     const std::pair<Format, const char*> formats[] = {{Format::kText, "report.txt"},
                                                       {Format::kJson, "report.json"},
                                                       {Format::kJunit, "report.junit.xml"},
-                                                      {Format::kHtml, "report.html"}};
+                                                      {Format::kHtml, "report.html"},
+                                                      {Format::kMarkdown, "report.md"}};
     for (const auto& [format, name] : formats) {
       files.emplace_back((std::filesystem::path(args.out) / name).string(),
                          render(report, format, render_options, changes_ptr));
@@ -432,10 +437,11 @@ int main(int argc, char** argv) {
   check_command->add_option("--name", check.name, "the name of the --recurrence claim");
   check_command->add_flag("--brief", check.brief,
                           "one line per claim (its proof or first witness), then the summary");
-  check_command->add_option("--format", check.format, "report format: text, json, junit or html")
-      ->check(CLI::IsMember({"text", "json", "junit", "html"}));
+  check_command
+      ->add_option("--format", check.format, "report format: text, json, junit, html or markdown")
+      ->check(CLI::IsMember({"text", "json", "junit", "html", "markdown"}));
   check_command->add_option("--out", check.out,
-                            "write the report to FILE (.txt, .json, .xml or .html picks the "
+                            "write the report to FILE (.txt, .json, .xml, .html or .md picks the "
                             "format); to a folder (existing, or ending in '/'): every format at "
                             "once");
   check_command->add_option("--seed", check.seed, "seed for random sizes: a number, or 'random'");

@@ -265,6 +265,8 @@ void append_detail(std::string& out, const RunResult& run, const ClaimResult& c,
   }
 }
 
+}  // namespace
+
 std::string summary_line(const RunResult& run) {
   std::array<size_t, 4> count{};
   for (const ClaimResult& c : run.claims) ++count[static_cast<size_t>(c.verdict)];
@@ -274,7 +276,23 @@ std::string summary_line(const RunResult& run) {
                      count[3] == 1 ? "" : "s");
 }
 
-}  // namespace
+std::string brief_evidence(const ClaimResult& c) {
+  if (c.verdict == Verdict::kError && c.error) {
+    return c.error->where.file + ":" + std::to_string(c.error->where.line) + ":" +
+           std::to_string(c.error->where.column) + ": " + c.error->message;
+  }
+  if (c.verdict == Verdict::kHolds) return "proof: " + proof_name(c);
+  if (!c.witnesses.empty()) {
+    const Witness& w = c.witnesses.front();
+    return "witness n = " + short_decimal(w.n) + ": T(n)/g(n) = " + format_ratio(w.ratio);
+  }
+  // The first clause of why: the whole story is in the full report.
+  std::string why = verdict_message(c);
+  size_t end = why.find_first_of(":;(");
+  if (end != std::string::npos) why.resize(end);
+  while (!why.empty() && why.back() == ' ') why.pop_back();
+  return why;
+}
 
 std::string render_text(const RunResult& raw_run, const TextStyle& style) {
   // Names and notes come from claim files: their control bytes (escape
@@ -322,20 +340,10 @@ std::string render_brief(const RunResult& raw_run, const TextStyle& style) {
   for (const ClaimResult& c : run.claims) {
     std::string line = claim_line(c, name_column, painter);
     line.pop_back();  // the newline
-    if (c.verdict == Verdict::kError && c.error) {
-      line += " \u00b7 " + c.error->where.file + ":" + std::to_string(c.error->where.line) + ":" +
-              std::to_string(c.error->where.column) + ": " + c.error->message;
-    } else if (c.verdict != Verdict::kHolds && !c.witnesses.empty()) {
-      const Witness& w = c.witnesses.front();
-      line +=
-          " \u00b7 witness n = " + short_decimal(w.n) + ": T(n)/g(n) = " + format_ratio(w.ratio);
-    } else if (c.verdict != Verdict::kHolds) {
-      // The first clause of why: the whole story is in the full report.
-      std::string why = verdict_message(c);
-      size_t end = why.find_first_of(":;(");
-      if (end != std::string::npos) why.resize(end);
-      while (!why.empty() && why.back() == ' ') why.pop_back();
-      if (!why.empty()) line += " \u00b7 " + why;
+    // A holds line names its proof already (claim_summary).
+    if (c.verdict != Verdict::kHolds) {
+      std::string evidence = brief_evidence(c);
+      if (!evidence.empty()) line += " \u00b7 " + evidence;
     }
     out += line + "\n";
   }

@@ -33,6 +33,15 @@ std::string render_text(const RunResult& run, const TextStyle& style);
 //              T(n)/g(n) = 10.3
 std::string render_brief(const RunResult& run, const TextStyle& style);
 
+// "3 claims: 1 holds, 1 refuted, 1 undecided, 0 errors\n".
+std::string summary_line(const RunResult& run);
+
+// The one fact a claim's verdict rests on, for one-line reports: the proof
+// of a holds ("proof: master theorem, case 2"), else the first witness
+// ("witness n = 2^19: T(n)/g(n) = 10.3"), the located error, or the first
+// clause of why. Not escaped: the caller escapes for its medium.
+std::string brief_evidence(const ClaimResult& c);
+
 // True when output to `fd` should be coloured: `fd` is a terminal and the
 // NO_COLOR environment variable is unset or empty (no-color.org convention).
 bool want_colour(int fd);

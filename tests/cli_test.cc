@@ -257,7 +257,8 @@ TEST_F(Cli, OutFolderGetsEveryFormatAndABaselineGatesOnDrift) {
   std::string folder = (dir_ / "nightly").string() + "/";
   CommandResult first = run("check --max-bits 64 --seed 3 --out " + folder + " " + file);
   EXPECT_EQ(first.status, 1) << first.out;
-  for (const char* name : {"report.txt", "report.json", "report.junit.xml", "report.html"}) {
+  for (const char* name :
+       {"report.txt", "report.json", "report.junit.xml", "report.html", "report.md"}) {
     EXPECT_TRUE(std::filesystem::exists(dir_ / "nightly" / name)) << name;
   }
   // Same claims, same seed: nothing drifted, so --fail-on drift passes.

@@ -1,6 +1,6 @@
 // Golden files from a real run: the claims of tests/data/golden_claims.toml
-// checked with a fixed seed, rendered as text, JSON and JUnit XML, compared
-// byte for byte with tests/golden/run.{txt,json,junit.xml}. Regenerate with
+// checked with a fixed seed, rendered as text, JSON, JUnit XML and Markdown,
+// compared byte for byte with tests/golden/run.{txt,json,junit.xml,md}. Regenerate with
 //   THETAGATE_UPDATE_GOLDEN=1 build/thetagate_tests --gtest_filter='GoldenRunReport*'
 // and review the diff: a change here is a change in what users see.
 #include <gtest/gtest.h>
@@ -10,6 +10,7 @@
 
 #include "reports/json_report.h"
 #include "reports/junit_report.h"
+#include "reports/markdown_report.h"
 #include "reports/text_report.h"
 #include "tests/golden.h"
 #include "verifier/checking/checker.h"
@@ -74,6 +75,8 @@ TEST(GoldenRunReport, Json) { expect_matches_golden("run.json", render_json(gold
 TEST(GoldenRunReport, Junit) {
   expect_matches_golden("run.junit.xml", render_junit(golden_run(), JunitOptions{}));
 }
+
+TEST(GoldenRunReport, Markdown) { expect_matches_golden("run.md", render_markdown(golden_run())); }
 
 }  // namespace
 }  // namespace thetagate::engine

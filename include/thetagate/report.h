@@ -19,11 +19,12 @@ struct Access;
 }
 
 enum class Format {
-  kText,   // for a person; one line per claim, detail for those that did not hold
-  kJson,   // for programs (docs/json-schema.md)
-  kJunit,  // JUnit XML for CI systems
-  kHtml,   // one self-contained page with SVG band plots
-  kBrief,  // for a person in a hurry: one line per claim (proof or first witness), the summary
+  kText,      // for a person; one line per claim, detail for those that did not hold
+  kJson,      // for programs (docs/json-schema.md)
+  kJunit,     // JUnit XML for CI systems
+  kHtml,      // one self-contained page with SVG band plots
+  kBrief,     // for a person in a hurry: one line per claim (proof or first witness), the summary
+  kMarkdown,  // for a pull-request comment: a summary table, details per claim that did not hold
 };
 
 struct RenderOptions {
