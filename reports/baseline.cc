@@ -136,6 +136,10 @@ class ReportReader {
                                  std::to_string(kJsonSchemaVersion) + ")");
     }
     RunResult run;
+    run.tool_version.clear();  // older reports do not say which thetagate wrote them
+    if (const Json* tool = optional_key(root, "tool_version"); tool && tool->is_string()) {
+      run.tool_version = tool->get<std::string>();
+    }
     run.seed = unsigned_at(root, "", "seed");
     // Only when given: --max-bits and --effort, for replay commands.
     if (const Json* max_bits = optional_key(root, "max_bits"); max_bits && !max_bits->is_null()) {

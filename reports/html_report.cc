@@ -207,6 +207,7 @@ std::string render_html(const RunResult& run) {
   }
   s += "</table>\n";
   for (size_t i = 0; i < run.claims.size(); ++i) s += claim_section(run.claims[i], i + 1);
+  s += "<footer><p>Checked by thetagate " + esc(run.tool_version) + ".</p></footer>\n";
   s += "</body>\n</html>\n";
   return s;
 }

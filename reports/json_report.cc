@@ -203,6 +203,7 @@ Json claim_json(const ClaimResult& c) {
 std::string render_json(const RunResult& run) {
   Json j;
   j["schema_version"] = kJsonSchemaVersion;
+  j["tool_version"] = run.tool_version;
   j["seed"] = run.seed;
   // The options a replay needs besides the seed, when they were given.
   if (run.max_bits) j["max_bits"] = *run.max_bits;

@@ -188,6 +188,8 @@ std::string render_junit(const RunResult& run, const JunitOptions& options) {
     out += "    <properties>\n";
     out +=
         "      <property" + attr("name", "seed") + attr("value", std::to_string(run.seed)) + "/>\n";
+    out += "      <property" + attr("name", "thetagate.version") + attr("value", run.tool_version) +
+           "/>\n";
     out += "    </properties>\n";
     for (const ClaimResult& c : run.claims) {
       if (suite_name(c) != suite) continue;

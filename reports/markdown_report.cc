@@ -114,8 +114,8 @@ std::string markdown_text(const std::string& text) {
       escape = !(i > 0 && alnum(i - 1) && alnum(i + 1));
     } else if (ch == '<') {
       char next = i + 1 < safe.size() ? safe[i + 1] : ' ';
-      escape = std::isalpha(static_cast<unsigned char>(next)) != 0 || next == '/' ||
-               next == '!' || next == '?';
+      escape = std::isalpha(static_cast<unsigned char>(next)) != 0 || next == '/' || next == '!' ||
+               next == '?';
     } else if (ch == '>') {
       escape = i == 0;
     } else {
@@ -131,7 +131,9 @@ std::string render_markdown(const RunResult& run) {
   std::string summary = summary_line(run);
   summary.pop_back();  // the newline
   std::string out = "### thetagate: " + summary + "\n\n";
-  out += "Seed " + std::to_string(run.seed) + ".";
+  out += "Seed " + std::to_string(run.seed);
+  if (!run.tool_version.empty()) out += ", thetagate " + markdown_text(run.tool_version);
+  out += ".";
   if (run.claims.empty()) return out + "\n";
   out += " Claims that did not hold are explained below the table.\n\n";
   out += "| Verdict | Claim | Claimed | Derived | Proof or witness |\n";

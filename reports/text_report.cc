@@ -306,8 +306,9 @@ std::string render_text(const RunResult& raw_run, const TextStyle& style) {
     if (c.error) c.error->message = escape_controls(c.error->message);
   }
   Painter painter(style);
-  std::string out = painter.dim(
-      fmt::format("seed {} (rerun with {} to replay this run)", run.seed, replay_options(run)));
+  std::string tool = run.tool_version.empty() ? "" : "thetagate " + run.tool_version + " \u00b7 ";
+  std::string out = painter.dim(fmt::format("{}seed {} (rerun with {} to replay this run)",
+                                            escape_controls(tool), run.seed, replay_options(run)));
   out += "\n\n";
   int name_column = 0;
   for (const ClaimResult& c : run.claims) {

@@ -32,7 +32,8 @@ TEST(JsonReport, MatchesGolden) { expect_matches_golden("report.json", render_js
 
 TEST(JsonReport, TopLevelKeysInOrder) {
   Json j = Json::parse(render_json(sample_run()));
-  EXPECT_EQ(keys_of(j), (std::vector<std::string>{"schema_version", "seed", "claims"}));
+  EXPECT_EQ(keys_of(j),
+            (std::vector<std::string>{"schema_version", "tool_version", "seed", "claims"}));
   EXPECT_EQ(j["schema_version"], 2);
   EXPECT_EQ(j["seed"], 20240611u);
   EXPECT_EQ(j["claims"].size(), 6u);

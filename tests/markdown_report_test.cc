@@ -234,7 +234,9 @@ TEST(MarkdownReport, AnEmptyRunIsTheSummaryAlone) {
   RunResult run;
   run.seed = 7;
   EXPECT_EQ(render_markdown(run),
-            "### thetagate: 0 claims: 0 holds, 0 refuted, 0 undecided, 0 errors\n\nSeed 7.\n");
+            std::string("### thetagate: 0 claims: 0 holds, 0 refuted, 0 undecided, 0 errors\n\n"
+                        "Seed 7, thetagate ") +
+                THETAGATE_VERSION_STRING + ".\n");
 }
 
 // The command line: --format markdown, and --out FILE.md picks it.

@@ -125,7 +125,8 @@ TEST(NightlyLoop, AReportFileTakesItsFormatFromItsExtension) {
                    "' check search.toml --clock-limit 0 ";
   for (const auto& [file, start] :
        {std::pair{"r.json", "{"}, std::pair{"r.xml", "<?xml"},
-        std::pair{"r.html", "<!DOCTYPE html>"}, std::pair{"r.txt", "seed 1"}}) {
+        std::pair{"r.html", "<!DOCTYPE html>"}, std::pair{"r.txt", "thetagate "},
+        std::pair{"r.md", "### thetagate: 1 claim"}}) {
     CommandResult r = run_shell(tg + "--out " + file);
     EXPECT_EQ(r.status, 0) << r.out;
     EXPECT_EQ(r.out, std::string("1 claim: 1 holds, 0 refuted, 0 undecided, 0 errors\nwrote ") +

@@ -54,7 +54,8 @@ TEST(TextReport, ColourStylePaintsVerdicts) {
 TEST(TextReport, HeaderNamesSeedAndHowToReplay) {
   std::vector<std::string> lines = lines_of(render_text(sample_run(), TextStyle{false}));
   ASSERT_FALSE(lines.empty());
-  EXPECT_EQ(lines[0], "seed 20240611 (rerun with --seed 20240611 to replay this run)");
+  EXPECT_EQ(lines[0], std::string("thetagate ") + THETAGATE_VERSION_STRING +
+                          " \u00b7 seed 20240611 (rerun with --seed 20240611 to replay this run)");
 }
 
 TEST(TextReport, OneLinePerClaimWithFixedWidthVerdict) {
@@ -88,6 +89,7 @@ TEST(TextReport, SummaryCountsEveryVerdict) {
 TEST(TextReport, SummaryOfEmptyRun) {
   RunResult run;
   run.seed = 7;
+  run.tool_version.clear();  // as read from a report written before versions were recorded
   EXPECT_EQ(render_text(run, TextStyle{false}),
             "seed 7 (rerun with --seed 7 to replay this run)\n\n"
             "0 claims: 0 holds, 0 refuted, 0 undecided, 0 errors\n");

@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "thetagate/version.h"
 #include "verifier/numbers/number.h"
 #include "verifier/syntax/source.h"
 
@@ -214,6 +215,9 @@ struct ClaimResult {
 };
 
 struct RunResult {
+  // The thetagate that checked the claims ("0.1.0"); "" for a baseline
+  // report written before reports carried it.
+  std::string tool_version = THETAGATE_VERSION_STRING;
   uint64_t seed = 0;
   std::optional<uint64_t> max_bits;  // --max-bits, when given (for replay commands)
   std::optional<uint64_t> effort;    // --effort, when not 1 (for replay commands)
