@@ -81,7 +81,10 @@ class Parser {
   size_t cursor_ = 0;
   int depth_ = 0;
   // At this depth parsing continues on a large stack (large_stack.h).
-  static constexpr int kLargeStackDepth = 48;
+  // Shallow enough that the levels before it fit any caller's stack (under
+  // AddressSanitizer a level takes about 11 KiB), deep enough that the
+  // recurrences people write never need the extra thread.
+  static constexpr int kLargeStackDepth = 16;
   bool on_large_stack_ = false;
   std::vector<std::string> bound_;  // variables of the enclosing sums, innermost last
   bool unbased_log_ok_ = false;
