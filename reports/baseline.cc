@@ -573,6 +573,7 @@ class ReportReader {
       c.steps = optional_strings(j, path, "reasons");
     }
     c.note = optional_string(j, path, "note");
+    c.recurrence = optional_string(j, path, "recurrence");
     c.sizes_checked = optional_unsigned(j, path, "sizes_checked");
     c.largest_bits = optional_unsigned(j, path, "largest_bits");
     c.error = error(j, path);

@@ -60,6 +60,32 @@ std::string band_move_text(const BandMove& m) {
   return s;
 }
 
+// A recurrence as one line: its lines joined by "; ", shortened past 120
+// characters (the JSON drift keeps the whole text).
+std::string one_line(const std::string& text) {
+  std::string out;
+  size_t start = 0;
+  while (start <= text.size()) {
+    size_t end = text.find('\n', start);
+    if (end == std::string::npos) end = text.size();
+    std::string line = text.substr(start, end - start);
+    while (!line.empty() && (line.back() == ' ' || line.back() == '\r')) line.pop_back();
+    size_t first = line.find_first_not_of(' ');
+    if (first != std::string::npos) {
+      if (!out.empty()) out += "; ";
+      out += line.substr(first);
+    }
+    start = end + 1;
+  }
+  out = escape_controls(out);
+  if (out.size() > 120) {
+    size_t cut = 117;
+    while (cut > 0 && (static_cast<unsigned char>(out[cut]) & 0xC0) == 0x80) --cut;
+    out = out.substr(0, cut) + "…";
+  }
+  return out;
+}
+
 std::string or_none(const std::string& derived) { return derived.empty() ? "none" : derived; }
 
 std::string claim_text(const ClaimDrift& d, const TextStyle& style) {
@@ -69,6 +95,17 @@ std::string claim_text(const ClaimDrift& d, const TextStyle& style) {
   if (d.is_new()) s += std::string("   ") + verdict_name(*d.after);
   if (d.is_lost()) s += std::string("   was ") + verdict_name(*d.before);
   s += "\n";
+  // What changed in the claim itself comes first: it explains the rest.
+  if (d.renamed())
+    s += fmt::format("{}renamed from {}\n", kIndent, escape_controls(d.renamed_from));
+  if (d.recurrence_edited()) {
+    s += fmt::format("{}the recurrence changed: {} → {}\n", kIndent, one_line(d.recurrence_before),
+                     one_line(d.recurrence_after));
+  }
+  if (d.bound_edited()) {
+    s += fmt::format("{}the bound changed: {} → {}\n", kIndent, escape_controls(d.claimed_before),
+                     escape_controls(d.claimed_after));
+  }
   if (d.verdict_changed()) {
     s += fmt::format("{}verdict {} → {}\n", kIndent, verdict_name(*d.before),
                      verdict_name(*d.after));
@@ -105,6 +142,11 @@ Json claim_json(const ClaimDrift& d) {
   j["file"] = d.file;
   j["line"] = d.line;
   j["change"] = change_name(d);
+  j["renamed_from"] = d.renamed_from;
+  j["recurrence_before"] = d.recurrence_before;
+  j["recurrence_after"] = d.recurrence_after;
+  j["claimed_before"] = d.claimed_before;
+  j["claimed_after"] = d.claimed_after;
   j["verdict_before"] = d.before ? verdict_name(*d.before) : "";
   j["verdict_after"] = d.after ? verdict_name(*d.after) : "";
   j["derived_before"] = d.derived_before;

@@ -195,6 +195,8 @@ Json claim_json(const ClaimResult& c) {
   j["steps"] = c.steps;
   j["failed_hypotheses"] = c.failed_hypotheses;
   j["code"] = code_json(c.code);
+  // Added without a version bump (readers ignore keys they do not know).
+  j["recurrence"] = c.recurrence;
   return j;
 }
 

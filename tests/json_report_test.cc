@@ -42,12 +42,14 @@ TEST(JsonReport, TopLevelKeysInOrder) {
 TEST(JsonReport, ClaimKeysStartWithTheDesignKeys) {
   Json j = Json::parse(render_json(sample_run()));
   // docs/design.md §6 keys first and in that order, then the schema-1 and
-  // schema-2 additions (the last, `code`, from the link to code).
+  // schema-2 additions (`code`, from the link to code), then keys added
+  // since (`recurrence`).
   std::vector<std::string> expected = {
-      "name",     "file",    "line",      "verdict",       "claimed",           "derived",
-      "method",   "tight",   "witnesses", "band",          "message",           "numeric_only",
-      "notes",    "reasons", "note",      "sizes_checked", "largest_bits",      "error",
-      "function", "proof",   "basis",     "steps",         "failed_hypotheses", "code"};
+      "name",      "file",    "line",      "verdict",       "claimed",           "derived",
+      "method",    "tight",   "witnesses", "band",          "message",           "numeric_only",
+      "notes",     "reasons", "note",      "sizes_checked", "largest_bits",      "error",
+      "function",  "proof",   "basis",     "steps",         "failed_hypotheses", "code",
+      "recurrence"};
   for (const Json& claim : j["claims"]) EXPECT_EQ(keys_of(claim), expected);
 }
 

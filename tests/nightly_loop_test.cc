@@ -15,6 +15,7 @@ namespace {
 
 namespace fs = std::filesystem;
 using thetagate::engine::test_support::CommandResult;
+using thetagate::engine::test_support::count_of;
 using thetagate::engine::test_support::run_shell;
 
 std::string read(const fs::path& path) {
@@ -88,6 +89,10 @@ TEST(NightlyLoop, TheReadmeRecipeWorksFromTheFirstNightOn) {
   std::string text = read(dir / "nightly" / "report.txt");
   EXPECT_NE(text.find("drift against the baseline: 1 of 2 claims changed"), std::string::npos)
       << text;
+  // Its first line of drift is the cause: the edit, before the verdict.
+  size_t edit = text.find("the bound changed: Theta(lg n) → O(1)");
+  EXPECT_NE(edit, std::string::npos) << text;
+  EXPECT_LT(edit, text.find("verdict holds → refuted", edit)) << text;
   // The CI's test view agrees with the exit code: the drifted claim is a
   // failure in JUnit (it is refuted now, and says how it drifted).
   std::string junit = read(dir / "nightly" / "report.junit.xml");
@@ -96,8 +101,9 @@ TEST(NightlyLoop, TheReadmeRecipeWorksFromTheFirstNightOn) {
       << junit;
   EXPECT_NE(junit.find("verdict holds → refuted"), std::string::npos) << junit;
 
-  // A drift-only night: the bound loosened (still holds), a claim renamed
-  // away (lost) and one added (new). Every change is a JUnit failure.
+  // A drift-only night: the bound loosened (still holds) and a claim
+  // renamed (matched by its text, not one lost and one new). Every change
+  // is a JUnit failure.
   fs::copy_file(dir / "nightly" / "report.json", dir / "last" / "report.json",
                 fs::copy_options::overwrite_existing);
   std::ofstream(dir / "claims" / "search.toml", std::ios::trunc)
@@ -107,11 +113,14 @@ TEST(NightlyLoop, TheReadmeRecipeWorksFromTheFirstNightOn) {
   CommandResult fourth = run_shell(night);
   EXPECT_EQ(fourth.status, 1) << fourth.out;
   junit = read(dir / "nightly" / "report.junit.xml");
-  EXPECT_NE(junit.find("type=\"drift\""), std::string::npos) << junit;
-  EXPECT_NE(junit.find("<testsuite name=\"lost since the baseline\" tests=\"1\" "
-                       "failures=\"1\""),
+  EXPECT_NE(junit.find("<testsuites name=\"thetagate\" tests=\"2\" failures=\"2\""),
             std::string::npos)
       << junit;
+  EXPECT_EQ(count_of(junit, "type=\"drift\""), 2u) << junit;
+  EXPECT_NE(junit.find("the bound changed: O(1) → O(n)"), std::string::npos) << junit;
+  EXPECT_NE(junit.find("renamed from orchard::stable_sort / comparisons"), std::string::npos)
+      << junit;
+  EXPECT_EQ(junit.find("lost since the baseline"), std::string::npos) << junit;
   EXPECT_EQ(junit.find("failures=\"0\""), std::string::npos) << junit;
   fs::remove_all(dir);
 }

@@ -98,6 +98,7 @@ ClaimResult check_one_reading(const Claim& claim, const CheckOptions& options) {
   result.name = claim.name;
   result.file = claim.where.file;
   result.line = claim.where.line;
+  result.recurrence = claim.recurrence->text();
   result.claimed = claim.bound.text();
   result.note = claim.note;
   result.notes = claim.recurrence->notes;
@@ -208,6 +209,7 @@ ClaimResult check_entry(const ClaimEntry& entry, const CheckOptions& options) {
     // It may have come through MPFR (verifier/numbers/allocation.h): this
     // thread's constant caches may be half-updated, so they go.
     mpfr_free_cache();
+    base.recurrence = entry.claim->recurrence->text();
     base.claimed = entry.claim->bound.text();
     return budget_result(base, "memory ran out while checking this claim");
   } catch (const std::exception& e) {

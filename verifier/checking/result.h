@@ -196,6 +196,7 @@ struct ClaimResult {
   std::string function = "T";  // the recursive function's name
   Verdict verdict = Verdict::kUndecided;
   VerdictBasis basis;
+  std::string recurrence;     // the recurrence as written ("" when it could not be read)
   std::string claimed;        // the bound as written
   std::string derived;        // the derived class, "" when none
   std::string method;         // theorem used, or "numeric"

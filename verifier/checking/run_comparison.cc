@@ -58,11 +58,18 @@ ClaimDrift drift_of_claim(const ClaimResult& before, const ClaimResult& after) {
   d.line = after.line;
   d.before = before.verdict;
   d.after = after.verdict;
+  if (before.name != after.name) d.renamed_from = before.name;
+  d.recurrence_before = before.recurrence;
+  d.recurrence_after = after.recurrence;
+  d.claimed_before = before.claimed;
+  d.claimed_after = after.claimed;
   d.derived_before = before.derived;
   d.derived_after = after.derived;
   d.new_witnesses = missing_from(after.witnesses, before.witnesses);
   d.lost_witnesses = missing_from(before.witnesses, after.witnesses);
-  d.band_moves = band_moves(before.band, after.band);
+  // The band is T(n)/g(n): after an edit, or with a new g(n), it moves
+  // because the claim did, which the lines above already say.
+  if (!d.edited() && !d.derived_changed()) d.band_moves = band_moves(before.band, after.band);
   return d;
 }
 
@@ -95,8 +102,9 @@ std::vector<std::string> files_below_root(const RunResult& run) {
 }
 
 bool drifted(const ClaimDrift& d) {
-  return d.is_new() || d.is_lost() || d.verdict_changed() || d.derived_changed() ||
-         !d.new_witnesses.empty() || !d.lost_witnesses.empty() || !d.band_moves.empty();
+  return d.is_new() || d.is_lost() || d.edited() || d.renamed() || d.verdict_changed() ||
+         d.derived_changed() || !d.new_witnesses.empty() || !d.lost_witnesses.empty() ||
+         !d.band_moves.empty();
 }
 
 }  // namespace
@@ -133,6 +141,22 @@ DriftReport compare_runs(const RunResult& baseline, const RunResult& current) {
       break;
     }
   }
+  // Then by text: the same recurrence and bound in the same file under a
+  // new name is a rename, not one lost claim and one new.
+  for (size_t i = 0; i < current.claims.size(); ++i) {
+    const ClaimResult& c = current.claims[i];
+    if (partner[i] || c.recurrence.empty()) continue;
+    for (size_t j = 0; j < baseline.claims.size(); ++j) {
+      const ClaimResult& b = baseline.claims[j];
+      if (matched[j] || copy[j] || b.recurrence != c.recurrence || b.claimed != c.claimed ||
+          before_files[j] != after_files[i]) {
+        continue;
+      }
+      partner[i] = j;
+      matched[j] = true;
+      break;
+    }
+  }
   for (size_t i = 0; i < current.claims.size(); ++i) {
     const ClaimResult& c = current.claims[i];
     if (!partner[i]) {
@@ -141,6 +165,8 @@ DriftReport compare_runs(const RunResult& baseline, const RunResult& current) {
       d.file = c.file;
       d.line = c.line;
       d.after = c.verdict;
+      d.recurrence_after = c.recurrence;
+      d.claimed_after = c.claimed;
       d.derived_after = c.derived;
       report.claims.push_back(std::move(d));
       continue;
@@ -160,6 +186,8 @@ DriftReport compare_runs(const RunResult& baseline, const RunResult& current) {
     d.file = c.file;
     d.line = c.line;
     d.before = c.verdict;
+    d.recurrence_before = c.recurrence;
+    d.claimed_before = c.claimed;
     d.derived_before = c.derived;
     report.claims.push_back(std::move(d));
   }

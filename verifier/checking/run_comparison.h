@@ -35,24 +35,40 @@ struct BandMove {
 // the run, after "./" and ".." are resolved by their spelling): `check
 // claims` and `check ./claims`, or the tree checked from another folder,
 // match. A claim left unmatched then pairs with a baseline claim of the same
-// name (its file moved). `file` is this run's path, or the baseline's for a
-// lost claim.
+// name (its file moved), and then with one of the same recurrence and bound
+// in the same file (it was renamed). `file` is this run's path, or the
+// baseline's for a lost claim.
 struct ClaimDrift {
   std::string name;
+  std::string renamed_from;  // the baseline's name of a renamed claim, else ""
   std::string file;
   int line = 0;                   // this run's line; the baseline's for a lost claim
   std::optional<Verdict> before;  // nullopt: a new claim (not in the baseline)
   std::optional<Verdict> after;   // nullopt: a lost claim (not in this run)
-  std::string derived_before;     // "" when none was derived
+  // The claim as written in each run: an edit is the first cause of drift.
+  // "" where a run did not record it (a baseline from before reports
+  // carried the recurrence): then no edit is reported.
+  std::string recurrence_before, recurrence_after;
+  std::string claimed_before, claimed_after;
+  std::string derived_before;  // "" when none was derived
   std::string derived_after;
   std::vector<Witness> new_witnesses;   // in this run only, matched by n and side
   std::vector<Witness> lost_witnesses;  // in the baseline only
-  std::vector<BandMove> band_moves;     // in scale order
+  // In scale order; only when the claim was not edited and g(n) is the
+  // same (a new bound or recurrence moves the band by itself).
+  std::vector<BandMove> band_moves;
 
   bool is_new() const { return !before; }
   bool is_lost() const { return !after; }
   bool verdict_changed() const { return before && after && *before != *after; }
   bool derived_changed() const { return before && after && derived_before != derived_after; }
+  bool recurrence_edited() const {
+    return before && after && !recurrence_before.empty() && !recurrence_after.empty() &&
+           recurrence_before != recurrence_after;
+  }
+  bool bound_edited() const { return before && after && claimed_before != claimed_after; }
+  bool edited() const { return recurrence_edited() || bound_edited(); }
+  bool renamed() const { return !renamed_from.empty(); }
 };
 
 struct DriftReport {
@@ -65,7 +81,8 @@ struct DriftReport {
 };
 
 // Every change from `baseline` to `current` (claims matched as ClaimDrift
-// says; a repeated copy of a baseline claim is ignored): verdicts, new and lost claims,
+// says; a repeated copy of a baseline claim is ignored): edits of a claim's
+// recurrence or bound, renames, verdicts, new and lost claims,
 // new and lost witnesses (by n and side), band moves (kBandMoveLog2) and
 // changes of the derived class. Witnesses of a new or lost claim are not
 // listed again. With different seeds, witnesses and band ends found at

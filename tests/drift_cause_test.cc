@@ -1,0 +1,110 @@
+// Drift names its cause (issue 18, §2): an edit of the claim itself (its
+// recurrence or bound, before → after) comes first and replaces band moves,
+// which an edit causes by itself; a renamed claim (same text, new name) is
+// matched, not reported as one lost and one new.
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <nlohmann/json.hpp>
+
+#include "reports/drift.h"
+#include "verifier/checking/run_comparison.h"
+
+namespace thetagate::engine {
+namespace {
+
+constexpr const char* kHalving = "T(n) = T(floor(n/2)) + 1\nT(1) = 1";
+
+ClaimResult claim(const std::string& name, const std::string& recurrence, const std::string& bound,
+                  double high) {
+  ClaimResult c;
+  c.name = name;
+  c.file = "claims/search.toml";
+  c.line = 1;
+  c.verdict = Verdict::kHolds;
+  c.recurrence = recurrence;
+  c.claimed = bound;
+  c.derived = "Theta(lg n)";
+  BandRow row;
+  row.scale = 10;
+  row.low = 1;
+  row.high = high;
+  row.low_log2 = 0;
+  row.high_log2 = std::log2(high);
+  c.band = {row};
+  return c;
+}
+
+RunResult run_of(std::vector<ClaimResult> claims) {
+  RunResult run;
+  run.seed = 1;
+  run.claims = std::move(claims);
+  return run;
+}
+
+TEST(DriftCause, AnEditedBoundIsNamedAndItsBandMovesAreNot) {
+  RunResult before = run_of({claim("orchard::bisect / probes", kHalving, "Theta(lg n)", 1.1)});
+  RunResult after = run_of({claim("orchard::bisect / probes", kHalving, "O(n)", 0.01)});
+  DriftReport drift = compare_runs(before, after);
+  ASSERT_EQ(drift.claims.size(), 1u);
+  const ClaimDrift& d = drift.claims[0];
+  EXPECT_TRUE(d.bound_edited());
+  EXPECT_FALSE(d.recurrence_edited());
+  EXPECT_TRUE(d.band_moves.empty());  // T(n)/g(n) moved because g did
+  std::string text = render_claim_drift_text(d);
+  EXPECT_NE(text.find("the bound changed: Theta(lg n) → O(n)"), std::string::npos) << text;
+  EXPECT_EQ(text.find("band at scale"), std::string::npos) << text;
+  nlohmann::json j = nlohmann::json::parse(render_json_with_drift(after, drift));
+  EXPECT_EQ(j["drift"]["claims"][0]["claimed_before"], "Theta(lg n)");
+  EXPECT_EQ(j["drift"]["claims"][0]["claimed_after"], "O(n)");
+}
+
+TEST(DriftCause, AnEditedRecurrenceIsShownOnOneLine) {
+  RunResult before = run_of({claim("orchard::bisect / probes", kHalving, "Theta(lg n)", 1.1)});
+  RunResult after = run_of(
+      {claim("orchard::bisect / probes", "T(n) = T(floor(n/2)) + 2\nT(1) = 1", "Theta(lg n)", 2)});
+  DriftReport drift = compare_runs(before, after);
+  ASSERT_EQ(drift.claims.size(), 1u);
+  std::string text = render_claim_drift_text(drift.claims[0]);
+  EXPECT_NE(text.find("the recurrence changed: T(n) = T(floor(n/2)) + 1; T(1) = 1 → "
+                      "T(n) = T(floor(n/2)) + 2; T(1) = 1"),
+            std::string::npos)
+      << text;
+}
+
+TEST(DriftCause, AnUneditedClaimStillShowsItsBandMoves) {
+  RunResult before = run_of({claim("orchard::bisect / probes", kHalving, "Theta(lg n)", 1.1)});
+  RunResult after = run_of({claim("orchard::bisect / probes", kHalving, "Theta(lg n)", 9)});
+  DriftReport drift = compare_runs(before, after);
+  ASSERT_EQ(drift.claims.size(), 1u);
+  EXPECT_FALSE(drift.claims[0].edited());
+  EXPECT_EQ(drift.claims[0].band_moves.size(), 1u);
+}
+
+TEST(DriftCause, ARenamedClaimIsMatchedByItsText) {
+  RunResult before = run_of({claim("orchard::bisect / probes", kHalving, "Theta(lg n)", 1.1)});
+  RunResult after = run_of({claim("orchard::bisect / comparisons", kHalving, "Theta(lg n)", 1.1)});
+  DriftReport drift = compare_runs(before, after);
+  EXPECT_EQ(drift.compared, 1u);
+  ASSERT_EQ(drift.claims.size(), 1u);  // one renamed claim: not one lost and one new
+  const ClaimDrift& d = drift.claims[0];
+  EXPECT_FALSE(d.is_new());
+  EXPECT_FALSE(d.is_lost());
+  EXPECT_EQ(d.renamed_from, "orchard::bisect / probes");
+  EXPECT_NE(render_claim_drift_text(d).find("renamed from orchard::bisect / probes"),
+            std::string::npos);
+  // A different text under a new name stays one lost and one new.
+  RunResult other = run_of({claim("orchard::bisect / comparisons", kHalving, "O(n)", 1.1)});
+  EXPECT_EQ(compare_runs(before, other).claims.size(), 2u);
+}
+
+TEST(DriftCause, ABaselineWithoutRecurrencesReportsNoEdit) {
+  // Written before reports carried the recurrence: its absence is not an edit.
+  ClaimResult old = claim("orchard::bisect / probes", "", "Theta(lg n)", 1.1);
+  RunResult before = run_of({old});
+  RunResult after = run_of({claim("orchard::bisect / probes", kHalving, "Theta(lg n)", 1.1)});
+  EXPECT_FALSE(compare_runs(before, after).any());
+}
+
+}  // namespace
+}  // namespace thetagate::engine
