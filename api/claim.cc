@@ -3,6 +3,7 @@
 
 #include "api/access.h"
 #include "generators/size_family.h"
+#include "verifier/checking/checker.h"
 #include "verifier/checking/run.h"
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/evaluation/size_expression.h"
@@ -115,6 +116,19 @@ std::vector<SizeFamily> size_families() {
   std::vector<SizeFamily> out;
   for (const engine::FamilyInfo& f : engine::size_families()) {
     out.push_back({f.name, f.description});
+  }
+  return out;
+}
+
+std::vector<SizeToMeasure> sizes_to_measure(const Claim& claim, const std::string& max_n,
+                                            const std::string& small, uint64_t seed) {
+  const engine::ClaimEntry& entry = detail::Access::entry(claim);
+  if (!entry.claim) throw InputError(entry.error.value_or(Diagnostic{}));
+  std::vector<SizeToMeasure> out;
+  for (const engine::Size& s :
+       engine::harness_sizes(*entry.claim, engine::evaluate_size(max_n, "<max>"),
+                             engine::evaluate_size(small, "<small>"), seed)) {
+    out.push_back({s.n.str(), s.family});
   }
   return out;
 }

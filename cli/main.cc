@@ -391,6 +391,44 @@ int run_eval(const std::string& recurrence_text, const std::vector<std::string>&
   return 0;
 }
 
+struct SizesArguments {
+  std::string file;
+  std::string claim;
+  std::string max_n = "2^16";
+  std::string small = "64";
+  uint64_t seed = 1;
+  std::string format = "text";
+};
+
+// The sizes a harness in another language should measure: "N FAMILY" lines,
+// or a JSON array of {"n", "family"} (n as a decimal string).
+int run_sizes(const SizesArguments& args) {
+  std::vector<Claim> claims = load_claims({args.file});
+  if (args.claim.empty() && claims.size() != 1) {
+    std::string names;
+    for (size_t i = 0; i < claims.size() && i < 3; ++i) {
+      names += (i ? ", '" : "'") + engine::escape_controls(claims[i].name()) + "'";
+    }
+    std::cerr << "thetagate: " << engine::escape_controls(args.file) << " holds " << claims.size()
+              << " claims: name one with --claim\n  hint: for example --claim " << names << "\n";
+    return kExitBadInput;
+  }
+  if (!args.claim.empty()) claims = select_claims(claims, {args.claim});
+  std::vector<SizeToMeasure> sizes =
+      sizes_to_measure(claims.front(), args.max_n, args.small, args.seed);
+  if (args.format == "json") {
+    std::cout << "[";
+    for (size_t i = 0; i < sizes.size(); ++i) {
+      std::cout << (i ? ",\n  " : "\n  ") << "{\"n\": \"" << sizes[i].n
+                << "\", \"family\": " << json_string(sizes[i].family) << "}";
+    }
+    std::cout << "\n]\n";
+    return 0;
+  }
+  for (const SizeToMeasure& s : sizes) std::cout << s.n << ' ' << s.family << '\n';
+  return 0;
+}
+
 // SIGTERM, SIGHUP, SIGINT: no half-written report may stay behind. The
 // handler removes the temporary files and ends the process by the signal.
 extern "C" void end_by_signal(int signal_number) {
@@ -501,10 +539,23 @@ int main(int argc, char** argv) {
       ->required();
   eval_command->add_option("sizes", sizes, "sizes N, e.g. 100 2^4096+7")->required();
 
+  SizesArguments sizes_args;
+  auto* sizes_command = app.add_subcommand(
+      "sizes", "the sizes to measure a claim's code at, for a costs file: 'N FAMILY' lines");
+  sizes_command->add_option("file", sizes_args.file, "the claim file")->required();
+  sizes_command->add_option("--claim", sizes_args.claim,
+                            "the claim, by name (needed when the file holds several)");
+  sizes_command->add_option("--max", sizes_args.max_n,
+                            "the largest size, a constant expression (default 2^16)");
+  sizes_command->add_option("--small", sizes_args.small, "every size up to this one (default 64)");
+  sizes_command->add_option("--seed", sizes_args.seed, "seed for the random family (default 1)");
+  sizes_command->add_option("--format", sizes_args.format, "text or json")
+      ->check(CLI::IsMember({"text", "json"}));
+
   // CLI11 would say "a subcommand is required" for a misspelt one.
   if (argc > 1 && argv[1][0] != '-') {
     std::string word = argv[1];
-    const std::vector<std::string> commands = {"check", "derive", "eval"};
+    const std::vector<std::string> commands = {"check", "derive", "eval", "sizes"};
     if (std::find(commands.begin(), commands.end(), word) == commands.end()) {
       std::string closest = commands.front();
       for (const std::string& c : commands) {
@@ -513,7 +564,7 @@ int main(int argc, char** argv) {
       std::cerr << "thetagate: unknown command '" << engine::escape_controls(word) << "'\n  hint: "
                 << (engine::edit_distance(word, closest) <= 2 ? "did you mean '" + closest + "'? "
                                                               : "")
-                << "commands: check, derive, eval (thetagate --help)\n";
+                << "commands: check, derive, eval, sizes (thetagate --help)\n";
       return kExitBadInput;
     }
   }
@@ -529,6 +580,7 @@ int main(int argc, char** argv) {
     if (*check_command) return run_check(check);
     if (*derive_command) return run_derive(recurrence_text, derive_format);
     if (*eval_command) return run_eval(recurrence_text, sizes);
+    if (*sizes_command) return run_sizes(sizes_args);
   } catch (const InputError& e) {
     std::cerr << engine::terminal_safe(e.what()) << '\n';
     return kExitBadInput;

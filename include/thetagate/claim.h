@@ -87,6 +87,24 @@ struct SizeFamily {
 // Every size family, in search priority order. Never throws.
 THETAGATE_API std::vector<SizeFamily> size_families();
 
+// A size at which to measure the code behind a claim, and its family.
+struct SizeToMeasure {
+  std::string n;  // decimal
+  std::string family;
+};
+
+// The sizes a harness in any language should measure the code behind
+// `claim` at, so that its costs file covers what the check covers: every n
+// from the claim's smallest size to `small`, then each of the claim's size
+// families (powers, one off a power, small multiples of powers, odd halving
+// chains, random) at every scale up to `max_n`. Ascending. `max_n` and
+// `small` are constant expressions ("2^16"). Throws InputError for a claim
+// with error(), a bad expression, or max_n below the claim's smallest size.
+THETAGATE_API std::vector<SizeToMeasure> sizes_to_measure(const Claim& claim,
+                                                          const std::string& max_n = "2^16",
+                                                          const std::string& small = "64",
+                                                          uint64_t seed = 1);
+
 }  // namespace thetagate
 
 #endif  // THETAGATE_CLAIM_H_

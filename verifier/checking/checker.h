@@ -8,6 +8,7 @@
 #include <optional>
 #include <vector>
 
+#include "generators/size_family.h"
 #include "verifier/checking/result.h"
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/model/claim.h"
@@ -57,6 +58,15 @@ RunResult check_entries(const std::vector<ClaimEntry>& entries, const CheckOptio
 // The divisors b of the recurrence's T(n/b)-style calls and its mod
 // conditions: the bases the size families build on. Always contains 2.
 std::vector<BigInt> recurrence_divisors(const Recurrence& r);
+
+// The sizes a harness should measure the code behind `claim` at, for costs
+// files written by code in any language (`thetagate sizes`): every n from the
+// claim's min_n to `small`, then every size family of the claim (its
+// [claim.sizes] families, else all) at every scale up to max_n, the way the
+// check chooses them. Ascending, each with its family. Throws InputError
+// when max_n is below the claim's smallest size.
+std::vector<Size> harness_sizes(const Claim& claim, const BigInt& max_n, const BigInt& small,
+                                uint64_t seed);
 
 }  // namespace thetagate::engine
 
