@@ -73,6 +73,20 @@ TEST(GrowthRealNumber, RootsOfRationals) {
   EXPECT_GT(RealNumber::root(2, 2), RealNumber(Rational(14142, 10000)));
 }
 
+// A fuzzed bound (2^555.5455^55.4555^5.54…) took the root of degree 50 of
+// a 9,000-bit number through a bisection from (0, q + 1) in search of a
+// rational root, for minutes. Such a root is irrational (q is not a 50th
+// power) and is bracketed by integer roots at once.
+TEST(GrowthRealNumber, ARootOfDegreeFiftyOfAHugeNumberIsQuick) {
+  Rational q = Rational(boost::multiprecision::pow(BigInt(10), 2700) + 7);
+  RealNumber r = RealNumber::root(q, 50);
+  EXPECT_EQ(r.kind(), RealNumber::Kind::kAlgebraic);
+  // 10^54 < (10^2700 + 7)^(1/50) < 10^54 + 1 (from the binomial theorem).
+  Rational ten54 = Rational(boost::multiprecision::pow(BigInt(10), 54));
+  EXPECT_GT(r, RealNumber(ten54));
+  EXPECT_LT(r, RealNumber(ten54 + 1));
+}
+
 TEST(GrowthClassOrder, LexicographicOnRhoAlphaBetaGamma) {
   GrowthClass n_lg_n = GrowthClass::polylog(1, 1);
   GrowthClass n_lglg = GrowthClass::polylog(1, 0, 1);

@@ -222,10 +222,16 @@ RealNumber RealNumber::root(const Rational& q, unsigned long k) {
       boost::multiprecision::pow(rd, static_cast<unsigned>(k)) == denominator(q)) {
     return RealNumber(Rational(rn, rd));
   }
+  // q = a/b in lowest terms has a rational k-th root only when a and b are
+  // both k-th powers, which they are not: the root is irrational, so no
+  // search for a rational one (by bisection from (0, q + 1), that took
+  // minutes for a degree-50 root of a 9,000-bit q). rn <= a^(1/k) < rn + 1
+  // and rd <= b^(1/k) < rd + 1 bracket it tightly.
   std::vector<Rational> coefficients(k + 1);
   coefficients[0] = -q;
   coefficients[k] = 1;
-  return algebraic(Polynomial(coefficients), 0, std::max(q, Rational(1)) + 1);
+  Rational lo(rn, rd + 1), hi(rn + 1, rd);
+  return algebraic(Polynomial(coefficients), lo, hi, /*irrational=*/true);
 }
 
 RealNumber RealNumber::enclosed(std::function<Interval(long)> enclose) {

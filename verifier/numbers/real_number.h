@@ -40,7 +40,10 @@ class RealNumber {
   static RealNumber log_real(const Rational& base, const RealNumber& x);
   // The root of `p` in the open interval (lo, hi). REQUIRES: p has exactly
   // one real root there (checked; throws std::invalid_argument otherwise).
-  static RealNumber algebraic(const Polynomial& p, const Rational& lo, const Rational& hi);
+  // A rational root is found and kept as a rational, unless the caller
+  // knows the root is irrational (`irrational`), which skips that search.
+  static RealNumber algebraic(const Polynomial& p, const Rational& lo, const Rational& hi,
+                              bool irrational = false);
   // The positive real x with x^k = q. REQUIRES: q > 0, k >= 1.
   static RealNumber root(const Rational& q, unsigned long k);
   // A number known only by enclosures: enclose(prec) must contain it, and its

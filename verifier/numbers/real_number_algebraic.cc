@@ -204,7 +204,8 @@ int compare_algebraic(const Node& x, const Node& y, const RealNumber& a, const R
 
 }  // namespace real_number_internal
 
-RealNumber RealNumber::algebraic(const Polynomial& p, const Rational& lo, const Rational& hi) {
+RealNumber RealNumber::algebraic(const Polynomial& p, const Rational& lo, const Rational& hi,
+                                 bool irrational) {
   Polynomial sf = p.squarefree();
   if (sf.degree() < 1 || !(lo < hi))
     throw std::invalid_argument("algebraic: no polynomial or interval");
@@ -232,6 +233,7 @@ RealNumber RealNumber::algebraic(const Polynomial& p, const Rational& lo, const 
     n->hi = h;
   }
   // A rational root prints as a fraction and compares without bisection.
+  if (irrational) return from_node(n);
   if (std::optional<Rational> q = rational_root(sf, n->lo, n->hi)) return RealNumber(*q);
   return from_node(n);
 }
