@@ -87,6 +87,20 @@ TEST(GrowthRealNumber, ARootOfDegreeFiftyOfAHugeNumberIsQuick) {
   EXPECT_LT(r, RealNumber(ten54 + 1));
 }
 
+// The derive fuzzer's ten-minute run: a product of such roots searched its
+// resultant (coefficients of thousands of bits) for a rational root by
+// bisection for 100 s. The search is skipped where it would be slow; the
+// product stays exact as an algebraic number.
+TEST(GrowthRealNumber, AProductOfRootsOfHugeNumbersIsQuick) {
+  Rational a = Rational(boost::multiprecision::pow(BigInt(10), 75) + 1);
+  Rational b = Rational(boost::multiprecision::pow(BigInt(10), 150) + 3);
+  RealNumber product = RealNumber::root(a, 2) * RealNumber::root(b, 3);
+  // sqrt(10^75) * cbrt(10^150) = 10^87.5, and both factors are a little above.
+  Rational low = Rational(boost::multiprecision::pow(BigInt(10), 87)) * 3;
+  EXPECT_GT(product, RealNumber(low));
+  EXPECT_LT(product, RealNumber(low * 2));
+}
+
 TEST(GrowthClassOrder, LexicographicOnRhoAlphaBetaGamma) {
   GrowthClass n_lg_n = GrowthClass::polylog(1, 1);
   GrowthClass n_lglg = GrowthClass::polylog(1, 0, 1);

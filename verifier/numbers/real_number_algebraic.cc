@@ -43,7 +43,26 @@ Rational simplest_between(const Rational& a, const Rational& b) {
 // below 1/q^2 leaves p/q as the simplest fraction in it (two fractions with
 // denominators at most q are 1/q^2 apart), so denominators up to 2^64 are
 // found. REQUIRES: sf has exactly one root in (lo, hi), signs at both ends.
+//
+// The search is an optimisation (a rational prints as a fraction and
+// compares at once); an algebraic node for a rational value is still exact.
+// So it is skipped where it would be slow: bisection takes about
+// log2(hi - lo) + 128 steps, each evaluating sf at a fraction whose size
+// grows with the step, and with coefficients of many thousands of bits
+// (products of roots of huge constants) that ran for minutes.
 std::optional<Rational> rational_root(const Polynomial& sf, Rational lo, Rational hi) {
+  uint64_t coefficient_bits = 0;
+  for (const Rational& c : sf.coefficients()) {
+    coefficient_bits += bit_length(numerator(c)) + bit_length(denominator(c));
+  }
+  Rational width = hi - lo;
+  uint64_t width_bits = bit_length(numerator(width)) -
+                        std::min(bit_length(numerator(width)), bit_length(denominator(width)));
+  constexpr uint64_t kMaxSearchCost = uint64_t{1} << 20;
+  if (width_bits > 1024 ||
+      coefficient_bits * static_cast<uint64_t>(sf.degree()) * (width_bits + 128) > kMaxSearchCost) {
+    return std::nullopt;
+  }
   int sign_lo = sf.sign_at(lo);
   for (int bits : {8, 32, 128}) {
     Rational width = Rational(1, BigInt(1) << bits);
