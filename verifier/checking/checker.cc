@@ -91,22 +91,29 @@ std::vector<BigInt> recurrence_divisors(const Recurrence& r) {
   return {found.begin(), found.end()};
 }
 
-std::vector<Size> harness_sizes(const Claim& claim, const BigInt& max_n, const BigInt& small,
-                                uint64_t seed) {
+SizePlan claim_size_plan(const Claim& claim, uint64_t max_bits, const BigInt& exhaustive_limit,
+                         uint64_t seed) {
   SizePlan plan;
   plan.divisors = recurrence_divisors(*claim.recurrence);
-  plan.max_bits = std::max<uint64_t>(1, bit_length(max_n));
+  plan.max_bits = max_bits;
   plan.min_n = claim.sizes.min_n.value_or(BigInt(1));
   if (!claim.bound.is_asymptotic()) plan.min_n = std::max(plan.min_n, claim.bound.n0);
+  plan.exhaustive_limit = exhaustive_limit;
+  plan.seed = seed;
+  plan.families = claim.sizes.families;
+  return plan;
+}
+
+std::vector<Size> harness_sizes(const Claim& claim, const BigInt& max_n, const BigInt& small,
+                                uint64_t seed) {
+  SizePlan plan = claim_size_plan(claim, std::max<uint64_t>(1, bit_length(max_n)),
+                                  std::min(small, max_n), seed);
   if (plan.min_n > max_n) {
     throw InputError(Diagnostic{claim.where,
                                 "the largest size asked for, " + max_n.str() +
                                     ", is below the claim's smallest, " + plan.min_n.str(),
                                 "raise --max"});
   }
-  plan.exhaustive_limit = std::min(small, max_n);
-  plan.seed = seed;
-  plan.families = claim.sizes.families;
   std::vector<Size> sizes = generate_sizes(plan);
   while (!sizes.empty() && sizes.back().n > max_n) sizes.pop_back();
   return sizes;

@@ -59,6 +59,12 @@ RunResult check_entries(const std::vector<ClaimEntry>& entries, const CheckOptio
 // conditions: the bases the size families build on. Always contains 2.
 std::vector<BigInt> recurrence_divisors(const Recurrence& r);
 
+// The size plan of `claim`, as the check and `thetagate sizes` both build
+// it: the recurrence's divisors, the claim's families, and its smallest size
+// (its [claim.sizes] min_n, raised to an explicit bound's n0).
+SizePlan claim_size_plan(const Claim& claim, uint64_t max_bits, const BigInt& exhaustive_limit,
+                         uint64_t seed);
+
 // The sizes a harness should measure the code behind `claim` at, for costs
 // files written by code in any language (`thetagate sizes`): every n from the
 // claim's min_n to `small`, then every size family of the claim (its

@@ -125,14 +125,9 @@ void ClaimCheck::derive_bound() {
 }
 
 std::vector<Size> ClaimCheck::plan_sizes() {
-  SizePlan plan;
-  plan.divisors = recurrence_divisors(*claim_.recurrence);
-  plan.max_bits = options_.max_bits.value_or(claim_.sizes.max_bits.value_or(4096));
-  plan.min_n = claim_.sizes.min_n.value_or(BigInt(1));
-  if (!claim_.bound.is_asymptotic()) plan.min_n = std::max(plan.min_n, claim_.bound.n0);
-  plan.exhaustive_limit = options_.exhaustive_limit;
-  plan.seed = options_.seed;
-  plan.families = claim_.sizes.families;
+  SizePlan plan =
+      claim_size_plan(claim_, options_.max_bits.value_or(claim_.sizes.max_bits.value_or(4096)),
+                      options_.exhaustive_limit, options_.seed);
   min_n_ = plan.min_n;
   if (plan.min_n >= (BigInt(1) << plan.max_bits)) {
     // Sizes are below 2^max_bits: nothing would be checked. An error at the
