@@ -40,7 +40,11 @@ TheoremOutcome change_of_variables(const DerivationInput& input) {
     if (ch == 'n') ch = 'm';  // class text only has n as the variable
   }
   out.steps.push_back("f(2^m) = Θ(" + in_m + ")");
-  TheoremOutcome inner = master_on_class(t.a, Rational(static_cast<long>(t.k)), g, "f(2^m)");
+  // f(2^m) ~ C·g(m) only where f ~ C·(its class); otherwise case 3 on S
+  // compares with the drivers c₁ g and c₂ g instead of claiming regularity.
+  RegularityFacts facts;
+  facts.equivalent = input.driving.zero || input.driving.coefficient_known;
+  TheoremOutcome inner = master_on_class(t.a, Rational(static_cast<long>(t.k)), g, "f(2^m)", facts);
   if (!inner.applies()) {
     out.failure = "the master theorem on S(m) does not apply: " + inner.failure;
     return out;

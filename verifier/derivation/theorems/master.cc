@@ -44,10 +44,68 @@ std::vector<Size> regularity_sizes(const Rational& divisor) {
   return sizes;
 }
 
+// "a f(floor(n/b)) >= f(n) at every n ≡ 1 (mod 4) from n = 64 (...)", with a
+// few members checked exactly.
+std::string family_sentence(const RegularityFamily& family, const Rational& a,
+                            const Rational& scale, const DerivationInput& input) {
+  std::vector<std::string> members;
+  NumericContext ctx;
+  for (BigInt n = family.from; members.size() < 3 && n < family.from + 4 * family.modulus + 4;
+       ++n) {
+    if (floor_mod(n, BigInt(family.modulus)) != BigInt(family.residue)) continue;
+    auto fn = input.driving_at(n);
+    auto fm = input.driving_at(floor_of(Rational(n) * scale));
+    if (!fn || !fm) continue;
+    try {
+      if (compare(mul(Value(a), *fm, ctx), *fn, ctx) >= 0) members.push_back(n.str());
+    } catch (const PrecisionShortfall&) {
+    }
+  }
+  std::string list;
+  for (const auto& m : members) list += (list.empty() ? "" : ", ") + m;
+  std::string family_text = family.modulus == 1 ? "every n >= " + family.from.str()
+                                                : "every n ≡ " + std::to_string(family.residue) +
+                                                      " (mod " + std::to_string(family.modulus) +
+                                                      ") from n = " + family.from.str();
+  return "a f(floor(n/b)) >= f(n) at " + family_text +
+         " (an infinite family, proved with certified expansions of f on that residue class)" +
+         (list.empty() ? "" : "; checked exactly at n = " + list);
+}
+
+// What case 3 may use about f beyond its class: for f known only up to
+// constant factors (case lines, 2^floor(lg n)), a regularity bound proved on f
+// itself, or the family on which it fails. Skipped outside case 3.
+RegularityFacts regularity_facts(const DerivationInput& input, const Rational& a,
+                                 const Rational& scale) {
+  RegularityFacts facts;
+  facts.equivalent = input.driving.coefficient_known;
+  const GrowthClass& f = *input.driving.growth;
+  if (facts.equivalent || a < 1 || !f.is_subexponential()) return facts;
+  RealNumber p = RealNumber::log(Rational(1) / scale, a);
+  const Shape& s = *input.shape;
+  if (compare(f.alpha, p) <= 0 || !s.driving) return facts;
+  if (std::optional<RegularityBound> bound =
+          prove_regularity(*s.driving, a, scale, input.helpers)) {
+    std::string c = to_string(bound->c);
+    facts.proved =
+        "a f(floor(n/b)) <= (" + c + ") f(n) for every n >= " + bound->from.str() +
+        ", proved for f itself with certified expansions" +
+        (bound->modulus > 1 ? " on each residue class of n mod " + std::to_string(bound->modulus)
+                            : std::string()) +
+        ", so regularity holds with c = " + c;
+  } else if (input.driving_at) {
+    if (std::optional<RegularityFamily> family =
+            regularity_failure_family(*s.driving, a, scale, input.helpers)) {
+      facts.fails = family_sentence(*family, a, scale, input);
+    }
+  }
+  return facts;
+}
+
 }  // namespace
 
 TheoremOutcome master_on_class(const Rational& a, const Rational& divisor, const GrowthClass& f,
-                               const std::string& f_text) {
+                               const std::string& f_text, const RegularityFacts& facts) {
   TheoremOutcome out;
   out.theorem = "master theorem";
   if (a < 1) {
@@ -59,7 +117,8 @@ TheoremOutcome master_on_class(const Rational& a, const Rational& divisor, const
   out.steps.push_back("a = " + to_string(a) + ", b = " + to_string(divisor) +
                       ": critical exponent p = log_b a = " + p.str() +
                       (p.is_rational() ? "" : " = " + p.digits()));
-  out.steps.push_back("f(n) = " + f_text + " = Θ(" + to_string(f) + ")");
+  out.steps.push_back((f_text == "f(n)" ? "f(n)" : "f(n) = " + f_text) + " = Θ(" + to_string(f) +
+                      ")");
   GrowthClass result;
   if (!f.is_subexponential()) {
     if (f.rho > RealNumber(1L)) {
@@ -92,11 +151,37 @@ TheoremOutcome master_on_class(const Rational& a, const Rational& divisor, const
       out.failure = "regularity fails: a f(n/b)/f(n) tends to " + limit.str() + " >= 1";
       return out;
     }
-    out.steps.push_back("regularity: a f(n/b)/f(n) tends to a/b^α = " + limit.str() +
+    std::string tends = "a g(n/b)/g(n) tends to a/b^α = " + limit.str() +
                         (limit.is_rational() ? "" : " = " + limit.digits()) +
-                        " < 1, so a f(n/b) <= c f(n) for any c in (" + limit.str() +
-                        ", 1) and all large n");
+                        " < 1, so a g(n/b) <= c g(n) for any c in (" + limit.str() +
+                        ", 1) and all large n";
     out.method = "master theorem, case 3";
+    if (facts.equivalent) {
+      std::string g = to_string(f);
+      out.steps.push_back(
+          "regularity: f(n) ~ C·" + g + " with C > 0, so a f(n/b)/f(n) tends to " +
+          "a/b^α = " + limit.str() + (limit.is_rational() ? "" : " = " + limit.digits()) +
+          " < 1, and a f(n/b) <= c f(n) for any c in (" + limit.str() + ", 1) and all large n");
+    } else if (!facts.proved.empty()) {
+      out.steps.push_back("regularity: " + facts.proved);
+    } else {
+      // No regularity claimed for f: T is squeezed between two recurrences
+      // whose drivers are constant multiples of g, each regular.
+      std::string g = to_string(f);
+      if (!facts.fails.empty())
+        out.steps.push_back("regularity fails for f itself: " + facts.fails);
+      else
+        out.steps.push_back(
+            "regularity is not claimed for f itself: f = Θ(" + g +
+            ") fixes f only up to constant factors, and a f(n/b)/f(n) need not settle below 1");
+      out.steps.push_back(
+          "comparison: c₁ g(n) <= f(n) <= c₂ g(n) for all large n, with g(n) = " + g +
+          "; the recursion's coefficient a is positive, so T lies between the solutions of the "
+          "same recursion with drivers c₁ g and c₂ g (their base values adjusted for the "
+          "finitely many smaller n)");
+      out.steps.push_back("for the driver g: " + tends + ": case 3 gives Θ(g) for both");
+      out.method = "comparison with the driver " + g + ": master theorem, case 3";
+    }
     result = f;
   } else {
     int b = f.beta.sign();
@@ -203,7 +288,8 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
     }
   } else if (input.driving.growth) {
     std::string text = s.driving ? print(*s.driving) : "f(n)";
-    out = master_on_class(t.a, divisor, *input.driving.growth, text);
+    out = master_on_class(t.a, divisor, *input.driving.growth, text,
+                          regularity_facts(input, t.a, t.b));
   } else if (input.driving_lower && input.driving_upper && t.a >= 1) {
     RealNumber p = RealNumber::log(divisor, t.a);
     if (input.driving_upper->is_subexponential() && input.driving_upper->alpha < p) {
@@ -223,33 +309,9 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
       if (s.driving) {
         if (std::optional<RegularityFamily> family =
                 regularity_failure_family(*s.driving, t.a, t.b, input.helpers)) {
-          std::vector<std::string> members;
-          NumericContext ctx;
-          for (BigInt n = family->from;
-               members.size() < 3 && n < family->from + 4 * family->modulus + 4; ++n) {
-            if (floor_mod(n, BigInt(family->modulus)) != BigInt(family->residue)) continue;
-            auto fn = input.driving_at(n);
-            auto fm = input.driving_at(floor_of(Rational(n) * t.b));
-            if (!fn || !fm) continue;
-            try {
-              if (compare(mul(Value(t.a), *fm, ctx), *fn, ctx) >= 0) members.push_back(n.str());
-            } catch (const PrecisionShortfall&) {
-            }
-          }
-          std::string list;
-          for (const auto& m : members) list += (list.empty() ? "" : ", ") + m;
-          std::string family_text = family->modulus == 1
-                                        ? "every n >= " + family->from.str()
-                                        : "every n ≡ " + std::to_string(family->residue) +
-                                              " (mod " + std::to_string(family->modulus) +
-                                              ") from n = " + family->from.str();
           out.failure =
-              "case 3 needs the regularity condition a f(n/b) <= c f(n) with c < 1, but a "
-              "f(floor(n/b)) >= f(n) at " +
-              family_text +
-              " (an infinite family, proved with certified expansions of f on that residue "
-              "class)" +
-              (list.empty() ? "" : "; checked exactly at n = " + list) +
+              "case 3 needs the regularity condition a f(n/b) <= c f(n) with c < 1, but " +
+              family_sentence(*family, t.a, t.b, input) +
               ": case 3 is refused (its conclusion T(n) = Θ(f(n)) would be false)";
           return out;
         }
