@@ -425,6 +425,10 @@ class ReportReader {
       e.agreement = a == "same"    ? Agreement::kSame
                     : a == "loose" ? Agreement::kLoose
                                    : Agreement::kContradicts;
+      if (optional_key(*t, "relation")) {
+        std::string r = string_at(*t, at, "relation");
+        e.relation = r == "O" ? "O" : r == "Omega" ? "Ω" : "Θ";
+      }
       e.claimed_below = optional_key(*t, "claimed_below") &&
                         boolean_value(require(*t, at, "claimed_below"), join(at, "claimed_below"));
       b.theorem = e;

@@ -79,6 +79,8 @@ Json basis_json(const VerdictBasis& b) {
     Json th;
     th["method"] = t.method;
     th["derived"] = t.derived;
+    // Only a one-sided derivation says how it bounds T (absent: Θ).
+    if (t.relation != "Θ") th["relation"] = t.relation == "O" ? "O" : "Omega";
     th["claimed"] = t.claimed;
     th["kind"] = t.kind;
     th["agreement"] = t.agreement == Agreement::kSame    ? "same"

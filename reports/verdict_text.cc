@@ -26,7 +26,8 @@ std::string not_proved_phrase(const ClaimResult& c) {
 }
 
 std::string theorem_versus(const TheoremEvidence& t) {
-  return "claimed " + t.kind + "(" + t.claimed + "), derived Θ(" + t.derived + ") by " + t.method;
+  return "claimed " + t.kind + "(" + t.claimed + "), derived " + t.relation + "(" + t.derived +
+         ") by " + t.method;
 }
 
 std::string edges_phrase(const TrendEvidence& t) {

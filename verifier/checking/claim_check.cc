@@ -117,7 +117,7 @@ void ClaimCheck::derive_bound() {
   // derive() throws nothing for a valid model: what escapes is a bug, and
   // check_entry reports it on this claim.
   derivation_ = derive(*claim_.recurrence, options_.clock_limit);
-  if (!derivation_->derived.empty()) result_.derived = "Theta(" + derivation_->derived + ")";
+  result_.derived = derivation_->bound_text();
   result_.method = derivation_->method;
   result_.function = claim_.recurrence->main.name;
   result_.steps = derivation_->steps;

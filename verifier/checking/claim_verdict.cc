@@ -157,7 +157,7 @@ void ClaimCheck::check_asymptotic(const std::vector<Size>& sizes) {
     case ClaimAgreement::kHoldsLoosely:
     case ClaimAgreement::kContradicts: {
       TheoremEvidence evidence{derivation_->method,
-                               derivation_->derived,
+                               to_string(*cmp.derived),
                                to_string(*cmp.claimed),
                                bound_kind_name(bound.kind),
                                cmp.agreement == ClaimAgreement::kAgree ? Agreement::kSame
@@ -165,6 +165,7 @@ void ClaimCheck::check_asymptotic(const std::vector<Size>& sizes) {
                                    ? Agreement::kLoose
                                    : Agreement::kContradicts,
                                cmp.claimed_below};
+      evidence.relation = cmp.relation;
       result_.basis.theorem = evidence;
       std::vector<EdgeDisagreement> disagreement = consistency(all);
       if (!disagreement.empty()) {

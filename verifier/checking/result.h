@@ -108,6 +108,7 @@ struct TheoremEvidence {
   std::string kind;     // "Theta", "O", "Omega"
   Agreement agreement = Agreement::kSame;
   bool claimed_below = false;  // for kContradicts: the claimed class is the smaller one
+  std::string relation = "Θ";  // how the derivation bounds T: "Θ", or "O"/"Ω" one-sided
 };
 
 // A proof of an explicit bound by induction on n (the substitution method).

@@ -235,7 +235,26 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
     }
   }
   if (d.growth) d.derived = to_string(*d.growth);
+  if (!d.growth) {
+    // No Θ class: the first one-sided bound a theorem found by comparison.
+    for (const TheoremOutcome& o : d.outcomes) {
+      if (!o.upper && !o.lower) continue;
+      d.upper = o.upper;
+      d.lower = o.lower;
+      d.method = o.bounds_method;
+      d.steps = o.bounds_steps;
+      break;
+    }
+  }
   return d;
+}
+
+std::string Derivation::bound_text() const {
+  if (growth) return "Theta(" + to_string(*growth) + ")";
+  std::string s;
+  if (upper) s = "O(" + to_string(*upper) + ")";
+  if (lower) s += (s.empty() ? "" : " and ") + std::string("Omega(") + to_string(*lower) + ")";
+  return s;
 }
 
 const char* claim_agreement_name(ClaimAgreement a) {
@@ -256,6 +275,45 @@ const char* claim_agreement_name(ClaimAgreement a) {
   return "?";
 }
 
+namespace {
+
+// The claim against T(n) = O(upper) and/or Ω(lower): O(g) holds when g is at
+// least the upper bound and is refuted when g is below the lower one; Ω(g)
+// the other way round; Θ(g) can only be refuted (outside [lower, upper]).
+ClaimComparison compare_one_sided(const Derivation& derivation, const Bound& bound,
+                                  ClaimComparison r) {
+  const GrowthClass& g = *r.claimed;
+  r.agreement = ClaimAgreement::kNoDerivation;
+  auto settle = [&](ClaimAgreement a, const GrowthClass& derived, const char* relation,
+                    bool claimed_below) {
+    r.agreement = a;
+    r.derived = derived;
+    r.relation = relation;
+    r.claimed_below = claimed_below;
+  };
+  try {
+    bool upper_side = bound.kind == BoundKind::kBigO || bound.kind == BoundKind::kTheta;
+    bool lower_side = bound.kind == BoundKind::kOmega || bound.kind == BoundKind::kTheta;
+    if (upper_side && derivation.lower && compare(g, *derivation.lower) < 0) {
+      settle(ClaimAgreement::kContradicts, *derivation.lower, "Ω", true);
+    } else if (lower_side && derivation.upper && compare(g, *derivation.upper) > 0) {
+      settle(ClaimAgreement::kContradicts, *derivation.upper, "O", false);
+    } else if (bound.kind == BoundKind::kBigO && derivation.upper &&
+               compare(g, *derivation.upper) >= 0) {
+      settle(ClaimAgreement::kHoldsLoosely, *derivation.upper, "O", false);
+    } else if (bound.kind == BoundKind::kOmega && derivation.lower &&
+               compare(g, *derivation.lower) <= 0) {
+      settle(ClaimAgreement::kHoldsLoosely, *derivation.lower, "Ω", false);
+    }
+  } catch (const PrecisionShortfall& e) {
+    r.agreement = ClaimAgreement::kCannotClassifyClaim;
+    r.detail = std::string("the claimed and derived classes could not be ordered: ") + e.what();
+  }
+  return r;
+}
+
+}  // namespace
+
 ClaimComparison compare_with_derivation(const Derivation& derivation, const Bound& bound) {
   ClaimComparison r;
   if (!bound.is_asymptotic()) {
@@ -269,10 +327,12 @@ ClaimComparison compare_with_derivation(const Derivation& derivation, const Boun
     return r;
   }
   r.claimed = g.growth;
+  if (derivation.one_sided()) return compare_one_sided(derivation, bound, r);
   if (!derivation.growth) {
     r.agreement = ClaimAgreement::kNoDerivation;
     return r;
   }
+  r.derived = derivation.growth;
   int c;
   try {
     c = compare(*g.growth, *derivation.growth);

@@ -26,8 +26,16 @@ struct Derivation {
   std::vector<std::string> reasons;
   std::vector<TheoremOutcome> outcomes;  // every theorem tried, in order
   std::vector<std::string> notes;        // the model's notes (n/2 read as floor ...)
+  // When no Θ class was derived but a theorem bounds T on one side or both
+  // (by comparison with drivers that bound f): T(n) = O(*upper) and/or
+  // Ω(*lower); method and steps are then that bound's. Empty with growth.
+  std::optional<GrowthClass> upper, lower;
 
   bool derived_class() const { return growth.has_value(); }
+  bool one_sided() const { return !growth && (upper || lower); }
+  // What was derived, in the claim language: "Theta(n^2)", "O(n^3)",
+  // "O(n^3) and Omega(n^2)", or "" when nothing was.
+  std::string bound_text() const;
 };
 
 // REQUIRES: a model from build_recurrence. Evaluates T and f exactly where a
@@ -50,6 +58,10 @@ struct ClaimComparison {
   ClaimAgreement agreement = ClaimAgreement::kNoDerivation;
   bool tight = false;
   std::optional<GrowthClass> claimed;
+  // The derived class the claim was measured against and how it bounds T:
+  // "Θ" for a derived class, "O" or "Ω" for a one-sided derivation.
+  std::optional<GrowthClass> derived;
+  std::string relation = "Θ";
   // kCannotClassifyClaim: why the claimed class has no normal form (or could
   // not be ordered); empty otherwise. reports/ composes the sentences.
   std::string detail;

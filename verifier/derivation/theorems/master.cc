@@ -102,6 +102,42 @@ RegularityFacts regularity_facts(const DerivationInput& input, const Rational& a
   return facts;
 }
 
+// f lies between c₁·lower and c₂·upper for large n (every case line is of a
+// class between the two), and a > 0, so T lies between the recurrences driven
+// by those classes; the master theorem solves each on its class. Sets the
+// one-sided bounds of `out` (it stays without a Θ class).
+void bound_by_comparison(const Rational& a, const Rational& divisor, const DerivationInput& input,
+                         TheoremOutcome& out) {
+  const GrowthClass& upper = *input.driving_upper;
+  const GrowthClass& lower = *input.driving_lower;
+  TheoremOutcome up = master_on_class(a, divisor, upper, to_string(upper));
+  TheoremOutcome low = master_on_class(a, divisor, lower, to_string(lower));
+  if (!up.applies() && !low.applies()) return;
+  out.bounds_steps.push_back("every case line of f is of a class between Θ(" + to_string(lower) +
+                             ") and Θ(" + to_string(upper) + "), so c₁ " + to_string(lower) +
+                             " <= f(n) <= c₂ " + to_string(upper) + " for all large n");
+  out.bounds_steps.push_back(
+      "comparison: the recursion's coefficient a is positive, so T lies between the solutions "
+      "of the same recursion driven by those two bounds (their base values adjusted for the "
+      "finitely many smaller n)");
+  std::string conclusion;
+  if (up.applies()) {
+    out.upper = up.growth;
+    out.bounds_steps.push_back("driven by " + to_string(upper) + ": " + up.method + ", Θ(" +
+                               to_string(*up.growth) + ")");
+    conclusion = "T(n) = O(" + to_string(*up.growth) + ")";
+  }
+  if (low.applies()) {
+    out.lower = low.growth;
+    out.bounds_steps.push_back("driven by " + to_string(lower) + ": " + low.method + ", Θ(" +
+                               to_string(*low.growth) + ")");
+    conclusion += (conclusion.empty() ? "T(n) = Ω(" : " and Ω(") + to_string(*low.growth) + ")";
+  }
+  out.bounds_steps.push_back(conclusion);
+  out.bounds_method = "comparison with the drivers " + to_string(lower) + " and " +
+                      to_string(upper) + ": master theorem";
+}
+
 }  // namespace
 
 TheoremOutcome master_on_class(const Rational& a, const Rational& divisor, const GrowthClass& f,
@@ -292,6 +328,16 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
                           regularity_facts(input, t.a, t.b));
   } else if (input.driving_lower && input.driving_upper && t.a >= 1) {
     RealNumber p = RealNumber::log(divisor, t.a);
+    // No Θ class from the theorem itself: T is still bounded on each side by
+    // comparison with the extremes of f's case lines.
+    auto with_bounds = [&](TheoremOutcome& o) -> TheoremOutcome& {
+      bound_by_comparison(t.a, divisor, input, o);
+      if (!o.bounds_steps.empty()) {
+        if (!rounding.empty()) o.bounds_steps.insert(o.bounds_steps.begin(), rounding);
+        o.bounds_steps.insert(o.bounds_steps.begin(), prefix.begin(), prefix.end());
+      }
+      return o;
+    };
     if (input.driving_upper->is_subexponential() && input.driving_upper->alpha < p) {
       out = master_on_class(t.a, divisor, *input.driving_upper, "f(n) (at most)");
       if (out.applies())
@@ -303,7 +349,7 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
       if (!input.driving_at) {
         out.failure =
             "case 3 needs the regularity condition, which cannot be checked without values of f";
-        return out;
+        return with_bounds(out);
       }
       // An infinite family of sizes where regularity fails, proved per residue.
       if (s.driving) {
@@ -313,7 +359,7 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
               "case 3 needs the regularity condition a f(n/b) <= c f(n) with c < 1, but " +
               family_sentence(*family, t.a, t.b, input) +
               ": case 3 is refused (its conclusion T(n) = Θ(f(n)) would be false)";
-          return out;
+          return with_bounds(out);
         }
       }
       std::vector<std::string> failing;
@@ -345,10 +391,10 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
                       std::to_string(tested) +
                       " sizes tested, which is evidence, not a proof: case 3 is not applied";
       }
-      return out;
+      return with_bounds(out);
     } else {
       out.failure = "f(n) has no growth class: " + input.driving.reason;
-      return out;
+      return with_bounds(out);
     }
   } else {
     out.failure = "f(n) has no growth class: " + input.driving.reason;

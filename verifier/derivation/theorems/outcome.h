@@ -21,6 +21,12 @@ struct TheoremOutcome {
   std::optional<GrowthClass> growth;  // T(n) = Θ(growth) when it applies
   std::vector<std::string> steps;     // a reviewer's steps, in order (unnumbered)
   std::string failure;                // when it does not apply: the failing hypothesis
+  // When no Θ class follows but T is bounded on one side or both by
+  // comparison with drivers that bound f: T(n) = O(*upper), T(n) = Ω(*lower),
+  // with the method and the steps that show it.
+  std::optional<GrowthClass> upper, lower;
+  std::string bounds_method;
+  std::vector<std::string> bounds_steps;
 
   bool applies() const { return growth.has_value(); }
 };
