@@ -56,6 +56,7 @@ Claim Claim::from_text(const std::string& name, const std::string& recurrence,
   claim.recurrence = engine::recurrence_from_text(recurrence, "<recurrence>");
   claim.bound =
       engine::parse_bound(engine::SourceText::whole("<bound>", bound), claim.recurrence->main.name);
+  engine::check_bound_fits(*claim.recurrence, claim.bound);
   claim.note = settings.note;
   if (settings.max_bits && (*settings.max_bits < 1 || *settings.max_bits > 65536)) {
     bad_setting("max_bits must be between 1 and 65536, found " + std::to_string(*settings.max_bits),

@@ -12,6 +12,10 @@ std::string render_derivation_text(const Derivation& d) {
   std::string out;
   if (d.growth) {
     out += fmt::format("T(n) = Θ({})  by {}\n", d.derived, d.method);
+  } else if (d.one_sided()) {
+    std::string bound = d.upper ? "O(" + to_string(*d.upper) + ")" : "";
+    if (d.lower) bound += (bound.empty() ? "Ω(" : " and Ω(") + to_string(*d.lower) + ")";
+    out += fmt::format("T(n) = {}  by {}\n", bound, d.method);
   } else {
     out += "no theorem applies: the class is not derived\n";
   }
@@ -41,6 +45,11 @@ std::string render_derivation_json(const Derivation& d) {
   for (const auto& r : d.reasons) reasons.push_back(r);
   j["reasons"] = reasons;
   j["steps"] = d.steps;
+  // One-sided bounds, present only when no Θ class was derived.
+  if (d.one_sided()) {
+    j["upper"] = d.upper ? to_string(*d.upper) : "";
+    j["lower"] = d.lower ? to_string(*d.lower) : "";
+  }
   j["not_applied"] = d.reasons;
   j["notes"] = d.notes;
   return json_escape_controls(j.dump(2, ' ', false, nlohmann::json::error_handler_t::replace)) +

@@ -104,6 +104,14 @@ void ClaimCheck::check_explicit(const std::vector<Size>& sizes) {
 }
 
 InductionOutcome ClaimCheck::try_induction(const Bound& bound) {
+  if (!claim_.recurrence->class_terms.empty()) {
+    // The values are those of one member of each class term: an induction
+    // on them would prove the claim for that member only.
+    InductionOutcome none;
+    none.failure = "no proof by induction: the growth classes in " + claim_.recurrence->main.name +
+                   " stand for any function of each class, and the exact values are one member's";
+    return none;
+  }
   InductionRequest request;
   request.recurrence = claim_.recurrence.get();
   request.bound = &bound;

@@ -80,8 +80,84 @@ void driving_extremes(const std::vector<ExprPtr>& alternatives, const HelperTabl
   }
 }
 
+// f's additive terms with their signs (+1 or -1).
+void additive_terms(const ExprPtr& e, int sign, std::vector<std::pair<ExprPtr, int>>& out) {
+  if (e->kind == ExprKind::kAdd || e->kind == ExprKind::kSub) {
+    additive_terms(e->args[0], sign, out);
+    additive_terms(e->args[1], e->kind == ExprKind::kAdd ? sign : -sign, out);
+  } else if (e->kind == ExprKind::kNeg) {
+    additive_terms(e->args[0], -sign, out);
+  } else {
+    out.push_back({e, sign});
+  }
+}
+
+// f with growth classes as terms (f = rest + Θ(g) + O(h) + Ω(k)): its class
+// where every term is Θ; otherwise the class of its upper bound (rest + g +
+// h, none with an Ω term) and of its lower bound (rest + g + k, or nothing).
+// The model put each class's representative in the class's place; a term of
+// f equal to a representative is taken as that class (once per class term).
+void classify_class_driving(const Shape& shape, const Recurrence& rec, DerivationInput& input) {
+  input.driving_is_class = true;
+  std::vector<std::pair<ExprPtr, int>> terms;
+  additive_terms(shape.driving, 1, terms);
+  std::vector<bool> used(rec.class_terms.size(), false);
+  ExprPtr upper, lower;
+  bool has_upper = true;
+  bool one_sided = false;
+  auto append = [](ExprPtr& sum, const ExprPtr& t, int sign) {
+    if (!sum) {
+      sum = sign > 0 ? t : make_unary(ExprKind::kNeg, t);
+    } else {
+      sum = make_binary(sign > 0 ? ExprKind::kAdd : ExprKind::kSub, sum, t);
+    }
+  };
+  for (const auto& [t, sign] : terms) {
+    std::optional<ClassTermKind> kind;
+    for (size_t i = 0; i < rec.class_terms.size() && sign > 0; ++i) {
+      const ClassTerm& c = rec.class_terms[i];
+      if (used[i] || c.base_case || !same_tree(*t, *c.representative)) continue;
+      used[i] = true;
+      kind = c.kind;
+      break;
+    }
+    if (kind == ClassTermKind::kOmega) {
+      has_upper = false;
+      one_sided = true;
+    }
+    if (kind == ClassTermKind::kBigO) one_sided = true;
+    if (kind != ClassTermKind::kOmega) append(upper, t, sign);
+    if (kind != ClassTermKind::kBigO) append(lower, t, sign);
+  }
+  if (!one_sided) {
+    input.driving = classify(*shape.driving, &rec.helpers);
+    input.driving.coefficient_known = false;  // any function of the class
+    return;
+  }
+  input.driving_one_sided = true;
+  input.driving.reason =
+      "f(n) has an O or Ω term, which bounds it on one side only, so it has no class";
+  if (has_upper) {
+    Classification u = classify(*upper, &rec.helpers);
+    if (u) input.driving_upper = u.growth;
+  }
+  if (!lower) {
+    input.driving_lower_zero = true;
+  } else {
+    Classification l = classify(*lower, &rec.helpers);
+    if (l) input.driving_lower = l.growth;
+  }
+}
+
 void classify_driving(const Shape& shape, const Recurrence& rec, DerivationInput& input) {
   const HelperTable* helpers = &rec.helpers;
+  bool class_terms = false;
+  for (const ClassTerm& c : rec.class_terms) class_terms = class_terms || !c.base_case;
+  if (class_terms && shape.driving) {
+    classify_class_driving(shape, rec, input);
+    return;
+  }
+  input.driving_is_class = class_terms;
   if (shape.has_driving_cases()) {
     std::vector<ExprPtr> alternatives;
     std::vector<Classification> classes;

@@ -1,6 +1,7 @@
 #include "verifier/model/bound.h"
 
 #include "verifier/evaluation/expression_eval.h"
+#include "verifier/model/recurrence.h"
 #include "verifier/syntax/parser.h"
 
 namespace thetagate::engine {
@@ -58,6 +59,17 @@ std::string Bound::text() const {
   size_t a = t.find_first_not_of(" \t\r\n");
   size_t z = t.find_last_not_of(" \t\r\n");
   return a == std::string::npos ? "" : t.substr(a, z - a + 1);
+}
+
+void check_bound_fits(const Recurrence& recurrence, const Bound& bound) {
+  if (bound.is_asymptotic() || recurrence.class_terms.empty()) return;
+  const ClassTerm& t = recurrence.class_terms.front();
+  std::string written = std::string(class_term_name(t.kind)) + "(" + print(*t.representative) + ")";
+  fail_at(recurrence.source, t.pos,
+          "an explicit bound needs the exact values of " + recurrence.main.name + ", but " +
+              written + " stands for any function of that class",
+          "claim a class instead (Theta(...), O(...), Omega(...)), or write the cost exactly, "
+          "e.g. n - 1 in place of Θ(n)");
 }
 
 const char* bound_kind_name(BoundKind kind) {

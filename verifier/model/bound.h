@@ -38,6 +38,13 @@ struct Bound {
 // explicit bound must mention function(n) exactly once per side.
 Bound parse_bound(const SourceText& source, const std::string& function = "T");
 
+struct Recurrence;
+
+// Throws InputError when the bound cannot be checked against the recurrence:
+// an explicit bound (exact values) against a recurrence with a growth class
+// as a term (T(n) = 2T(n/2) + Θ(n): the values of T are not determined).
+void check_bound_fits(const Recurrence& recurrence, const Bound& bound);
+
 // The kind's name as reports print it: "Theta", "O", "Omega", "explicit".
 const char* bound_kind_name(BoundKind kind);
 

@@ -430,6 +430,7 @@ ClaimEntry ClaimFileReader::read_claim(const toml::table& t) {
     if (const toml::node* code = t.get("code")) claim.code = read_code(*code);
     claim.recurrence = build_recurrence(text_of(*t.get("recurrence"), recurrence));
     claim.bound = parse_bound(text_of(*t.get("bound"), bound), claim.recurrence->main.name);
+    check_bound_fits(*claim.recurrence, claim.bound);
     entry.claim = std::move(claim);
   } catch (const InputError& e) {
     entry.error = e.diagnostic();

@@ -312,6 +312,138 @@ std::vector<const CaseLine*> Function::lines_in_order() const {
   return lines;
 }
 
+namespace {
+
+bool is_class_call(const Expr& e) {
+  return e.kind == ExprKind::kCall && (e.name == "Theta" || e.name == "O" || e.name == "Omega");
+}
+
+const Expr* find_class_call(const Expr& e) {
+  if (is_class_call(e)) return &e;
+  for (const auto& a : e.args) {
+    if (const Expr* found = find_class_call(*a)) return found;
+  }
+  return nullptr;
+}
+
+// "Θ", "O", "Ω" for the class call's name.
+std::string class_symbol(const std::string& name) {
+  return name == "Theta" ? "Θ" : name == "Omega" ? "Ω" : name;
+}
+
+const char* const kClassTermHint =
+    "a class stands as a term of its own, added to the rest of the line: "
+    "T(n) = 2T(n/2) + Θ(n), or T(1) = Θ(1)";
+
+// Replaces each class term Θ(g) on an added (never subtracted) top-level
+// position of `e` by g, recording it; a class anywhere else is an error.
+ExprPtr lift_class_terms(const ExprPtr& e, bool additive, bool base_case, Recurrence& r,
+                         const SourceText& source) {
+  if (e->kind == ExprKind::kAdd || e->kind == ExprKind::kSub) {
+    ExprPtr a = lift_class_terms(e->args[0], additive, base_case, r, source);
+    ExprPtr b =
+        lift_class_terms(e->args[1], additive && e->kind == ExprKind::kAdd, base_case, r, source);
+    if (a == e->args[0] && b == e->args[1]) return e;
+    return make_binary(e->kind, a, b, e->pos);
+  }
+  if (is_class_call(*e)) {
+    if (!additive) {
+      fail_at(source, e->pos,
+              "a growth class " + class_symbol(e->name) + "(...) subtracted or nested here",
+              kClassTermHint);
+    }
+    if (e->args.size() != 1) {
+      fail_at(source, e->pos, "'" + e->name + "' takes one argument, the growth in n",
+              "write " + e->name + "(n lg n)");
+    }
+    const ExprPtr& g = e->args[0];
+    if (const Expr* inner = find_class_call(*g)) {
+      fail_at(source, inner->pos, "a growth class inside another", kClassTermHint);
+    }
+    std::vector<const Expr*> recursive;
+    collect_calls(g, r.main.name, recursive);
+    if (!recursive.empty()) {
+      fail_at(source, recursive.front()->pos,
+              "a growth class mentions " + r.main.name + "; it is a function of n alone",
+              "write Θ(n), O(n^2), Ω(lg n)");
+    }
+    ClassTerm term;
+    term.kind = e->name == "O"       ? ClassTermKind::kBigO
+                : e->name == "Omega" ? ClassTermKind::kOmega
+                                     : ClassTermKind::kTheta;
+    term.representative = g;
+    term.base_case = base_case;
+    term.pos = e->pos;
+    r.class_terms.push_back(term);
+    return g;
+  }
+  if (const Expr* nested = find_class_call(*e)) {
+    fail_at(source, nested->pos,
+            "a growth class " + class_symbol(nested->name) + "(...) nested in a term",
+            kClassTermHint);
+  }
+  return e;
+}
+
+// Lifts the class terms of T's lines and refuses them everywhere else.
+void lift_all_class_terms(Recurrence& r, const SourceText& source) {
+  auto refuse = [&](const ExprPtr& e, const std::string& where) {
+    if (!e) return;
+    if (const Expr* c = find_class_call(*e)) {
+      fail_at(source, c->pos, "a growth class " + class_symbol(c->name) + "(...) in " + where,
+              "a class may stand only as a term of " + r.main.name +
+                  "'s own lines: " + r.main.name + "(n) = 2" + r.main.name + "(n/2) + Θ(n)");
+    }
+  };
+  auto lift = [&](CaseLine& line) {
+    refuse(line.condition, "a condition");
+    std::vector<const Expr*> recursive;
+    collect_calls(line.body, r.main.name, recursive);
+    line.body = lift_class_terms(line.body, true, recursive.empty(), r, source);
+  };
+  for (auto& l : r.main.points) lift(l);
+  for (auto& l : r.main.conditional) lift(l);
+  if (r.main.fallback) lift(*r.main.fallback);
+  std::stable_sort(r.class_terms.begin(), r.class_terms.end(),
+                   [](const ClassTerm& a, const ClassTerm& b) { return a.pos < b.pos; });
+  for (const auto& [name, h] : r.helpers) {
+    for (const CaseLine* line : h.lines_in_order()) {
+      refuse(line->body, "helper " + name);
+      refuse(line->condition, "a condition");
+    }
+  }
+}
+
+}  // namespace
+
+const char* class_term_name(ClassTermKind kind) {
+  switch (kind) {
+    case ClassTermKind::kTheta:
+      return "Θ";
+    case ClassTermKind::kBigO:
+      return "O";
+    case ClassTermKind::kOmega:
+      return "Ω";
+  }
+  return "?";
+}
+
+namespace {
+
+std::string class_terms_note(const Recurrence& r) {
+  std::string listed;
+  for (const ClassTerm& t : r.class_terms) {
+    std::string g = print(*t.representative);
+    listed +=
+        (listed.empty() ? "" : ", ") + std::string(class_term_name(t.kind)) + "(" + g + ") by " + g;
+  }
+  return "the growth classes in " + r.main.name +
+         " stand for some function of each class; exact values use one member of each (" + listed +
+         "), so a refutation holds for that member, and a proof comes from the theorems alone";
+}
+
+}  // namespace
+
 std::shared_ptr<const Recurrence> build_recurrence(const SourceText& source) {
   std::vector<Definition> defs = parse_definitions(source);
   auto r = std::make_shared<Recurrence>();
@@ -368,6 +500,7 @@ std::shared_ptr<const Recurrence> build_recurrence(const SourceText& source) {
     }
   }
 
+  lift_all_class_terms(*r, source);
   for (const CaseLine* line : r->main.lines_in_order()) {
     check_calls(*line->body, source, r->main.name, r->helpers, false, false, false);
     if (line->condition)
@@ -416,6 +549,7 @@ std::shared_ptr<const Recurrence> build_recurrence(const SourceText& source) {
                        "rounded down: " +
                        floor_example + " is read as floor(" + floor_example + ")");
   }
+  if (!r->class_terms.empty()) r->notes.push_back(class_terms_note(*r));
   if (r->default_base) {
     r->notes.push_back("no base case given: " + r->main.name +
                        "(n) = 1 assumed wherever the recursive line would not shrink its argument");

@@ -51,6 +51,21 @@ inline constexpr uint64_t kInlinedSizeCap = uint64_t{1} << 40;
 // 40 levels of f(n) = g(n) + g(n) would otherwise be 2^40 expansions.
 inline constexpr uint64_t kMaxInlinedHelperSize = 100'000;
 
+// A growth class written as a term of one of T's lines, T(n) = 2T(n/2) + Θ(n)
+// or T(1) = Θ(1): "some function of that class". The line keeps the class's
+// own function g (the representative) in its place, so exact values are those
+// of that one member and every report says so; the derivation reads the kind
+// (an O term bounds f from above only, an Ω term from below only). A proof
+// by induction would cover only the representative, so none is attempted.
+enum class ClassTermKind { kTheta, kBigO, kOmega };
+struct ClassTerm {
+  ClassTermKind kind = ClassTermKind::kTheta;
+  ExprPtr representative;  // g, as written inside the class
+  bool base_case = false;  // on a line without recursive calls
+  size_t pos = 0;          // where the class name stands
+};
+const char* class_term_name(ClassTermKind kind);  // "Θ", "O", "Ω"
+
 struct Recurrence {
   SourceText source;
   Function main;                            // the recursive function (first defined)
@@ -63,6 +78,8 @@ struct Recurrence {
   bool full_history = false;
   // Facts for the report, e.g. "inside T(...), n/2 is read as ⌊n/2⌋".
   std::vector<std::string> notes;
+  // Classes written as terms of T's lines, in the order written.
+  std::vector<ClassTerm> class_terms;
 
   // The text as the user wrote it (one line per definition).
   std::string text() const { return source.text; }

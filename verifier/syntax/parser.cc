@@ -373,7 +373,14 @@ ExprPtr Parser::parse_name(const Token& name) {
   if (name.text == "sum") return parse_sum_form(name);
   if (is_prefix_function(name.text)) return parse_prefix_function(name);
   if (at(TokenKind::kLeftParen)) {
-    return bounded(make_call(name.text, parse_arguments(name), name.pos));
+    // Inside a growth class (a term Θ(n log n) of a recurrence) only the
+    // class matters, so log without a base is read as lg.
+    bool growth_class = name.text == "Theta" || name.text == "O" || name.text == "Omega";
+    bool saved = unbased_log_ok_;
+    if (growth_class) unbased_log_ok_ = true;
+    std::vector<ExprPtr> args = parse_arguments(name);
+    unbased_log_ok_ = saved;
+    return bounded(make_call(name.text, std::move(args), name.pos));
   }
   std::string hint = "the size is written 'n'; functions take parentheses: f(n)";
   if (name.text.rfind("sum", 0) == 0 || name.text == "Sum" || name.text == "sigma") {

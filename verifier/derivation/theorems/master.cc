@@ -78,9 +78,11 @@ std::string family_sentence(const RegularityFamily& family, const Rational& a,
 RegularityFacts regularity_facts(const DerivationInput& input, const Rational& a,
                                  const Rational& scale) {
   RegularityFacts facts;
-  facts.equivalent = input.driving.coefficient_known;
+  facts.equivalent = input.driving.coefficient_known && !input.driving_is_class;
   const GrowthClass& f = *input.driving.growth;
-  if (facts.equivalent || a < 1 || !f.is_subexponential()) return facts;
+  // f given as a class (2T(n/2) + Θ(n^2)) is any function of it: nothing is
+  // proved on its representative, and case 3 goes by comparison.
+  if (facts.equivalent || input.driving_is_class || a < 1 || !f.is_subexponential()) return facts;
   RealNumber p = RealNumber::log(Rational(1) / scale, a);
   const Shape& s = *input.shape;
   if (compare(f.alpha, p) <= 0 || !s.driving) return facts;
@@ -103,39 +105,67 @@ RegularityFacts regularity_facts(const DerivationInput& input, const Rational& a
 }
 
 // f lies between c₁·lower and c₂·upper for large n (every case line is of a
-// class between the two), and a > 0, so T lies between the recurrences driven
-// by those classes; the master theorem solves each on its class. Sets the
-// one-sided bounds of `out` (it stays without a Θ class).
+// class between the two; or f has O/Ω terms), and a > 0, so T lies between
+// the recurrences driven by those bounds; the master theorem solves each on
+// its class. Sets the one-sided bounds of `out` (it stays without a Θ
+// class). A missing upper bound (an Ω term) gives a lower bound only; a zero
+// lower bound (f is only O(g)) still leaves T = Ω(n^p) from the leaves.
 void bound_by_comparison(const Rational& a, const Rational& divisor, const DerivationInput& input,
                          TheoremOutcome& out) {
-  const GrowthClass& upper = *input.driving_upper;
-  const GrowthClass& lower = *input.driving_lower;
-  TheoremOutcome up = master_on_class(a, divisor, upper, to_string(upper));
-  TheoremOutcome low = master_on_class(a, divisor, lower, to_string(lower));
-  if (!up.applies() && !low.applies()) return;
-  out.bounds_steps.push_back("every case line of f is of a class between Θ(" + to_string(lower) +
-                             ") and Θ(" + to_string(upper) + "), so c₁ " + to_string(lower) +
-                             " <= f(n) <= c₂ " + to_string(upper) + " for all large n");
-  out.bounds_steps.push_back(
-      "comparison: the recursion's coefficient a is positive, so T lies between the solutions "
-      "of the same recursion driven by those two bounds (their base values adjusted for the "
-      "finitely many smaller n)");
-  std::string conclusion;
-  if (up.applies()) {
-    out.upper = up.growth;
-    out.bounds_steps.push_back("driven by " + to_string(upper) + ": " + up.method + ", Θ(" +
-                               to_string(*up.growth) + ")");
-    conclusion = "T(n) = O(" + to_string(*up.growth) + ")";
+  std::optional<TheoremOutcome> up, low;
+  if (input.driving_upper) {
+    up = master_on_class(a, divisor, *input.driving_upper, to_string(*input.driving_upper));
   }
-  if (low.applies()) {
-    out.lower = low.growth;
-    out.bounds_steps.push_back("driven by " + to_string(lower) + ": " + low.method + ", Θ(" +
-                               to_string(*low.growth) + ")");
-    conclusion += (conclusion.empty() ? "T(n) = Ω(" : " and Ω(") + to_string(*low.growth) + ")";
+  std::string lower_text = input.driving_lower_zero ? "0" : "";
+  if (input.driving_lower) {
+    lower_text = to_string(*input.driving_lower);
+    low = master_on_class(a, divisor, *input.driving_lower, lower_text);
+  } else if (input.driving_lower_zero) {
+    // As in master_theorem for f = 0: through Θ(1/n), case 1 keeps n^p only.
+    low = master_on_class(a, divisor, GrowthClass::polylog(-1), "0");
+    if (low->applies()) low->method = "master theorem, case 1 (f = 0: the leaves alone)";
+  }
+  if (up && !up->applies()) up.reset();
+  if (low && !low->applies()) low.reset();
+  if (!up && !low) return;
+  std::string upper_text = input.driving_upper ? to_string(*input.driving_upper) : "";
+  std::string between;
+  if (!lower_text.empty() && !upper_text.empty()) {
+    between = (lower_text == "0" ? "0" : "c₁ " + lower_text) + " <= f(n) <= c₂ " + upper_text;
+  } else if (!upper_text.empty()) {
+    between = "0 <= f(n) <= c₂ " + upper_text;
+  } else {
+    between = "f(n) >= c₁ " + lower_text;
+  }
+  out.bounds_steps.push_back((input.driving_one_sided
+                                  ? "f(n) is bounded by its terms: "
+                                  : "every case line of f is of a class "
+                                    "between Θ(" +
+                                        lower_text + ") and Θ(" + upper_text + "), so ") +
+                             between + " for all large n");
+  out.bounds_steps.push_back(
+      "comparison: the recursion's coefficient a is positive, so T is monotone in f and lies " +
+      std::string(up && low ? "between the solutions" : "on that side of the solution") +
+      " of the same recursion driven by " + (up && low ? "those bounds" : "that bound") +
+      " (their base values adjusted for the finitely many smaller n)");
+  std::string conclusion;
+  if (up) {
+    out.upper = up->growth;
+    out.bounds_steps.push_back("driven by " + upper_text + ": " + up->method + ", Θ(" +
+                               to_string(*up->growth) + ")");
+    conclusion = "T(n) = O(" + to_string(*up->growth) + ")";
+  }
+  if (low) {
+    out.lower = low->growth;
+    out.bounds_steps.push_back("driven by " + lower_text + ": " + low->method + ", Θ(" +
+                               to_string(*low->growth) + ")");
+    conclusion += (conclusion.empty() ? "T(n) = Ω(" : " and Ω(") + to_string(*low->growth) + ")";
   }
   out.bounds_steps.push_back(conclusion);
-  out.bounds_method = "comparison with the drivers " + to_string(lower) + " and " +
-                      to_string(upper) + ": master theorem";
+  std::string drivers = up && low ? "the drivers " + lower_text + " and " + upper_text
+                        : up      ? "the driver " + upper_text
+                                  : "the driver " + lower_text;
+  out.bounds_method = "comparison with " + drivers + ": master theorem";
 }
 
 }  // namespace
@@ -313,6 +343,16 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
                                    " differs from n/b by O(1): floors, ceilings and "
                                    "constant shifts do not change the class (Leighton 1996)"
                              : "";
+  // No Θ class from the theorem itself: T is still bounded on each side by
+  // comparison with the extremes of f's case lines.
+  auto with_bounds = [&](TheoremOutcome& o) -> TheoremOutcome& {
+    bound_by_comparison(t.a, divisor, input, o);
+    if (!o.bounds_steps.empty()) {
+      if (!rounding.empty()) o.bounds_steps.insert(o.bounds_steps.begin(), rounding);
+      o.bounds_steps.insert(o.bounds_steps.begin(), prefix.begin(), prefix.end());
+    }
+    return o;
+  };
   if (input.driving.zero) {
     out = master_on_class(t.a, divisor, GrowthClass::polylog(-1), "0");
     if (out.applies()) {
@@ -323,21 +363,16 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
       out.method = "master theorem, case 1";
     }
   } else if (input.driving.growth) {
-    std::string text = s.driving ? print(*s.driving) : "f(n)";
+    // A class written in the recurrence is shown as its class, not as the
+    // member the exact values use.
+    std::string text = s.driving && !input.driving_is_class ? print(*s.driving) : "f(n)";
     out = master_on_class(t.a, divisor, *input.driving.growth, text,
                           regularity_facts(input, t.a, t.b));
+  } else if (input.driving_one_sided) {
+    out.failure = input.driving.reason + ": no case of the master theorem gives Θ";
+    return with_bounds(out);
   } else if (input.driving_lower && input.driving_upper && t.a >= 1) {
     RealNumber p = RealNumber::log(divisor, t.a);
-    // No Θ class from the theorem itself: T is still bounded on each side by
-    // comparison with the extremes of f's case lines.
-    auto with_bounds = [&](TheoremOutcome& o) -> TheoremOutcome& {
-      bound_by_comparison(t.a, divisor, input, o);
-      if (!o.bounds_steps.empty()) {
-        if (!rounding.empty()) o.bounds_steps.insert(o.bounds_steps.begin(), rounding);
-        o.bounds_steps.insert(o.bounds_steps.begin(), prefix.begin(), prefix.end());
-      }
-      return o;
-    };
     if (input.driving_upper->is_subexponential() && input.driving_upper->alpha < p) {
       out = master_on_class(t.a, divisor, *input.driving_upper, "f(n) (at most)");
       if (out.applies())

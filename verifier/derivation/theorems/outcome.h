@@ -40,6 +40,14 @@ struct DerivationInput {
   // unset, driving.reason says why, and lower/upper hold the extremes.
   Classification driving;
   std::optional<GrowthClass> driving_lower, driving_upper;
+  // f holds growth classes written as terms (2T(n/2) + Θ(n)): f is any
+  // function of that form, so nothing is proved on its representative.
+  bool driving_is_class = false;
+  // An O(g) term bounds f above only (driving_lower then stands for the rest
+  // of f, or is empty with driving_lower_zero when nothing else is there);
+  // an Ω(g) term bounds it below only (driving_upper empty).
+  bool driving_one_sided = false;
+  bool driving_lower_zero = false;
   // f(n) exactly, or empty when it cannot be evaluated at n (may be null).
   std::function<std::optional<Value>(const BigInt& n)> driving_at;
   // T(n) exactly (may be null): for linear recurrences' initial values.

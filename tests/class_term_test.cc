@@ -1,0 +1,162 @@
+// Growth classes as terms of a recurrence, T(n) = 2T(n/2) + Θ(n): "some
+// function of that class" (issue 17, §2). The model puts the class's own g in
+// its place for exact values; the derivation reads the kind (Θ both sides, O
+// above only, Ω below only); proofs come from the theorems, never from an
+// induction over the one member evaluated; explicit bounds are refused.
+#include <gtest/gtest.h>
+
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "reports/verdict_text.h"
+#include "verifier/checking/checker.h"
+#include "verifier/derivation/derive.h"
+#include "verifier/evaluation/evaluator.h"
+#include "verifier/model/claim.h"
+#include "verifier/model/recurrence.h"
+#include "verifier/syntax/parser.h"
+
+namespace thetagate::engine {
+namespace {
+
+// The whole located diagnostic for a recurrence that must be refused.
+std::string refusal(const std::string& text) {
+  try {
+    recurrence_from_text(text, "<recurrence>");
+  } catch (const InputError& e) {
+    return format_diagnostic(e.diagnostic());
+  }
+  return "(accepted)";
+}
+
+ClaimResult check_text(const std::string& recurrence, const std::string& bound) {
+  std::string toml = "[[claim]]\nname = \"orchard::class_term\"\nrecurrence = \"" + recurrence +
+                     "\"\nbound = \"" + bound + "\"\n";
+  std::vector<ClaimEntry> entries = load_claim_text(toml, "class.toml");
+  if (entries.size() != 1 || !entries[0].claim) {
+    ADD_FAILURE() << "the claim did not load";
+    return ClaimResult{};
+  }
+  CheckOptions options;
+  options.seed = 5;
+  options.max_bits = 256;
+  return check_claim(*entries[0].claim, options);
+}
+
+TEST(ClassTerm, TheRepresentativeStandsInForTheClass) {
+  auto r = recurrence_from_text("T(n) = 2T(n/2) + Θ(n); T(1) = Θ(1)");
+  ASSERT_EQ(r->class_terms.size(), 2u);
+  EXPECT_EQ(r->class_terms[0].kind, ClassTermKind::kTheta);
+  EXPECT_FALSE(r->class_terms[0].base_case);
+  EXPECT_TRUE(r->class_terms[1].base_case);
+  // With n for Θ(n) and 1 for Θ(1): T(2^k) = (k + 1) 2^k (common practice:
+  // the merge-sort recurrence at powers of two), so T(8) = 32, T(1024) = 11264.
+  Evaluator ev(r);
+  EXPECT_EQ(ev.value_at(8).integer(), 32);
+  EXPECT_EQ(ev.value_at(1024).integer(), 11264);
+  bool noted = false;
+  for (const std::string& note : r->notes)
+    noted |= note.find("exact values use one member of each (Θ(n) by n, Θ(1) by 1)") !=
+             std::string::npos;
+  EXPECT_TRUE(noted);
+}
+
+TEST(ClassTerm, LogWithoutABaseIsReadAsLgInsideAClassOnly) {
+  auto r = recurrence_from_text("T(n) = 2T(n/2) + Θ(n log n); T(1) = 1");
+  ASSERT_EQ(r->class_terms.size(), 1u);
+  EXPECT_EQ(print(*r->class_terms[0].representative),
+            print(*parse_expression(SourceText::whole("<e>", "n lg n"))));
+  EXPECT_NE(refusal("T(n) = 2T(n/2) + n log n; T(1) = 1").find("'log' needs its base"),
+            std::string::npos);
+}
+
+TEST(ClassTerm, PrintingAndParsingAgainKeepsTheClass) {
+  SourceText source = SourceText::whole("<e>", "2T(n/2) + Θ(n lg n) + O(n) + Omega(1)");
+  ExprPtr once = parse_expression(source);
+  ExprPtr twice = parse_expression(SourceText::whole("<e>", print(*once)));
+  EXPECT_TRUE(same_tree(*once, *twice)) << print(*once) << " vs " << print(*twice);
+}
+
+TEST(ClassTerm, AClassAnywhereButAnAddedTermIsALocatedError) {
+  EXPECT_EQ(refusal("T(n) = 2T(n/2) - Θ(n); T(1) = 1"),
+            "<recurrence>:1:18: error: a growth class Θ(...) subtracted or nested here\n"
+            "T(n) = 2T(n/2) - Θ(n); T(1) = 1\n"
+            "                 ^\n"
+            "  hint: a class stands as a term of its own, added to the rest of the line: "
+            "T(n) = 2T(n/2) + Θ(n), or T(1) = Θ(1)");
+  EXPECT_EQ(refusal("T(n) = 2T(n/2) + n O(lg n); T(1) = 1"),
+            "<recurrence>:1:20: error: a growth class O(...) nested in a term\n"
+            "T(n) = 2T(n/2) + n O(lg n); T(1) = 1\n"
+            "                   ^\n"
+            "  hint: a class stands as a term of its own, added to the rest of the line: "
+            "T(n) = 2T(n/2) + Θ(n), or T(1) = Θ(1)");
+  EXPECT_EQ(refusal("T(n) = 2T(n/2) + f(n); f(n) = Θ(n); T(1) = 1"),
+            "<recurrence>:1:31: error: a growth class Θ(...) in helper f\n"
+            "T(n) = 2T(n/2) + f(n); f(n) = Θ(n); T(1) = 1\n"
+            "                              ^\n"
+            "  hint: a class may stand only as a term of T's own lines: T(n) = 2T(n/2) + Θ(n)");
+  EXPECT_NE(refusal("T(n) = 2T(n/2) + Θ(T(n/2)); T(1) = 1").find("mentions T"), std::string::npos);
+}
+
+TEST(ClassTerm, AnExplicitBoundIsRefusedWithTheReason) {
+  std::string toml =
+      "[[claim]]\nname = \"orchard::class_term\"\nrecurrence = \"T(n) = 2T(n/2) + Θ(n); T(1) = "
+      "1\"\nbound = \"T(n) <= 2 n lg n + n for n >= 1\"\n";
+  std::vector<ClaimEntry> entries = load_claim_text(toml, "class.toml");
+  ASSERT_EQ(entries.size(), 1u);
+  ASSERT_TRUE(entries[0].error.has_value());
+  EXPECT_EQ(entries[0].error->message,
+            "an explicit bound needs the exact values of T, but Θ(n) stands for any function of "
+            "that class");
+  EXPECT_EQ(entries[0].error->where.line, 3);
+  EXPECT_EQ(entries[0].error->where.column, 32);
+}
+
+// Master theorem, case 2 (common practice): 2T(n/2) + Θ(n) is Θ(n lg n) for
+// every function of the class.
+TEST(ClassTerm, ATheta_DriverDerivesByTheTheorem) {
+  Derivation d = derive(*recurrence_from_text("T(n) = 2T(n/2) + Θ(n); T(1) = 1"));
+  ASSERT_TRUE(d.growth.has_value());
+  EXPECT_EQ(d.derived, "n lg n");
+  EXPECT_EQ(d.method, "master theorem, case 2");
+  // Case 3 with a class driver: regularity is not claimed for a function
+  // known only up to constant factors; the comparison carries the proof.
+  Derivation c = derive(*recurrence_from_text("T(n) = T(n/2) + Θ(n^2); T(1) = 1"));
+  ASSERT_TRUE(c.growth.has_value());
+  EXPECT_EQ(c.method, "comparison with the driver n^2: master theorem, case 3");
+}
+
+// O(n) bounds f above only: T = O(n lg n) by the driver n, and T = Ω(n) from
+// the leaves alone (f >= 0). Ω(n^2) with a = 3, b = 2 (p = lg 3 < 2) bounds
+// T below by case 3 on n^2 and leaves it unbounded above.
+TEST(ClassTerm, OAndOmegaDriversGiveOneSidedBounds) {
+  Derivation o = derive(*recurrence_from_text("T(n) = 2T(n/2) + O(n); T(1) = 1"));
+  EXPECT_FALSE(o.growth.has_value());
+  ASSERT_TRUE(o.upper && o.lower);
+  EXPECT_EQ(to_string(*o.upper), "n lg n");
+  EXPECT_EQ(to_string(*o.lower), "n");
+  EXPECT_EQ(o.bound_text(), "O(n lg n) and Omega(n)");
+  Derivation w = derive(*recurrence_from_text("T(n) = 3T(n/2) + Ω(n^2); T(1) = 1"));
+  EXPECT_FALSE(w.upper.has_value());
+  ASSERT_TRUE(w.lower.has_value());
+  EXPECT_EQ(to_string(*w.lower), "n^2");
+}
+
+TEST(ClassTerm, ClaimsHoldOnlyByTheTheoremsAndFallByAMember) {
+  ClaimResult merge = check_text("T(n) = 2T(n/2) + Θ(n); T(1) = 1", "Theta(n log n)");
+  EXPECT_EQ(merge.verdict, Verdict::kHolds) << verdict_message(merge);
+  ClaimResult upper = check_text("T(n) = 2T(n/2) + O(n); T(1) = 1", "O(n lg n)");
+  EXPECT_EQ(upper.verdict, Verdict::kHolds) << verdict_message(upper);
+  // Θ(n lg n) does not follow from an O(n) driver (f = 0 gives Θ(n)): never
+  // holds, and no induction is tried on the member n.
+  ClaimResult theta = check_text("T(n) = 2T(n/2) + O(n); T(1) = 1", "Theta(n lg n)");
+  EXPECT_NE(theta.verdict, Verdict::kHolds) << verdict_message(theta);
+  EXPECT_EQ(theta.basis.kind == BasisKind::kInduction, false);
+  // Against the derivation: Θ(n^2) driver with a = 1 cannot be Ω(n^3).
+  ClaimResult low = check_text("T(n) = T(n/2) + Θ(n^2); T(1) = 1", "Omega(n^3)");
+  EXPECT_EQ(low.verdict, Verdict::kRefuted) << verdict_message(low);
+}
+
+}  // namespace
+}  // namespace thetagate::engine
