@@ -102,6 +102,8 @@ static_assert(static_cast<int>(Basis::kInternalError) ==
               static_cast<int>(engine::BasisKind::kInternalError));
 static_assert(static_cast<int>(Basis::kCodeBreaksModel) ==
               static_cast<int>(engine::BasisKind::kCodeBreaksModel));
+static_assert(static_cast<int>(Basis::kCodeSizesMissed) ==
+              static_cast<int>(engine::BasisKind::kCodeSizesMissed));
 static_assert(static_cast<int>(Basis::kInputError) ==
               static_cast<int>(engine::BasisKind::kInputError));
 

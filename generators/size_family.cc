@@ -179,6 +179,52 @@ std::vector<Size> generate_sizes(const SizePlan& plan) {
   return sizes;
 }
 
+namespace {
+
+// Whether x = b^k for some k >= 1.
+bool is_power_of(BigInt x, const BigInt& b) {
+  if (x < b) return false;
+  while (x % b == 0) x /= b;
+  return x == 1;
+}
+
+std::string shape_in_base(const BigInt& n, const BigInt& b) {
+  if (is_power_of(n, b)) return "powers";
+  if (is_power_of(n * (b - 1) + 1, b) && n > b) return "ones";
+  uint64_t digits = 0;
+  for (BigInt x = n; x > 0; x /= b) ++digits;
+  if (digits >= 3 && n == alternating_digits(b, digits)) return "alternating";
+  if (is_power_of(n - 1, b) || is_power_of(n + 1, b)) return "power-neighbours";
+  for (int m : {3, 5, 6, 7}) {
+    if (b != m && n % m == 0 && is_power_of(n / m, b)) return "power-multiples";
+  }
+  return "";
+}
+
+}  // namespace
+
+std::string shape_family_of(const BigInt& n, const std::vector<BigInt>& divisors) {
+  if (n < 8) return "";
+  std::vector<BigInt> bases = divisors.empty() ? std::vector<BigInt>{2} : divisors;
+  // Priority across bases: the earliest family any base gives.
+  static const std::vector<std::string> kOrder = {"powers", "ones", "alternating",
+                                                  "power-neighbours", "power-multiples"};
+  size_t best = kOrder.size();
+  for (const BigInt& b : bases) {
+    if (b < 2) continue;
+    std::string f = shape_in_base(n, b);
+    for (size_t i = 0; i < kOrder.size(); ++i)
+      if (f == kOrder[i]) best = std::min(best, i);
+  }
+  return best < kOrder.size() ? kOrder[best] : "";
+}
+
+const std::vector<std::string>& adversarial_families() {
+  static const std::vector<std::string> kFamilies = {"ones", "alternating", "power-neighbours",
+                                                     "power-multiples"};
+  return kFamilies;
+}
+
 const std::vector<FamilyInfo>& size_families() {
   static const std::vector<FamilyInfo> kInfo = [] {
     std::vector<FamilyInfo> info;

@@ -76,6 +76,18 @@ bool is_size_family(const std::string& name);
 // The first name in `names` that is not a family, if any.
 std::optional<std::string> unknown_size_family(const std::vector<std::string>& names);
 
+// The family a measured size belongs to, by the same shapes the generators
+// build, for any of the bases `divisors` (empty means {2}): "powers", "ones",
+// "alternating", "power-neighbours", "power-multiples" (first in priority
+// order), or "" for a size of no shape. Sizes below 8 are "": every small
+// size has some shape (5 = 4 + 1, 7 = 111 in binary), so they say nothing
+// about coverage.
+std::string shape_family_of(const BigInt& n, const std::vector<BigInt>& divisors);
+
+// The families a costs file must reach besides the powers: where floors and
+// ceilings of n/b differ from n/b itself, and where halving chains stay odd.
+const std::vector<std::string>& adversarial_families();
+
 }  // namespace thetagate::engine
 
 #endif  // THETAGATE_GENERATORS_SIZE_FAMILY_H_

@@ -402,7 +402,7 @@ class ReportReader {
          {BasisKind::kDerivationAgrees, BasisKind::kInduction, BasisKind::kDerivationContradicts,
           BasisKind::kCertifiedBreak, BasisKind::kNumericTrend, BasisKind::kBudgetReached,
           BasisKind::kInternalInconsistency, BasisKind::kInputError, BasisKind::kInternalError,
-          BasisKind::kCodeBreaksModel}) {
+          BasisKind::kCodeBreaksModel, BasisKind::kCodeSizesMissed}) {
       if (kind == basis_name(k)) b.kind = k;
     }
     std::string unproved = string_at(j, path, "unproved");
@@ -500,6 +500,19 @@ class ReportReader {
     code.relation = string_at(*j, at, "relation");
     code.source = optional_string(*j, at, "source");
     code.measurements = optional_unsigned(*j, at, "measurements");
+    for (const char* key : {"families_measured", "families_missed"}) {
+      const Json* list = optional_key(*j, key);
+      if (!list) continue;
+      std::string list_at = join(at, key);
+      expect_array(*list, list_at);
+      auto& into =
+          std::string(key) == "families_missed" ? code.families_missed : code.families_measured;
+      for (size_t i = 0; i < list->size(); ++i) {
+        if (!(*list)[i].is_string())
+          expect_object((*list)[i], list_at + "[" + std::to_string(i) + "]");
+        into.push_back((*list)[i].get<std::string>());
+      }
+    }
     if (const Json* mv = optional_key(*j, "model_verdict"); mv && !mv->is_null()) {
       code.model_verdict = verdict_value(*mv, join(at, "model_verdict"));
       code.model_basis = basis(*j, at, "model_basis");

@@ -49,16 +49,34 @@ std::string violation_text(const CodeResult& code, const CostViolation& v) {
   return s;
 }
 
+std::string code_headline(const CodeResult& code) {
+  size_t sizes = code.rows.size();
+  return fmt::format("code -> model: {} ({} measurement{} at {} size{}), the model is {}",
+                     code.source, code.measurements, code.measurements == 1 ? "" : "s", sizes,
+                     sizes == 1 ? "" : "s",
+                     code.relation == "exact"         ? std::string("exact")
+                     : code.relation == "upper bound" ? "an upper bound"
+                                                      : "a " + code.relation);
+}
+
+std::string code_coverage(const CodeResult& code) {
+  if (code.families_measured.empty() && code.families_missed.empty()) return "";
+  auto joined = [](const std::vector<std::string>& names) {
+    std::string s;
+    for (const std::string& n : names) s += (s.empty() ? "" : ", ") + n;
+    return s.empty() ? std::string("none") : s;
+  };
+  return "size families measured: " + joined(code.families_measured) +
+         (code.families_missed.empty() ? "" : "; missed: " + joined(code.families_missed));
+}
+
 std::string code_link_text(const CodeResult& code, const std::string& indent, size_t max_violations,
                            size_t max_rows) {
   std::string out;
   size_t sizes = code.rows.size();
-  out += fmt::format("{}code -> model: {} ({} measurement{} at {} size{}), the model is {}\n",
-                     indent, code.source, code.measurements, code.measurements == 1 ? "" : "s",
-                     sizes, sizes == 1 ? "" : "s",
-                     code.relation == "exact"         ? std::string("exact")
-                     : code.relation == "upper bound" ? "an upper bound"
-                                                      : "a " + code.relation);
+  out += indent + code_headline(code) + "\n";
+  std::string coverage = code_coverage(code);
+  if (!coverage.empty()) out += indent + "  " + coverage + "\n";
   if (!code.violations.empty()) {
     out += indent + (code.violations.size() == 1 ? "  violation:\n" : "  violations:\n");
     size_t shown = std::min(code.violations.size(), max_violations);

@@ -15,6 +15,13 @@ std::string violation_text(const CodeResult& code, const CostViolation& v);
 // Several lines, each starting with `indent`, ending with a newline: the
 // source and relation, the violations (at most `max_violations`), and at most
 // `max_rows` per-size rows (evenly spread, always the first and the last).
+// "code -> model: costs.txt (12 measurements at 12 sizes), the model is an
+// upper bound", without indent or newline.
+std::string code_headline(const CodeResult& code);
+// "size families measured: powers, ones; missed: alternating, ..." for a
+// costs file, "" for a runner.
+std::string code_coverage(const CodeResult& code);
+
 std::string code_link_text(const CodeResult& code, const std::string& indent,
                            size_t max_violations = 5, size_t max_rows = 8);
 

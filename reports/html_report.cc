@@ -124,6 +124,11 @@ std::string code_section(const CodeResult& code) {
                    esc(code.relation == "exact"         ? std::string("exact")
                        : code.relation == "upper bound" ? "an upper bound"
                                                         : "a " + code.relation));
+  if (!code.families_missed.empty()) {
+    std::string missed;
+    for (const std::string& f : code.families_missed) missed += (missed.empty() ? "" : ", ") + f;
+    s += "<p>Size families never measured: " + esc(missed) + ".</p>\n";
+  }
   if (!code.violations.empty()) {
     s += "<table class=\"violations\">\n<tr><th>n</th><th>counted</th><th>T(n)</th>"
          "<th>where</th><th>input</th><th>replay</th></tr>\n";

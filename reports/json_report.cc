@@ -134,6 +134,8 @@ Json code_json(const std::optional<CodeResult>& code) {
   j["relation"] = code->relation;
   j["source"] = code->source;
   j["measurements"] = code->measurements;
+  j["families_measured"] = code->families_measured;
+  j["families_missed"] = code->families_missed;
   // The recurrence's own verdict when the code's costs refuted the claim.
   j["model_verdict"] =
       code->model_verdict ? Json(verdict_name(*code->model_verdict)) : Json(nullptr);

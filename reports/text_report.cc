@@ -316,6 +316,12 @@ std::string render_text(const RunResult& raw_run, const TextStyle& style) {
   }
   for (const ClaimResult& c : run.claims) {
     out += claim_line(c, name_column, painter);
+    if (c.verdict == Verdict::kHolds && c.code) {
+      // A passing claim still says what its costs covered.
+      std::string coverage = code_coverage(*c.code);
+      out += kIndent +
+             painter.dim(code_headline(*c.code) + (coverage.empty() ? "" : "; " + coverage)) + "\n";
+    }
     if (c.verdict != Verdict::kHolds) {
       append_detail(out, run, c, painter);
       out += "\n";

@@ -82,6 +82,17 @@ std::string basis_message(const ClaimResult& c) {
       }
       return s;
     }
+    case BasisKind::kCodeSizesMissed: {
+      std::string missed;
+      if (c.code) {
+        for (const std::string& f : c.code->families_missed)
+          missed += (missed.empty() ? "" : ", ") + f;
+      }
+      return "the measured costs never reach the size families " + missed +
+             " (from n = 8 on), where floors and ceilings of n/b part from n/b and halving "
+             "chains stay odd; a code measured only where the recurrence is smooth is not "
+             "checked against it: measure the sizes `thetagate sizes` lists";
+    }
     case BasisKind::kInternalError:
       return "internal error (a bug in thetagate, please report it with this claim): " + b.detail;
     case BasisKind::kCertifiedBreak: {
@@ -190,7 +201,8 @@ std::string basis_message(const ClaimResult& c) {
 std::string verdict_message(const ClaimResult& c) {
   std::string m = basis_message(c);
   const VerdictBasis& b = c.basis;
-  if (b.kind == BasisKind::kCodeBreaksModel && c.code && c.code->model_verdict) {
+  if ((b.kind == BasisKind::kCodeBreaksModel || b.kind == BasisKind::kCodeSizesMissed) && c.code &&
+      c.code->model_verdict) {
     // Both links: the code against its model, then the model against its bound.
     ClaimResult model = c;
     model.verdict = *c.code->model_verdict;

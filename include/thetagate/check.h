@@ -76,6 +76,7 @@ enum class Basis {
   kInputError,             // error: the claim is malformed
   kInternalError,          // error: a bug in thetagate while checking this claim
   kCodeBreaksModel,        // refuted: a counted cost of the code is on the wrong side of T(n)
+  kCodeSizesMissed,        // undecided: the bound holds, but the costs miss adversarial sizes
 };
 // "derivation_agrees", "induction", ... (the JSON report's basis.kind).
 THETAGATE_API const char* basis_name(Basis b);

@@ -5,6 +5,8 @@
 #include <filesystem>
 #include <string_view>
 
+#include "generators/size_family.h"
+#include "verifier/checking/checker.h"
 #include "verifier/syntax/input_file.h"
 #include "verifier/syntax/parser.h"
 
@@ -242,6 +244,30 @@ CodeResult check_costs_file(const Claim& claim, const std::string& widened_root,
   return check_costs_text(claim, std::move(bytes), clock_limit);
 }
 
+namespace {
+
+// Which size families the measured sizes reach (by the shapes of
+// generators/size_family.h, in the recurrence's bases), and which
+// adversarial ones they miss: a sort measured only at powers of two never
+// meets an odd half.
+void record_coverage(const Claim& claim, CodeResult& result) {
+  std::vector<BigInt> divisors = recurrence_divisors(*claim.recurrence);
+  std::vector<std::string> hit;
+  for (const CostRow& row : result.rows) {
+    std::string f = shape_family_of(row.n, divisors);
+    if (!f.empty() && std::find(hit.begin(), hit.end(), f) == hit.end()) hit.push_back(f);
+  }
+  for (const FamilyInfo& f : size_families()) {
+    if (std::find(hit.begin(), hit.end(), f.name) != hit.end())
+      result.families_measured.push_back(f.name);
+  }
+  for (const std::string& f : adversarial_families()) {
+    if (std::find(hit.begin(), hit.end(), f) == hit.end()) result.families_missed.push_back(f);
+  }
+}
+
+}  // namespace
+
 CodeResult check_costs_text(const Claim& claim, std::string bytes,
                             std::optional<double> clock_limit) {
   const CodeLink& link = *claim.code;
@@ -359,6 +385,7 @@ CodeResult check_costs_text(const Claim& claim, std::string bytes,
     throw InputError(d);
   }
   result.rows = rows.rows();
+  record_coverage(claim, result);
   return result;
 }
 
@@ -371,6 +398,14 @@ void apply_code_result(ClaimResult& result, CodeResult code) {
     result.verdict = Verdict::kRefuted;
     result.basis = VerdictBasis{};
     result.basis.kind = BasisKind::kCodeBreaksModel;
+  } else if (!code.families_missed.empty() && result.verdict == Verdict::kHolds) {
+    // The bound holds, but the code was never measured where floors and
+    // ceilings bite: the code link is not shown green.
+    code.model_verdict = result.verdict;
+    code.model_basis = result.basis;
+    result.verdict = Verdict::kUndecided;
+    result.basis = VerdictBasis{};
+    result.basis.kind = BasisKind::kCodeSizesMissed;
   }
   result.code = std::move(code);
 }

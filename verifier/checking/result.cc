@@ -56,6 +56,8 @@ const char* basis_name(BasisKind k) {
       return "internal_error";
     case BasisKind::kCodeBreaksModel:
       return "code_breaks_model";
+    case BasisKind::kCodeSizesMissed:
+      return "code_sizes_missed";
   }
   return "?";
 }

@@ -81,6 +81,7 @@ enum class BasisKind {
   kInputError,             // error: the claim is malformed
   kInternalError,          // error: a bug in thetagate while checking this claim (detail)
   kCodeBreaksModel,        // refuted: a counted cost of the code is on the wrong side of T(n)
+  kCodeSizesMissed,        // undecided: the bound holds, but the costs miss adversarial sizes
 };
 const char* basis_name(BasisKind k);  // "derivation_agrees", "induction", ...
 
@@ -188,6 +189,11 @@ struct CodeResult {
   uint64_t measurements = 0;  // costs counted (lines, or runs)
   std::vector<CostRow> rows;  // ascending n
   std::vector<CostViolation> violations;
+  // Costs files only: the size families (generators/size_family.h) the
+  // measured sizes from 8 on belong to, and the adversarial families none of
+  // them reaches. Empty for a runner, which draws its own sizes.
+  std::vector<std::string> families_measured;
+  std::vector<std::string> families_missed;
 };
 
 struct ClaimResult {
