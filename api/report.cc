@@ -43,7 +43,7 @@ std::string render(const Report& report, Format format, const RenderOptions& opt
           run, engine::JunitOptions{options.undecided_fails,
                                     options.drift_fails && drift ? drift : nullptr});
     case Format::kHtml:
-      return engine::render_html(run);
+      return engine::render_html(run, drift);
     case Format::kMarkdown:
       return engine::render_markdown(run);
     case Format::kBrief: {

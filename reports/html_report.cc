@@ -8,6 +8,7 @@
 
 #include "reports/band_plot.h"
 #include "reports/cost_plot.h"
+#include "reports/drift.h"
 #include "reports/number_text.h"
 #include "reports/verdict_text.h"
 #include "reports/xml_escape.h"
@@ -182,9 +183,32 @@ std::string claim_section(const ClaimResult& c, size_t index) {
   return s + "</section>\n";
 }
 
+// The drift against the baseline, claim by claim.
+std::string drift_section(const DriftReport& drift) {
+  std::string s = "<section class=\"drift\">\n<h2>Changes since the baseline</h2>\n";
+  if (!drift.any()) {
+    return s + fmt::format(
+                   "<p>{} claim{} compared with the baseline (seed {}): nothing "
+                   "changed.</p>\n</section>\n",
+                   drift.compared, drift.compared == 1 ? "" : "s", drift.baseline_seed);
+  }
+  s += fmt::format("<p>{} of the claims changed; {} compared with the baseline (seed {}).</p>\n",
+                   drift.claims.size(), drift.compared, drift.baseline_seed);
+  for (const ClaimDrift& d : drift.claims) {
+    std::string text = render_claim_drift_text(d);
+    size_t end = text.find('\n');
+    std::string heading = text.substr(0, end);
+    std::string body = end == std::string::npos ? "" : text.substr(end + 1);
+    s += "<details open>\n<summary>" + esc(heading) + "</summary>\n";
+    if (!body.empty()) s += "<pre>" + esc(body) + "</pre>\n";
+    s += "</details>\n";
+  }
+  return s + "</section>\n";
+}
+
 }  // namespace
 
-std::string render_html(const RunResult& run) {
+std::string render_html(const RunResult& run, const DriftReport* drift) {
   std::array<size_t, 4> count{};
   for (const ClaimResult& c : run.claims) ++count[static_cast<size_t>(c.verdict)];
   std::string summary = fmt::format("{} claim{}: {} holds, {} refuted, {} undecided, {} error{}",
@@ -200,6 +224,7 @@ std::string render_html(const RunResult& run) {
       "<p>Seed <code>{0}</code>: rerun with <code>--seed {0}</code> to replay this "
       "run. {1}.</p>\n</header>\n",
       run.seed, esc(summary));
+  if (drift) s += drift_section(*drift);
   s += "<table class=\"summary\">\n<tr><th>verdict</th><th>claim</th><th>claimed</th>"
        "<th>derived</th></tr>\n";
   for (size_t i = 0; i < run.claims.size(); ++i) {

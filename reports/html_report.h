@@ -8,13 +8,17 @@
 #include <string>
 
 #include "verifier/checking/result.h"
+#include "verifier/checking/run_comparison.h"
 
 namespace thetagate::engine {
 
 // A complete HTML5 document (UTF-8) ending with a newline. Every claim gets a
 // <section id="claim-N"> (N from 1, in run order); a claim with a ratio band
 // gets one <svg class="band-plot">. Deterministic: no dates, no host names.
-std::string render_html(const RunResult& run);
+// With `drift` (a run compared with its baseline), a "Changes since the
+// baseline" section comes first after the header: one <details> per drifted
+// claim, its changes as the text report words them, edits first.
+std::string render_html(const RunResult& run, const DriftReport* drift = nullptr);
 
 }  // namespace thetagate::engine
 

@@ -8,6 +8,7 @@
 #include <nlohmann/json.hpp>
 
 #include "reports/drift.h"
+#include "reports/html_report.h"
 #include "verifier/checking/run_comparison.h"
 
 namespace thetagate::engine {
@@ -104,6 +105,23 @@ TEST(DriftCause, ABaselineWithoutRecurrencesReportsNoEdit) {
   RunResult before = run_of({old});
   RunResult after = run_of({claim("orchard::bisect / probes", kHalving, "Theta(lg n)", 1.1)});
   EXPECT_FALSE(compare_runs(before, after).any());
+}
+
+// HTML: the drift comes first, each drifted claim with its cause, and a run
+// without drift says that nothing changed.
+TEST(DriftCause, TheHtmlReportOpensWithTheDrift) {
+  RunResult before = run_of({claim("orchard::bisect / probes", kHalving, "Theta(lg n)", 1.1)});
+  RunResult after = run_of({claim("orchard::bisect / probes", kHalving, "O(n)", 0.01)});
+  DriftReport drift = compare_runs(before, after);
+  std::string html = render_html(after, &drift);
+  size_t section = html.find("<h2>Changes since the baseline</h2>");
+  size_t table = html.find("<table class=\"summary\">");
+  ASSERT_NE(section, std::string::npos) << html;
+  EXPECT_LT(section, table);
+  EXPECT_NE(html.find("the bound changed: Theta(lg n) → O(n)"), std::string::npos) << html;
+  EXPECT_EQ(render_html(after).find("Changes since the baseline"), std::string::npos);
+  DriftReport none = compare_runs(after, after);
+  EXPECT_NE(render_html(after, &none).find("nothing changed"), std::string::npos);
 }
 
 }  // namespace
