@@ -114,6 +114,12 @@ std::string claim_text(const ClaimDrift& d, const TextStyle& style) {
     s += fmt::format("{}derived {} → {}\n", kIndent, or_none(d.derived_before),
                      or_none(d.derived_after));
   }
+  if (d.proof_changed()) {
+    s +=
+        d.proof_after.empty()
+            ? fmt::format("{}no longer proved (it held by {})\n", kIndent, d.proof_before)
+            : fmt::format("{}the proof changed: {} → {}\n", kIndent, d.proof_before, d.proof_after);
+  }
   append_witnesses(s, "new", d.new_witnesses);
   append_witnesses(s, "lost", d.lost_witnesses);
   for (size_t i = 0; i < d.band_moves.size() && i < kMaxDetailLines; ++i) {
@@ -147,6 +153,8 @@ Json claim_json(const ClaimDrift& d) {
   j["recurrence_after"] = d.recurrence_after;
   j["claimed_before"] = d.claimed_before;
   j["claimed_after"] = d.claimed_after;
+  j["proof_before"] = d.proof_before;
+  j["proof_after"] = d.proof_after;
   j["verdict_before"] = d.before ? verdict_name(*d.before) : "";
   j["verdict_after"] = d.after ? verdict_name(*d.after) : "";
   j["derived_before"] = d.derived_before;

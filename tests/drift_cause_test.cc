@@ -107,6 +107,35 @@ TEST(DriftCause, ABaselineWithoutRecurrencesReportsNoEdit) {
   EXPECT_FALSE(compare_runs(before, after).any());
 }
 
+// A claim that held by a theorem and now holds only by induction, or no
+// longer holds, says how its proof changed.
+TEST(DriftCause, AChangedProofIsNamed) {
+  ClaimResult theorem = claim("orchard::bisect / probes", kHalving, "Theta(lg n)", 1.1);
+  theorem.basis.kind = BasisKind::kDerivationAgrees;
+  theorem.method = "master theorem, case 2";
+  ClaimResult induction = theorem;
+  induction.basis.kind = BasisKind::kInduction;
+  DriftReport drift = compare_runs(run_of({theorem}), run_of({induction}));
+  ASSERT_EQ(drift.claims.size(), 1u);
+  EXPECT_TRUE(drift.claims[0].proof_changed());
+  EXPECT_NE(render_claim_drift_text(drift.claims[0])
+                .find("the proof changed: master theorem, case 2 → induction"),
+            std::string::npos)
+      << render_claim_drift_text(drift.claims[0]);
+  ClaimResult lost = theorem;
+  lost.verdict = Verdict::kUndecided;
+  lost.basis.kind = BasisKind::kBudgetReached;
+  DriftReport gone = compare_runs(run_of({theorem}), run_of({lost}));
+  ASSERT_EQ(gone.claims.size(), 1u);
+  EXPECT_NE(render_claim_drift_text(gone.claims[0])
+                .find("no longer proved (it held by master theorem, case 2)"),
+            std::string::npos)
+      << render_claim_drift_text(gone.claims[0]);
+  nlohmann::json j = nlohmann::json::parse(render_json_with_drift(run_of({induction}), drift));
+  EXPECT_EQ(j["drift"]["claims"][0]["proof_before"], "master theorem, case 2");
+  EXPECT_EQ(j["drift"]["claims"][0]["proof_after"], "induction");
+}
+
 // HTML: the drift comes first, each drifted claim with its cause, and a run
 // without drift says that nothing changed.
 TEST(DriftCause, TheHtmlReportOpensWithTheDrift) {

@@ -51,6 +51,14 @@ std::vector<BandMove> band_moves(const std::vector<BandRow>& before,
   return out;
 }
 
+// How a holds was proved, as the drift names it; "" when it did not hold.
+std::string proof_of(const ClaimResult& c) {
+  if (c.verdict != Verdict::kHolds) return "";
+  if (c.basis.kind == BasisKind::kInduction) return "induction";
+  if (c.basis.kind == BasisKind::kDerivationAgrees) return c.method;
+  return "";
+}
+
 ClaimDrift drift_of_claim(const ClaimResult& before, const ClaimResult& after) {
   ClaimDrift d;
   d.name = after.name;
@@ -65,6 +73,8 @@ ClaimDrift drift_of_claim(const ClaimResult& before, const ClaimResult& after) {
   d.claimed_after = after.claimed;
   d.derived_before = before.derived;
   d.derived_after = after.derived;
+  d.proof_before = proof_of(before);
+  d.proof_after = proof_of(after);
   d.new_witnesses = missing_from(after.witnesses, before.witnesses);
   d.lost_witnesses = missing_from(before.witnesses, after.witnesses);
   // The band is T(n)/g(n): after an edit, or with a new g(n), it moves
@@ -103,8 +113,8 @@ std::vector<std::string> files_below_root(const RunResult& run) {
 
 bool drifted(const ClaimDrift& d) {
   return d.is_new() || d.is_lost() || d.edited() || d.renamed() || d.verdict_changed() ||
-         d.derived_changed() || !d.new_witnesses.empty() || !d.lost_witnesses.empty() ||
-         !d.band_moves.empty();
+         d.derived_changed() || d.proof_changed() || !d.new_witnesses.empty() ||
+         !d.lost_witnesses.empty() || !d.band_moves.empty();
 }
 
 }  // namespace

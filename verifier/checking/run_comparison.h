@@ -58,10 +58,20 @@ struct ClaimDrift {
   // same (a new bound or recurrence moves the band by itself).
   std::vector<BandMove> band_moves;
 
+  // How a holds was proved in each run: the theorem ("master theorem, case
+  // 2", "comparison with the driver n^2: ..."), or "induction"; "" when the
+  // claim did not hold.
+  std::string proof_before, proof_after;
+
   bool is_new() const { return !before; }
   bool is_lost() const { return !after; }
   bool verdict_changed() const { return before && after && *before != *after; }
   bool derived_changed() const { return before && after && derived_before != derived_after; }
+  // A claim that held by one proof now holds by another, or no longer has
+  // one (a lost proof with a changed verdict is still a proof change).
+  bool proof_changed() const {
+    return before && after && !proof_before.empty() && proof_before != proof_after;
+  }
   bool recurrence_edited() const {
     return before && after && !recurrence_before.empty() && !recurrence_after.empty() &&
            recurrence_before != recurrence_after;
