@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <array>
 #include <cmath>
 #include <cstdlib>
@@ -147,10 +148,13 @@ std::string code_section(const CodeResult& code) {
   return s;
 }
 
-std::string claim_section(const ClaimResult& c, size_t index) {
+// A claim's section. A passing claim that did not drift is collapsed: its
+// heading is the <summary> of a closed <details>.
+std::string claim_section(const ClaimResult& c, size_t index, bool collapsed) {
   std::string s =
       fmt::format("<section class=\"claim {}\" id=\"claim-{}\">\n", verdict_name(c.verdict), index);
-  s += "<h2>" + verdict_span(c.verdict) + " " + esc(c.name) + "</h2>\n";
+  std::string heading = "<h2>" + verdict_span(c.verdict) + " " + esc(c.name) + "</h2>";
+  s += collapsed ? "<details>\n<summary>" + heading + "</summary>\n" : heading + "\n";
   if (!c.file.empty())
     s += "<p class=\"where\">" + esc(c.file + ":" + std::to_string(c.line)) + "</p>\n";
   s += "<table class=\"bounds\">\n";
@@ -180,7 +184,37 @@ std::string claim_section(const ClaimResult& c, size_t index) {
                      c.band.size() == 1 ? "" : "s");
     s += plot + "\n";
   }
+  if (collapsed) s += "</details>\n";
   return s + "</section>\n";
+}
+
+// Which claims drifted against the baseline (none without one).
+std::vector<bool> drifted_claims(const RunResult& run, const DriftReport* drift) {
+  std::vector<bool> out(run.claims.size(), false);
+  if (!drift) return out;
+  for (size_t i = 0; i < run.claims.size(); ++i) {
+    for (const ClaimDrift& d : drift->claims)
+      if (d.name == run.claims[i].name && d.file == run.claims[i].file) out[i] = true;
+  }
+  return out;
+}
+
+// The order a reader in the morning wants: errors, refuted, drifted,
+// undecided, then the claims that hold; run order within each group.
+std::vector<size_t> reading_order(const RunResult& run, const std::vector<bool>& drifted) {
+  auto rank = [&](size_t i) {
+    const ClaimResult& c = run.claims[i];
+    if (c.verdict == Verdict::kError) return 0;
+    if (c.verdict == Verdict::kRefuted) return 1;
+    if (drifted[i]) return 2;
+    if (c.verdict == Verdict::kUndecided) return 3;
+    return 4;
+  };
+  std::vector<size_t> order(run.claims.size());
+  for (size_t i = 0; i < order.size(); ++i) order[i] = i;
+  std::stable_sort(order.begin(), order.end(),
+                   [&](size_t a, size_t b) { return rank(a) < rank(b); });
+  return order;
 }
 
 // The drift against the baseline, claim by claim.
@@ -227,7 +261,9 @@ std::string render_html(const RunResult& run, const DriftReport* drift) {
   if (drift) s += drift_section(*drift);
   s += "<table class=\"summary\">\n<tr><th>verdict</th><th>claim</th><th>claimed</th>"
        "<th>derived</th></tr>\n";
-  for (size_t i = 0; i < run.claims.size(); ++i) {
+  std::vector<bool> drifted = drifted_claims(run, drift);
+  std::vector<size_t> order = reading_order(run, drifted);
+  for (size_t i : order) {
     const ClaimResult& c = run.claims[i];
     s += fmt::format(
         "<tr><td>{}</td><td><a href=\"#claim-{}\">{}</a></td><td>{}</td><td>{}</td>"
@@ -236,7 +272,10 @@ std::string render_html(const RunResult& run, const DriftReport* drift) {
         esc(c.derived.empty() ? "\u2014" : c.derived));
   }
   s += "</table>\n";
-  for (size_t i = 0; i < run.claims.size(); ++i) s += claim_section(run.claims[i], i + 1);
+  for (size_t i : order) {
+    const ClaimResult& c = run.claims[i];
+    s += claim_section(c, i + 1, c.verdict == Verdict::kHolds && !drifted[i]);
+  }
   s += "<footer><p>Checked by thetagate " + esc(run.tool_version) + ".</p></footer>\n";
   s += "</body>\n</html>\n";
   return s;

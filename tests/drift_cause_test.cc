@@ -153,5 +153,28 @@ TEST(DriftCause, TheHtmlReportOpensWithTheDrift) {
   EXPECT_NE(render_html(after, &none).find("nothing changed"), std::string::npos);
 }
 
+// HTML reading order: refuted before drifted before holding claims; a claim
+// that holds without drift is collapsed, the others are open.
+TEST(DriftCause, TheHtmlReportPutsWhatNeedsAReaderFirst) {
+  ClaimResult steady = claim("orchard::a / holds", kHalving, "Theta(lg n)", 1.1);
+  ClaimResult edited = claim("orchard::b / edited", kHalving, "Theta(lg n)", 1.1);
+  ClaimResult broken = claim("orchard::c / refuted", kHalving, "O(1)", 1.1);
+  broken.verdict = Verdict::kRefuted;
+  RunResult before = run_of({steady, edited, broken});
+  ClaimResult edited_now = edited;
+  edited_now.claimed = "O(n)";
+  RunResult after = run_of({steady, edited_now, broken});
+  DriftReport drift = compare_runs(before, after);
+  std::string html = render_html(after, &drift);
+  size_t refuted = html.find("<section class=\"claim refuted\" id=\"claim-3\">");
+  size_t drifted = html.find("<section class=\"claim holds\" id=\"claim-2\">\n<h2>");
+  size_t holds = html.find("<section class=\"claim holds\" id=\"claim-1\">\n<details>\n<summary>");
+  ASSERT_NE(refuted, std::string::npos) << html;
+  ASSERT_NE(drifted, std::string::npos) << html;
+  ASSERT_NE(holds, std::string::npos) << html;
+  EXPECT_LT(refuted, drifted);
+  EXPECT_LT(drifted, holds);
+}
+
 }  // namespace
 }  // namespace thetagate::engine
