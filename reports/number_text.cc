@@ -105,6 +105,66 @@ std::string short_value(const std::string& text) {
   return out;
 }
 
+std::string approximate_fraction(const BigInt& p, const BigInt& q) {
+  if (p == 0) return "0";
+  BigInt a = p < 0 ? BigInt(-p) : p;
+  // e = floor(log10(a/q)), found from the digit counts and corrected once.
+  auto digits = [](const BigInt& x) { return static_cast<long>(x.str().size()); };
+  long e = digits(a) - digits(q);
+  auto scaled = [&](long exponent) {  // round(a / q * 10^(5 - exponent))
+    long shift = 5 - exponent;
+    BigInt num = a, den = q;
+    if (shift >= 0)
+      num *= boost::multiprecision::pow(BigInt(10), static_cast<unsigned>(shift));
+    else
+      den *= boost::multiprecision::pow(BigInt(10), static_cast<unsigned>(-shift));
+    return BigInt((2 * num + den) / (2 * den));
+  };
+  BigInt m = scaled(e);
+  if (m < 100000) m = scaled(--e);
+  if (m >= 1000000) m = scaled(++e);
+  if (m >= 1000000) {  // 999999.5 rounded up
+    m /= 10;
+    ++e;
+  }
+  std::string d = m.str();  // six digits: d.ddddd × 10^e
+  std::string sign = p < 0 ? "-" : "";
+  auto trim = [](std::string s) {
+    if (s.find('.') == std::string::npos) return s;
+    while (s.back() == '0') s.pop_back();
+    if (s.back() == '.') s.pop_back();
+    return s;
+  };
+  if (e >= -4 && e < 6) {
+    std::string s;
+    if (e >= 0) {
+      s = d.substr(0, static_cast<size_t>(e) + 1) + "." + d.substr(static_cast<size_t>(e) + 1);
+    } else {
+      s = "0." + std::string(static_cast<size_t>(-e - 1), '0') + d;
+    }
+    return sign + trim(s);
+  }
+  return sign + trim(d.substr(0, 1) + "." + d.substr(1)) + "e" + (e < 0 ? "-" : "+") +
+         (std::abs(e) < 10 ? "0" : "") + std::to_string(std::abs(e));
+}
+
+std::string readable_value(const std::string& text) {
+  size_t slash = text.find('/');
+  bool fraction = slash != std::string::npos && slash > 0 && slash + 1 < text.size();
+  size_t start = !text.empty() && text[0] == '-' ? 1 : 0;
+  for (size_t i = start; fraction && i < text.size(); ++i) {
+    if (i != slash && !std::isdigit(static_cast<unsigned char>(text[i]))) fraction = false;
+  }
+  if (!fraction || slash == start) return short_value(text);
+  BigInt p(text.substr(0, slash));
+  BigInt q(text.substr(slash + 1));
+  if (q <= 0) return short_value(text);
+  std::string approx = "≈ " + approximate_fraction(p, q);
+  if (text.size() <= kMaxVerbatimDigits) return approx + " (= " + text + ")";
+  return approx + " (exact: a fraction of " + std::to_string(slash - start) + " and " +
+         std::to_string(text.size() - slash - 1) + " digits)";
+}
+
 std::string format_ratio(double ratio) {
   if (std::isnan(ratio)) return "nan";
   if (std::isinf(ratio)) return ratio > 0 ? "inf" : "-inf";

@@ -21,6 +21,16 @@ std::string short_decimal(const BigInt& n);
 // every run of more than 30 digits shortened as short_decimal does.
 std::string short_value(const std::string& text);
 
+// A witness value for a person: an exact fraction p/q reads as its decimal
+// approximation first, then the fraction itself when short or its size
+// ("≈ 6090.37 (= 48723/8)", "≈ 1.21563e+40 (exact: a fraction of 61 and
+// 22 digits)"); anything else as short_value does.
+std::string readable_value(const std::string& text);
+
+// p/q to 6 significant digits ("6090.37", "-0.125", "1.21563e+40").
+// REQUIRES: q > 0.
+std::string approximate_fraction(const BigInt& p, const BigInt& q);
+
 // A ratio with 4 significant digits ("1.5", "2.048e+06"); "inf", "-inf" or
 // "nan" when not finite.
 std::string format_ratio(double ratio);

@@ -141,17 +141,36 @@ std::string witness_headline(const Witness& w) {
   return s + ")";
 }
 
-void append_witnesses(std::string& out, const ClaimResult& c) {
+// Words a report uses that a new reader may not know: each is explained in
+// one line where it first appears.
+struct Glossary {
+  bool ladder = false;
+  bool band = false;
+};
+
+// "= 159", or "≈ 6090.37 (= 48723/8)" for a fraction.
+std::string equals(const std::string& value) {
+  std::string readable = readable_value(value);
+  return readable.rfind("≈", 0) == 0 ? readable : "= " + readable;
+}
+
+void append_witnesses(std::string& out, const ClaimResult& c, Glossary& glossary) {
   if (c.witnesses.empty()) return;
   out += kIndent + std::string(c.witnesses.size() == 1 ? "witness:" : "witnesses:") + "\n";
+  bool ladder = false;
+  for (const Witness& w : c.witnesses) ladder = ladder || !w.factor.empty();
+  if (ladder && !glossary.ladder) {
+    glossary.ladder = true;
+    out +=
+        std::string(kIndent) +
+        "  (ladder c: T(n) > c·g(n) here, checked exactly; rungs at growing c: no c bounds it)\n";
+  }
   size_t shown = std::min(c.witnesses.size(), kMaxWitnesses);
   for (size_t i = 0; i < shown; ++i) {
     const Witness& w = c.witnesses[i];
     out += kIndent + std::string("  ") + witness_headline(w) + "\n";
-    if (!w.value.empty())
-      out += kIndent + std::string("    T(n)  = ") + short_value(w.value) + "\n";
-    if (!w.bound.empty())
-      out += kIndent + std::string("    bound = ") + short_value(w.bound) + "\n";
+    if (!w.value.empty()) out += kIndent + std::string("    T(n)  ") + equals(w.value) + "\n";
+    if (!w.bound.empty()) out += kIndent + std::string("    bound ") + equals(w.bound) + "\n";
     if (!w.margin.empty()) {
       out += kIndent +
              std::string(w.side == Side::kUpper ? "    T(n) − bound = " : "    bound − T(n) = ") +
@@ -178,7 +197,7 @@ std::vector<size_t> band_rows_to_show(size_t rows) {
   return picked;
 }
 
-void append_band(std::string& out, const ClaimResult& c) {
+void append_band(std::string& out, const ClaimResult& c, Glossary& glossary) {
   if (c.band.empty()) return;
   std::vector<size_t> rows = band_rows_to_show(c.band.size());
   out += kIndent + std::string("ratio band T(n)/g(n)");
@@ -186,6 +205,11 @@ void append_band(std::string& out, const ClaimResult& c) {
     out += fmt::format(" ({} of {} scales)", rows.size(), c.band.size());
   }
   out += ":\n";
+  if (!glossary.band) {
+    glossary.band = true;
+    out += std::string(kIndent) +
+           "  (per scale: lowest and highest T(n)/g(n) of the sizes with that many bits)\n";
+  }
   out +=
       fmt::format("{}  {:>6}  {:>11}  {:>11}  {:>8}\n", kIndent, "bits", "low", "high", "samples");
   for (size_t i : rows) {
@@ -234,7 +258,7 @@ std::string replay_command(const RunResult& run, const ClaimResult& c) {
 }
 
 void append_detail(std::string& out, const RunResult& run, const ClaimResult& c,
-                   const Painter& painter) {
+                   const Painter& painter, Glossary& glossary) {
   bool has_diagnostic = c.verdict == Verdict::kError && c.error.has_value();
   if (!has_diagnostic && !c.file.empty()) {
     out += kIndent + painter.dim("at " + c.file + ":" + std::to_string(c.line)) + "\n";
@@ -247,9 +271,9 @@ void append_detail(std::string& out, const RunResult& run, const ClaimResult& c,
   if (!proof.empty()) append_indented(out, kIndent, "proof: " + proof);
   if (has_diagnostic)
     append_indented(out, kIndent, format_diagnostic(*c.error), /*wrap_lines=*/false);
-  append_witnesses(out, c);
+  append_witnesses(out, c, glossary);
   if (c.code) out += code_link_text(*c.code, kIndent);
-  append_band(out, c);
+  append_band(out, c, glossary);
   append_list(out, "assumptions:", c.notes);
   if (!c.note.empty()) append_indented(out, kIndent, "note: " + c.note);
   append_list(out, "derivation:", c.steps);
@@ -314,6 +338,7 @@ std::string render_text(const RunResult& raw_run, const TextStyle& style) {
   for (const ClaimResult& c : run.claims) {
     name_column = std::max(name_column, std::min(display_width(c.name), kMaxNameColumn));
   }
+  Glossary glossary;
   for (const ClaimResult& c : run.claims) {
     out += claim_line(c, name_column, painter);
     if (c.verdict == Verdict::kHolds && c.code) {
@@ -323,7 +348,7 @@ std::string render_text(const RunResult& raw_run, const TextStyle& style) {
              painter.dim(code_headline(*c.code) + (coverage.empty() ? "" : "; " + coverage)) + "\n";
     }
     if (c.verdict != Verdict::kHolds) {
-      append_detail(out, run, c, painter);
+      append_detail(out, run, c, painter, glossary);
       out += "\n";
     }
   }
