@@ -40,7 +40,7 @@ void ClaimCheck::check_explicit(const std::vector<Size>& sizes) {
   std::vector<Target> targets;
   if (bound.upper) targets.push_back({Side::kUpper, bound.upper.get(), bound.strict_upper});
   if (bound.lower) targets.push_back({Side::kLower, bound.lower.get(), bound.strict_lower});
-  if (targets.empty()) throw std::logic_error("an explicit bound without a side");
+  if (targets.empty()) throw InternalError("", "an explicit bound without a side");
   sample_sizes(sizes, targets, true);
   // A family member may land in a narrow window at a high scale while
   // lower scales have windows of their own: search those first, so the

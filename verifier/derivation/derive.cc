@@ -229,9 +229,9 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
       d.method = o.method;
       d.steps = o.steps;
     } else if (compare(*d.growth, *o.growth) != 0) {
-      d.reasons.push_back("INTERNAL INCONSISTENCY: " + d.method + " gives Θ(" +
-                          to_string(*d.growth) + ") but " + o.method + " gives Θ(" +
-                          to_string(*o.growth) + ")");
+      // Two theorems whose hypotheses both hold cannot disagree: one of them is wrong.
+      throw InternalError("", d.method + " gives Θ(" + to_string(*d.growth) + ") but " + o.method +
+                                  " gives Θ(" + to_string(*o.growth) + ")");
     }
   }
   if (d.growth) d.derived = to_string(*d.growth);

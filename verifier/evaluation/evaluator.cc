@@ -413,7 +413,7 @@ void Evaluator::probe() {
 
 const Value* Evaluator::remembered(const Value& m) const {
   const Value* value = memo_.find(m);
-  if (value == nullptr) throw std::logic_error("a finished subproblem is not remembered");
+  if (value == nullptr) throw InternalError("", "a finished subproblem is not remembered");
   return value;
 }
 
@@ -532,7 +532,7 @@ Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope
     // Every call is T(n - c) and n is the sweep's current size.
     int64_t m = *n.small() - call.args[0]->args[1]->small;
     if (m < 0 || m >= next_ || m < next_ - window_) {
-      throw std::logic_error("bottom-up window miss");
+      throw InternalError("", "bottom-up window miss");
     }
     size_t slot = static_cast<size_t>(m % window_);
     if (ring_errors_[slot]) throw InputError(*ring_errors_[slot]);

@@ -119,7 +119,7 @@ std::optional<Value> builtin(const Expr& e, const Value& n, const EvalScope& sco
     }
     return best;
   }
-  if (is_builtin(f)) throw std::logic_error("unhandled builtin " + f);
+  if (is_builtin(f)) throw InternalError("", "unhandled builtin " + f);
   return std::nullopt;
 }
 

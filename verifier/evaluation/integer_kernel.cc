@@ -396,7 +396,7 @@ void IntegerKernel::eval(uint32_t id, mpz_ptr out, size_t depth) {
           mpz_set_ui(out, mpz_fdiv_ui(a, k));
         break;
       default:
-        throw std::logic_error("a word constant on an operation that takes none");
+        throw InternalError("", "a word constant on an operation that takes none");
     }
     check_result_bits(out);
     return;
@@ -431,7 +431,7 @@ void IntegerKernel::eval(uint32_t id, mpz_ptr out, size_t depth) {
       mpz_set(out, mpz_cmp(b, a) > 0 ? b : a);
       break;
     default:
-      throw std::logic_error("a condition compiled as a value");
+      throw InternalError("", "a condition compiled as a value");
   }
   check_result_bits(out);
 }
@@ -472,7 +472,7 @@ bool IntegerKernel::test(uint32_t id, size_t depth) {
     case Op::kGe:
       return order >= 0;
     default:
-      throw std::logic_error("a value compiled as a condition");
+      throw InternalError("", "a value compiled as a condition");
   }
 }
 
@@ -577,7 +577,7 @@ void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
     frames_.pop_back();
     for (size_t i = done.first_arg; i < arg_count; ++i) {
       if (known_[i].limbs == nullptr && !memo_.find(args_[i]->z, known_[i])) {
-        throw std::logic_error("a finished subproblem is not remembered");
+        throw InternalError("", "a finished subproblem is not remembered");
       }
     }
     current_n_ = m;

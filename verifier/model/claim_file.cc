@@ -433,6 +433,8 @@ ClaimEntry ClaimFileReader::read_claim(const toml::table& t) {
     entry.claim = std::move(claim);
   } catch (const InputError& e) {
     entry.error = e.diagnostic();
+  } catch (const InternalError& e) {
+    entry.internal_error = e.detail();
   } catch (const std::exception& e) {
     // Not an input error but a bug: kept on this claim (check_entry reports
     // it as an internal error), so the other claims are still checked.
