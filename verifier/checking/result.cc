@@ -16,8 +16,6 @@ const char* verdict_name(Verdict v) {
   return "?";
 }
 
-const char* side_name(Side s) { return s == Side::kUpper ? "upper" : "lower"; }
-
 const char* direction_name(Direction d) {
   switch (d) {
     case Direction::kSteady:

@@ -9,6 +9,8 @@
 #include <vector>
 
 #include "thetagate/version.h"
+#include "verifier/derivation/induction_proof.h"
+#include "verifier/model/bound.h"
 #include "verifier/numbers/number.h"
 #include "verifier/syntax/source.h"
 
@@ -16,10 +18,6 @@ namespace thetagate::engine {
 
 enum class Verdict { kHolds, kRefuted, kUndecided, kError };
 const char* verdict_name(Verdict v);  // "holds", "refuted", "undecided", "error"
-
-// Which side of the bound a witness breaks.
-enum class Side { kUpper, kLower };
-const char* side_name(Side s);  // "upper", "lower"
 
 // A concrete size where the claimed inequality fails, checked exactly.
 struct Witness {
@@ -108,19 +106,6 @@ struct TheoremEvidence {
   std::string kind;     // "Theta", "O", "Omega"
   Agreement agreement = Agreement::kSame;
   bool claimed_below = false;  // for kContradicts: the claimed class is the smaller one
-};
-
-// A proof of an explicit bound by induction on n (the substitution method).
-struct InductionProof {
-  std::vector<Side> sides;    // the sides proved
-  std::string bound;          // the bound carried through the step, as printed
-  std::string strengthening;  // the term the claim's bound was strengthened by, "" if none
-  BigInt checked_from;        // T(n) checked exactly against it for checked_from <= n <= checked_to
-  BigInt checked_to;          // M: the step is proved for every n > M
-  uint64_t modulus = 1;       // the step was proved per residue of n mod this
-  uint64_t tail_log2 = 0;     // beyond 2^tail_log2 the leading term of the slack dominates
-  uint64_t blocks = 0;        // interval blocks between M and 2^tail_log2
-  bool identity = false;      // the step's slack vanishes identically
 };
 
 // The trend evidence of a numbers-only verdict.

@@ -4,7 +4,7 @@
 
 #include <stdexcept>
 
-#include "verifier/derivation/classify.h"
+#include "verifier/evaluation/constant_value.h"
 #include "verifier/numbers/real_number_node.h"
 
 namespace thetagate::engine {

@@ -60,6 +60,8 @@ std::string Bound::text() const {
   return a == std::string::npos ? "" : t.substr(a, z - a + 1);
 }
 
+const char* side_name(Side s) { return s == Side::kUpper ? "upper" : "lower"; }
+
 const char* bound_kind_name(BoundKind kind) {
   switch (kind) {
     case BoundKind::kTheta:

@@ -10,7 +10,6 @@
 #include <map>
 
 #include "generators/size_family.h"
-#include "verifier/evaluation/evaluator.h"
 #include "verifier/evaluation/size_expression.h"
 #include "verifier/model/claim.h"
 #include "verifier/syntax/input_file.h"
