@@ -44,20 +44,7 @@ bool holds(Evaluator& ev, const Expr& c, const SourceText& source, const BigInt&
     }
     default: {
       int r = ev.compare_at(*c.args[0], source, *c.args[1], source, n);
-      switch (c.kind) {
-        case ExprKind::kEq:
-          return r == 0;
-        case ExprKind::kNe:
-          return r != 0;
-        case ExprKind::kLt:
-          return r < 0;
-        case ExprKind::kLe:
-          return r <= 0;
-        case ExprKind::kGt:
-          return r > 0;
-        default:
-          return r >= 0;
-      }
+      return comparison_holds(c.kind, r);
     }
   }
 }

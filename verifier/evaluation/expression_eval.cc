@@ -299,21 +299,7 @@ bool test_condition(const Expr& c, const Value& n, const EvalScope& scope) {
       Value a = evaluate_expr(*c.args[0], n, scope);
       Value b = evaluate_expr(*c.args[1], n, scope);
       // Overlapping intervals throw PrecisionShortfall: never guessed.
-      int order = compare(a, b, ctx);
-      switch (c.kind) {
-        case ExprKind::kEq:
-          return order == 0;
-        case ExprKind::kNe:
-          return order != 0;
-        case ExprKind::kLt:
-          return order < 0;
-        case ExprKind::kLe:
-          return order <= 0;
-        case ExprKind::kGt:
-          return order > 0;
-        default:
-          return order >= 0;
-      }
+      return comparison_holds(c.kind, compare(a, b, ctx));
     }
     default:
       fail_at(*scope.source, c.pos, "expected a condition, found the value '" + print(c) + "'",

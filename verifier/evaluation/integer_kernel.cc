@@ -26,12 +26,7 @@ enum class Op : uint8_t {
   kCeilLg,
   kFloorSqrt,
   kCeilSqrt,  // of an integer: whole again
-  kEq,
-  kNe,
-  kLt,
-  kLe,
-  kGt,
-  kGe,
+  kCompare,   // a comparison; Node::relation says which
   kAnd,
   kOr,
   kNot,
@@ -53,6 +48,7 @@ uint64_t bits_of(mpz_srcptr x) { return mpz_sgn(x) == 0 ? 0 : mpz_sizeinbase(x, 
 
 struct IntegerKernel::Node {
   Op op = Op::kConst;
+  ExprKind relation = ExprKind::kEq;  // kCompare: kEq, kNe, kLt, kLe, kGt or kGe
   uint32_t a = 0, b = 0;
   // kConst: constant index; kSlot: call slot; kPow: exponent; with small_b:
   // the right operand's value.
@@ -240,17 +236,15 @@ class IntegerKernel::Compiler {
         return node(op, *x);
       }
       case ExprKind::kEq:
-        return binary(Op::kEq, *e.args[0], *e.args[1]);
       case ExprKind::kNe:
-        return binary(Op::kNe, *e.args[0], *e.args[1]);
       case ExprKind::kLt:
-        return binary(Op::kLt, *e.args[0], *e.args[1]);
       case ExprKind::kLe:
-        return binary(Op::kLe, *e.args[0], *e.args[1]);
       case ExprKind::kGt:
-        return binary(Op::kGt, *e.args[0], *e.args[1]);
-      case ExprKind::kGe:
-        return binary(Op::kGe, *e.args[0], *e.args[1]);
+      case ExprKind::kGe: {
+        std::optional<uint32_t> id = binary(Op::kCompare, *e.args[0], *e.args[1]);
+        if (id) k_.nodes_[*id].relation = e.kind;
+        return id;
+      }
       default:
         return std::nullopt;
     }
@@ -454,26 +448,11 @@ bool IntegerKernel::test(uint32_t id, size_t depth) {
     default:
       break;
   }
+  if (x.op != Op::kCompare) throw InternalError("", "a value compiled as a condition");
   mpz_t view_a, view_b;
   mpz_srcptr a = operand(x.a, temp(depth), depth + 1, view_a);
   mpz_srcptr b = operand(x.b, temp(depth + 1), depth + 2, view_b);
-  int order = mpz_cmp(a, b);
-  switch (x.op) {
-    case Op::kEq:
-      return order == 0;
-    case Op::kNe:
-      return order != 0;
-    case Op::kLt:
-      return order < 0;
-    case Op::kLe:
-      return order <= 0;
-    case Op::kGt:
-      return order > 0;
-    case Op::kGe:
-      return order >= 0;
-    default:
-      throw InternalError("", "a value compiled as a condition");
-  }
+  return comparison_holds(x.relation, mpz_cmp(a, b));
 }
 
 const IntegerKernel::Line* IntegerKernel::select(mpz_srcptr n) {
