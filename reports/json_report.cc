@@ -80,7 +80,7 @@ Json basis_json(const VerdictBasis& b) {
     th["method"] = t.method;
     th["derived"] = t.derived;
     th["claimed"] = t.claimed;
-    th["kind"] = t.kind;
+    th["kind"] = compared_with_name(t.kind);
     th["agreement"] = t.agreement == Agreement::kSame    ? "same"
                       : t.agreement == Agreement::kLoose ? "loose"
                                                          : "contradicts";
@@ -129,7 +129,7 @@ Json basis_json(const VerdictBasis& b) {
 Json code_json(const std::optional<CodeResult>& code) {
   if (!code) return nullptr;
   Json j;
-  j["relation"] = code->relation;
+  j["relation"] = relation_name(code->relation);
   j["source"] = code->source;
   j["measurements"] = code->measurements;
   // The recurrence's own verdict when the code's costs refuted the claim.

@@ -75,16 +75,16 @@ void ClaimCheck::check_explicit(const std::vector<Size>& sizes) {
       if ((target.side == Side::kUpper && order > 0) ||
           (target.side == Side::kLower && order < 0)) {
         result_.basis.unproved = Unproved::kDerivedOutgrowsSide;
-        result_.basis.theorem =
-            TheoremEvidence{derivation_->method,    derivation_->derived,    to_string(*c.growth),
-                            side_name(target.side), Agreement::kContradicts, order > 0};
+        result_.basis.theorem = TheoremEvidence{derivation_->method,     derivation_->derived,
+                                                to_string(*c.growth),    compared_with(target.side),
+                                                Agreement::kContradicts, order > 0};
         return;
       }
     }
     theorem = TheoremEvidence{derivation_->method,
                               derivation_->derived,
                               "",
-                              "explicit",
+                              ComparedWith::kExplicit,
                               tight ? Agreement::kSame : Agreement::kLoose,
                               false};
   }
@@ -159,7 +159,7 @@ void ClaimCheck::check_asymptotic(const std::vector<Size>& sizes) {
       TheoremEvidence evidence{derivation_->method,
                                derivation_->derived,
                                to_string(*cmp.claimed),
-                               bound_kind_name(bound.kind),
+                               compared_with(bound.kind),
                                cmp.agreement == ClaimAgreement::kAgree ? Agreement::kSame
                                : cmp.agreement == ClaimAgreement::kHoldsLoosely
                                    ? Agreement::kLoose

@@ -11,6 +11,7 @@
 #include "thetagate/version.h"
 #include "verifier/derivation/induction_proof.h"
 #include "verifier/model/bound.h"
+#include "verifier/model/claim.h"
 #include "verifier/numbers/number.h"
 #include "verifier/syntax/source.h"
 
@@ -99,11 +100,20 @@ const char* unproved_name(Unproved u);
 // How the claim compares with a derived class (asymptotic bounds).
 enum class Agreement { kSame, kLoose, kContradicts };
 
+// What a derived class was set against: the claim's class (Θ, O, Ω), an
+// explicit bound's classes, or one side of an explicit bound.
+enum class ComparedWith { kTheta, kBigO, kOmega, kExplicit, kUpperSide, kLowerSide };
+// "Theta", "O", "Omega", "explicit", "upper", "lower": bound_kind_name and
+// side_name, as reports print them.
+const char* compared_with_name(ComparedWith c);
+ComparedWith compared_with(BoundKind kind);
+ComparedWith compared_with(Side side);
+
 struct TheoremEvidence {
   std::string method;   // "master theorem, case 2"
   std::string derived;  // the derived class, "n lg n"
   std::string claimed;  // the claim's class in normal form
-  std::string kind;     // "Theta", "O", "Omega"
+  ComparedWith kind = ComparedWith::kTheta;
   Agreement agreement = Agreement::kSame;
   bool claimed_below = false;  // for kContradicts: the claimed class is the smaller one
 };
@@ -167,7 +177,7 @@ struct CodeResult {
   // claim (reports show both links); unset when no violation changed it.
   std::optional<Verdict> model_verdict;
   VerdictBasis model_basis;
-  std::string relation;       // relation_name(): "upper bound", "exact", "lower bound"
+  ModelRelation relation = ModelRelation::kUpperBound;
   std::string source;         // the costs file as written, or the runner's name
   uint64_t measurements = 0;  // costs counted (lines, or runs)
   std::vector<CostRow> rows;  // ascending n
