@@ -6,6 +6,7 @@
 #include "reports/verdict_text.h"
 #include "verifier/checking/checker.h"
 #include "verifier/checking/run.h"
+#include "verifier/model/limits.h"
 
 namespace thetagate {
 
@@ -43,12 +44,15 @@ engine::CheckOptions engine_options(const CheckOptions& options) {
   auto bad = [](const std::string& message, const std::string& hint) {
     throw InputError(Diagnostic{Location{"<options>", 1, 1}, message, hint, ""});
   };
-  if (options.max_bits && (*options.max_bits < 1 || *options.max_bits > 65536)) {
-    bad("max_bits must be between 1 and 65536, found " + std::to_string(*options.max_bits),
+  if (options.max_bits &&
+      (*options.max_bits < 1 || *options.max_bits > uint64_t{engine::kMaxBitsLimit})) {
+    bad("max_bits must be between 1 and " + std::to_string(engine::kMaxBitsLimit) + ", found " +
+            std::to_string(*options.max_bits),
         "the default is 4096");
   }
-  if (options.effort < 1 || options.effort > 10000) {
-    bad("effort must be between 1 and 10000, found " + std::to_string(options.effort),
+  if (options.effort < 1 || options.effort > uint64_t{engine::kMaxEffort}) {
+    bad("effort must be between 1 and " + std::to_string(engine::kMaxEffort) + ", found " +
+            std::to_string(options.effort),
         "the default is 1, about 0.2 s of search per claim");
   }
   for (const std::string& family : options.families) {

@@ -8,6 +8,7 @@
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/evaluation/size_expression.h"
 #include "verifier/model/bound.h"
+#include "verifier/model/limits.h"
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/spelling.h"
 
@@ -58,13 +59,16 @@ Claim Claim::from_text(const std::string& name, const std::string& recurrence,
       engine::parse_bound(engine::SourceText::whole("<bound>", bound), claim.recurrence->main.name);
   engine::check_bound_fits(*claim.recurrence, claim.bound);
   claim.note = settings.note;
-  if (settings.max_bits && (*settings.max_bits < 1 || *settings.max_bits > 65536)) {
-    bad_setting("max_bits must be between 1 and 65536, found " + std::to_string(*settings.max_bits),
+  if (settings.max_bits &&
+      (*settings.max_bits < 1 || *settings.max_bits > uint64_t{engine::kMaxBitsLimit})) {
+    bad_setting("max_bits must be between 1 and " + std::to_string(engine::kMaxBitsLimit) +
+                    ", found " + std::to_string(*settings.max_bits),
                 "the default is 4096");
   }
   claim.sizes.max_bits = settings.max_bits;
-  if (settings.effort < 1 || settings.effort > 10000) {
-    bad_setting("effort must be between 1 and 10000, found " + std::to_string(settings.effort),
+  if (settings.effort < 1 || settings.effort > uint64_t{engine::kMaxEffort}) {
+    bad_setting("effort must be between 1 and " + std::to_string(engine::kMaxEffort) + ", found " +
+                    std::to_string(settings.effort),
                 "the default is 1, about 0.2 s of search per claim");
   }
   claim.sizes.effort = settings.effort;

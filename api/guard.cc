@@ -252,7 +252,7 @@ std::string GuardResult::report() const {
   }
   if (error) out += "code -> model: " + *error + "\n";
   CodeResult code;
-  code.relation = relation_name(relation);
+  code.relation = internal_relation(relation);
   code.source = runner.empty() ? "runner" : "runner '" + runner + "'";
   code.measurements = runs;
   for (const CostRow& r : rows) {

@@ -16,6 +16,7 @@
 
 #include "cli/exit_policy.h"
 #include "thetagate/thetagate.h"
+#include "verifier/model/limits.h"          // constants only
 #include "verifier/syntax/spelling.h"       // compiled into the front end, not exported
 #include "verifier/syntax/terminal_text.h"  // likewise
 
@@ -484,12 +485,12 @@ int main(int argc, char** argv) {
                             "once");
   check_command->add_option("--seed", check.seed, "seed for random sizes: a number, or 'random'");
   check_command->add_option("--max-bits", check.max_bits, "largest size in bits (default 4096)")
-      ->check(CLI::Range(1, 65536));
+      ->check(CLI::Range(int64_t{1}, engine::kMaxBitsLimit));
   check_command
       ->add_option("--effort", check.effort,
                    "search work per claim, a multiple of the default (about 0.2 s of one "
                    "core): 10 or 100 for deeper nightly runs")
-      ->check(CLI::Range(1, 10000));
+      ->check(CLI::Range(int64_t{1}, engine::kMaxEffort));
   check_command
       ->add_option("--clock-limit", check.clock_limit,
                    "wall-clock guard per claim against hangs, in seconds, as given (--effort does "

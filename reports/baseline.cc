@@ -420,7 +420,7 @@ class ReportReader {
       e.method = string_at(*t, at, "method");
       e.derived = string_at(*t, at, "derived");
       e.claimed = string_at(*t, at, "claimed");
-      e.kind = string_at(*t, at, "kind");
+      e.kind = compared_with_at(*t, at);
       std::string a = string_at(*t, at, "agreement");
       e.agreement = a == "same"    ? Agreement::kSame
                     : a == "loose" ? Agreement::kLoose
@@ -484,6 +484,30 @@ class ReportReader {
     return b;
   }
 
+  // The names the JSON writer gives these enums; any other text is an error.
+  ComparedWith compared_with_at(const Json& o, const std::string& path) {
+    std::string at = join(path, "kind");
+    std::string s = string_at(o, path, "kind");
+    for (ComparedWith c :
+         {ComparedWith::kTheta, ComparedWith::kBigO, ComparedWith::kOmega, ComparedWith::kExplicit,
+          ComparedWith::kUpperSide, ComparedWith::kLowerSide}) {
+      if (s == compared_with_name(c)) return c;
+    }
+    fail(at, "'" + at + "' is \"" + s +
+                 "\"; expected \"Theta\", \"O\", \"Omega\", \"explicit\", \"upper\" or \"lower\"");
+  }
+
+  ModelRelation relation_at(const Json& o, const std::string& path) {
+    std::string at = join(path, "relation");
+    std::string s = string_at(o, path, "relation");
+    for (ModelRelation r :
+         {ModelRelation::kUpperBound, ModelRelation::kExact, ModelRelation::kLowerBound}) {
+      if (s == relation_name(r)) return r;
+    }
+    fail(at,
+         "'" + at + "' is \"" + s + "\"; expected \"upper bound\", \"exact\" or \"lower bound\"");
+  }
+
   int sign_value(const Json& j, const std::string& path) {
     if (!j.is_number_integer() || j.get<int64_t>() < -1 || j.get<int64_t>() > 1) {
       wrong_type(j, path, "-1, 0 or 1");
@@ -497,7 +521,7 @@ class ReportReader {
     std::string at = join(path, "code");
     expect_object(*j, at);
     CodeResult code;
-    code.relation = string_at(*j, at, "relation");
+    code.relation = relation_at(*j, at);
     code.source = optional_string(*j, at, "source");
     code.measurements = optional_unsigned(*j, at, "measurements");
     for (const char* key : {"families_measured", "families_missed"}) {

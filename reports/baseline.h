@@ -26,7 +26,8 @@ namespace thetagate::engine {
 // render_json(read_json_report(render_json(run))) == render_json(run).
 //
 // Throws InputError for text that is not JSON (located at the bad byte), a
-// missing key, a value of the wrong type, an unknown verdict or side, or
+// missing key, a value of the wrong type, an unknown verdict, side, relation or
+// theorem kind, or
 // another schema_version; the message names the key by its path, e.g.
 // `claims[2].witnesses[0].n`, and the location points at the value (or at
 // the object that lacks the key).

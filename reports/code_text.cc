@@ -7,6 +7,18 @@
 
 namespace thetagate::engine {
 
+const char* relation_phrase(ModelRelation relation) {
+  switch (relation) {
+    case ModelRelation::kExact:
+      return "exact";
+    case ModelRelation::kUpperBound:
+      return "an upper bound";
+    case ModelRelation::kLowerBound:
+      return "a lower bound";
+  }
+  return "?";
+}
+
 namespace {
 
 const char* relation_sign(int sign) { return sign < 0 ? "<" : sign > 0 ? ">" : "="; }
@@ -36,7 +48,7 @@ int violation_sign(const CodeResult& code, const CostViolation& v) {
   for (const CostRow& r : code.rows)
     if (r.n == v.n && r.cost == v.cost) return r.sign;
   // Not the row's extreme: the relation says which side it broke.
-  return code.relation == "lower bound" ? -1 : 1;
+  return code.relation == ModelRelation::kLowerBound ? -1 : 1;
 }
 
 }  // namespace
@@ -53,10 +65,7 @@ std::string code_headline(const CodeResult& code) {
   size_t sizes = code.rows.size();
   return fmt::format("code -> model: {} ({} measurement{} at {} size{}), the model is {}",
                      code.source, code.measurements, code.measurements == 1 ? "" : "s", sizes,
-                     sizes == 1 ? "" : "s",
-                     code.relation == "exact"         ? std::string("exact")
-                     : code.relation == "upper bound" ? "an upper bound"
-                                                      : "a " + code.relation);
+                     sizes == 1 ? "" : "s", relation_phrase(code.relation));
 }
 
 std::string code_coverage(const CodeResult& code) {
@@ -91,9 +100,9 @@ std::string code_link_text(const CodeResult& code, const std::string& indent, si
     }
   }
   if (sizes == 0) return out;
-  const char* extreme = code.relation == "upper bound"   ? "largest counted cost"
-                        : code.relation == "lower bound" ? "smallest counted cost"
-                                                         : "counted cost";
+  const char* extreme = code.relation == ModelRelation::kUpperBound   ? "largest counted cost"
+                        : code.relation == ModelRelation::kLowerBound ? "smallest counted cost"
+                                                                      : "counted cost";
   std::vector<size_t> rows = spread(sizes, max_rows);
   out += fmt::format(
       "{}  {} against T(n){}:\n", indent, extreme,

@@ -9,6 +9,9 @@
 
 namespace thetagate::engine {
 
+// "exact", "an upper bound", "a lower bound": what the model is, in a sentence.
+const char* relation_phrase(ModelRelation relation);
+
 // "counted cost 40 > T(n) = 33" and the like, for one violation.
 std::string violation_text(const CodeResult& code, const CostViolation& v);
 

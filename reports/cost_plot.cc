@@ -64,9 +64,7 @@ std::string render_cost_plot(const CodeResult& code) {
     double model = log2_of_decimal_text(r.model);
     double cost = log2_of_decimal_text(r.cost);
     if (!std::isfinite(x)) continue;
-    bool broken = (code.relation == "upper bound" && r.sign > 0) ||
-                  (code.relation == "lower bound" && r.sign < 0) ||
-                  (code.relation == "exact" && r.sign != 0);
+    bool broken = relation_broken(code.relation, r.sign);
     points.push_back({x, model, cost, broken});
   }
   if (points.empty()) return "";
@@ -136,9 +134,9 @@ std::string render_cost_plot(const CodeResult& code) {
       "<text class=\"legend\" x=\"{:.1f}\" y=\"{:.1f}\">line: T(n); dots: counted cost "
       "({})</text>\n",
       kLeft + 8, kTop + 14,
-      code.relation == "upper bound"   ? "largest per size"
-      : code.relation == "lower bound" ? "smallest per size"
-                                       : "per size");
+      code.relation == ModelRelation::kUpperBound   ? "largest per size"
+      : code.relation == ModelRelation::kLowerBound ? "smallest per size"
+                                                    : "per size");
   return svg + "</svg>";
 }
 

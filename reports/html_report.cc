@@ -8,6 +8,7 @@
 #include <cstdlib>
 
 #include "reports/band_plot.h"
+#include "reports/code_text.h"
 #include "reports/cost_plot.h"
 #include "reports/drift.h"
 #include "reports/number_text.h"
@@ -122,10 +123,7 @@ std::string code_section(const CodeResult& code) {
   std::string s = "<h3>Code against model: " + esc(code.source) + "</h3>\n";
   s += fmt::format("<p>{} measurement{} at {} size{}; the model is {}.</p>\n", code.measurements,
                    code.measurements == 1 ? "" : "s", code.rows.size(),
-                   code.rows.size() == 1 ? "" : "s",
-                   esc(code.relation == "exact"         ? std::string("exact")
-                       : code.relation == "upper bound" ? "an upper bound"
-                                                        : "a " + code.relation));
+                   code.rows.size() == 1 ? "" : "s", esc(relation_phrase(code.relation)));
   if (!code.families_missed.empty()) {
     std::string missed;
     for (const std::string& f : code.families_missed) missed += (missed.empty() ? "" : ", ") + f;

@@ -82,7 +82,7 @@ Json basis_json(const VerdictBasis& b) {
     // Only a one-sided derivation says how it bounds T (absent: Θ).
     if (t.relation != "Θ") th["relation"] = t.relation == "O" ? "O" : "Omega";
     th["claimed"] = t.claimed;
-    th["kind"] = t.kind;
+    th["kind"] = compared_with_name(t.kind);
     th["agreement"] = t.agreement == Agreement::kSame    ? "same"
                       : t.agreement == Agreement::kLoose ? "loose"
                                                          : "contradicts";
@@ -131,7 +131,7 @@ Json basis_json(const VerdictBasis& b) {
 Json code_json(const std::optional<CodeResult>& code) {
   if (!code) return nullptr;
   Json j;
-  j["relation"] = code->relation;
+  j["relation"] = relation_name(code->relation);
   j["source"] = code->source;
   j["measurements"] = code->measurements;
   j["families_measured"] = code->families_measured;

@@ -26,8 +26,8 @@ std::string not_proved_phrase(const ClaimResult& c) {
 }
 
 std::string theorem_versus(const TheoremEvidence& t) {
-  return "claimed " + t.kind + "(" + t.claimed + "), derived " + t.relation + "(" + t.derived +
-         ") by " + t.method;
+  return std::string("claimed ") + compared_with_name(t.kind) + "(" + t.claimed + "), derived " +
+         t.relation + "(" + t.derived + ") by " + t.method;
 }
 
 std::string edges_phrase(const TrendEvidence& t) {
@@ -69,10 +69,11 @@ std::string basis_message(const ClaimResult& c) {
       int sign = 0;
       for (const CostRow& row : code.rows)
         if (row.n == v.n) sign = row.sign;
-      const char* broken = code.relation == "exact"         ? (sign > 0 ? "exceeds the exact model"
-                                                                        : "falls short of the exact model")
-                           : code.relation == "lower bound" ? "falls below"
-                                                            : "exceeds";
+      const char* broken =
+          code.relation == ModelRelation::kExact
+              ? (sign > 0 ? "exceeds the exact model" : "falls short of the exact model")
+          : code.relation == ModelRelation::kLowerBound ? "falls below"
+                                                        : "exceeds";
       std::string where = v.file.empty() ? "" : " (" + v.file + ":" + std::to_string(v.line) + ")";
       std::string s = "the code breaks its model: at n = " + v.n.str() + where +
                       " the counted cost " + v.cost + " " + broken + " " + c.function +
@@ -106,7 +107,7 @@ std::string basis_message(const ClaimResult& c) {
     case BasisKind::kDerivationAgrees: {
       if (!b.theorem) return "proved by a theorem";
       const TheoremEvidence& t = *b.theorem;
-      if (t.kind == "explicit") {
+      if (t.kind == ComparedWith::kExplicit) {
         return checked_phrase(c) +
                fmt::format("; {} derives Θ({}), which the bound's class {}", t.method, t.derived,
                            t.agreement == Agreement::kSame ? "matches" : "contains");
@@ -180,7 +181,7 @@ std::string basis_message(const ClaimResult& c) {
                      "; T(n) = Θ({}) grows {} than the {} side Θ({}), so the bound must "
                      "break beyond the sizes checked",
                      b.theorem->derived, b.theorem->claimed_below ? "faster" : "slower",
-                     b.theorem->kind, b.theorem->claimed);
+                     compared_with_name(b.theorem->kind), b.theorem->claimed);
         case Unproved::kInductionFailed:
           return not_proved_phrase(c) +
                  (b.theorem ? fmt::format(

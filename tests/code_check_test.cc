@@ -101,7 +101,7 @@ TEST_F(CostsFile, CountedMergeSortCostsKeepToTheWorstCaseModel) {
   ClaimResult r = check("[claim.code]\nmodel = \"upper bound\"\ncosts = \"costs/merge.txt\"\n");
   ASSERT_EQ(r.verdict, Verdict::kHolds) << verdict_message(r);
   ASSERT_TRUE(r.code.has_value());
-  EXPECT_EQ(r.code->relation, "upper bound");
+  EXPECT_EQ(r.code->relation, ModelRelation::kUpperBound);
   EXPECT_EQ(r.code->measurements, 140u);
   EXPECT_EQ(r.code->rows.size(), 70u);
   EXPECT_TRUE(r.code->violations.empty());

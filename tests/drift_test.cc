@@ -141,6 +141,30 @@ TEST(DriftBaseline, RejectsOtherVersionsBadVerdictsAndBadSizes) {
   EXPECT_NE(size.source_line.find("\"n\": \"2^4096\""), std::string::npos);
 }
 
+TEST(DriftBaseline, RejectsAnUnknownTheoremKindOrCodeRelation) {
+  Json j = Json::parse(render_json(sample_run()));
+  ASSERT_EQ(j["claims"][0]["basis"]["theorem"]["kind"], "Theta");
+  j["claims"][0]["basis"]["theorem"]["kind"] = "Tetha";
+  Diagnostic kind = diagnostic_of([&] { read_json_report(j.dump(2)); });
+  EXPECT_EQ(kind.message,
+            "'claims[0].basis.theorem.kind' is \"Tetha\"; expected \"Theta\", \"O\", \"Omega\", "
+            "\"explicit\", \"upper\" or \"lower\"");
+
+  RunResult run = sample_run();
+  run.claims[0].code = CodeResult{};
+  run.claims[0].code->relation = ModelRelation::kLowerBound;
+  run.claims[0].code->source = "costs.txt";
+  EXPECT_EQ(read_json_report(render_json(run)).claims[0].code->relation,
+            ModelRelation::kLowerBound);
+  j = Json::parse(render_json(run));
+  ASSERT_EQ(j["claims"][0]["code"]["relation"], "lower bound");
+  j["claims"][0]["code"]["relation"] = "lower";
+  Diagnostic relation = diagnostic_of([&] { read_json_report(j.dump(2)); });
+  EXPECT_EQ(relation.message,
+            "'claims[0].code.relation' is \"lower\"; expected \"upper bound\", \"exact\" or "
+            "\"lower bound\"");
+}
+
 TEST(DriftBaseline, TextThatIsNotJsonIsLocatedAtTheBadByte) {
   Diagnostic d = diagnostic_of([] { read_json_report("{\n  \"seed\": 1,\n  \"claims\": [,]\n}"); });
   EXPECT_EQ(d.where.line, 3);

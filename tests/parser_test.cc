@@ -75,6 +75,22 @@ std::string expression_error(const std::string& text) {
 
 // ---- Lexer ----------------------------------------------------------------
 
+TEST(Expr, ComparisonHoldsReadsTheOrder) {
+  const ExprKind kinds[] = {ExprKind::kEq, ExprKind::kNe, ExprKind::kLt,
+                            ExprKind::kLe, ExprKind::kGt, ExprKind::kGe};
+  // Rows: order -1, 0, +1; columns as `kinds`.
+  const bool expected[3][6] = {{false, true, true, true, false, false},
+                               {true, false, false, true, false, true},
+                               {false, true, false, false, true, true}};
+  for (int order = -1; order <= 1; ++order) {
+    for (int k = 0; k < 6; ++k) {
+      EXPECT_EQ(comparison_holds(kinds[k], order * 7), expected[order + 1][k])
+          << "kind " << k << ", order " << order;
+    }
+  }
+  EXPECT_THROW(comparison_holds(ExprKind::kAnd, 0), InternalError);
+}
+
 TEST(Lexer, UnicodeSpellingsBecomeTheirAsciiTokens) {
   auto tokens = tokenize(SourceText::whole(
       "<t>", "\u0398 \u03a9 \u2212 \u2264 \u2265 \u2260 \u00b7 \u230a\u230b\u2308\u2309\u221a"));

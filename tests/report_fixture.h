@@ -27,8 +27,8 @@ inline ClaimResult stable_sort() {
   c.derived = "Θ(n lg n)";
   c.method = "master theorem, case 2";
   c.basis.kind = BasisKind::kDerivationAgrees;
-  c.basis.theorem = TheoremEvidence{"master theorem, case 2", "n lg n", "n lg n", "Theta",
-                                    Agreement::kSame,         false};
+  c.basis.theorem = TheoremEvidence{"master theorem, case 2", "n lg n",         "n lg n",
+                                    ComparedWith::kTheta,     Agreement::kSame, false};
   c.steps = {"a = 2, b = 2: critical exponent lg 2 = 1",
              "f(n) = n - 1 is Θ(n^1 lg^0 n): case 2 with k = 0 gives Θ(n lg n)",
              "Akra–Bazzi with Leighton's condition covers ⌈n/2⌉ and ⌊n/2⌋"};
@@ -47,8 +47,8 @@ inline ClaimResult rope_concat() {
   c.derived = "Θ(n lg n)";
   c.method = "master theorem, case 2";
   c.basis.kind = BasisKind::kDerivationContradicts;
-  c.basis.theorem =
-      TheoremEvidence{"master theorem, case 2", "n lg n", "n", "O", Agreement::kContradicts, true};
+  c.basis.theorem = TheoremEvidence{"master theorem, case 2", "n lg n", "n", ComparedWith::kBigO,
+                                    Agreement::kContradicts,  true};
   // T(n) = n lg n + n on these sizes: above c·n once lg n passes c - 1.
   Witness w1;
   w1.n = 2048;
@@ -101,8 +101,8 @@ inline ClaimResult binary_search() {
   c.method = "master theorem, case 2";
   c.tight = false;
   c.basis.kind = BasisKind::kDerivationAgrees;
-  c.basis.theorem =
-      TheoremEvidence{"master theorem, case 2", "lg n", "n", "O", Agreement::kLoose, false};
+  c.basis.theorem = TheoremEvidence{"master theorem, case 2", "lg n", "n", ComparedWith::kBigO,
+                                    Agreement::kLoose,        false};
   c.sizes_checked = 3000;
   c.largest_bits = 4096;
   return c;
@@ -181,8 +181,8 @@ inline ClaimResult karatsuba() {
   c.derived = "Θ(n^(lg 3))";
   c.method = "master theorem, case 1";
   c.basis.kind = BasisKind::kDerivationAgrees;
-  c.basis.theorem = TheoremEvidence{"master theorem, case 1", "n^(lg 3)", "n^(lg 3)", "Theta",
-                                    Agreement::kSame,         false};
+  c.basis.theorem = TheoremEvidence{"master theorem, case 1", "n^(lg 3)",       "n^(lg 3)",
+                                    ComparedWith::kTheta,     Agreement::kSame, false};
   c.note = "limbs, not bits; <32 limbs use the schoolbook loop";
   c.sizes_checked = 4400;
   c.largest_bits = 4096;

@@ -25,8 +25,7 @@ class THETAGATE_API Derivation {
   const std::string& bound() const;               // "Θ(n lg n)"; "" when none applied
   const std::string& method() const;              // "master theorem, case 2"; "" when none
   const std::vector<std::string>& steps() const;  // the applying theorem's steps, in order
-  // One line per theorem that did not apply ("THEOREM: failing hypothesis"),
-  // and any disagreement between two theorems.
+  // One line per theorem that did not apply ("THEOREM: failing hypothesis").
   const std::vector<std::string>& not_applied() const;
   const std::vector<std::string>& notes() const;  // assumptions (n/2 read as floor, ...)
   std::string to_text() const;  // numbered steps, then "did not apply:"; ends with a newline
@@ -41,7 +40,8 @@ class THETAGATE_API Derivation {
 
 // Derives the growth class of `recurrence`. Throws InputError for a call
 // that does not shrink (T(n) calling T(n + 1)), as evaluating would; a
-// theorem that cannot decide says so in not_applied().
+// theorem that cannot decide says so in not_applied(). Two theorems that
+// apply and derive different classes are a bug: throws InternalError.
 THETAGATE_API Derivation derive(const Recurrence& recurrence);
 // As derive(Recurrence::parse(text)): throws InputError for bad text.
 THETAGATE_API Derivation derive(const std::string& recurrence_text);

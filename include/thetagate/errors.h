@@ -15,6 +15,16 @@
 //
 // Engine-internal signals (a precision retry, a theorem that declines) never
 // leave the library.
+//
+// Two more are thrown inside the maintainer's own code, by the header-only
+// counters of thetagate/cost.h, and are declared there so that cost.h needs
+// nothing but the standard library:
+//   CostOverflow  a count would pass 2^64 - 1 (a std::overflow_error, not an
+//                 Error: the code under test may catch it as the standard
+//                 type). The guard reports it as the run's error.
+//   RunStopped    a guarded run's count passed its ceiling or its time ran
+//                 out; deliberately no std::exception at all. The guard
+//                 catches it; it is not an error.
 #ifndef THETAGATE_ERRORS_H_
 #define THETAGATE_ERRORS_H_
 

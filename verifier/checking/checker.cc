@@ -240,6 +240,10 @@ ClaimResult check_entry(const ClaimEntry& entry, const CheckOptions& options) {
     base.recurrence = entry.claim->recurrence->text();
     base.claimed = entry.claim->bound.text();
     return budget_result(base, "memory ran out while checking this claim");
+  } catch (const InternalError& e) {
+    // An invariant of the engine broke: its detail, without the "a bug" prefix
+    // that main adds when it names the claim.
+    return internal_error_result(base, e.detail());
   } catch (const std::exception& e) {
     return internal_error_result(base, e.what());
   } catch (...) {

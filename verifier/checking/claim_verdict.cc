@@ -40,7 +40,7 @@ void ClaimCheck::check_explicit(const std::vector<Size>& sizes) {
   std::vector<Target> targets;
   if (bound.upper) targets.push_back({Side::kUpper, bound.upper.get(), bound.strict_upper});
   if (bound.lower) targets.push_back({Side::kLower, bound.lower.get(), bound.strict_lower});
-  if (targets.empty()) throw std::logic_error("an explicit bound without a side");
+  if (targets.empty()) throw InternalError("", "an explicit bound without a side");
   sample_sizes(sizes, targets, true);
   // A family member may land in a narrow window at a high scale while
   // lower scales have windows of their own: search those first, so the
@@ -75,16 +75,16 @@ void ClaimCheck::check_explicit(const std::vector<Size>& sizes) {
       if ((target.side == Side::kUpper && order > 0) ||
           (target.side == Side::kLower && order < 0)) {
         result_.basis.unproved = Unproved::kDerivedOutgrowsSide;
-        result_.basis.theorem =
-            TheoremEvidence{derivation_->method,    derivation_->derived,    to_string(*c.growth),
-                            side_name(target.side), Agreement::kContradicts, order > 0};
+        result_.basis.theorem = TheoremEvidence{derivation_->method,     derivation_->derived,
+                                                to_string(*c.growth),    compared_with(target.side),
+                                                Agreement::kContradicts, order > 0};
         return;
       }
     }
     theorem = TheoremEvidence{derivation_->method,
                               derivation_->derived,
                               "",
-                              "explicit",
+                              ComparedWith::kExplicit,
                               tight ? Agreement::kSame : Agreement::kLoose,
                               false};
   }
@@ -167,7 +167,7 @@ void ClaimCheck::check_asymptotic(const std::vector<Size>& sizes) {
       TheoremEvidence evidence{derivation_->method,
                                to_string(*cmp.derived),
                                to_string(*cmp.claimed),
-                               bound_kind_name(bound.kind),
+                               compared_with(bound.kind),
                                cmp.agreement == ClaimAgreement::kAgree ? Agreement::kSame
                                : cmp.agreement == ClaimAgreement::kHoldsLoosely
                                    ? Agreement::kLoose

@@ -276,7 +276,7 @@ CodeResult check_costs_text(const Claim& claim, std::string bytes,
   const std::string kHint = "each line holds a size and its counted cost: \"1024 9217\"";
 
   CodeResult result;
-  result.relation = relation_name(link.model);
+  result.relation = link.model;
   result.source = link.costs_as_written;
   Budget budget;
   budget.max_seconds = 600;  // a long file is slow, not stuck: steps still bound each size

@@ -16,7 +16,41 @@ const char* verdict_name(Verdict v) {
   return "?";
 }
 
-const char* side_name(Side s) { return s == Side::kUpper ? "upper" : "lower"; }
+const char* compared_with_name(ComparedWith c) {
+  switch (c) {
+    case ComparedWith::kTheta:
+      return bound_kind_name(BoundKind::kTheta);
+    case ComparedWith::kBigO:
+      return bound_kind_name(BoundKind::kBigO);
+    case ComparedWith::kOmega:
+      return bound_kind_name(BoundKind::kOmega);
+    case ComparedWith::kExplicit:
+      return bound_kind_name(BoundKind::kExplicit);
+    case ComparedWith::kUpperSide:
+      return side_name(Side::kUpper);
+    case ComparedWith::kLowerSide:
+      return side_name(Side::kLower);
+  }
+  return "?";
+}
+
+ComparedWith compared_with(BoundKind kind) {
+  switch (kind) {
+    case BoundKind::kTheta:
+      return ComparedWith::kTheta;
+    case BoundKind::kBigO:
+      return ComparedWith::kBigO;
+    case BoundKind::kOmega:
+      return ComparedWith::kOmega;
+    case BoundKind::kExplicit:
+      return ComparedWith::kExplicit;
+  }
+  throw InternalError("", "a bound kind with no comparison");
+}
+
+ComparedWith compared_with(Side side) {
+  return side == Side::kUpper ? ComparedWith::kUpperSide : ComparedWith::kLowerSide;
+}
 
 const char* direction_name(Direction d) {
   switch (d) {

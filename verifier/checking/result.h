@@ -9,6 +9,9 @@
 #include <vector>
 
 #include "thetagate/version.h"
+#include "verifier/derivation/induction_proof.h"
+#include "verifier/model/bound.h"
+#include "verifier/model/claim.h"
 #include "verifier/numbers/number.h"
 #include "verifier/syntax/source.h"
 
@@ -16,10 +19,6 @@ namespace thetagate::engine {
 
 enum class Verdict { kHolds, kRefuted, kUndecided, kError };
 const char* verdict_name(Verdict v);  // "holds", "refuted", "undecided", "error"
-
-// Which side of the bound a witness breaks.
-enum class Side { kUpper, kLower };
-const char* side_name(Side s);  // "upper", "lower"
 
 // A concrete size where the claimed inequality fails, checked exactly.
 struct Witness {
@@ -102,27 +101,23 @@ const char* unproved_name(Unproved u);
 // How the claim compares with a derived class (asymptotic bounds).
 enum class Agreement { kSame, kLoose, kContradicts };
 
+// What a derived class was set against: the claim's class (Θ, O, Ω), an
+// explicit bound's classes, or one side of an explicit bound.
+enum class ComparedWith { kTheta, kBigO, kOmega, kExplicit, kUpperSide, kLowerSide };
+// "Theta", "O", "Omega", "explicit", "upper", "lower": bound_kind_name and
+// side_name, as reports print them.
+const char* compared_with_name(ComparedWith c);
+ComparedWith compared_with(BoundKind kind);
+ComparedWith compared_with(Side side);
+
 struct TheoremEvidence {
   std::string method;   // "master theorem, case 2"
   std::string derived;  // the derived class, "n lg n"
   std::string claimed;  // the claim's class in normal form
-  std::string kind;     // "Theta", "O", "Omega"
+  ComparedWith kind = ComparedWith::kTheta;
   Agreement agreement = Agreement::kSame;
   bool claimed_below = false;  // for kContradicts: the claimed class is the smaller one
   std::string relation = "Θ";  // how the derivation bounds T: "Θ", or "O"/"Ω" one-sided
-};
-
-// A proof of an explicit bound by induction on n (the substitution method).
-struct InductionProof {
-  std::vector<Side> sides;    // the sides proved
-  std::string bound;          // the bound carried through the step, as printed
-  std::string strengthening;  // the term the claim's bound was strengthened by, "" if none
-  BigInt checked_from;        // T(n) checked exactly against it for checked_from <= n <= checked_to
-  BigInt checked_to;          // M: the step is proved for every n > M
-  uint64_t modulus = 1;       // the step was proved per residue of n mod this
-  uint64_t tail_log2 = 0;     // beyond 2^tail_log2 the leading term of the slack dominates
-  uint64_t blocks = 0;        // interval blocks between M and 2^tail_log2
-  bool identity = false;      // the step's slack vanishes identically
 };
 
 // The trend evidence of a numbers-only verdict.
@@ -184,7 +179,7 @@ struct CodeResult {
   // claim (reports show both links); unset when no violation changed it.
   std::optional<Verdict> model_verdict;
   VerdictBasis model_basis;
-  std::string relation;       // relation_name(): "upper bound", "exact", "lower bound"
+  ModelRelation relation = ModelRelation::kUpperBound;
   std::string source;         // the costs file as written, or the runner's name
   uint64_t measurements = 0;  // costs counted (lines, or runs)
   std::vector<CostRow> rows;  // ascending n

@@ -2,7 +2,7 @@
 // (classify_expansion.h) node by node, then reads the growth class and leading
 // constant off the first term. Helper functions are expanded line by line
 // through substitute() and condition_reach(), both defined here; constants
-// come from constant_value() (classify_constant.cc).
+// come from constant_value() (verifier/evaluation/constant_value.h).
 #include "verifier/derivation/classify.h"
 
 #include <string>

@@ -11,6 +11,7 @@
 #include <string>
 
 #include "verifier/derivation/growth.h"
+#include "verifier/evaluation/constant_value.h"
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/expr.h"
 
@@ -35,11 +36,6 @@ using HelperTable = std::map<std::string, Function>;
 
 // REQUIRES: e is a value expression in n (no T calls; a T call is a reason).
 Classification classify(const Expr& e, const HelperTable* helpers = nullptr);
-
-// The value of an expression without n, exactly where possible ("lg 7",
-// "(1+sqrt(5))/2", "3/2"); empty with `reason` set when it is not a real
-// number (lg 0, a negative square root).
-std::optional<RealNumber> constant_value(const Expr& e, std::string* reason = nullptr);
 
 // Whether a case-line condition holds for every large n (+1: "n > 4",
 // "n >= 2"), only for finitely many n (-1: "n <= 1", "n == 3"), or neither

@@ -152,12 +152,6 @@ Expansion integer_power(const Expansion& x, long k, const std::string& what) {
   return r;
 }
 
-RealNumber log2_of(const RealNumber& c) {
-  if (c.is_rational()) return RealNumber::log(2, c.rational());
-  if (c.kind() == RealNumber::Kind::kAlgebraic) return RealNumber::log_real(2, c);
-  return RealNumber::enclosed([c](long prec) { return c.enclose(prec).log2(); });
-}
-
 Expansion lg_of(const Expansion& x, const std::string& what) {
   if (x.is_zero()) throw Refusal{"'" + what + "' takes lg of zero"};
   Lead l = lead_of(x);

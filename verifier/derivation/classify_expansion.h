@@ -80,9 +80,8 @@ Expansion integer_power(const Expansion& x, long k, const std::string& what);
 // an unknown constant, or leads with a lg lg n factor alone (lg lg lg n).
 Expansion lg_of(const Expansion& x, const std::string& what);
 
-// lg c: exact for a rational (RealNumber::log), enclosed otherwise.
-// REQUIRES: c > 0.
-RealNumber log2_of(const RealNumber& c);
+// lg c (numbers/real_number.h).
+using ::thetagate::engine::log2_of;
 
 }  // namespace thetagate::engine::classify_internal
 

@@ -44,20 +44,7 @@ bool holds(Evaluator& ev, const Expr& c, const SourceText& source, const BigInt&
     }
     default: {
       int r = ev.compare_at(*c.args[0], source, *c.args[1], source, n);
-      switch (c.kind) {
-        case ExprKind::kEq:
-          return r == 0;
-        case ExprKind::kNe:
-          return r != 0;
-        case ExprKind::kLt:
-          return r < 0;
-        case ExprKind::kLe:
-          return r <= 0;
-        case ExprKind::kGt:
-          return r > 0;
-        default:
-          return r >= 0;
-      }
+      return comparison_holds(c.kind, r);
     }
   }
 }
@@ -305,9 +292,9 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
       d.method = o.method;
       d.steps = o.steps;
     } else if (compare(*d.growth, *o.growth) != 0) {
-      d.reasons.push_back("INTERNAL INCONSISTENCY: " + d.method + " gives Θ(" +
-                          to_string(*d.growth) + ") but " + o.method + " gives Θ(" +
-                          to_string(*o.growth) + ")");
+      // Two theorems whose hypotheses both hold cannot disagree: one of them is wrong.
+      throw InternalError("", d.method + " gives Θ(" + to_string(*d.growth) + ") but " + o.method +
+                                  " gives Θ(" + to_string(*o.growth) + ")");
     }
   }
   if (d.growth) d.derived = to_string(*d.growth);

@@ -21,8 +21,7 @@ struct Derivation {
   std::string method;                 // "master theorem, case 2", "Akra–Bazzi", ... or ""
   std::vector<std::string> steps;     // the applying theorem's steps, in order (unnumbered)
   // One entry per theorem that was tried and did not apply, as
-  // "THEOREM: failing hypothesis"; also shape problems and (loudly) any
-  // disagreement between two theorems that both applied.
+  // "THEOREM: failing hypothesis"; also shape problems.
   std::vector<std::string> reasons;
   std::vector<TheoremOutcome> outcomes;  // every theorem tried, in order
   std::vector<std::string> notes;        // the model's notes (n/2 read as floor ...)
@@ -42,7 +41,8 @@ struct Derivation {
 // theorem needs numbers (initial values, regularity on size families) under
 // a small budget. Never throws for a valid model. The budget's clock is a
 // hang guard of 60 s; `clock_limit` (seconds, 0 = no clock) replaces it, so a check
-// run under --clock-limit derives under that limit too.
+// run under --clock-limit derives under that limit too. Two theorems that both
+// apply and derive different classes are a bug: throws InternalError.
 Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limit = std::nullopt);
 
 enum class ClaimAgreement {

@@ -17,7 +17,7 @@
 #include <string>
 #include <vector>
 
-#include "verifier/checking/result.h"
+#include "verifier/derivation/induction_proof.h"
 #include "verifier/model/bound.h"
 #include "verifier/model/recurrence.h"
 

@@ -584,20 +584,7 @@ std::optional<bool> decide_condition(const Expr& c, const Series& value, const S
       } else {
         return std::nullopt;
       }
-      switch (c.kind) {
-        case ExprKind::kEq:
-          return sign == 0;
-        case ExprKind::kNe:
-          return sign != 0;
-        case ExprKind::kLt:
-          return sign < 0;
-        case ExprKind::kLe:
-          return sign <= 0;
-        case ExprKind::kGt:
-          return sign > 0;
-        default:
-          return sign >= 0;
-      }
+      return comparison_holds(c.kind, sign);
     }
     default:
       return std::nullopt;

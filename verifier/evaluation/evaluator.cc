@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <stdexcept>
+#include <type_traits>
 
 #include "verifier/evaluation/expression_eval.h"
 #include "verifier/numbers/allocation.h"
@@ -28,6 +29,22 @@ std::optional<int64_t> subtractive_step(const Expr& argument) {
 // Beyond this size, a call that does not shrink is an error even when the
 // default base case applies: T(n + 1) is a mistake, not a base case.
 const BigInt kDefaultBaseLimit = BigInt(1) << 16;
+
+// Assigns `on_exit` to `slot` when the scope ends, also when an exception
+// (a budget, a precision retry, an input error) leaves it: the evaluator's
+// "inside a line" state must not outlive the line.
+template <typename T>
+class ResetOnExit {
+ public:
+  ResetOnExit(T& slot, std::type_identity_t<T> on_exit) : slot_(slot), on_exit_(on_exit) {}
+  ~ResetOnExit() { slot_ = on_exit_; }
+  ResetOnExit(const ResetOnExit&) = delete;
+  ResetOnExit& operator=(const ResetOnExit&) = delete;
+
+ private:
+  T& slot_;
+  T on_exit_;
+};
 
 }  // namespace
 
@@ -413,7 +430,7 @@ void Evaluator::probe() {
 
 const Value* Evaluator::remembered(const Value& m) const {
   const Value* value = memo_.find(m);
-  if (value == nullptr) throw std::logic_error("a finished subproblem is not remembered");
+  if (value == nullptr) throw InternalError("", "a finished subproblem is not remembered");
   return value;
 }
 
@@ -507,18 +524,14 @@ Value Evaluator::top_down(const Value& n) {
     for (size_t i = done.first_arg; i < args.size(); ++i) {
       if (known[i] == nullptr) known[i] = remembered(args[i]);
     }
-    current_calls_ = &done.line->calls;
-    current_values_ = known.data() + done.first_arg;
     Value value;
-    try {
+    {
+      current_calls_ = &done.line->calls;
+      current_values_ = known.data() + done.first_arg;
+      ResetOnExit calls_reset(current_calls_, nullptr);
+      ResetOnExit values_reset(current_values_, nullptr);
       value = evaluate_expr(*done.line->body, done.m, s);
-    } catch (...) {
-      current_calls_ = nullptr;
-      current_values_ = nullptr;
-      throw;
     }
-    current_calls_ = nullptr;
-    current_values_ = nullptr;
     drop_args(done.first_arg);
     known.resize(done.first_arg);
     deliver(done.parent_slot, remember(done.m, value));
@@ -532,7 +545,7 @@ Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope
     // Every call is T(n - c) and n is the sweep's current size.
     int64_t m = *n.small() - call.args[0]->args[1]->small;
     if (m < 0 || m >= next_ || m < next_ - window_) {
-      throw std::logic_error("bottom-up window miss");
+      throw InternalError("", "bottom-up window miss");
     }
     size_t slot = static_cast<size_t>(m % window_);
     if (ring_errors_[slot]) throw InputError(*ring_errors_[slot]);
@@ -596,13 +609,8 @@ Value Evaluator::sweep_up(const BigInt& n) {
       }
       if (!value) {
         in_sweep_ = true;
-        try {
-          value = evaluate_expr(*line.body, mv, s);
-        } catch (...) {
-          in_sweep_ = false;
-          throw;
-        }
-        in_sweep_ = false;
+        ResetOnExit sweep_reset(in_sweep_, false);
+        value = evaluate_expr(*line.body, mv, s);
       }
       ring_[slot] = std::move(*value);
       ring_errors_[slot].reset();
@@ -741,13 +749,8 @@ Value Evaluator::sweep_history(const BigInt& n) {
       }
       if (!value) {
         in_sweep_ = true;
-        try {
-          value = evaluate_expr(*line.body, mv, s);
-        } catch (...) {
-          in_sweep_ = false;
-          throw;
-        }
-        in_sweep_ = false;
+        ResetOnExit sweep_reset(in_sweep_, false);
+        value = evaluate_expr(*line.body, mv, s);
       }
     } catch (const InputError& e) {
       error = e.diagnostic();

@@ -4,7 +4,7 @@
 
 #include <stdexcept>
 
-#include "verifier/derivation/classify.h"
+#include "verifier/evaluation/constant_value.h"
 #include "verifier/numbers/real_number_node.h"
 
 namespace thetagate::engine {
@@ -119,7 +119,7 @@ std::optional<Value> builtin(const Expr& e, const Value& n, const EvalScope& sco
     }
     return best;
   }
-  if (is_builtin(f)) throw std::logic_error("unhandled builtin " + f);
+  if (is_builtin(f)) throw InternalError("", "unhandled builtin " + f);
   return std::nullopt;
 }
 
@@ -299,21 +299,7 @@ bool test_condition(const Expr& c, const Value& n, const EvalScope& scope) {
       Value a = evaluate_expr(*c.args[0], n, scope);
       Value b = evaluate_expr(*c.args[1], n, scope);
       // Overlapping intervals throw PrecisionShortfall: never guessed.
-      int order = compare(a, b, ctx);
-      switch (c.kind) {
-        case ExprKind::kEq:
-          return order == 0;
-        case ExprKind::kNe:
-          return order != 0;
-        case ExprKind::kLt:
-          return order < 0;
-        case ExprKind::kLe:
-          return order <= 0;
-        case ExprKind::kGt:
-          return order > 0;
-        default:
-          return order >= 0;
-      }
+      return comparison_holds(c.kind, compare(a, b, ctx));
     }
     default:
       fail_at(*scope.source, c.pos, "expected a condition, found the value '" + print(c) + "'",

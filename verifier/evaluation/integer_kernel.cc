@@ -26,12 +26,7 @@ enum class Op : uint8_t {
   kCeilLg,
   kFloorSqrt,
   kCeilSqrt,  // of an integer: whole again
-  kEq,
-  kNe,
-  kLt,
-  kLe,
-  kGt,
-  kGe,
+  kCompare,   // a comparison; Node::relation says which
   kAnd,
   kOr,
   kNot,
@@ -53,6 +48,7 @@ uint64_t bits_of(mpz_srcptr x) { return mpz_sgn(x) == 0 ? 0 : mpz_sizeinbase(x, 
 
 struct IntegerKernel::Node {
   Op op = Op::kConst;
+  ExprKind relation = ExprKind::kEq;  // kCompare: kEq, kNe, kLt, kLe, kGt or kGe
   uint32_t a = 0, b = 0;
   // kConst: constant index; kSlot: call slot; kPow: exponent; with small_b:
   // the right operand's value.
@@ -240,17 +236,15 @@ class IntegerKernel::Compiler {
         return node(op, *x);
       }
       case ExprKind::kEq:
-        return binary(Op::kEq, *e.args[0], *e.args[1]);
       case ExprKind::kNe:
-        return binary(Op::kNe, *e.args[0], *e.args[1]);
       case ExprKind::kLt:
-        return binary(Op::kLt, *e.args[0], *e.args[1]);
       case ExprKind::kLe:
-        return binary(Op::kLe, *e.args[0], *e.args[1]);
       case ExprKind::kGt:
-        return binary(Op::kGt, *e.args[0], *e.args[1]);
-      case ExprKind::kGe:
-        return binary(Op::kGe, *e.args[0], *e.args[1]);
+      case ExprKind::kGe: {
+        std::optional<uint32_t> id = binary(Op::kCompare, *e.args[0], *e.args[1]);
+        if (id) k_.nodes_[*id].relation = e.kind;
+        return id;
+      }
       default:
         return std::nullopt;
     }
@@ -396,7 +390,7 @@ void IntegerKernel::eval(uint32_t id, mpz_ptr out, size_t depth) {
           mpz_set_ui(out, mpz_fdiv_ui(a, k));
         break;
       default:
-        throw std::logic_error("a word constant on an operation that takes none");
+        throw InternalError("", "a word constant on an operation that takes none");
     }
     check_result_bits(out);
     return;
@@ -431,7 +425,7 @@ void IntegerKernel::eval(uint32_t id, mpz_ptr out, size_t depth) {
       mpz_set(out, mpz_cmp(b, a) > 0 ? b : a);
       break;
     default:
-      throw std::logic_error("a condition compiled as a value");
+      throw InternalError("", "a condition compiled as a value");
   }
   check_result_bits(out);
 }
@@ -454,26 +448,11 @@ bool IntegerKernel::test(uint32_t id, size_t depth) {
     default:
       break;
   }
+  if (x.op != Op::kCompare) throw InternalError("", "a value compiled as a condition");
   mpz_t view_a, view_b;
   mpz_srcptr a = operand(x.a, temp(depth), depth + 1, view_a);
   mpz_srcptr b = operand(x.b, temp(depth + 1), depth + 2, view_b);
-  int order = mpz_cmp(a, b);
-  switch (x.op) {
-    case Op::kEq:
-      return order == 0;
-    case Op::kNe:
-      return order != 0;
-    case Op::kLt:
-      return order < 0;
-    case Op::kLe:
-      return order <= 0;
-    case Op::kGt:
-      return order > 0;
-    case Op::kGe:
-      return order >= 0;
-    default:
-      throw std::logic_error("a value compiled as a condition");
-  }
+  return comparison_holds(x.relation, mpz_cmp(a, b));
 }
 
 const IntegerKernel::Line* IntegerKernel::select(mpz_srcptr n) {
@@ -577,7 +556,7 @@ void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
     frames_.pop_back();
     for (size_t i = done.first_arg; i < arg_count; ++i) {
       if (known_[i].limbs == nullptr && !memo_.find(args_[i]->z, known_[i])) {
-        throw std::logic_error("a finished subproblem is not remembered");
+        throw InternalError("", "a finished subproblem is not remembered");
       }
     }
     current_n_ = m;

@@ -72,6 +72,8 @@ void check_bound_fits(const Recurrence& recurrence, const Bound& bound) {
           "e.g. n - 1 in place of Θ(n)");
 }
 
+const char* side_name(Side s) { return s == Side::kUpper ? "upper" : "lower"; }
+
 const char* bound_kind_name(BoundKind kind) {
   switch (kind) {
     case BoundKind::kTheta:

@@ -14,6 +14,11 @@ namespace thetagate::engine {
 
 enum class BoundKind { kTheta, kBigO, kOmega, kExplicit };
 
+// A side of a bound: upper (T(n) <= ...) or lower (... <= T(n)); the side a
+// witness breaks, a proof proves, a ratio edge belongs to.
+enum class Side { kUpper, kLower };
+const char* side_name(Side s);  // "upper", "lower"
+
 struct Bound {
   BoundKind kind = BoundKind::kTheta;
   SourceText source;

@@ -10,9 +10,9 @@
 #include <map>
 
 #include "generators/size_family.h"
-#include "verifier/evaluation/evaluator.h"
 #include "verifier/evaluation/size_expression.h"
 #include "verifier/model/claim.h"
+#include "verifier/model/limits.h"
 #include "verifier/syntax/input_file.h"
 #include "verifier/syntax/spelling.h"
 
@@ -26,8 +26,6 @@ const std::vector<std::string> kClaimKeys = {"name",  "recurrence", "bound", "no
 const std::vector<std::string> kSizeKeys = {"max_bits", "families", "min_n", "effort"};
 const std::vector<std::string> kCodeKeys = {"model", "costs", "max_n"};
 constexpr int64_t kMaxRunnableN = int64_t{1} << 40;
-constexpr int64_t kMaxBitsLimit = 65536;
-constexpr int64_t kMaxEffort = 10000;  // as --effort
 
 std::string lower(std::string s) {
   for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
@@ -250,7 +248,8 @@ void ClaimFileReader::read_sizes(const toml::node& node, SizeOptions& sizes) con
     }
     if (i->get() < 1 || i->get() > kMaxBitsLimit) {
       fail(bits->source().begin,
-           "'max_bits' must be between 1 and 65536, found " + std::to_string(i->get()),
+           "'max_bits' must be between 1 and " + std::to_string(kMaxBitsLimit) + ", found " +
+               std::to_string(i->get()),
            "the default is 4096 bits");
     }
     sizes.max_bits = static_cast<uint64_t>(i->get());
@@ -434,6 +433,8 @@ ClaimEntry ClaimFileReader::read_claim(const toml::table& t) {
     entry.claim = std::move(claim);
   } catch (const InputError& e) {
     entry.error = e.diagnostic();
+  } catch (const InternalError& e) {
+    entry.internal_error = e.detail();
   } catch (const std::exception& e) {
     // Not an input error but a bug: kept on this claim (check_entry reports
     // it as an internal error), so the other claims are still checked.

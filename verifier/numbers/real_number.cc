@@ -332,6 +332,12 @@ RealNumber operator/(const RealNumber& a, const RealNumber& b) {
   return make_enclosed([a, b](long prec) { return a.enclose(prec) / b.enclose(prec); });
 }
 
+RealNumber log2_of(const RealNumber& c) {
+  if (c.is_rational()) return RealNumber::log(2, c.rational());
+  if (c.kind() == RealNumber::Kind::kAlgebraic) return RealNumber::log_real(2, c);
+  return RealNumber::enclosed([c](long prec) { return c.enclose(prec).log2(); });
+}
+
 RealNumber pow(const RealNumber& base, const RealNumber& exponent) {
   if (base.sign() <= 0) throw DomainError("power of a non-positive base");
   auto eb = exact_value(base), ee = exact_value(exponent);

@@ -92,6 +92,9 @@ RealNumber operator-(const RealNumber& a);
 // base^exponent for base > 0 (exact when both are rational and the result is
 // rational or a k-th root). REQUIRES: base > 0 (throws DomainError).
 RealNumber pow(const RealNumber& base, const RealNumber& exponent);
+// lg c: exact for a rational (RealNumber::log) or an algebraic number
+// (RealNumber::log_real), enclosed otherwise. REQUIRES: c > 0.
+RealNumber log2_of(const RealNumber& c);
 
 // Exact three-way comparison: -1, 0, +1. Throws PrecisionShortfall only when
 // two numbers of different kinds agree to 2^-16384 (never seen in practice).

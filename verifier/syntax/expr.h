@@ -9,6 +9,7 @@
 #include <string>
 #include <vector>
 
+#include "thetagate/errors.h"
 #include "verifier/numbers/number.h"
 
 namespace thetagate::engine {
@@ -57,6 +58,28 @@ struct Expr {
 
   bool is_condition() const { return kind >= ExprKind::kEq; }
 };
+
+// Whether a comparison (kEq, kNe, kLt, kLe, kGt, kGe) holds when its left side
+// compares to its right as `order` (< 0, 0, > 0). Any other kind is a bug:
+// throws InternalError.
+inline bool comparison_holds(ExprKind kind, int order) {
+  switch (kind) {
+    case ExprKind::kEq:
+      return order == 0;
+    case ExprKind::kNe:
+      return order != 0;
+    case ExprKind::kLt:
+      return order < 0;
+    case ExprKind::kLe:
+      return order <= 0;
+    case ExprKind::kGt:
+      return order > 0;
+    case ExprKind::kGe:
+      return order >= 0;
+    default:
+      throw InternalError("", "comparison_holds of a kind that is no comparison");
+  }
+}
 
 // The deepest tree any input may build: a flat chain "n + n + ... + n" of
 // k terms is k levels deep, like k nested parentheses. Tree walks recurse,

@@ -24,6 +24,7 @@ struct SourceFile {
 using ::thetagate::Diagnostic;
 using ::thetagate::format_diagnostic;
 using ::thetagate::InputError;
+using ::thetagate::InternalError;
 using ::thetagate::Location;
 
 // A piece of a SourceFile that a parser reads: for a claim file, the

@@ -1,20 +1,18 @@
-// The exact value of an expression without n (classify.h: constant_value):
+// The exact value of an expression without n (constant_value.h):
 // a driving function's coefficients, a logarithm's base, an exponent such as
 // lg 7 or 1/2. Values stay exact RealNumbers where the kinds allow; what is
 // not a real number (lg 0, the square root of a negative number, division by
 // zero) or cannot be decided within precision gives a reason instead.
+#include "verifier/evaluation/constant_value.h"
+
 #include <optional>
 #include <string>
 #include <utility>
 #include <vector>
 
-#include "verifier/derivation/classify.h"
-#include "verifier/derivation/classify_expansion.h"
 #include "verifier/numbers/value.h"
 
 namespace thetagate::engine {
-
-using classify_internal::log2_of;
 
 namespace {
 
