@@ -425,10 +425,7 @@ class ReportReader {
       e.agreement = a == "same"    ? Agreement::kSame
                     : a == "loose" ? Agreement::kLoose
                                    : Agreement::kContradicts;
-      if (optional_key(*t, "relation")) {
-        std::string r = string_at(*t, at, "relation");
-        e.relation = r == "O" ? "O" : r == "Omega" ? "Ω" : "Θ";
-      }
+      if (optional_key(*t, "relation")) e.relation = one_sided_at(*t, at);
       e.claimed_below = optional_key(*t, "claimed_below") &&
                         boolean_value(require(*t, at, "claimed_below"), join(at, "claimed_below"));
       b.theorem = e;
@@ -485,6 +482,16 @@ class ReportReader {
   }
 
   // The names the JSON writer gives these enums; any other text is an error.
+  // A one-sided derivation's side: "O" or "Omega" (absent means Θ).
+  BoundKind one_sided_at(const Json& o, const std::string& path) {
+    std::string at = join(path, "relation");
+    std::string s = string_at(o, path, "relation");
+    for (BoundKind k : {BoundKind::kBigO, BoundKind::kOmega}) {
+      if (s == bound_kind_name(k)) return k;
+    }
+    fail(at, "'" + at + "' is \"" + s + "\"; expected \"O\" or \"Omega\"");
+  }
+
   ComparedWith compared_with_at(const Json& o, const std::string& path) {
     std::string at = join(path, "kind");
     std::string s = string_at(o, path, "kind");

@@ -80,7 +80,7 @@ Json basis_json(const VerdictBasis& b) {
     th["method"] = t.method;
     th["derived"] = t.derived;
     // Only a one-sided derivation says how it bounds T (absent: Θ).
-    if (t.relation != "Θ") th["relation"] = t.relation == "O" ? "O" : "Omega";
+    if (t.relation != BoundKind::kTheta) th["relation"] = bound_kind_name(t.relation);
     th["claimed"] = t.claimed;
     th["kind"] = compared_with_name(t.kind);
     th["agreement"] = t.agreement == Agreement::kSame    ? "same"

@@ -27,7 +27,7 @@ std::string not_proved_phrase(const ClaimResult& c) {
 
 std::string theorem_versus(const TheoremEvidence& t) {
   return std::string("claimed ") + compared_with_name(t.kind) + "(" + t.claimed + "), derived " +
-         t.relation + "(" + t.derived + ") by " + t.method;
+         bound_kind_symbol(t.relation) + "(" + t.derived + ") by " + t.method;
 }
 
 std::string edges_phrase(const TrendEvidence& t) {

@@ -9,6 +9,8 @@
 #include <string>
 #include <vector>
 
+#include "reports/baseline.h"
+#include "reports/json_report.h"
 #include "reports/verdict_text.h"
 #include "verifier/checking/checker.h"
 #include "verifier/derivation/regularity.h"
@@ -191,11 +193,21 @@ TEST(Comparison, AClaimBelowTheOneSidedLowerBoundIsRefuted) {
   ASSERT_EQ(r.verdict, Verdict::kRefuted) << verdict_message(r);
   EXPECT_EQ(r.basis.kind, BasisKind::kDerivationContradicts);
   ASSERT_TRUE(r.basis.theorem.has_value());
-  EXPECT_EQ(r.basis.theorem->relation, "Ω");
+  EXPECT_EQ(r.basis.theorem->relation, BoundKind::kOmega);
   EXPECT_EQ(r.basis.theorem->derived, "n^(1/2) lg n");
   EXPECT_EQ(r.derived, "O(n) and Omega(n^(1/2) lg n)");
   EXPECT_NE(verdict_message(r).find("derived Ω(n^(1/2) lg n) by comparison"), std::string::npos)
       << verdict_message(r);
+  // The side survives a JSON round trip (a baseline), and only O or Omega
+  // may name it.
+  RunResult run;
+  run.claims.push_back(r);
+  std::string json = render_json(run);
+  EXPECT_NE(json.find("\"relation\": \"Omega\""), std::string::npos);
+  EXPECT_EQ(render_json(read_json_report(json, "old.json")), json);
+  std::string bad = json;
+  bad.replace(bad.find("\"relation\": \"Omega\""), 19, "\"relation\": \"Wide\"");
+  EXPECT_THROW(read_json_report(bad, "old.json"), InputError);
 }
 
 // f is n^2 on powers of two and n^3 elsewhere (classes differ, so no Θ):

@@ -117,7 +117,9 @@ struct TheoremEvidence {
   ComparedWith kind = ComparedWith::kTheta;
   Agreement agreement = Agreement::kSame;
   bool claimed_below = false;  // for kContradicts: the claimed class is the smaller one
-  std::string relation = "Θ";  // how the derivation bounds T: "Θ", or "O"/"Ω" one-sided
+  // How the derivation bounds T: kTheta (its class), or kBigO / kOmega for a
+  // one-sided derivation.
+  BoundKind relation = BoundKind::kTheta;
 };
 
 // The trend evidence of a numbers-only verdict.

@@ -347,7 +347,7 @@ ClaimComparison compare_one_sided(const Derivation& derivation, const Bound& bou
                                   ClaimComparison r) {
   const GrowthClass& g = *r.claimed;
   r.agreement = ClaimAgreement::kNoDerivation;
-  auto settle = [&](ClaimAgreement a, const GrowthClass& derived, const char* relation,
+  auto settle = [&](ClaimAgreement a, const GrowthClass& derived, BoundKind relation,
                     bool claimed_below) {
     r.agreement = a;
     r.derived = derived;
@@ -358,15 +358,15 @@ ClaimComparison compare_one_sided(const Derivation& derivation, const Bound& bou
     bool upper_side = bound.kind == BoundKind::kBigO || bound.kind == BoundKind::kTheta;
     bool lower_side = bound.kind == BoundKind::kOmega || bound.kind == BoundKind::kTheta;
     if (upper_side && derivation.lower && compare(g, *derivation.lower) < 0) {
-      settle(ClaimAgreement::kContradicts, *derivation.lower, "Ω", true);
+      settle(ClaimAgreement::kContradicts, *derivation.lower, BoundKind::kOmega, true);
     } else if (lower_side && derivation.upper && compare(g, *derivation.upper) > 0) {
-      settle(ClaimAgreement::kContradicts, *derivation.upper, "O", false);
+      settle(ClaimAgreement::kContradicts, *derivation.upper, BoundKind::kBigO, false);
     } else if (bound.kind == BoundKind::kBigO && derivation.upper &&
                compare(g, *derivation.upper) >= 0) {
-      settle(ClaimAgreement::kHoldsLoosely, *derivation.upper, "O", false);
+      settle(ClaimAgreement::kHoldsLoosely, *derivation.upper, BoundKind::kBigO, false);
     } else if (bound.kind == BoundKind::kOmega && derivation.lower &&
                compare(g, *derivation.lower) <= 0) {
-      settle(ClaimAgreement::kHoldsLoosely, *derivation.lower, "Ω", false);
+      settle(ClaimAgreement::kHoldsLoosely, *derivation.lower, BoundKind::kOmega, false);
     }
   } catch (const PrecisionShortfall& e) {
     r.agreement = ClaimAgreement::kCannotClassifyClaim;

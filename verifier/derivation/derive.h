@@ -61,7 +61,7 @@ struct ClaimComparison {
   // The derived class the claim was measured against and how it bounds T:
   // "Θ" for a derived class, "O" or "Ω" for a one-sided derivation.
   std::optional<GrowthClass> derived;
-  std::string relation = "Θ";
+  BoundKind relation = BoundKind::kTheta;
   // kCannotClassifyClaim: why the claimed class has no normal form (or could
   // not be ordered); empty otherwise. reports/ composes the sentences.
   std::string detail;

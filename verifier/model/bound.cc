@@ -74,6 +74,20 @@ void check_bound_fits(const Recurrence& recurrence, const Bound& bound) {
 
 const char* side_name(Side s) { return s == Side::kUpper ? "upper" : "lower"; }
 
+const char* bound_kind_symbol(BoundKind kind) {
+  switch (kind) {
+    case BoundKind::kTheta:
+      return "Θ";
+    case BoundKind::kBigO:
+      return "O";
+    case BoundKind::kOmega:
+      return "Ω";
+    case BoundKind::kExplicit:
+      return "explicit";
+  }
+  return "?";
+}
+
 const char* bound_kind_name(BoundKind kind) {
   switch (kind) {
     case BoundKind::kTheta:

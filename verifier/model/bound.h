@@ -50,6 +50,9 @@ struct Recurrence;
 // as a term (T(n) = 2T(n/2) + Θ(n): the values of T are not determined).
 void check_bound_fits(const Recurrence& recurrence, const Bound& bound);
 
+// The kind as a mathematical symbol: "Θ", "O", "Ω" ("explicit" for kExplicit).
+const char* bound_kind_symbol(BoundKind kind);
+
 // The kind's name as reports print it: "Theta", "O", "Omega", "explicit".
 const char* bound_kind_name(BoundKind kind);
 
