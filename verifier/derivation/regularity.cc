@@ -27,13 +27,21 @@ Series weighted_gap(const Expr& driving, const Expr& argument, const Rational& f
   return add(at_n, negate(at_m), c.precision);
 }
 
-// Whether c·f(n) >= a·f(floor(scale·n)) is proved on every residue class; the
-// modulus grows as the floors ask (NeedModulus) up to kMaxModulus.
-std::optional<uint64_t> proved_on_every_residue(const Expr& driving, const Rational& a,
-                                                const Rational& scale, const Rational& c,
-                                                const HelperTable* helpers, uint64_t work_budget) {
-  ExprPtr argument = floor_argument(scale);
-  uint64_t work = 0;
+// What a proof attempt on one residue class asks of the walk over them.
+enum class Next { kNextResidue, kStop };
+
+// Walks the residue classes of n modulo a modulus that grows as the floors
+// ask (NeedModulus restarts the walk with a finer modulus) and calls
+// `attempt(ctx)` on each class, from n = kFamilyFrom, until it says kStop.
+// Returns the modulus and the residue it stopped at (residue == modulus when
+// it went through every class), or nullopt when the modulus would pass
+// kMaxModulus.
+struct WalkEnd {
+  uint64_t modulus;
+  uint64_t residue;
+};
+template <typename Attempt>
+std::optional<WalkEnd> walk_residues(const HelperTable* helpers, Attempt attempt) {
   uint64_t modulus = 1;
   for (;;) {
     try {
@@ -43,21 +51,36 @@ std::optional<uint64_t> proved_on_every_residue(const Expr& driving, const Ratio
         ctx.modulus = modulus;
         ctx.residue = r;
         ctx.helpers = helpers;
-        auto slack = [&](const SeriesContext& sc) {
-          return weighted_gap(driving, *argument, c, a, sc);
-        };
-        try {
-          prove_nonnegative(slack, ctx, work, work_budget);
-        } catch (const SeriesUnsupported&) {
-          return std::nullopt;  // this residue class is not proved: no bound
-        }
+        if (attempt(ctx) == Next::kStop) return WalkEnd{modulus, r};
       }
-      return modulus;
+      return WalkEnd{modulus, modulus};
     } catch (const NeedModulus& need) {
       modulus *= need.factor;
       if (modulus > kMaxModulus) return std::nullopt;
     }
   }
+}
+
+// Whether c·f(n) >= a·f(floor(scale·n)) is proved on every residue class:
+// the modulus used, or nullopt when some class is not proved.
+std::optional<uint64_t> proved_on_every_residue(const Expr& driving, const Rational& a,
+                                                const Rational& scale, const Rational& c,
+                                                const HelperTable* helpers, uint64_t work_budget) {
+  ExprPtr argument = floor_argument(scale);
+  uint64_t work = 0;
+  std::optional<WalkEnd> end = walk_residues(helpers, [&](const SeriesContext& ctx) {
+    auto slack = [&](const SeriesContext& sc) {
+      return weighted_gap(driving, *argument, c, a, sc);
+    };
+    try {
+      prove_nonnegative(slack, ctx, work, work_budget);
+      return Next::kNextResidue;
+    } catch (const SeriesUnsupported&) {
+      return Next::kStop;  // this residue class is not proved: no bound
+    }
+  });
+  if (!end || end->residue < end->modulus) return std::nullopt;
+  return end->modulus;
 }
 
 }  // namespace
@@ -82,32 +105,22 @@ std::optional<RegularityFamily> regularity_failure_family(const Expr& driving, c
                                                           uint64_t work_budget) {
   ExprPtr argument = floor_argument(scale);
   uint64_t work = 0;
-  uint64_t modulus = 1;
-  for (;;) {
+  bool found = false;
+  std::optional<WalkEnd> end = walk_residues(helpers, [&](const SeriesContext& ctx) {
+    // a·f(floor(scale·n)) - f(n) >= 0.
+    auto gap = [&](const SeriesContext& c) {
+      return negate(weighted_gap(driving, *argument, Rational(1), a, c));
+    };
     try {
-      for (uint64_t r = 0; r < modulus; ++r) {
-        SeriesContext ctx;
-        ctx.from = kFamilyFrom;
-        ctx.modulus = modulus;
-        ctx.residue = r;
-        ctx.helpers = helpers;
-        // a·f(floor(scale·n)) - f(n) >= 0.
-        auto gap = [&](const SeriesContext& c) {
-          return negate(weighted_gap(driving, *argument, Rational(1), a, c));
-        };
-        try {
-          prove_nonnegative(gap, ctx, work, work_budget);
-          return RegularityFamily{modulus, r, kFamilyFrom};
-        } catch (const SeriesUnsupported& e) {
-          if (work > work_budget) return std::nullopt;
-        }
-      }
-      return std::nullopt;
-    } catch (const NeedModulus& need) {
-      modulus *= need.factor;
-      if (modulus > kMaxModulus) return std::nullopt;
+      prove_nonnegative(gap, ctx, work, work_budget);
+      found = true;
+      return Next::kStop;
+    } catch (const SeriesUnsupported&) {
+      return work > work_budget ? Next::kStop : Next::kNextResidue;
     }
-  }
+  });
+  if (!end || !found) return std::nullopt;
+  return RegularityFamily{end->modulus, end->residue, kFamilyFrom};
 }
 
 }  // namespace thetagate::engine
