@@ -71,6 +71,39 @@ TEST(ClassTerm, LogWithoutABaseIsReadAsLgInsideAClassOnly) {
             std::string::npos);
 }
 
+// A helper the recurrence defines under a class's name stays that helper:
+// O(n) = n^2 makes 2T(n/2) + O(n) a Θ(n^2) recurrence (master theorem,
+// case 3), not one with an O(n) driver.
+TEST(ClassTerm, AHelperNamedLikeAClassStaysAHelper) {
+  auto r = recurrence_from_text("T(n) = 2T(n/2) + O(n); O(n) = n^2; T(1) = 1");
+  EXPECT_TRUE(r->class_terms.empty());
+  Derivation d = derive(*r);
+  ASSERT_TRUE(d.growth.has_value());
+  EXPECT_EQ(d.derived, "n^2");
+}
+
+// A class on one of several conditional lines is not read as its member:
+// O(n^2) on even n may be 0, and then T(2^k) = 2^k (calc), so neither a
+// class nor a one-sided bound may be derived from the member n^2.
+TEST(ClassTerm, AClassOnAConditionalLineDerivesNothing) {
+  Derivation d = derive(*recurrence_from_text(
+      "T(n) = 2T(n/2) + O(n^2) if n even; T(n) = 2T(n/2) + n^3 otherwise; T(1) = 1"));
+  EXPECT_FALSE(d.growth.has_value());
+  EXPECT_FALSE(d.upper.has_value());
+  EXPECT_FALSE(d.lower.has_value());
+  ClaimResult omega = check_text(
+      "T(n) = 2T(n/2) + O(n^2) if n even; T(n) = 2T(n/2) + n^3 otherwise; T(1) = 1", "Omega(n^2)");
+  EXPECT_NE(omega.verdict, Verdict::kHolds) << verdict_message(omega);
+}
+
+// Theorems that solve with exact values (a linear recurrence's initial
+// values and polynomial driver) would solve for the one member evaluated;
+// they are not applied to a class term.
+TEST(ClassTerm, NoTheoremSolvesWithTheMembersValues) {
+  Derivation d = derive(*recurrence_from_text("T(n) = T(n-1) + T(n-2) + Θ(n); T(0) = 0; T(1) = 1"));
+  EXPECT_NE(d.method.rfind("linear recurrence", 0), 0u) << d.method;
+}
+
 TEST(ClassTerm, PrintingAndParsingAgainKeepsTheClass) {
   SourceText source = SourceText::whole("<e>", "2T(n/2) + Θ(n lg n) + O(n) + Omega(1)");
   ExprPtr once = parse_expression(source);

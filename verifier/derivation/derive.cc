@@ -144,7 +144,16 @@ void classify_driving(const Shape& shape, const Recurrence& rec, DerivationInput
     classify_class_driving(shape, rec, input);
     return;
   }
-  input.driving_is_class = class_terms;
+  if (class_terms) {
+    // Lines that differ by condition, one with a class term: the case-line
+    // machinery would classify the class's representative as if it were f
+    // (an O(n^2) term as n^2, though 0 is a member too). Not supported.
+    input.driving_is_class = true;
+    input.driving.reason =
+        "a growth class as a term of lines that differ by condition is not supported by the "
+        "theorems here";
+    return;
+  }
   if (shape.has_driving_cases()) {
     std::vector<ExprPtr> alternatives;
     std::vector<Classification> classes;
@@ -250,6 +259,13 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
     }
     return std::nullopt;
   };
+  if (!recurrence.class_terms.empty()) {
+    // Exact values are one member's: a theorem that solves with them (a
+    // linear recurrence's initial values and polynomial driver) would prove
+    // the claim for that member only.
+    input.value_at = nullptr;
+    input.driving_at = nullptr;
+  }
   using Theorem = std::pair<const char*, TheoremOutcome (*)(const DerivationInput&)>;
   std::vector<Theorem> theorems;
   if (!shape.sums.empty())

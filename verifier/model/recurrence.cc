@@ -314,14 +314,17 @@ std::vector<const CaseLine*> Function::lines_in_order() const {
 
 namespace {
 
-bool is_class_call(const Expr& e) {
-  return e.kind == ExprKind::kCall && (e.name == "Theta" || e.name == "O" || e.name == "Omega");
+// Θ(g), O(g) or Ω(g), unless the recurrence defines a helper of that name
+// (then the call is the helper's, as before classes could be terms).
+bool is_class_call(const Expr& e, const Recurrence& r) {
+  return e.kind == ExprKind::kCall && (e.name == "Theta" || e.name == "O" || e.name == "Omega") &&
+         r.helpers.count(e.name) == 0 && e.name != r.main.name;
 }
 
-const Expr* find_class_call(const Expr& e) {
-  if (is_class_call(e)) return &e;
+const Expr* find_class_call(const Expr& e, const Recurrence& r) {
+  if (is_class_call(e, r)) return &e;
   for (const auto& a : e.args) {
-    if (const Expr* found = find_class_call(*a)) return found;
+    if (const Expr* found = find_class_call(*a, r)) return found;
   }
   return nullptr;
 }
@@ -346,7 +349,7 @@ ExprPtr lift_class_terms(const ExprPtr& e, bool additive, bool base_case, Recurr
     if (a == e->args[0] && b == e->args[1]) return e;
     return make_binary(e->kind, a, b, e->pos);
   }
-  if (is_class_call(*e)) {
+  if (is_class_call(*e, r)) {
     if (!additive) {
       fail_at(source, e->pos,
               "a growth class " + class_symbol(e->name) + "(...) subtracted or nested here",
@@ -357,7 +360,7 @@ ExprPtr lift_class_terms(const ExprPtr& e, bool additive, bool base_case, Recurr
               "write " + e->name + "(n lg n)");
     }
     const ExprPtr& g = e->args[0];
-    if (const Expr* inner = find_class_call(*g)) {
+    if (const Expr* inner = find_class_call(*g, r)) {
       fail_at(source, inner->pos, "a growth class inside another", kClassTermHint);
     }
     std::vector<const Expr*> recursive;
@@ -377,7 +380,7 @@ ExprPtr lift_class_terms(const ExprPtr& e, bool additive, bool base_case, Recurr
     r.class_terms.push_back(term);
     return g;
   }
-  if (const Expr* nested = find_class_call(*e)) {
+  if (const Expr* nested = find_class_call(*e, r)) {
     fail_at(source, nested->pos,
             "a growth class " + class_symbol(nested->name) + "(...) nested in a term",
             kClassTermHint);
@@ -389,7 +392,7 @@ ExprPtr lift_class_terms(const ExprPtr& e, bool additive, bool base_case, Recurr
 void lift_all_class_terms(Recurrence& r, const SourceText& source) {
   auto refuse = [&](const ExprPtr& e, const std::string& where) {
     if (!e) return;
-    if (const Expr* c = find_class_call(*e)) {
+    if (const Expr* c = find_class_call(*e, r)) {
       fail_at(source, c->pos, "a growth class " + class_symbol(c->name) + "(...) in " + where,
               "a class may stand only as a term of " + r.main.name +
                   "'s own lines: " + r.main.name + "(n) = 2" + r.main.name + "(n/2) + Θ(n)");
