@@ -206,17 +206,14 @@ std::string shape_in_base(const BigInt& n, const BigInt& b) {
 std::string shape_family_of(const BigInt& n, const std::vector<BigInt>& divisors) {
   if (n < 8) return "";
   std::vector<BigInt> bases = divisors.empty() ? std::vector<BigInt>{2} : divisors;
-  // Priority across bases: the earliest family any base gives.
-  static const std::vector<std::string> kOrder = {"powers", "ones", "alternating",
-                                                  "power-neighbours", "power-multiples"};
-  size_t best = kOrder.size();
-  for (const BigInt& b : bases) {
-    if (b < 2) continue;
-    std::string f = shape_in_base(n, b);
-    for (size_t i = 0; i < kOrder.size(); ++i)
-      if (f == kOrder[i]) best = std::min(best, i);
+  std::vector<std::string> shapes;
+  for (const BigInt& b : bases)
+    if (b >= 2) shapes.push_back(shape_in_base(n, b));
+  // Priority across bases: the earliest in the family table any base gives.
+  for (const Family& f : families()) {
+    if (std::find(shapes.begin(), shapes.end(), f.info.name) != shapes.end()) return f.info.name;
   }
-  return best < kOrder.size() ? kOrder[best] : "";
+  return "";
 }
 
 const std::vector<std::string>& adversarial_families() {

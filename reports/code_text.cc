@@ -68,15 +68,16 @@ std::string code_headline(const CodeResult& code) {
                      sizes == 1 ? "" : "s", relation_phrase(code.relation));
 }
 
+std::string family_list(const std::vector<std::string>& names) {
+  std::string s;
+  for (const std::string& n : names) s += (s.empty() ? "" : ", ") + n;
+  return s.empty() ? std::string("none") : s;
+}
+
 std::string code_coverage(const CodeResult& code) {
   if (code.families_measured.empty() && code.families_missed.empty()) return "";
-  auto joined = [](const std::vector<std::string>& names) {
-    std::string s;
-    for (const std::string& n : names) s += (s.empty() ? "" : ", ") + n;
-    return s.empty() ? std::string("none") : s;
-  };
-  return "size families measured: " + joined(code.families_measured) +
-         (code.families_missed.empty() ? "" : "; missed: " + joined(code.families_missed));
+  return "size families measured: " + family_list(code.families_measured) +
+         (code.families_missed.empty() ? "" : "; missed: " + family_list(code.families_missed));
 }
 
 std::string code_link_text(const CodeResult& code, const std::string& indent, size_t max_violations,

@@ -4,6 +4,7 @@
 #define THETAGATE_REPORTS_CODE_TEXT_H_
 
 #include <string>
+#include <vector>
 
 #include "verifier/checking/result.h"
 
@@ -21,6 +22,9 @@ std::string violation_text(const CodeResult& code, const CostViolation& v);
 // "code -> model: costs.txt (12 measurements at 12 sizes), the model is an
 // upper bound", without indent or newline.
 std::string code_headline(const CodeResult& code);
+// "ones, alternating" ("none" for no name): size family names in a sentence.
+std::string family_list(const std::vector<std::string>& names);
+
 // "size families measured: powers, ones; missed: alternating, ..." for a
 // costs file, "" for a runner.
 std::string code_coverage(const CodeResult& code);

@@ -125,9 +125,7 @@ std::string code_section(const CodeResult& code) {
                    code.measurements == 1 ? "" : "s", code.rows.size(),
                    code.rows.size() == 1 ? "" : "s", esc(relation_phrase(code.relation)));
   if (!code.families_missed.empty()) {
-    std::string missed;
-    for (const std::string& f : code.families_missed) missed += (missed.empty() ? "" : ", ") + f;
-    s += "<p>Size families never measured: " + esc(missed) + ".</p>\n";
+    s += "<p>Size families never measured: " + esc(family_list(code.families_missed)) + ".</p>\n";
   }
   if (!code.violations.empty()) {
     s += "<table class=\"violations\">\n<tr><th>n</th><th>counted</th><th>T(n)</th>"

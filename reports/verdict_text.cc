@@ -4,6 +4,8 @@
 
 #include <cmath>
 
+#include "reports/code_text.h"
+
 namespace thetagate::engine {
 
 namespace {
@@ -84,11 +86,7 @@ std::string basis_message(const ClaimResult& c) {
       return s;
     }
     case BasisKind::kCodeSizesMissed: {
-      std::string missed;
-      if (c.code) {
-        for (const std::string& f : c.code->families_missed)
-          missed += (missed.empty() ? "" : ", ") + f;
-      }
+      std::string missed = c.code ? family_list(c.code->families_missed) : "none";
       return "the measured costs never reach the size families " + missed +
              " (from n = 8 on), where floors and ceilings of n/b part from n/b and halving "
              "chains stay odd; a code measured only where the recurrence is smooth is not "

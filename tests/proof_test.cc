@@ -163,11 +163,12 @@ TEST(Regularity, NoFamilyWhereRegularityHolds) {
 // T(n)/(sqrt(n) lg n) >= sqrt(n)/lg n (calc). Against O(sqrt(n) lg n), which
 // the one-sided bounds leave open, the band's upper edge zigzags with the
 // parity of floor(lg n) while its envelope escapes.
+const char* const kWobbling =
+    "T(n) = 1 if n < 4\nT(n) = 2T(n/4) + f(n)\nf(n) = n if floor(lg n) even\nf(n) = sqrt(n) "
+    "otherwise";
+
 TEST(NumericTrend, WobblingRatioIsRefutedByItsEnvelope) {
-  ClaimResult r = check_text(
-      "T(n) = 1 if n < 4\nT(n) = 2T(n/4) + f(n)\nf(n) = n if floor(lg n) even\nf(n) = sqrt(n) "
-      "otherwise",
-      "O(sqrt(n) lg n)", 256);
+  ClaimResult r = check_text(kWobbling, "O(sqrt(n) lg n)", 256);
   ASSERT_EQ(r.verdict, Verdict::kRefuted) << verdict_message(r);
   ASSERT_EQ(r.basis.kind, BasisKind::kNumericTrend);
   ASSERT_TRUE(r.basis.trend && r.basis.trend->escapes);
@@ -186,10 +187,7 @@ TEST(NumericTrend, WobblingRatioIsRefutedByItsEnvelope) {
 // comparison with the driver sqrt(n) proves (a = 2, b = 4, p = 1/2, case 2:
 // Θ(sqrt(n) lg n)), so the derivation itself refutes it.
 TEST(Comparison, AClaimBelowTheOneSidedLowerBoundIsRefuted) {
-  ClaimResult r = check_text(
-      "T(n) = 1 if n < 4\nT(n) = 2T(n/4) + f(n)\nf(n) = n if floor(lg n) even\nf(n) = sqrt(n) "
-      "otherwise",
-      "O(sqrt(n))", 256);
+  ClaimResult r = check_text(kWobbling, "O(sqrt(n))", 256);
   ASSERT_EQ(r.verdict, Verdict::kRefuted) << verdict_message(r);
   EXPECT_EQ(r.basis.kind, BasisKind::kDerivationContradicts);
   ASSERT_TRUE(r.basis.theorem.has_value());

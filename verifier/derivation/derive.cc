@@ -228,43 +228,42 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
     d.reasons.push_back("no theorem's shape fits: " + shape.reason);
     return d;
   }
-  // A non-owning handle: the evaluator lives only inside this call.
-  std::shared_ptr<const Recurrence> handle(std::shared_ptr<const Recurrence>(), &recurrence);
-  auto evaluator = std::make_shared<Evaluator>(handle, derivation_budget(clock_limit));
   DerivationInput input;
   input.shape = &shape;
   input.helpers = &recurrence.helpers;
   classify_driving(shape, recurrence, input);
-  const SourceText& source = recurrence.source;
-  input.value_at = [evaluator](const BigInt& n) -> std::optional<Value> {
-    // Input errors (lg 0 at this n) and limits mean "no value here"; any
-    // other exception is a bug and propagates.
-    try {
-      return evaluator->value_at(n);
-    } catch (const InputError&) {
-      return std::nullopt;
-    } catch (const LimitReached&) {
-      return std::nullopt;
-    }
-  };
-  input.driving_at = [evaluator, &shape, &source](const BigInt& n) -> std::optional<Value> {
-    try {
-      if (shape.driving) return evaluator->evaluate(*shape.driving, source, n);
-      for (const auto& c : shape.driving_cases) {
-        if (c.test && !holds(*evaluator, *c.test, source, n)) continue;
-        return c.f ? evaluator->evaluate(*c.f, source, n) : Value(int64_t{0});
+  // Exact values of T and f, for the theorems that look at numbers. Not
+  // when the recurrence has a class term: its values are one member's, and a
+  // theorem that solves with them (a linear recurrence's initial values and
+  // polynomial driver) would prove the claim for that member only.
+  if (recurrence.class_terms.empty()) {
+    // A non-owning handle: the evaluator lives only inside this call.
+    std::shared_ptr<const Recurrence> handle(std::shared_ptr<const Recurrence>(), &recurrence);
+    auto evaluator = std::make_shared<Evaluator>(handle, derivation_budget(clock_limit));
+    const SourceText& source = recurrence.source;
+    input.value_at = [evaluator](const BigInt& n) -> std::optional<Value> {
+      // Input errors (lg 0 at this n) and limits mean "no value here"; any
+      // other exception is a bug and propagates.
+      try {
+        return evaluator->value_at(n);
+      } catch (const InputError&) {
+        return std::nullopt;
+      } catch (const LimitReached&) {
+        return std::nullopt;
       }
-    } catch (const InputError&) {
-    } catch (const LimitReached&) {
-    }
-    return std::nullopt;
-  };
-  if (!recurrence.class_terms.empty()) {
-    // Exact values are one member's: a theorem that solves with them (a
-    // linear recurrence's initial values and polynomial driver) would prove
-    // the claim for that member only.
-    input.value_at = nullptr;
-    input.driving_at = nullptr;
+    };
+    input.driving_at = [evaluator, &shape, &source](const BigInt& n) -> std::optional<Value> {
+      try {
+        if (shape.driving) return evaluator->evaluate(*shape.driving, source, n);
+        for (const auto& c : shape.driving_cases) {
+          if (c.test && !holds(*evaluator, *c.test, source, n)) continue;
+          return c.f ? evaluator->evaluate(*c.f, source, n) : Value(int64_t{0});
+        }
+      } catch (const InputError&) {
+      } catch (const LimitReached&) {
+      }
+      return std::nullopt;
+    };
   }
   using Theorem = std::pair<const char*, TheoremOutcome (*)(const DerivationInput&)>;
   std::vector<Theorem> theorems;

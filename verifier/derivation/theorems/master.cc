@@ -104,6 +104,18 @@ RegularityFacts regularity_facts(const DerivationInput& input, const Rational& a
   return facts;
 }
 
+// T(n) = a T(n/b) with f = 0: only the n^p leaves cost (case 1).
+TheoremOutcome master_on_zero(const Rational& a, const Rational& divisor) {
+  TheoremOutcome out = master_on_class(a, divisor, GrowthClass::polylog(-1), "0");
+  if (out.applies()) {
+    // Derived through f = Θ(1/n), whose steps speak of an ε that f = 0
+    // does not have: keep p and the conclusion only.
+    out.steps = {out.steps.front(), "f(n) = 0: only the n^p leaves cost, case 1", out.steps.back()};
+    out.method = "master theorem, case 1";
+  }
+  return out;
+}
+
 // f lies between c₁·lower and c₂·upper for large n (every case line is of a
 // class between the two; or f has O/Ω terms), and a > 0, so T lies between
 // the recurrences driven by those bounds; the master theorem solves each on
@@ -121,9 +133,7 @@ void bound_by_comparison(const Rational& a, const Rational& divisor, const Deriv
     lower_text = to_string(*input.driving_lower);
     low = master_on_class(a, divisor, *input.driving_lower, lower_text);
   } else if (input.driving_lower_zero) {
-    // As in master_theorem for f = 0: through Θ(1/n), case 1 keeps n^p only.
-    low = master_on_class(a, divisor, GrowthClass::polylog(-1), "0");
-    if (low->applies()) low->method = "master theorem, case 1 (f = 0: the leaves alone)";
+    low = master_on_zero(a, divisor);
   }
   if (up && !up->applies()) up.reset();
   if (low && !low->applies()) low.reset();
@@ -217,17 +227,15 @@ TheoremOutcome master_on_class(const Rational& a, const Rational& divisor, const
       out.failure = "regularity fails: a f(n/b)/f(n) tends to " + limit.str() + " >= 1";
       return out;
     }
-    std::string tends = "a g(n/b)/g(n) tends to a/b^α = " + limit.str() +
-                        (limit.is_rational() ? "" : " = " + limit.digits()) +
-                        " < 1, so a g(n/b) <= c g(n) for any c in (" + limit.str() +
-                        ", 1) and all large n";
+    // "a h(n/b)/h(n) tends to a/b^α = L < 1, so ..." for h = f or its class g.
+    auto tends = [&](const std::string& h) {
+      return "a " + h + "(n/b)/" + h + "(n) tends to a/b^α = " + limit.str() +
+             (limit.is_rational() ? "" : " = " + limit.digits()) + " < 1, so a " + h +
+             "(n/b) <= c " + h + "(n) for any c in (" + limit.str() + ", 1) and all large n";
+    };
     out.method = "master theorem, case 3";
     if (facts.equivalent) {
-      std::string g = to_string(f);
-      out.steps.push_back(
-          "regularity: f(n) ~ C·" + g + " with C > 0, so a f(n/b)/f(n) tends to " +
-          "a/b^α = " + limit.str() + (limit.is_rational() ? "" : " = " + limit.digits()) +
-          " < 1, and a f(n/b) <= c f(n) for any c in (" + limit.str() + ", 1) and all large n");
+      out.steps.push_back("regularity: f(n) ~ C·" + to_string(f) + " with C > 0, so " + tends("f"));
     } else if (!facts.proved.empty()) {
       out.steps.push_back("regularity: " + facts.proved);
     } else {
@@ -245,7 +253,7 @@ TheoremOutcome master_on_class(const Rational& a, const Rational& divisor, const
           "; the recursion's coefficient a is positive, so T lies between the solutions of the "
           "same recursion with drivers c₁ g and c₂ g (their base values adjusted for the "
           "finitely many smaller n)");
-      out.steps.push_back("for the driver g: " + tends + ": case 3 gives Θ(g) for both");
+      out.steps.push_back("for the driver g: " + tends("g") + ": case 3 gives Θ(g) for both");
       out.method = "comparison with the driver " + g + ": master theorem, case 3";
     }
     result = f;
@@ -354,14 +362,7 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
     return o;
   };
   if (input.driving.zero) {
-    out = master_on_class(t.a, divisor, GrowthClass::polylog(-1), "0");
-    if (out.applies()) {
-      // Derived through f = Θ(1/n), whose steps speak of an ε that f = 0
-      // does not have: keep p and the conclusion only.
-      out.steps = {out.steps.front(), "f(n) = 0: only the n^p leaves cost, case 1",
-                   out.steps.back()};
-      out.method = "master theorem, case 1";
-    }
+    out = master_on_zero(t.a, divisor);
   } else if (input.driving.growth) {
     // A class written in the recurrence is shown as its class, not as the
     // member the exact values use.
