@@ -1,0 +1,235 @@
+// The independent re-checker's rules on certificates written by hand
+// (issue 20): true certificates are re-checked, and certificates with one
+// wrong number, a wrong case, a modulus too small for the floors or a
+// constant loosened past the truth are rejected, never accepted.
+#include <gtest/gtest.h>
+
+#include <string>
+
+#include "verifier/model/bound.h"
+#include "verifier/model/recurrence.h"
+#include "verifier/recheck/expansion.h"
+#include "verifier/recheck/rules.h"
+#include "verifier/syntax/parser.h"
+
+namespace thetagate::engine::recheck {
+namespace {
+
+RuleOutcome run(const std::string& recurrence, const std::string& bound, const CertificateData& c) {
+  auto r = recurrence_from_text(recurrence);
+  Bound b = parse_bound(SourceText::whole("<bound>", bound));
+  return check_certificate(*r, b, c);
+}
+
+CertificateData divide(const std::string& proof, const std::string& g, const std::string& low,
+                       const std::string& high, const std::string& from = "64") {
+  CertificateData c;
+  c.method = "divide";
+  c.proof = proof;
+  c.driver_class = g;
+  c.driver_low = low;
+  c.driver_high = high;
+  c.driver_from = from;
+  return c;
+}
+
+CertificateData induction(const std::string& hypothesis, const std::string& m,
+                          const std::string& modulus, std::vector<std::string> sides = {"upper"}) {
+  CertificateData c;
+  c.method = "induction";
+  c.proof = "induction";
+  c.sides = std::move(sides);
+  c.hypothesis = hypothesis;
+  c.checked_to = m;
+  c.modulus = modulus;
+  return c;
+}
+
+#define EXPECT_RECHECKED(outcome)                                           \
+  do {                                                                      \
+    RuleOutcome o_ = (outcome);                                             \
+    EXPECT_EQ(o_.status, RuleStatus::kRechecked) << o_.detail;              \
+    EXPECT_GT(o_.obligations, 0);                                           \
+  } while (0)
+
+#define EXPECT_REJECTED(outcome, fragment)                                  \
+  do {                                                                      \
+    RuleOutcome o_ = (outcome);                                             \
+    EXPECT_EQ(o_.status, RuleStatus::kRejected) << o_.detail;               \
+    EXPECT_NE(o_.detail.find(fragment), std::string::npos) << o_.detail;    \
+  } while (0)
+
+// --- The expansions -------------------------------------------------------
+
+Expansion of(const std::string& text, uint64_t modulus = 1, uint64_t residue = 0,
+             BigInt from = 64) {
+  return expand(*parse_expression(SourceText::whole("<e>", text)),
+                Context{from, modulus, residue, nullptr});
+}
+
+TEST(RecheckExpansion, MergeSortSlackCancelsExactly) {
+  // n lg n - 2 (n/2) lg(n/2) = n: the leading terms cancel in exact rationals.
+  Expansion e = add(of("n*lg(n)"), negate(of("2*(n/2)*lg(n/2)")));
+  ASSERT_EQ(e.terms.size(), 1u) << describe(e);
+  EXPECT_EQ(prove_nonnegative(e, 64), "");
+  EXPECT_EQ(prove_nonnegative(negate(e), 64).empty(), false);
+}
+
+TEST(RecheckExpansion, PowersOfLogThreeCancelExactly) {
+  // 3 (n/2)^(lg 3) = n^(lg 3): (1/2)^(lg 3) = 1/3 exactly (common practice).
+  Expansion e = add(of("n^lg(3)"), negate(of("3*(n/2)^lg(3)")));
+  EXPECT_TRUE(e.terms.empty()) << describe(e);
+}
+
+TEST(RecheckExpansion, FloorsAreExactOnAResidueClass) {
+  // floor(n/2) + ceil(n/2) = n on both classes mod 2.
+  for (uint64_t r = 0; r < 2; ++r) {
+    Expansion e = add(of("floor(n/2) + ceil(n/2)", 2, r), negate(of("n", 2, r)));
+    EXPECT_TRUE(e.terms.empty()) << r << ": " << describe(e);
+  }
+}
+
+TEST(RecheckExpansion, ARemainderKeepsTheEnclosureHonest) {
+  // lg(n + 1) - lg n lies in (0, 1/(n ln 2)]: positive, and below 1/n·2.
+  Expansion gap = add(of("lg(n + 1)"), negate(of("lg(n)")));
+  EXPECT_EQ(prove_nonnegative(gap, 64), "") << describe(gap);
+  Expansion above = add(of("2/n"), negate(gap));
+  EXPECT_EQ(prove_nonnegative(above, 64), "") << describe(above);
+  // ... but not below 1/(2n): 1/(n ln 2) > 1/(2n).
+  Expansion below = add(of("1/(2*n)"), negate(gap));
+  EXPECT_NE(prove_nonnegative(below, 64), "");
+}
+
+TEST(RecheckExpansion, ANegativeDipIsFoundBetweenTheStartAndTheTail) {
+  // n^2 - 100 n lg n + 1 is negative for n around 64..1000 and positive beyond.
+  Expansion e = of("n^2 - 100*n*lg(n) + 1");
+  std::string why = prove_nonnegative(e, 64);
+  EXPECT_NE(why.find("negative near n"), std::string::npos) << why;
+  EXPECT_EQ(prove_nonnegative(e, 2048), "");
+}
+
+// --- Divide-and-conquer (Akra–Bazzi with Leighton's conditions) -----------
+
+// orchard::merge_rows merges two sorted halves: n - 1 comparisons.
+const char* kMerge = "T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1\nT(1) = 0";
+
+TEST(RecheckDivide, MergeOfTwoHalvesIsThetaNLgN) {
+  EXPECT_RECHECKED(run(kMerge, "Theta(n lg n)", divide("master theorem, case 2", "n", "1/2", "1")));
+  EXPECT_RECHECKED(run(kMerge, "O(n^2)", divide("master theorem, case 2", "n", "1/2", "1")));
+}
+
+TEST(RecheckDivide, AClaimTheTheoremDoesNotGiveIsRejected) {
+  EXPECT_REJECTED(run(kMerge, "Theta(n)", divide("master theorem, case 2", "n", "1/2", "1")),
+                  "does not establish");
+  EXPECT_REJECTED(run(kMerge, "O(n)", divide("master theorem, case 2", "n", "1/2", "1")),
+                  "does not establish");
+}
+
+TEST(RecheckDivide, DriverConstantsPastTheTruthAreRejected) {
+  // n - 1 >= (1/2) n holds; n - 1 >= n does not, and n - 1 <= (1/2) n does not.
+  EXPECT_REJECTED(run(kMerge, "Theta(n lg n)", divide("master theorem, case 2", "n", "1", "2")),
+                  "f(n) >= 1 g(n)");
+  EXPECT_REJECTED(run(kMerge, "Theta(n lg n)", divide("master theorem, case 2", "n", "1/4", "1/2")),
+                  "f(n) <= 1/2 g(n)");
+  // A driver class from another class entirely.
+  EXPECT_REJECTED(run(kMerge, "Theta(n lg n)", divide("master theorem, case 2", "n^2", "1/4", "4")),
+                  "f(n) >= 1/4 g(n)");
+}
+
+TEST(RecheckDivide, ASwappedCaseIsRejected) {
+  EXPECT_REJECTED(run(kMerge, "Theta(n lg n)", divide("master theorem, case 1", "n", "1/2", "1")),
+                  "names case 1");
+  EXPECT_REJECTED(run(kMerge, "Theta(n lg n)", divide("master theorem, case 3", "n", "1/2", "1")),
+                  "names case 3");
+}
+
+TEST(RecheckDivide, TheThreeCasesAndThePolylogExtension) {
+  // orchard::grid_split: five half-size subproblems and n^2 work: case 1, n^(lg 5).
+  EXPECT_RECHECKED(run("T(n) = 5T(n/2) + n^2\nT(1) = 1", "Theta(n^(lg 5))",
+                       divide("master theorem, case 1", "n^2", "1", "1")));
+  // Seven quarter-size subproblems: log_4 7 < 2, so n^2 work is case 3.
+  EXPECT_RECHECKED(run("T(n) = 7T(n/4) + n^2\nT(n) = 1 if n < 4", "Theta(n^2)",
+                       divide("master theorem, case 3", "n^2", "1", "1")));
+  EXPECT_REJECTED(run("T(n) = 7T(n/4) + n^2\nT(n) = 1 if n < 4", "Theta(n^(log(4, 7)))",
+                      divide("master theorem, case 1", "n^2", "1", "1")),
+                  "names case 1");
+  // Case 3: T(n) = 2T(n/2) + n^2 is Θ(n^2).
+  EXPECT_RECHECKED(run("T(n) = 2T(n/2) + n^2\nT(1) = 1", "Theta(n^2)",
+                       divide("master theorem, case 3", "n^2", "1", "1")));
+  // Polylog extension: 2T(n/2) + n lg n is Θ(n lg^2 n).
+  EXPECT_RECHECKED(run("T(n) = 2T(n/2) + n*lg(n)\nT(1) = 1", "Theta(n lg^2 n)",
+                       divide("master theorem, case 2 (polylog extension, k > -1)", "n*lg(n)", "1", "1")));
+  EXPECT_REJECTED(run("T(n) = 2T(n/2) + n*lg(n)\nT(1) = 1", "Theta(n lg n)",
+                      divide("master theorem, case 2", "n*lg(n)", "1", "1")),
+                  "does not establish");
+}
+
+TEST(RecheckDivide, UnequalSplitsUseTheCriticalExponent) {
+  // T(n) = T(n/3) + T(2n/3) + n: p = 1 (1/3 + 2/3 = 1), so Θ(n lg n)
+  // (Akra & Bazzi 1998, "On the solution of linear recurrence equations", example).
+  EXPECT_RECHECKED(run("T(n) = T(floor(n/3)) + T(floor(2*n/3)) + n\nT(1) = 1\nT(2) = 1",
+                       "Theta(n lg n)", divide("Akra–Bazzi", "n", "1", "1")));
+}
+
+TEST(RecheckDivide, IrregularDriverRegularityStatementIsRejectedWithItsClass) {
+  // f(n) = n^2 for even n, n^2/8 for odd n: a f(floor(n/2)) <= (1/2) f(n)
+  // fails at every n ≡ 1 (mod 4), where floor(n/2) is even.
+  const char* rec = "T(n) = T(n/2) + f(n)\nT(1) = 1\nf(n) = n^2 if n even\nf(n) = n^2/8";
+  CertificateData c = divide("master theorem, case 3", "n^2", "1/8", "1");
+  EXPECT_RECHECKED(run(rec, "Theta(n^2)", c));
+  c.regularity_c = "1/2";
+  c.regularity_from = "64";
+  EXPECT_REJECTED(run(rec, "Theta(n^2)", c), "n ≡ 1 (mod 4)");
+}
+
+TEST(RecheckDivide, APositiveBaseIsRequired) {
+  // T(1) = -5 makes T(n) negative for a while: Leighton's base is positive.
+  EXPECT_REJECTED(run("T(n) = 2T(n/2) + 1\nT(1) = -1000", "Theta(n)",
+                      divide("master theorem, case 1", "1", "1", "1")),
+                  "T(n) > 0");
+}
+
+// --- Subtract-and-conquer --------------------------------------------------
+
+TEST(RecheckSubtract, OneStepAtATimeSumsTheDriver) {
+  CertificateData c = divide("subtract-and-conquer, a = 1", "n", "1/2", "1", "4");
+  c.method = "subtract";
+  EXPECT_RECHECKED(run("T(n) = T(n - 1) + n - 1\nT(1) = 0", "Theta(n^2)", c));
+  EXPECT_REJECTED(run("T(n) = T(n - 1) + n - 1\nT(1) = 0", "Theta(n^3)", c), "does not establish");
+}
+
+// --- Induction -------------------------------------------------------------
+
+TEST(RecheckInduction, MergeWorstCaseIsAtMostTwoNLgN) {
+  EXPECT_RECHECKED(run(kMerge, "T(n) <= 2 n lg n for n >= 2", induction("<= 2n*lg(n)", "130", "2")));
+}
+
+TEST(RecheckInduction, ExactIdentitiesAreProvedBothWays) {
+  EXPECT_RECHECKED(run("T(n) = 2T(n - 1) + 1\nT(1) = 1", "T(n) = 2^n - 1",
+                       induction("= 2^n - 1", "64", "1", {"upper", "lower"})));
+  EXPECT_RECHECKED(run("T(n) = T(n - 1) + n - 1\nT(1) = 0", "T(n) = n(n - 1)/2",
+                       induction("= n*(n - 1)/2", "65", "1", {"upper", "lower"})));
+}
+
+TEST(RecheckInduction, AModulusTooSmallForTheFloorsIsRejected) {
+  EXPECT_REJECTED(run(kMerge, "T(n) <= 2 n lg n for n >= 2", induction("<= 2n*lg(n)", "130", "1")),
+                  "not exact modulo 1");
+}
+
+TEST(RecheckInduction, AFalseBoundIsRejected) {
+  // n lg n - n + 1 is the exact worst case at powers of two (common
+  // practice): T(n) <= n lg n - n cannot hold.
+  EXPECT_REJECTED(run(kMerge, "T(n) <= n lg n - n for n >= 2", induction("<= n*lg(n) - n", "130", "2")),
+                  "fails at n = 2");
+  // T(n) <= n fails at the step (and at n = 3 already).
+  EXPECT_REJECTED(run(kMerge, "T(n) <= n for n >= 1", induction("<= n", "130", "2")), "step");
+}
+
+TEST(RecheckInduction, AStrengthenedHypothesisMustLieInsideTheClaim) {
+  // Carrying n lg n + n through the step does not prove T(n) <= n lg n.
+  EXPECT_REJECTED(run(kMerge, "T(n) <= n lg n for n >= 1", induction("<= n*lg(n) + n", "130", "2")),
+                  "n*lg(n) + n <= n*lg(n) for every n > 130");
+}
+
+}  // namespace
+}  // namespace thetagate::engine::recheck
