@@ -1,12 +1,16 @@
 // Checking claims through the public API (include/thetagate/check.h).
 #include "thetagate/check.h"
 
+#include <map>
+
 #include "api/access.h"
 #include "generators/size_family.h"
+#include "reports/json_report.h"
 #include "reports/verdict_text.h"
 #include "verifier/checking/checker.h"
 #include "verifier/checking/run.h"
 #include "verifier/model/limits.h"
+#include "verifier/recheck/recheck.h"
 
 namespace thetagate {
 
@@ -90,6 +94,31 @@ std::vector<engine::ClaimEntry> entries_of(const std::vector<Claim>& claims,
   return entries;
 }
 
+// Re-verifies every holds's certificate with the independent re-checker; a
+// rejected certificate makes the claim an error from a bug (exit 3), never
+// a holds.
+void recheck_run(engine::RunResult& run, const std::vector<engine::ClaimEntry>& entries) {
+  std::multimap<std::string, engine::Claim> claims;
+  for (const engine::ClaimEntry& e : entries)
+    if (e.claim) claims.emplace(e.claim->name, *e.claim);
+  engine::recheck::RecheckResult result =
+      engine::recheck::recheck_report(engine::render_json(run), "<this run>", claims);
+  size_t next = 0;
+  for (engine::ClaimResult& c : run.claims) {
+    if (c.verdict != engine::Verdict::kHolds || next >= result.claims.size()) continue;
+    const engine::recheck::RecheckedClaim& r = result.claims[next++];
+    if (r.status != engine::recheck::RuleStatus::kRejected) {
+      c.recheck = engine::recheck::status_line(r);
+      continue;
+    }
+    c.verdict = engine::Verdict::kError;
+    c.basis.kind = engine::BasisKind::kInternalInconsistency;
+    c.internal_error = "the independent re-check rejected the certificate of this holds (" +
+                       c.method + "): " + r.detail;
+    c.recheck = engine::recheck::status_line(r);
+  }
+}
+
 }  // namespace
 
 const char* verdict_name(Verdict v) {
@@ -134,6 +163,7 @@ ClaimResult to_public(const engine::ClaimResult& r) {
   out.failed_hypotheses = r.failed_hypotheses;
   out.error = r.error;
   out.internal_error = r.internal_error;
+  out.recheck = r.recheck;
   out.note = r.note;
   out.sizes_checked = r.sizes_checked;
   out.largest_bits = r.largest_bits;
@@ -168,14 +198,21 @@ bool Report::any_internal_error() const {
 
 ClaimResult check(const Claim& claim, const CheckOptions& options) {
   engine::CheckOptions engine = engine_options(options);
-  return detail::to_public(engine::check_entry(entries_of({claim}, options.families)[0], engine));
+  std::vector<engine::ClaimEntry> entries = entries_of({claim}, options.families);
+  engine::RunResult run;
+  run.seed = options.seed;
+  run.claims.push_back(engine::check_entry(entries[0], engine));
+  if (options.recheck) recheck_run(run, entries);
+  return detail::to_public(run.claims[0]);
 }
 
 Report check(const std::vector<Claim>& claims, const CheckOptions& options) {
   engine::CheckOptions engine = engine_options(options);
-  return detail::Access::make_report(
-      engine::check_in_parallel(entries_of(claims, options.families), engine, options.jobs,
-                                options.progress, options.memory_limit));
+  std::vector<engine::ClaimEntry> entries = entries_of(claims, options.families);
+  engine::RunResult run = engine::check_in_parallel(entries, engine, options.jobs, options.progress,
+                                                    options.memory_limit);
+  if (options.recheck) recheck_run(run, entries);
+  return detail::Access::make_report(std::move(run));
 }
 
 }  // namespace thetagate

@@ -11,8 +11,10 @@
 #include <chrono>
 #include <cstdio>
 #include <filesystem>
+#include <fstream>
 #include <iostream>
 #include <random>
+#include <sstream>
 
 #include "cli/exit_policy.h"
 #include "thetagate/thetagate.h"
@@ -38,6 +40,7 @@ struct CheckArguments {
   unsigned jobs = 1;
   bool list_families = false;
   bool undecided_fails = false;
+  bool recheck = false;  // --recheck: re-verify each holds's certificate
   std::string baseline;
   std::vector<std::string> fail_on;
   std::optional<double> clock_limit;
@@ -309,6 +312,7 @@ int run_check(const CheckArguments& args) {
   if (args.rounding == "both") options.rounding = Rounding::kBoth;
   options.jobs = args.jobs;
   options.costs_root = args.costs_root;
+  options.recheck = args.recheck;
   options.memory_limit = args.memory_mib << 20;
   Progress progress;
   options.progress = [&progress](size_t done, size_t total, const std::string& name) {
@@ -390,6 +394,37 @@ int run_eval(const std::string& recurrence_text, const std::vector<std::string>&
     }
   }
   return 0;
+}
+
+struct RecheckArguments {
+  std::string report;
+  std::vector<std::string> claims;
+};
+
+// Re-verifies every holds's certificate in a JSON report: one line per
+// claim, then a summary. Exit 3 when a certificate is rejected (the report's
+// holds cannot be trusted: a bug), else 0.
+int run_recheck(const RecheckArguments& args) {
+  std::ifstream in(args.report, std::ios::binary);
+  std::ostringstream text;
+  text << in.rdbuf();
+  if (!in || std::filesystem::is_directory(args.report)) {
+    std::cerr << "thetagate: cannot read the report '" << engine::escape_controls(args.report)
+              << "'\n  hint: give the JSON report of 'thetagate check --format json'\n";
+    return kExitBadInput;
+  }
+  std::vector<RecheckedClaim> claims = recheck(text.str(), args.report, args.claims);
+  int rechecked = 0, rejected = 0;
+  for (const RecheckedClaim& c : claims) {
+    rechecked += c.status == RecheckStatus::kRechecked;
+    rejected += c.status == RecheckStatus::kRejected;
+    std::cout << engine::terminal_safe(c.name) << ": "
+              << engine::terminal_safe(recheck_status_line(c)) << '\n';
+  }
+  std::cout << claims.size() << (claims.size() == 1 ? " holds: " : " holds: ") << rechecked
+            << " re-checked, " << rejected << " rejected, " << claims.size() - rechecked - rejected
+            << " not re-checked\n";
+  return rejected > 0 ? kExitInternalError : 0;
 }
 
 struct SizesArguments {
@@ -514,6 +549,9 @@ int main(int argc, char** argv) {
   check_command->add_option("--costs-root", check.costs_root,
                             "a folder whose files claims may name as costs files, besides each "
                             "claim file's own folder tree");
+  check_command->add_flag("--recheck", check.recheck,
+                          "re-verify each holds's certificate with the independent re-checker; "
+                          "a rejected one is an error (exit 3)");
   check_command->add_flag("--undecided-fails", check.undecided_fails,
                           "JUnit: report undecided claims as failures, not skipped");
   check_command->add_flag("--list-families", check.list_families,
@@ -540,6 +578,13 @@ int main(int argc, char** argv) {
       ->required();
   eval_command->add_option("sizes", sizes, "sizes N, e.g. 100 2^4096+7")->required();
 
+  RecheckArguments recheck_args;
+  auto* recheck_command = app.add_subcommand(
+      "recheck", "re-verify the certificate of every holds in a JSON report, independently");
+  recheck_command->add_option("report", recheck_args.report, "the JSON report")->required();
+  recheck_command->add_option("--claims", recheck_args.claims,
+                              "claim files or folders (default: the files the report names)");
+
   SizesArguments sizes_args;
   auto* sizes_command = app.add_subcommand(
       "sizes", "the sizes to measure a claim's code at, for a costs file: 'N FAMILY' lines");
@@ -556,7 +601,7 @@ int main(int argc, char** argv) {
   // CLI11 would say "a subcommand is required" for a misspelt one.
   if (argc > 1 && argv[1][0] != '-') {
     std::string word = argv[1];
-    const std::vector<std::string> commands = {"check", "derive", "eval", "sizes"};
+    const std::vector<std::string> commands = {"check", "derive", "eval", "recheck", "sizes"};
     if (std::find(commands.begin(), commands.end(), word) == commands.end()) {
       std::string closest = commands.front();
       for (const std::string& c : commands) {
@@ -565,7 +610,7 @@ int main(int argc, char** argv) {
       std::cerr << "thetagate: unknown command '" << engine::escape_controls(word) << "'\n  hint: "
                 << (engine::edit_distance(word, closest) <= 2 ? "did you mean '" + closest + "'? "
                                                               : "")
-                << "commands: check, derive, eval, sizes (thetagate --help)\n";
+                << "commands: check, derive, eval, recheck, sizes (thetagate --help)\n";
       return kExitBadInput;
     }
   }
@@ -582,6 +627,7 @@ int main(int argc, char** argv) {
     if (*derive_command) return run_derive(recurrence_text, derive_format);
     if (*eval_command) return run_eval(recurrence_text, sizes);
     if (*sizes_command) return run_sizes(sizes_args);
+    if (*recheck_command) return run_recheck(recheck_args);
   } catch (const InputError& e) {
     std::cerr << engine::terminal_safe(e.what()) << '\n';
     return kExitBadInput;

@@ -45,18 +45,18 @@ CertificateData induction(const std::string& hypothesis, const std::string& m,
   return c;
 }
 
-#define EXPECT_RECHECKED(outcome)                                           \
-  do {                                                                      \
-    RuleOutcome o_ = (outcome);                                             \
-    EXPECT_EQ(o_.status, RuleStatus::kRechecked) << o_.detail;              \
-    EXPECT_GT(o_.obligations, 0);                                           \
+#define EXPECT_RECHECKED(outcome)                              \
+  do {                                                         \
+    RuleOutcome o_ = (outcome);                                \
+    EXPECT_EQ(o_.status, RuleStatus::kRechecked) << o_.detail; \
+    EXPECT_GT(o_.obligations, 0);                              \
   } while (0)
 
-#define EXPECT_REJECTED(outcome, fragment)                                  \
-  do {                                                                      \
-    RuleOutcome o_ = (outcome);                                             \
-    EXPECT_EQ(o_.status, RuleStatus::kRejected) << o_.detail;               \
-    EXPECT_NE(o_.detail.find(fragment), std::string::npos) << o_.detail;    \
+#define EXPECT_REJECTED(outcome, fragment)                               \
+  do {                                                                   \
+    RuleOutcome o_ = (outcome);                                          \
+    EXPECT_EQ(o_.status, RuleStatus::kRejected) << o_.detail;            \
+    EXPECT_NE(o_.detail.find(fragment), std::string::npos) << o_.detail; \
   } while (0)
 
 // --- The expansions -------------------------------------------------------
@@ -157,8 +157,9 @@ TEST(RecheckDivide, TheThreeCasesAndThePolylogExtension) {
   EXPECT_RECHECKED(run("T(n) = 2T(n/2) + n^2\nT(1) = 1", "Theta(n^2)",
                        divide("master theorem, case 3", "n^2", "1", "1")));
   // Polylog extension: 2T(n/2) + n lg n is Θ(n lg^2 n).
-  EXPECT_RECHECKED(run("T(n) = 2T(n/2) + n*lg(n)\nT(1) = 1", "Theta(n lg^2 n)",
-                       divide("master theorem, case 2 (polylog extension, k > -1)", "n*lg(n)", "1", "1")));
+  EXPECT_RECHECKED(
+      run("T(n) = 2T(n/2) + n*lg(n)\nT(1) = 1", "Theta(n lg^2 n)",
+          divide("master theorem, case 2 (polylog extension, k > -1)", "n*lg(n)", "1", "1")));
   EXPECT_REJECTED(run("T(n) = 2T(n/2) + n*lg(n)\nT(1) = 1", "Theta(n lg n)",
                       divide("master theorem, case 2", "n*lg(n)", "1", "1")),
                   "does not establish");
@@ -201,7 +202,8 @@ TEST(RecheckSubtract, OneStepAtATimeSumsTheDriver) {
 // --- Induction -------------------------------------------------------------
 
 TEST(RecheckInduction, MergeWorstCaseIsAtMostTwoNLgN) {
-  EXPECT_RECHECKED(run(kMerge, "T(n) <= 2 n lg n for n >= 2", induction("<= 2n*lg(n)", "130", "2")));
+  EXPECT_RECHECKED(
+      run(kMerge, "T(n) <= 2 n lg n for n >= 2", induction("<= 2n*lg(n)", "130", "2")));
 }
 
 TEST(RecheckInduction, ExactIdentitiesAreProvedBothWays) {
@@ -219,8 +221,9 @@ TEST(RecheckInduction, AModulusTooSmallForTheFloorsIsRejected) {
 TEST(RecheckInduction, AFalseBoundIsRejected) {
   // n lg n - n + 1 is the exact worst case at powers of two (common
   // practice): T(n) <= n lg n - n cannot hold.
-  EXPECT_REJECTED(run(kMerge, "T(n) <= n lg n - n for n >= 2", induction("<= n*lg(n) - n", "130", "2")),
-                  "fails at n = 2");
+  EXPECT_REJECTED(
+      run(kMerge, "T(n) <= n lg n - n for n >= 2", induction("<= n*lg(n) - n", "130", "2")),
+      "fails at n = 2");
   // T(n) <= n fails at the step (and at n = 3 already).
   EXPECT_REJECTED(run(kMerge, "T(n) <= n for n >= 1", induction("<= n", "130", "2")), "step");
 }

@@ -103,7 +103,11 @@ struct ClaimResult {
   std::vector<std::string> failed_hypotheses;  // "THEOREM: the hypothesis that fails"
   std::optional<Diagnostic> error;             // kError from bad input: where and why
   std::string internal_error;                  // kError from a bug: what broke ("" otherwise)
-  std::string note;                            // the claim's own note
+  // With CheckOptions::recheck, for a claim that held: "re-checked (5
+  // obligations)", or "not re-checked: WHY"; a certificate the re-checker
+  // rejects makes the claim kError with internal_error saying why.
+  std::string recheck;
+  std::string note;  // the claim's own note
   uint64_t sizes_checked = 0;
   uint64_t largest_bits = 0;  // bits of the largest size evaluated
 };
@@ -133,6 +137,9 @@ struct CheckOptions {
   // Called after each claim, serialised: (claims done, claims in all, name).
   // If it throws, no further claim starts and check() rethrows it.
   std::function<void(size_t, size_t, const std::string&)> progress;
+  // Re-verify every holds's certificate with the independent re-checker
+  // (thetagate/recheck.h) after the check.
+  bool recheck = false;
 };
 
 // The result of checking many claims: the seed and options that replay it,

@@ -9,6 +9,7 @@
 #include "thetagate/derive.h"
 #include "thetagate/errors.h"
 #include "thetagate/evaluate.h"
+#include "thetagate/recheck.h"
 #include "thetagate/report.h"
 #include "thetagate/version.h"
 

@@ -213,7 +213,10 @@ struct ClaimResult {
   std::vector<std::string> failed_hypotheses;  // "THEOREM: the hypothesis that fails"
   std::optional<Diagnostic> error;             // verdict error: the located input error
   std::string internal_error;                  // verdict error: a bug, what broke ("" otherwise)
-  std::string note;                            // the claim's own `note`, copied
+  // The independent re-check of a holds's certificate, when one was asked
+  // for: "re-checked (5 obligations)", "not re-checked: WHY" ("" otherwise).
+  std::string recheck;
+  std::string note;  // the claim's own `note`, copied
   uint64_t sizes_checked = 0;
   uint64_t largest_bits = 0;       // bits of the largest size evaluated
   std::optional<CodeResult> code;  // the claim's link to code, when it has one

@@ -51,7 +51,9 @@ Coef power_coef(const Coef& c, const RealNumber& k) {
   return Coef::of(c.range->pow(enclose(k)));
 }
 
-Key key_mul(const Key& a, const Key& b) { return {a.rho * b.rho, a.alpha + b.alpha, a.beta + b.beta}; }
+Key key_mul(const Key& a, const Key& b) {
+  return {a.rho * b.rho, a.alpha + b.alpha, a.beta + b.beta};
+}
 
 Expansion single(Key key, Coef c) {
   Expansion e;
@@ -98,7 +100,8 @@ Expansion lg_of(const Expansion& y, const Context& ctx) {
     Expansion out = lg_of(single(unit_key(), term.coef), ctx);
     out = add(out, single(n_key(RealNumber(0L), 1), coef_of(term.key.alpha)));
     if (term.key.rho != 1)
-      out = add(out, single(n_key(RealNumber(1L)), coef_of(RealNumber::log(Rational(2), term.key.rho))));
+      out = add(out,
+                single(n_key(RealNumber(1L)), coef_of(RealNumber::log(Rational(2), term.key.rho))));
     return out;
   }
   auto aff = as_affine(y);
@@ -138,7 +141,8 @@ Expansion power_of(const Expansion& y, const RealNumber& k, const Context& ctx) 
   Rational delta = small_ratio(s, t, ctx.from);
   Coef lead = rational_power(s, k);
   Expansion out = single(n_key(k), lead);
-  out = add(out, single(n_key(k - RealNumber(1L)), coef_mul(lead, coef_mul(coef_of(k), Coef::of(r)))));
+  out = add(out,
+            single(n_key(k - RealNumber(1L)), coef_mul(lead, coef_mul(coef_of(k), Coef::of(r)))));
   Interval kk = enclose(k);
   Interval km2 = kk - point(2);
   Interval worst = Interval::max(point(1 - delta).pow(km2), point(1 + delta).pow(km2));
@@ -149,7 +153,8 @@ Expansion power_of(const Expansion& y, const RealNumber& k, const Context& ctx) 
 
 // The value of y on the class as s_y m + c: its constant part on the
 // residue, when y is affine with s_y · modulus an integer multiple of `period`.
-std::optional<Rational> class_constant(const Expansion& y, const Context& ctx, const BigInt& period) {
+std::optional<Rational> class_constant(const Expansion& y, const Context& ctx,
+                                       const BigInt& period) {
   auto aff = as_affine(y);
   if (!aff) return std::nullopt;
   auto [s, t] = *aff;
@@ -252,7 +257,8 @@ Expansion negate(const Expansion& a) { return scale(a, Coef::of(Rational(-1))); 
 Expansion multiply(const Expansion& a, const Expansion& b) {
   Expansion out;
   for (const Term& x : a.terms)
-    for (const Term& y : b.terms) out = add(out, single(key_mul(x.key, y.key), coef_mul(x.coef, y.coef)));
+    for (const Term& y : b.terms)
+      out = add(out, single(key_mul(x.key, y.key), coef_mul(x.coef, y.coef)));
   return out;
 }
 
@@ -435,8 +441,8 @@ const CaseLine& line_on_class(const Function& f, const Context& ctx, const Ratio
   Rational lowest = s * Rational(first_on_class(ctx)) + t;
   for (const CaseLine& p : f.points) {
     if (s <= 0 || Rational(*p.point) >= lowest)
-      throw Unsupported("the point case " + f.name + "(" + p.point->str() + ") lies beyond n = " +
-                        ctx.from.str());
+      throw Unsupported("the point case " + f.name + "(" + p.point->str() +
+                        ") lies beyond n = " + ctx.from.str());
   }
   for (const CaseLine& line : f.conditional)
     if (decide(*line.condition, ctx, s, t)) return line;

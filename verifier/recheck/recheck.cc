@@ -1,5 +1,6 @@
 #include "verifier/recheck/recheck.h"
 
+#include <algorithm>
 #include <map>
 #include <nlohmann/json.hpp>
 
@@ -158,8 +159,17 @@ RecheckResult recheck_report(const std::string& report_text, const std::string& 
   }
   std::multimap<std::string, Claim> claims;
   if (!paths.empty()) claims = load_claims(paths);
+  return recheck_report(report_text, report_name, claims);
+}
+
+RecheckResult recheck_report(const std::string& report_text, const std::string& report_name,
+                             const std::multimap<std::string, Claim>& claims) {
+  Json root = Json::parse(report_text, nullptr, false);
+  if (root.is_discarded() || !root.is_object() || !root.contains("claims") ||
+      !root["claims"].is_array())
+    bad_report(report_name, "it is not a JSON report");
   RecheckResult result;
-  for (const Json& c : *list) {
+  for (const Json& c : root["claims"]) {
     if (!c.is_object() || text_at(c, "verdict") != "holds") continue;
     result.claims.push_back(recheck_one(c, claims));
   }

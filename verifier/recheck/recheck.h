@@ -7,9 +7,11 @@
 #ifndef THETAGATE_VERIFIER_RECHECK_RECHECK_H_
 #define THETAGATE_VERIFIER_RECHECK_RECHECK_H_
 
+#include <map>
 #include <string>
 #include <vector>
 
+#include "verifier/model/claim.h"
 #include "verifier/recheck/rules.h"
 
 namespace thetagate::engine::recheck {
@@ -35,6 +37,11 @@ struct RecheckResult {
 // not a JSON report or a claim file cannot be read.
 RecheckResult recheck_report(const std::string& report_text, const std::string& report_name,
                              const std::vector<std::string>& claim_paths);
+
+// The same with the claims given (a run re-checking its own report): by
+// name, several per name when files repeat one.
+RecheckResult recheck_report(const std::string& report_text, const std::string& report_name,
+                             const std::multimap<std::string, Claim>& claims);
 
 // "re-checked (5 obligations)", "REJECTED: ...", "not re-checked: ...".
 std::string status_line(const RecheckedClaim& claim);

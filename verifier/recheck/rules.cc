@@ -114,9 +114,11 @@ Expansion driver_of(const Linear& lin, const Context& ctx, const Rational& s = 1
 // The leading key of a growth function with a positive coefficient.
 Key leading_key(const Expansion& e, const std::string& what) {
   if (e.terms.empty()) throw Rejected{what + " is zero"};
-  auto lead = std::max_element(e.terms.begin(), e.terms.end(),
-                               [](const Term& a, const Term& b) { return compare_keys(a.key, b.key) < 0; });
-  if (!lead->coef.enclose().certainly_positive()) throw Unsupported(what + " with a leading term that is not positive");
+  auto lead = std::max_element(e.terms.begin(), e.terms.end(), [](const Term& a, const Term& b) {
+    return compare_keys(a.key, b.key) < 0;
+  });
+  if (!lead->coef.enclose().certainly_positive())
+    throw Unsupported(what + " with a leading term that is not positive");
   return lead->key;
 }
 
@@ -135,7 +137,8 @@ std::string key_text(const Key& k) {
   std::string out;
   if (k.rho != 1) out += to_string(k.rho) + "^n";
   if (k.alpha.sign() != 0) out += (out.empty() ? "" : " ") + std::string("n^") + k.alpha.str();
-  if (k.beta != 0) out += (out.empty() ? "" : " ") + std::string("lg^") + std::to_string(k.beta) + " n";
+  if (k.beta != 0)
+    out += (out.empty() ? "" : " ") + std::string("lg^") + std::to_string(k.beta) + " n";
   return out.empty() ? "1" : out;
 }
 
@@ -168,16 +171,17 @@ void on_some_modulus(const std::function<void(const Context&, int&)>& body, cons
 // The recursive structure shared by every line that applies at large n,
 // and the threshold beyond which only such lines apply.
 struct Structure {
-  std::vector<Call> calls;           // of the first recursive line
+  std::vector<Call> calls;  // of the first recursive line
   std::vector<const CaseLine*> recursive;
-  BigInt threshold = 1;              // lines without calls apply only at n < threshold
+  BigInt threshold = 1;  // lines without calls apply only at n < threshold
 };
 
 Structure structure_of(const Recurrence& r) {
   if (r.full_history) throw Unsupported("a sum over earlier values of T");
   if (!r.class_terms.empty()) throw Unsupported("a growth class written inside the recurrence");
   Structure st;
-  for (const CaseLine& p : r.main.points) st.threshold = std::max(st.threshold, BigInt(*p.point + 1));
+  for (const CaseLine& p : r.main.points)
+    st.threshold = std::max(st.threshold, BigInt(*p.point + 1));
   auto note = [&](const CaseLine& line) {
     Linear lin;
     linearize(line.body, 1, r.main.name, lin);
@@ -200,9 +204,11 @@ Structure structure_of(const Recurrence& r) {
       } catch (const Unsupported&) {
       }
     }
-    if (!bounded) throw Unsupported("the base line " + print(*line.condition) + " may apply at large n");
+    if (!bounded)
+      throw Unsupported("the base line " + print(*line.condition) + " may apply at large n");
   }
-  if (r.main.fallback && !note(*r.main.fallback)) throw Unsupported("no recursive line applies at large n");
+  if (r.main.fallback && !note(*r.main.fallback))
+    throw Unsupported("no recursive line applies at large n");
   if (st.recursive.empty()) throw Unsupported("no recursive line");
   return st;
 }
@@ -215,8 +221,8 @@ void require_positive(SmallEvaluator& eval, const BigInt& lo, const BigInt& hi, 
     Value v = eval.at(n);
     int sign = eval.sign_of_difference(v, Value(int64_t{0}));
     if (sign < 0 || (strict && sign == 0))
-      throw Rejected{std::string("T(n) ") + (strict ? "> 0" : ">= 0") + " for " + lo.str() + " <= n <= " +
-                     hi.str() + " fails at n = " + n.str() + ": T(n) = " + v.str()};
+      throw Rejected{std::string("T(n) ") + (strict ? "> 0" : ">= 0") + " for " + lo.str() +
+                     " <= n <= " + hi.str() + " fails at n = " + n.str() + ": T(n) = " + v.str()};
   }
   ++count;
 }
@@ -308,11 +314,12 @@ RuleOutcome divide(const Recurrence& r, const Bound& bound, const CertificateDat
   BigInt threshold = st.threshold;
   for (const Split& sp : splits) {
     if (sp.a <= 0 || sp.s <= 0 || sp.s >= 1)
-      throw Rejected{"Akra–Bazzi needs a_i > 0 and 0 < b_i < 1; the recurrence has a = " + to_string(sp.a) +
-                     ", b = " + to_string(sp.s)};
+      throw Rejected{"Akra–Bazzi needs a_i > 0 and 0 < b_i < 1; the recurrence has a = " +
+                     to_string(sp.a) + ", b = " + to_string(sp.s)};
     total += sp.a;
     // From here on every argument lies in [1, n - 1].
-    Rational need = std::max(Rational((2 - sp.t_low) / sp.s), Rational((sp.t_high + 1) / (1 - sp.s)));
+    Rational need =
+        std::max(Rational((2 - sp.t_low) / sp.s), Rational((sp.t_high + 1) / (1 - sp.s)));
     threshold = std::max(threshold, ceil_of(need) + 1);
   }
   ++count;  // the recurrence has Leighton's form
@@ -344,12 +351,13 @@ RuleOutcome divide(const Recurrence& r, const Bound& bound, const CertificateDat
               const CaseLine& at_arg = line_on_class(r.main, ctx, aff->first, aff->second);
               Linear inner;
               linearize(at_arg.body, 1, r.main.name, inner);
-              lhs = add(lhs, scale(driver_of(inner, ctx, aff->first, aff->second), Coef::of(call.a)));
+              lhs =
+                  add(lhs, scale(driver_of(inner, ctx, aff->first, aff->second), Coef::of(call.a)));
             }
             Expansion slack = add(scale(driver_of(lin, ctx), Coef::of(rc)), negate(lhs));
             require(slack, from,
-                    "regularity: a f(n/b) <= " + to_string(rc) + " f(n) for every n >= " + from.str() +
-                        class_name(ctx),
+                    "regularity: a f(n/b) <= " + to_string(rc) +
+                        " f(n) for every n >= " + from.str() + class_name(ctx),
                     here);
           },
           from, &r.helpers, count);
@@ -363,13 +371,16 @@ RuleOutcome divide(const Recurrence& r, const Bound& bound, const CertificateDat
     Coef sum = Coef::of(Rational(-1));
     for (const Split& sp : splits) {
       Coef term = rational_power(sp.s, x);
-      Coef scaled = term.exact ? Coef::of(*term.exact * sp.a) : Coef::of(term.enclose() * Interval(sp.a, kPrecision));
-      sum = sum.exact && scaled.exact ? Coef::of(*sum.exact + *scaled.exact) : Coef::of(sum.enclose() + scaled.enclose());
+      Coef scaled = term.exact ? Coef::of(*term.exact * sp.a)
+                               : Coef::of(term.enclose() * Interval(sp.a, kPrecision));
+      sum = sum.exact && scaled.exact ? Coef::of(*sum.exact + *scaled.exact)
+                                      : Coef::of(sum.enclose() + scaled.enclose());
     }
     if (sum.exact) return *sum.exact == 0 ? 0 : (*sum.exact > 0 ? 1 : -1);
     if (sum.range->certainly_positive()) return 1;
     if (sum.range->certainly_negative()) return -1;
-    throw Unsupported("whether the critical exponent equals " + x.str() + " cannot be decided exactly");
+    throw Unsupported("whether the critical exponent equals " + x.str() +
+                      " cannot be decided exactly");
   };
   // sign(S(x) - 1) > 0 means x < p.
   const RealNumber q = d.key.alpha;
@@ -379,11 +390,15 @@ RuleOutcome divide(const Recurrence& r, const Bound& bound, const CertificateDat
   if (c.proof.rfind("master theorem, case ", 0) == 0) named_case = c.proof[21] - '0';
   int actual_case = q_vs_p < 0 ? 1 : (q_vs_p == 0 ? 2 : 3);
   if (named_case != 0 && named_case != actual_case)
-    throw Rejected{"the certificate names case " + std::to_string(named_case) + ", but the driver n^" + q.str() +
-                   (q_vs_p < 0 ? " grows slower than" : q_vs_p == 0 ? " matches" : " grows faster than") +
+    throw Rejected{"the certificate names case " + std::to_string(named_case) +
+                   ", but the driver n^" + q.str() +
+                   (q_vs_p < 0    ? " grows slower than"
+                    : q_vs_p == 0 ? " matches"
+                                  : " grows faster than") +
                    " n^p (case " + std::to_string(actual_case) + ")"};
   ++count;
-  Key claimed = leading_key(expand(*bound.growth, Context{BigInt(16), 1, 0, nullptr}), "the claimed bound");
+  Key claimed =
+      leading_key(expand(*bound.growth, Context{BigInt(16), 1, 0, nullptr}), "the claimed bound");
   // Compare the conclusion with the claim: -1, 0, +1 as conclusion <, =, > claimed.
   int order;
   std::string conclusion;
@@ -403,11 +418,12 @@ RuleOutcome divide(const Recurrence& r, const Bound& bound, const CertificateDat
       order = c_vs_p != 0 ? -c_vs_p : (claimed.beta == 0 ? 0 : (claimed.beta > 0 ? -1 : 1));
     }
   }
-  bool holds = bound.kind == BoundKind::kTheta   ? order == 0
+  bool holds = bound.kind == BoundKind::kTheta  ? order == 0
                : bound.kind == BoundKind::kBigO ? order <= 0
-                                                 : order >= 0;
+                                                : order >= 0;
   if (!holds)
-    throw Rejected{"Akra–Bazzi gives Θ(" + conclusion + "), which does not establish " + bound.text()};
+    throw Rejected{"Akra–Bazzi gives Θ(" + conclusion + "), which does not establish " +
+                   bound.text()};
   ++count;
   out.status = RuleStatus::kRechecked;
   return out;
@@ -442,12 +458,15 @@ RuleOutcome subtract(const Recurrence& r, const Bound& bound, const CertificateD
   // T(n) = T(n0) + sum of f over n0 < j <= n, j ≡ n (mod c): Θ(n g(n)) for
   // g = n^q lg^k n with q >= 0 (the sum of a regularly growing function).
   Key t{1, d.key.alpha + RealNumber(1L), d.key.beta};
-  Key claimed = leading_key(expand(*bound.growth, Context{BigInt(16), 1, 0, nullptr}), "the claimed bound");
+  Key claimed =
+      leading_key(expand(*bound.growth, Context{BigInt(16), 1, 0, nullptr}), "the claimed bound");
   int order = compare_keys(t, claimed);
-  bool holds = bound.kind == BoundKind::kTheta   ? order == 0
+  bool holds = bound.kind == BoundKind::kTheta  ? order == 0
                : bound.kind == BoundKind::kBigO ? order <= 0
-                                                 : order >= 0;
-  if (!holds) throw Rejected{"the sum gives Θ(" + key_text(t) + "), which does not establish " + bound.text()};
+                                                : order >= 0;
+  if (!holds)
+    throw Rejected{"the sum gives Θ(" + key_text(t) + "), which does not establish " +
+                   bound.text()};
   ++count;
   out.status = RuleStatus::kRechecked;
   return out;
@@ -471,7 +490,8 @@ std::vector<SideProof> sides_of(const Bound& bound, const CertificateData& c) {
   parts.push_back(text);
   for (const std::string& part : parts) {
     size_t space = part.find(' ');
-    if (space == std::string::npos) throw Rejected{"the hypothesis '" + c.hypothesis + "' has no relation"};
+    if (space == std::string::npos)
+      throw Rejected{"the hypothesis '" + c.hypothesis + "' has no relation"};
     std::string op = part.substr(0, space);
     ExprPtr e = parse_text(part.substr(space + 1), "hypothesis");
     bool upper = op == "<=" || op == "<" || op == "=";
@@ -486,8 +506,10 @@ std::vector<SideProof> sides_of(const Bound& bound, const CertificateData& c) {
       out.push_back({Side::kLower, bound.lower, bound.strict_lower, e});
     }
   }
-  if ((bound.upper && std::none_of(out.begin(), out.end(), [](auto& s) { return s.side == Side::kUpper; })) ||
-      (bound.lower && std::none_of(out.begin(), out.end(), [](auto& s) { return s.side == Side::kLower; })))
+  if ((bound.upper &&
+       std::none_of(out.begin(), out.end(), [](auto& s) { return s.side == Side::kUpper; })) ||
+      (bound.lower &&
+       std::none_of(out.begin(), out.end(), [](auto& s) { return s.side == Side::kLower; })))
     throw Rejected{"the certificate does not cover every side of the claim"};
   return out;
 }
@@ -504,8 +526,9 @@ void require_range(SmallEvaluator& eval, const SideProof& sp, const ExprPtr& e, 
     int sign = eval.sign_of_difference(t, b);
     if (sp.side == Side::kLower) sign = -sign;
     if (sign > 0 || (sp.strict && sign == 0))
-      throw Rejected{"T(n) " + std::string(op) + " " + print(*e) + " for " + lo.str() + " <= n <= " + hi.str() +
-                     " fails at n = " + n.str() + ": T(n) = " + t.str() + ", bound " + b.str()};
+      throw Rejected{"T(n) " + std::string(op) + " " + print(*e) + " for " + lo.str() +
+                     " <= n <= " + hi.str() + " fails at n = " + n.str() + ": T(n) = " + t.str() +
+                     ", bound " + b.str()};
   }
   ++count;
 }
@@ -518,7 +541,8 @@ RuleOutcome induction(const Recurrence& r, const Bound& bound, const Certificate
   if (!r.class_terms.empty()) throw Unsupported("a growth class written inside the recurrence");
   BigInt m = parse_size(c.checked_to, "end of the exact range");
   BigInt modulus = parse_size(c.modulus, "modulus");
-  if (modulus < 1 || modulus > 4096) throw Rejected{"the modulus " + modulus.str() + " is out of range"};
+  if (modulus < 1 || modulus > 4096)
+    throw Rejected{"the modulus " + modulus.str() + " is out of range"};
   uint64_t L = static_cast<uint64_t>(modulus);
   BigInt from = m + 1;
   if (from < 4) throw Rejected{"the step must start at n >= 4"};
@@ -532,7 +556,8 @@ RuleOutcome induction(const Recurrence& r, const Bound& bound, const Certificate
       const CaseLine& line = line_on_class(r.main, ctx);
       Linear lin;
       linearize(line.body, 1, r.main.name, lin);
-      if (sp.strict && lin.calls.empty()) throw Rejected{"a strict bound needs a recursive term" + where};
+      if (sp.strict && lin.calls.empty())
+        throw Rejected{"a strict bound needs a recursive term" + where};
       Expansion hyp_at_n = expand(*sp.carried, ctx);
       Expansion rhs = driver_of(lin, ctx);
       BigInt first = from + floor_mod(BigInt(res) - from, modulus);
@@ -540,27 +565,32 @@ RuleOutcome induction(const Recurrence& r, const Bound& bound, const Certificate
         if (call.a <= 0) throw Rejected{"a recursive term with a coefficient <= 0" + where};
         auto aff = as_affine(expand(*make_call("floor", {call.arg}), ctx));
         if (!aff)
-          throw Rejected{"the argument " + print(*call.arg) + " is not exact modulo " + modulus.str() + where};
+          throw Rejected{"the argument " + print(*call.arg) + " is not exact modulo " +
+                         modulus.str() + where};
         auto [s, t] = *aff;
         if (s <= 0 || s > 1 || (1 - s) * Rational(first) - t <= 0)
-          throw Rejected{"the argument " + print(*call.arg) + " does not shrink for n > " + m.str() + where};
+          throw Rejected{"the argument " + print(*call.arg) + " does not shrink for n > " +
+                         m.str() + where};
         Rational low = s * Rational(first) + t;
-        if (denominator(low) != 1 || low < 0) throw Rejected{"the argument " + print(*call.arg) + " is not a size"};
+        if (denominator(low) != 1 || low < 0)
+          throw Rejected{"the argument " + print(*call.arg) + " is not a size"};
         lowest = std::min(lowest, numerator(low));
         rhs = add(rhs, scale(expand(*sp.carried, ctx, s, t), Coef::of(call.a)));
       }
       Expansion slack = add(hyp_at_n, negate(rhs));
       if (sp.side == Side::kLower) slack = negate(slack);
       require(slack, from,
-              std::string("step: ") + (sp.side == Side::kUpper ? "H(n) - (the right side with H)"
-                                                               : "(the right side with H) - H(n)") +
+              std::string("step: ") +
+                  (sp.side == Side::kUpper ? "H(n) - (the right side with H)"
+                                           : "(the right side with H) - H(n)") +
                   " >= 0 for every real n > " + m.str() + where + ", H(n) = " + print(*sp.carried),
               count);
       if (!same_tree(*sp.carried, *sp.claimed)) {
         Expansion inside = add(expand(*sp.claimed, ctx), negate(hyp_at_n));
         if (sp.side == Side::kLower) inside = negate(inside);
         require(inside, from,
-                print(*sp.carried) + " " + op + " " + print(*sp.claimed) + " for every n > " + m.str() + where,
+                print(*sp.carried) + " " + op + " " + print(*sp.claimed) + " for every n > " +
+                    m.str() + where,
                 count);
       }
     }
@@ -579,7 +609,8 @@ RuleOutcome check_certificate(const Recurrence& recurrence, const Bound& bound,
     if (certificate.method == "divide") return divide(recurrence, bound, certificate);
     if (certificate.method == "subtract") return subtract(recurrence, bound, certificate);
     if (certificate.method == "induction") return induction(recurrence, bound, certificate);
-    return {RuleStatus::kNotRechecked, "the method '" + certificate.method + "' has no rule in the re-checker", 0};
+    return {RuleStatus::kNotRechecked,
+            "the method '" + certificate.method + "' has no rule in the re-checker", 0};
   } catch (const Rejected& r) {
     return {RuleStatus::kRejected, r.why, 0};
   } catch (const Unsupported& u) {

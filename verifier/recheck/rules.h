@@ -33,8 +33,8 @@ enum class RuleStatus { kRechecked, kRejected, kNotRechecked };
 
 struct RuleOutcome {
   RuleStatus status = RuleStatus::kNotRechecked;
-  std::string detail;  // rejected: the first obligation that fails, with numbers;
-                       // not re-checked: what the checker cannot follow
+  std::string detail;   // rejected: the first obligation that fails, with numbers;
+                        // not re-checked: what the checker cannot follow
   int obligations = 0;  // obligations checked
 };
 

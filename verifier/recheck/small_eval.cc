@@ -21,13 +21,14 @@ int SmallEvaluator::sign_of_difference(const Value& a, const Value& b) const {
   try {
     return compare(a, b, ctx_);
   } catch (const PrecisionShortfall&) {
-    throw Unsupported("two values agree to " + std::to_string(ctx_.precision_bits) + " bits: " +
-                      a.str() + " and " + b.str());
+    throw Unsupported("two values agree to " + std::to_string(ctx_.precision_bits) +
+                      " bits: " + a.str() + " and " + b.str());
   }
 }
 
 Value SmallEvaluator::at(const BigInt& n) {
-  if (n < 0 || n > kLargestSize) throw Unsupported("T(" + n.str() + ") is beyond the re-checker's range");
+  if (n < 0 || n > kLargestSize)
+    throw Unsupported("T(" + n.str() + ") is beyond the re-checker's range");
   if (auto it = memo_.find(n); it != memo_.end()) return it->second;
   // Sizes are filled in ascending order, so a call T(n - 1) or T(n/2) finds
   // its value remembered and the recursion stays shallow.
@@ -80,7 +81,8 @@ Value SmallEvaluator::call_argument(const Expr& call, const Value& n,
   try {
     return canonical_integer(floor_value(v));
   } catch (const PrecisionShortfall&) {
-    throw Unsupported("the argument " + print(call) + " at n = " + n.str() + " is too close to a whole number");
+    throw Unsupported("the argument " + print(call) + " at n = " + n.str() +
+                      " is too close to a whole number");
   }
 }
 
@@ -137,7 +139,8 @@ Value SmallEvaluator::eval(const Expr& e, const Value& n, std::map<std::string, 
         return power(sub(0), sub(1), ctx_);
       case ExprKind::kSum: {
         Value lo = sub(0), hi = sub(1);
-        if (!lo.is_integer() || !hi.is_integer()) throw Unsupported("a sum with limits that are not whole");
+        if (!lo.is_integer() || !hi.is_integer())
+          throw Unsupported("a sum with limits that are not whole");
         BigInt k = lo.integer(), last = hi.integer();
         if (last - k > kMaxSumTerms) throw Unsupported("a sum too long for the re-checker");
         Value total(int64_t{0});
@@ -146,7 +149,10 @@ Value SmallEvaluator::eval(const Expr& e, const Value& n, std::map<std::string, 
           bound[e.name] = Value(k);
           total = add(total, eval(*e.args[2], n, bound, depth + 1), ctx_);
         }
-        if (saved) bound[e.name] = *saved; else bound.erase(e.name);
+        if (saved)
+          bound[e.name] = *saved;
+        else
+          bound.erase(e.name);
         return total;
       }
       case ExprKind::kCall:
@@ -182,7 +188,8 @@ Value SmallEvaluator::eval(const Expr& e, const Value& n, std::map<std::string, 
     std::map<std::string, Value> inner;
     return eval(*line.body, arg, inner, depth + 1);
   } catch (const PrecisionShortfall&) {
-    throw Unsupported("a value the re-checker's precision cannot decide: " + print(e) + " at n = " + n.str());
+    throw Unsupported("a value the re-checker's precision cannot decide: " + print(e) +
+                      " at n = " + n.str());
   } catch (const DomainError& error) {
     throw Unsupported(std::string(error.what()) + " in " + print(e) + " at n = " + n.str());
   }
