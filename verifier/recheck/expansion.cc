@@ -211,8 +211,12 @@ Coef rational_power(const Rational& s, const RealNumber& k) {
       h0 = h1, h1 = h2, k0 = k1, k1 = k2;
       if (k1 > BigInt(1000000)) break;
       Rational guess(h1, k1);
-      if (guess > 0 && RealNumber::log(Rational(2), guess) == k * RealNumber::log(Rational(2), s))
-        return Coef::of(guess);
+      // s^k = guess exactly iff log_s(guess) = k, both exact logarithms.
+      try {
+        if (guess > 0 && RealNumber::log(s, guess) == k) return Coef::of(guess);
+      } catch (const std::exception&) {
+        // Not decidable exactly: keep the enclosure.
+      }
       if (rest - a < 1e-12) break;
       rest = 1 / (rest - a);
     }

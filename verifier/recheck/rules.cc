@@ -615,6 +615,13 @@ RuleOutcome check_certificate(const Recurrence& recurrence, const Bound& bound,
     return {RuleStatus::kRejected, r.why, 0};
   } catch (const Unsupported& u) {
     return {RuleStatus::kNotRechecked, u.what(), 0};
+  } catch (const std::bad_alloc&) {
+    throw;
+  } catch (const std::exception& e) {
+    // A comparison the exact reals cannot decide, a domain error, a budget:
+    // the re-checker cannot follow, which is never an acceptance.
+    return {RuleStatus::kNotRechecked, std::string("the re-checker could not decide: ") + e.what(),
+            0};
   }
 }
 

@@ -1,0 +1,245 @@
+// The re-checker on whole reports (issue 20): it re-reads the claims,
+// refuses reports about another claim, and — a property over random
+// divide-and-conquer claims — accepts every true certificate and rejects
+// every mutant that makes one false.
+#include <gtest/gtest.h>
+#include <rapidcheck/gtest.h>
+
+#include <map>
+#include <nlohmann/json.hpp>
+#include <string>
+
+#include "verifier/model/claim.h"
+#include "verifier/recheck/recheck.h"
+
+namespace thetagate::engine::recheck {
+namespace {
+
+using Json = nlohmann::json;
+
+std::multimap<std::string, Claim> claims_of(const std::string& toml) {
+  std::multimap<std::string, Claim> out;
+  for (ClaimEntry& e : load_claim_text(toml, "orchard.toml")) {
+    EXPECT_TRUE(e.claim) << (e.error ? e.error->message : e.internal_error);
+    if (e.claim) out.emplace(e.name, *e.claim);
+  }
+  return out;
+}
+
+Json holds(const std::string& name, const std::string& claimed, Json certificate,
+           Json induction = nullptr) {
+  return Json{{"name", name},
+              {"file", "orchard.toml"},
+              {"verdict", "holds"},
+              {"claimed", claimed},
+              {"basis", {{"certificate", certificate}, {"induction", induction}}}};
+}
+
+std::vector<RecheckedClaim> recheck_json(const Json& claims,
+                                         const std::multimap<std::string, Claim>& table) {
+  Json report{{"schema_version", 3}, {"seed", 1}, {"claims", claims}};
+  return recheck_report(report.dump(), "<test>.json", table).claims;
+}
+
+const char* kOrchard = R"toml([[claim]]
+name = "orchard::merge_rows / comparisons"
+recurrence = """
+T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1
+T(1) = 0
+"""
+bound = "Theta(n lg n)"
+
+[[claim]]
+name = "orchard::merge_rows / comparisons, at most"
+recurrence = """
+T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1
+T(1) = 0
+"""
+bound = "T(n) <= 2 n lg n for n >= 2"
+
+[[claim]]
+name = "orchard::prune / work"
+recurrence = """
+T(n) = T(n/2) + f(n)
+T(1) = 1
+f(n) = n^2 if n even
+f(n) = n^2/8
+"""
+bound = "Theta(n^2)"
+)toml";
+
+Json divide_certificate(const std::string& proof, const std::string& g, const std::string& low,
+                        const std::string& high) {
+  return Json{{"method", "divide"},          {"proof", proof},      {"driver_class", g},
+              {"driver_low", low},           {"driver_high", high}, {"driver_from", "64"},
+              {"obligations", Json::array()}};
+}
+
+TEST(RecheckReport, EachHoldsIsAnsweredFromTheClaimFile) {
+  auto table = claims_of(kOrchard);
+  Json parity = divide_certificate("master theorem, case 3", "n^2", "1/8", "1");
+  parity["regularity_c"] = "1/2";
+  parity["regularity_from"] = "64";
+  Json claims = Json::array(
+      {holds("orchard::merge_rows / comparisons", "Theta(n lg n)",
+             divide_certificate("master theorem, case 2", "n", "1/2", "1")),
+       holds("orchard::merge_rows / comparisons, at most", "T(n) <= 2 n lg n for n >= 2",
+             Json{{"method", "induction"}, {"proof", "induction"}},
+             Json{{"sides", {"upper"}},
+                  {"bound", "<= 2n*lg(n)"},
+                  {"checked_to", "130"},
+                  {"modulus", 2}}),
+       holds("orchard::prune / work", "Theta(n^2)", parity)});
+  claims.push_back(Json{{"name", "orchard::prune / work"}, {"verdict", "refuted"}});
+  auto out = recheck_json(claims, table);
+  ASSERT_EQ(out.size(), 3u);  // the refuted one is not re-checked
+  EXPECT_EQ(out[0].status, RuleStatus::kRechecked) << out[0].detail;
+  EXPECT_EQ(out[1].status, RuleStatus::kRechecked) << out[1].detail;
+  // The false regularity statement of the parity driver (issue 20, §3).
+  EXPECT_EQ(out[2].status, RuleStatus::kRejected);
+  EXPECT_NE(out[2].detail.find("n ≡ 1 (mod 4)"), std::string::npos) << out[2].detail;
+  EXPECT_EQ(status_line(out[0]).rfind("re-checked (", 0), 0u) << status_line(out[0]);
+}
+
+TEST(RecheckReport, AReportAboutAnotherClaimIsRejected) {
+  auto table = claims_of(kOrchard);
+  auto out = recheck_json(
+      Json::array({holds("orchard::merge_rows / comparisons", "O(n)",
+                         divide_certificate("master theorem, case 2", "n", "1/2", "1")),
+                   holds("orchard::no_such_claim", "O(n)",
+                         divide_certificate("master theorem, case 2", "n", "1/2", "1"))}),
+      table);
+  ASSERT_EQ(out.size(), 2u);
+  EXPECT_EQ(out[0].status, RuleStatus::kRejected);
+  EXPECT_NE(out[0].detail.find("differs from the claim file"), std::string::npos) << out[0].detail;
+  EXPECT_EQ(out[1].status, RuleStatus::kRejected);
+}
+
+TEST(RecheckReport, AHoldsWithoutACertificateIsNotReChecked) {
+  auto table = claims_of(kOrchard);
+  Json c = holds("orchard::merge_rows / comparisons", "Theta(n lg n)", nullptr);
+  c["proof"] = "linear recurrence, dominant characteristic root";
+  auto out = recheck_json(Json::array({c}), table);
+  ASSERT_EQ(out.size(), 1u);
+  EXPECT_EQ(out[0].status, RuleStatus::kNotRechecked);
+  EXPECT_NE(out[0].detail.find("no certificate"), std::string::npos);
+}
+
+TEST(RecheckReport, NotAReportIsAnInputError) {
+  auto table = claims_of(kOrchard);
+  EXPECT_THROW(recheck_report("[1, 2", "<test>.json", table), InputError);
+  EXPECT_THROW(recheck_report("{\"claims\": 3}", "<test>.json", table), InputError);
+}
+
+// --- Mutants ---------------------------------------------------------------
+
+// T(n) = a T(n/b) + c n^k with T(n) = 1 below b: the master theorem with a
+// true certificate (f = c n^k exactly, so low = high = c).
+struct DivideClaim {
+  int a, b, c, k;
+  std::string recurrence() const {
+    return "T(n) = " + std::to_string(a) + "T(n/" + std::to_string(b) + ") + " + std::to_string(c) +
+           "*n^" + std::to_string(k) + "\nT(n) = 1 if n < " + std::to_string(b);
+  }
+  // The class: log_b a against k (common practice: a < b^k case 3, = case 2, > case 1).
+  int which_case() const {
+    long long bk = 1;
+    for (int i = 0; i < k; ++i) bk *= b;
+    return a < bk ? 3 : (a == bk ? 2 : 1);
+  }
+  std::string bound() const {
+    std::string nk = "n^" + std::to_string(k);
+    switch (which_case()) {
+      case 3:
+        return "Theta(" + nk + ")";
+      case 2:
+        return "Theta(" + nk + " lg n)";
+      default:
+        return "Theta(n^(log(" + std::to_string(b) + ", " + std::to_string(a) + ")))";
+    }
+  }
+};
+
+RuleOutcome check(const DivideClaim& d, const std::string& bound, const CertificateData& c) {
+  auto r = recurrence_from_text(d.recurrence());
+  return check_certificate(*r, parse_bound(SourceText::whole("<bound>", bound)), c);
+}
+
+CertificateData truthful(const DivideClaim& d) {
+  CertificateData c;
+  c.method = "divide";
+  c.proof = "master theorem, case " + std::to_string(d.which_case());
+  c.driver_class = "n^" + std::to_string(d.k);
+  c.driver_low = std::to_string(d.c);
+  c.driver_high = std::to_string(d.c);
+  c.driver_from = "64";
+  return c;
+}
+
+RC_GTEST_PROP(RecheckMutants, TrueCertificatesPassAndEveryMutantIsRejected, ()) {
+  DivideClaim d{*rc::gen::inRange(1, 17), *rc::gen::inRange(2, 5), *rc::gen::inRange(1, 9),
+                *rc::gen::inRange(0, 4)};
+  RC_TAG(d.which_case());
+  CertificateData good = truthful(d);
+  RuleOutcome ok = check(d, d.bound(), good);
+  RC_ASSERT(ok.status == RuleStatus::kRechecked);
+
+  // One number changed past the truth: a lower constant above c, an upper
+  // one below it.
+  int bump = *rc::gen::inRange(1, 5);
+  CertificateData low = good;
+  low.driver_low = std::to_string(d.c) + "+" + std::to_string(bump) + "/8";
+  RC_ASSERT(check(d, d.bound(), low).status == RuleStatus::kRejected);
+  CertificateData high = good;
+  high.driver_high = std::to_string(d.c) + "-" + std::to_string(bump) + "/16";
+  RC_ASSERT(check(d, d.bound(), high).status == RuleStatus::kRejected);
+  // Another driver exponent.
+  CertificateData exponent = good;
+  exponent.driver_class = "n^" + std::to_string(d.k + 1);
+  RC_ASSERT(check(d, d.bound(), exponent).status == RuleStatus::kRejected);
+  // A swapped case.
+  CertificateData swapped = good;
+  swapped.proof = "master theorem, case " + std::to_string(d.which_case() % 3 + 1);
+  RuleOutcome s = check(d, d.bound(), swapped);
+  RC_ASSERT(s.status == RuleStatus::kRejected);
+  // A claim one class off, with the same certificate.
+  std::string off = "Theta(n^" + std::to_string(d.k + 3) + " lg n)";
+  RC_ASSERT(check(d, off, good).status == RuleStatus::kRejected);
+  // A regularity constant that is too small (case 3 only): a/b^k <= c must hold.
+  if (d.which_case() == 3) {
+    CertificateData reg = good;
+    reg.regularity_c = "1/" + std::to_string(100 * d.b * d.b * d.b * d.b);
+    reg.regularity_from = "64";
+    RC_ASSERT(check(d, d.bound(), reg).status == RuleStatus::kRejected);
+  }
+}
+
+// Induction: T(n) = T(floor(n/2)) + T(ceil(n/2)) + n - 1 <= 2 n lg n; the
+// mutants shrink the modulus, weaken the hypothesis below the truth, or
+// claim what the step cannot carry.
+RC_GTEST_PROP(RecheckMutants, InductionMutantsAreRejected, ()) {
+  auto r = recurrence_from_text("T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1\nT(1) = 0");
+  Bound b = parse_bound(SourceText::whole("<bound>", "T(n) <= 2 n lg n for n >= 2"));
+  CertificateData c;
+  c.method = "induction";
+  c.sides = {"upper"};
+  c.hypothesis = "<= 2n*lg(n)";
+  c.checked_to = std::to_string(*rc::gen::inRange(64, 300));
+  c.modulus = "2";
+  RC_ASSERT(check_certificate(*r, b, c).status == RuleStatus::kRechecked);
+  CertificateData one = c;
+  one.modulus = "1";
+  RC_ASSERT(check_certificate(*r, b, one).status == RuleStatus::kRejected);
+  // n lg n - n + 1 is the exact worst case at powers of two (common practice):
+  // a hypothesis below it fails.
+  CertificateData tight = c;
+  int shift = *rc::gen::inRange(1, 40);
+  tight.hypothesis = "<= n*lg(n) - n + 1 - " + std::to_string(shift) + "/1000";
+  RC_ASSERT(check_certificate(*r, b, tight).status == RuleStatus::kRejected);
+  CertificateData above = c;
+  above.hypothesis = "<= 3n*lg(n)";  // true of T, but not inside the claim
+  RC_ASSERT(check_certificate(*r, b, above).status == RuleStatus::kRejected);
+}
+
+}  // namespace
+}  // namespace thetagate::engine::recheck
