@@ -1,0 +1,131 @@
+#include "verifier/checking/shard.h"
+
+#include <algorithm>
+#include <cstdio>
+#include <numeric>
+
+namespace thetagate::engine {
+namespace {
+
+// FNV-1a, 64 bits: stable across machines and compilers (std::hash is not).
+uint64_t fnv1a(const std::string& text, uint64_t h = 14695981039346656037ull) {
+  for (unsigned char c : text) {
+    h ^= c;
+    h *= 1099511628211ull;
+  }
+  return h;
+}
+
+// A final mix, so that neighbouring inputs give unrelated ranks.
+uint64_t mix(uint64_t x) {
+  x ^= x >> 33;
+  x *= 0xff51afd7ed558ccdull;
+  x ^= x >> 33;
+  x *= 0xc4ceb9fe1a85ec53ull;
+  x ^= x >> 33;
+  return x;
+}
+
+std::string identity(const ClaimEntry& e) {
+  // Names are unique in a run; an entry whose name could not be read is
+  // known by its place.
+  if (!e.name.empty()) return e.name;
+  return e.where.file + ":" + std::to_string(e.where.line);
+}
+
+[[noreturn]] void bad_shard(const std::string& text) {
+  throw InputError(Diagnostic{Location{"<command line>", 1, 1},
+                              "--shard takes K/N with 1 <= K <= N <= 1024, not '" + text + "'",
+                              "for the second of three machines: --shard 2/3", text});
+}
+
+}  // namespace
+
+ShardSpec parse_shard(const std::string& text) {
+  unsigned long long k = 0, n = 0;
+  char rest = 0;
+  if (std::sscanf(text.c_str(), "%llu/%llu%c", &k, &n, &rest) != 2) bad_shard(text);
+  if (text.find_first_not_of("0123456789/") != std::string::npos) bad_shard(text);
+  if (n < 1 || n > 1024 || k < 1 || k > n) bad_shard(text);
+  return ShardSpec{k, n};
+}
+
+double expected_cost(const ClaimEntry& entry, const CheckOptions& options) {
+  if (!entry.claim) return 0.01;  // an error entry costs next to nothing
+  const Claim& c = *entry.claim;
+  double effort = static_cast<double>(options.effort) * static_cast<double>(c.sizes.effort);
+  double bits = static_cast<double>(options.max_bits.value_or(c.sizes.max_bits.value_or(4096)));
+  Rounding rounding = options.rounding.value_or(c.rounding.value_or(Rounding::kFloor));
+  double readings = rounding == Rounding::kBoth ? 2 : 1;
+  return effort * std::max(bits / 4096.0, 1.0 / 16) * readings;
+}
+
+std::vector<uint64_t> assign_shards(const std::vector<ClaimEntry>& entries,
+                                    const CheckOptions& options, uint64_t count) {
+  std::vector<uint64_t> shard(entries.size(), 1);
+  if (count <= 1) return shard;
+  std::vector<double> cost(entries.size());
+  std::vector<uint64_t> key(entries.size());
+  double total = 0, largest = 0;
+  for (size_t i = 0; i < entries.size(); ++i) {
+    cost[i] = expected_cost(entries[i], options);
+    key[i] = mix(fnv1a(identity(entries[i])));
+    total += cost[i];
+    largest = std::max(largest, cost[i]);
+  }
+  double cap = std::max(1.25 * total / static_cast<double>(count), largest);
+  std::vector<size_t> order(entries.size());
+  std::iota(order.begin(), order.end(), 0);
+  std::sort(order.begin(), order.end(), [&](size_t a, size_t b) {
+    return key[a] != key[b] ? key[a] < key[b] : identity(entries[a]) < identity(entries[b]);
+  });
+  std::vector<double> load(count + 1, 0);
+  for (size_t i : order) {
+    std::vector<uint64_t> ranking(count);
+    std::iota(ranking.begin(), ranking.end(), 1);
+    std::sort(ranking.begin(), ranking.end(), [&](uint64_t a, uint64_t b) {
+      uint64_t ra = mix(key[i] ^ mix(a)), rb = mix(key[i] ^ mix(b));
+      return ra != rb ? ra > rb : a < b;
+    });
+    uint64_t chosen = ranking.front();
+    bool placed = false;
+    for (uint64_t s : ranking) {
+      if (load[s] + cost[i] <= cap) {
+        chosen = s;
+        placed = true;
+        break;
+      }
+    }
+    if (!placed) {
+      for (uint64_t s : ranking)
+        if (load[s] < load[chosen]) chosen = s;
+    }
+    load[chosen] += cost[i];
+    shard[i] = chosen;
+  }
+  return shard;
+}
+
+std::string run_digest(const std::vector<ClaimEntry>& entries, const CheckOptions& options) {
+  // Each claim by name and text: a shard from another version of the claim
+  // files differs.
+  std::vector<std::string> names;
+  for (const ClaimEntry& e : entries) {
+    std::string text = identity(e);
+    if (e.claim) text += '\x1f' + e.claim->recurrence->text() + '\x1f' + e.claim->bound.text();
+    names.push_back(text);
+  }
+  std::sort(names.begin(), names.end());
+  uint64_t h = fnv1a("thetagate run");
+  for (const std::string& n : names) h = fnv1a(n + '\n', h);
+  std::string opts = std::to_string(options.seed) + "/" + std::to_string(options.effort) + "/" +
+                     (options.max_bits ? std::to_string(*options.max_bits) : "-") + "/" +
+                     (options.rounding ? rounding_name(*options.rounding) : "-") + "/" +
+                     (options.clock_limit ? std::to_string(*options.clock_limit) : "-");
+  h = fnv1a(opts, h);
+  char text[17];
+  std::snprintf(text, sizeof text, "%016llx", static_cast<unsigned long long>(h));
+  return text;
+}
+
+}  // namespace thetagate::engine
