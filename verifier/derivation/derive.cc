@@ -232,6 +232,9 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
   input.shape = &shape;
   input.helpers = &recurrence.helpers;
   classify_driving(shape, recurrence, input);
+  d.driving = input.driving;
+  d.driving_is_class = input.driving_is_class;
+  d.driving_one_sided = input.driving_one_sided;
   // Exact values of T and f, for the theorems that look at numbers. Not
   // when the recurrence has a class term: its values are one member's, and a
   // theorem that solves with them (a linear recurrence's initial values and
@@ -306,6 +309,8 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
       d.growth = o.growth;
       d.method = o.method;
       d.steps = o.steps;
+      d.theorem = o.theorem;
+      d.regularity = o.regularity;
     } else if (compare(*d.growth, *o.growth) != 0) {
       // Two theorems whose hypotheses both hold cannot disagree: one of them is wrong.
       throw InternalError("", d.method + " gives Θ(" + to_string(*d.growth) + ") but " + o.method +

@@ -29,6 +29,15 @@ struct Derivation {
   // (by comparison with drivers that bound f): T(n) = O(*upper) and/or
   // Ω(*lower); method and steps are then that bound's. Empty with growth.
   std::optional<GrowthClass> upper, lower;
+  // What the theorems were told about f, and which theorem derived the Θ
+  // class ("master theorem", "Akra–Bazzi", ...; "" when none did): the facts
+  // a proof certificate starts from (verifier/derivation/certificate.h).
+  std::string theorem;
+  Classification driving;
+  bool driving_is_class = false;   // f holds growth classes written as terms
+  bool driving_one_sided = false;  // f has O or Ω terms
+  // The applying theorem's case 3 rests on this regularity bound on f itself.
+  std::optional<RegularityBound> regularity;
 
   bool derived_class() const { return growth.has_value(); }
   bool one_sided() const { return !growth && (upper || lower); }

@@ -89,6 +89,7 @@ RegularityFacts regularity_facts(const DerivationInput& input, const Rational& a
   if (std::optional<RegularityBound> bound =
           prove_regularity(*s.driving, a, scale, input.helpers)) {
     std::string c = to_string(bound->c);
+    facts.bound = bound;
     facts.proved =
         "a f(floor(n/b)) <= (" + c + ") f(n) for every n >= " + bound->from.str() +
         ", proved for f itself with certified expansions" +
@@ -238,6 +239,7 @@ TheoremOutcome master_on_class(const Rational& a, const Rational& divisor, const
       out.steps.push_back("regularity: f(n) ~ C·" + to_string(f) + " with C > 0, so " + tends("f"));
     } else if (!facts.proved.empty()) {
       out.steps.push_back("regularity: " + facts.proved);
+      out.regularity = facts.bound;
     } else {
       // No regularity claimed for f: T is squeezed between two recurrences
       // whose drivers are constant multiples of g, each regular.

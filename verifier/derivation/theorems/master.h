@@ -18,6 +18,8 @@ struct RegularityFacts {
   // When not equivalent: a regularity bound proved on f itself
   // ("a f(floor(n/2)) <= (3/4) f(n) for every n >= 64, ..."), or empty.
   std::string proved;
+  // The bound `proved` states, as data.
+  std::optional<RegularityBound> bound;
   // When not equivalent and not proved: the infinite family on which
   // regularity fails, as a sentence, or empty when none was found.
   std::string fails;

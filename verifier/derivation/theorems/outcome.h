@@ -10,6 +10,7 @@
 
 #include "verifier/derivation/classify.h"
 #include "verifier/derivation/growth.h"
+#include "verifier/derivation/regularity.h"
 #include "verifier/derivation/shape.h"
 #include "verifier/numbers/value.h"
 
@@ -27,6 +28,9 @@ struct TheoremOutcome {
   std::optional<GrowthClass> upper, lower;
   std::string bounds_method;
   std::vector<std::string> bounds_steps;
+  // Case 3 concluded through a regularity bound proved on f itself (not
+  // from the limit, not by comparison): that bound, for the certificate.
+  std::optional<RegularityBound> regularity;
 
   bool applies() const { return growth.has_value(); }
 };
