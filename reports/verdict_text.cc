@@ -225,12 +225,7 @@ std::string verdict_message(const ClaimResult& c) {
 std::string proof_name(const ClaimResult& c) {
   if (c.verdict != Verdict::kHolds) return "";
   const VerdictBasis& b = c.basis;
-  if (b.kind == BasisKind::kInduction && b.induction) {
-    const InductionProof& p = *b.induction;
-    std::string s = "induction from n = " + p.checked_to.str() + ": T(n) " + p.bound;
-    if (!p.strengthening.empty()) s += " (the claim strengthened by " + p.strengthening + ")";
-    return s;
-  }
+  if (b.kind == BasisKind::kInduction && b.induction) return induction_proof_name(*b.induction);
   if (b.kind == BasisKind::kDerivationAgrees && b.theorem) return b.theorem->method;
   return "";
 }

@@ -314,6 +314,17 @@ InductionOutcome Prover::run() {
           proof.identity = proof.identity && p.identity;
           const char* op = side == Side::kUpper ? (strict ? "<" : "<=") : (strict ? ">" : ">=");
           texts.push_back(std::string(op) + " " + print(*cand.bound));
+          InductionSideProof record;
+          record.side = side;
+          record.relation = op;
+          record.claimed = print(*claimed);
+          record.carried = print(*cand.bound);
+          record.claimed_from = start;
+          record.carried_from = lowest;
+          record.to = m;
+          record.modulus = modulus;
+          record.identity = p.identity;
+          proof.side_proofs.push_back(record);
           if (!cand.strengthening.empty()) proof.strengthening = cand.strengthening;
           m_used = m;
           proved = true;
@@ -347,6 +358,12 @@ InductionOutcome Prover::run() {
 }
 
 }  // namespace
+
+std::string induction_proof_name(const InductionProof& proof) {
+  std::string s = "induction from n = " + proof.checked_to.str() + ": T(n) " + proof.bound;
+  if (!proof.strengthening.empty()) s += " (the claim strengthened by " + proof.strengthening + ")";
+  return s;
+}
 
 InductionOutcome prove_by_induction(const InductionRequest& request) {
   Prover prover(request);

@@ -12,6 +12,21 @@
 
 namespace thetagate::engine {
 
+// One side of such a proof, as its certificate lists it (not in the JSON
+// report's `induction` object, which carries the proof's totals).
+struct InductionSideProof {
+  Side side = Side::kUpper;
+  std::string relation;   // "<=", "<", ">=" or ">"
+  std::string claimed;    // the claim's side B, printed
+  std::string carried;    // B' carried through the step, printed (B itself when not strengthened)
+  BigInt claimed_from;    // T(n) checked against B for claimed_from <= n <= to
+  BigInt carried_from;    // and against B' for carried_from <= n <= to, when strengthened
+  BigInt to;              // M of this side: the step is proved for every n > to
+  uint64_t modulus = 1;   // the step was proved per residue of n mod this
+  bool identity = false;  // the step's slack vanishes identically
+  bool strengthened() const { return carried != claimed; }
+};
+
 // A proof of an explicit bound by induction on n (the substitution method).
 struct InductionProof {
   std::vector<Side> sides;    // the sides proved
@@ -23,7 +38,12 @@ struct InductionProof {
   uint64_t tail_log2 = 0;     // beyond 2^tail_log2 the leading term of the slack dominates
   uint64_t blocks = 0;        // interval blocks between M and 2^tail_log2
   bool identity = false;      // the step's slack vanishes identically
+  std::vector<InductionSideProof> side_proofs;  // per side, in `sides` order
 };
+
+// The proof as reports name it: "induction from n = 65: T(n) <= 3*(n - 1)^lg(3)
+// (the claim strengthened by the shift n -> n - 1)".
+std::string induction_proof_name(const InductionProof& proof);
 
 }  // namespace thetagate::engine
 
