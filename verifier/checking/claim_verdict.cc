@@ -11,6 +11,7 @@
 
 #include "verifier/checking/claim_check.h"
 #include "verifier/checking/trend.h"
+#include "verifier/derivation/certificate.h"
 #include "verifier/derivation/classify.h"
 #include "verifier/derivation/induction.h"
 #include "verifier/derivation/shape.h"
@@ -94,6 +95,7 @@ void ClaimCheck::check_explicit(const std::vector<Size>& sizes) {
     result_.tight = tight;
     result_.basis.kind = BasisKind::kInduction;
     result_.basis.induction = induction.proof;
+    result_.basis.certificate = induction_certificate(*induction.proof);
     result_.basis.theorem = theorem;
     return;
   }
@@ -194,6 +196,8 @@ void ClaimCheck::check_asymptotic(const std::vector<Size>& sizes) {
       }
       result_.verdict = Verdict::kHolds;
       result_.basis.kind = BasisKind::kDerivationAgrees;
+      result_.basis.certificate =
+          theorem_certificate(*claim_.recurrence, *derivation_, options_.clock_limit);
       result_.tight = cmp.agreement == ClaimAgreement::kAgree;
       result_.witnesses.clear();
       return;
@@ -249,6 +253,7 @@ bool ClaimCheck::try_direct_bound() {
   result_.method = "induction";
   result_.basis.kind = BasisKind::kInduction;
   result_.basis.induction = induction.proof;
+  result_.basis.certificate = induction_certificate(*induction.proof);
   result_.witnesses.clear();
   return true;
 }

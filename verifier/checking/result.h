@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "thetagate/version.h"
+#include "verifier/derivation/certificate.h"
 #include "verifier/derivation/induction_proof.h"
 #include "verifier/model/bound.h"
 #include "verifier/model/claim.h"
@@ -142,6 +143,12 @@ struct VerdictBasis {
       detail;  // the decisive fact in the deciding stage's words (a failed hypothesis, a limit)
   std::optional<TheoremEvidence> theorem;
   std::optional<InductionProof> induction;
+  // For holds by the master theorem, Akra–Bazzi, subtract-and-conquer with
+  // a = 1 or induction: the data an independent checker re-verifies the
+  // proof from; unset for every other verdict and proof, and where the
+  // driver is not between constant multiples of one class
+  // (verifier/derivation/certificate.h says which).
+  std::optional<Certificate> certificate;
   std::optional<TrendEvidence> trend;
   std::vector<EdgeDisagreement> disagreement;  // kInternalInconsistency
   // rounding = both: the reading the verdict comes from ("floor", "ceil",

@@ -1,0 +1,67 @@
+// Proof certificates: what a `holds` rests on, as data an independent
+// checker re-verifies from the claim's own recurrence and bound without
+// running the prover (docs/design.md, "Proofs"; the JSON report's
+// basis.certificate, docs/json-schema.md).
+#ifndef THETAGATE_VERIFIER_DERIVATION_CERTIFICATE_H_
+#define THETAGATE_VERIFIER_DERIVATION_CERTIFICATE_H_
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "verifier/derivation/derive.h"
+#include "verifier/derivation/growth.h"
+#include "verifier/derivation/induction_proof.h"
+#include "verifier/model/recurrence.h"
+
+namespace thetagate::engine {
+
+struct Certificate {
+  std::string method;  // "divide", "subtract" or "induction"
+  std::string proof;   // the proof as the report names it: "master theorem, case 2"
+  // divide and subtract: the driving function f (the non-recursive part of
+  // T's recursive line; every line's body when f is given by case lines or
+  // by a helper with case lines) lies between driver_low·g(n) and
+  // driver_high·g(n) for every integer n >= driver_from, g = driver_class.
+  std::string driver_class;  // g in the claim language: "n", "n^2", "n*lg(n)", "1/n", "1"
+  std::string driver_low;    // positive rationals in decimal: "1/2", "3"
+  std::string driver_high;
+  std::string driver_from;  // a whole number in decimal
+  // Case 3 concluded through a regularity bound proved on f itself:
+  // a f(floor(n/b)) <= c f(n) for every n >= regularity_from. "" when unused.
+  std::string regularity_c;
+  std::string regularity_from;
+  // The proof's hypotheses, one statement each, in words and formulas:
+  // "f(n) >= (1/2) n for every n >= 64", "T(n) > 0 for 31 <= n <= 63", ...
+  std::vector<std::string> obligations;
+};
+
+// The certificate of a Θ class that the master theorem (any case, the
+// polylog extension, case 3 by comparison), Akra–Bazzi ("divide") or
+// subtract-and-conquer with a = 1 ("subtract") derived; nullopt for any
+// other method, and where f is not between constant multiples of one class
+// n^q lg^k n (q rational, k whole): f = 0, lg lg n factors, case lines of
+// different classes, growth classes written as terms (any member would do,
+// so no constants hold for all of them), f with no class. The constants are
+// found from exact or certified values of f/g at sizes from driver_from on
+// (a range, and 2^k, 2^k ± 1, 2^k ± 2, 3·2^k and b^k ± 1 up to 256 bits),
+// with a factor 2 of room each way. Evaluates f, g and T under its own small
+// budget; `clock_limit` as derive() takes it. Never throws for a valid model.
+// REQUIRES: derivation is derive(recurrence).
+std::optional<Certificate> theorem_certificate(const Recurrence& recurrence,
+                                               const Derivation& derivation,
+                                               std::optional<double> clock_limit = std::nullopt);
+
+// The certificate of a proof by induction: one obligation per exact check,
+// per residue class of each side's step, and per strengthened bound (B' <= B).
+Certificate induction_certificate(const InductionProof& proof);
+
+// g = n^alpha lg^beta n in the claim language ("n*lg(n)", "n^(1/2)",
+// "n/lg(n)", "1/n", "1"), text that parse_expression reads back; nullopt
+// when g is not of that form with alpha rational and beta whole (an
+// exponential factor, lg lg n, an irrational exponent).
+std::optional<std::string> driver_class_text(const GrowthClass& g);
+
+}  // namespace thetagate::engine
+
+#endif  // THETAGATE_VERIFIER_DERIVATION_CERTIFICATE_H_
