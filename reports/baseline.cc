@@ -126,8 +126,9 @@ class ReportReader {
     }
     expect_object(root, "");
     const Json& version = require(root, "", "schema_version");
-    // Version 2 only added keys (and made "holds" require a proof): a
-    // version-1 baseline compares just as well.
+    // Versions 2 and 3 only added keys (2 made "holds" require a proof, 3
+    // added the proof's certificate): a version-1 baseline compares just as
+    // well.
     if (!version.is_number_unsigned() || version.get<uint64_t>() < 1 ||
         version.get<uint64_t>() > kJsonSchemaVersion) {
       fail("schema_version", "schema_version " + version.dump() +
@@ -474,11 +475,31 @@ class ReportReader {
         b.disagreement.push_back(e);
       }
     }
+    if (const Json* c = optional_key(j, "certificate"); c && !c->is_null()) {
+      b.certificate = certificate(*c, join(path, "certificate"));
+    }
     b.reading = optional_string(j, path, "reading");
     if (const Json* other = optional_key(j, "other_reading"); other && !other->is_null()) {
       b.other_reading = verdict_value(*other, join(path, "other_reading"));
     }
     return b;
+  }
+
+  // A version-3 proof certificate. Drift does not compare certificates; it
+  // is read back so that a report reads back to the same bytes.
+  Certificate certificate(const Json& j, const std::string& path) {
+    expect_object(j, path);
+    Certificate c;
+    c.method = string_at(j, path, "method");
+    c.proof = string_at(j, path, "proof");
+    c.driver_class = optional_string(j, path, "driver_class");
+    c.driver_low = optional_string(j, path, "driver_low");
+    c.driver_high = optional_string(j, path, "driver_high");
+    c.driver_from = optional_string(j, path, "driver_from");
+    c.regularity_c = optional_string(j, path, "regularity_c");
+    c.regularity_from = optional_string(j, path, "regularity_from");
+    c.obligations = optional_strings(j, path, "obligations");
+    return c;
   }
 
   // The names the JSON writer gives these enums; any other text is an error.

@@ -9,10 +9,10 @@
 
 namespace thetagate::engine {
 
-// The RunResult a report of schema_version 1 or 2 (docs/json-schema.md) was
+// The RunResult a report of schema_version 1, 2 or 3 (docs/json-schema.md) was
 // rendered from. `display_name` (the baseline's path) locates errors.
 //
-// Required keys: top level `schema_version` (1 or 2), `seed`, `claims`;
+// Required keys: top level `schema_version` (1 to 3), `seed`, `claims`;
 // per claim the docs/design.md §6 keys `name`, `file`, `line`, `verdict`,
 // `claimed`, `derived`, `method`, `tight`, `witnesses`, `band`, `message`;
 // per witness `n`, `ratio`, `side`; per band row `scale`, `low`, `high`.

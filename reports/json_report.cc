@@ -69,6 +69,26 @@ Json edge_json(const EdgeReading& e) {
   return j;
 }
 
+// Schema version 3. The driver and regularity keys appear only where the
+// proof uses them (docs/json-schema.md, "Certificate").
+Json certificate_json(const std::optional<Certificate>& c) {
+  if (!c) return nullptr;
+  Json j;
+  j["method"] = c->method;
+  j["proof"] = c->proof;
+  for (const auto& [key, value] :
+       {std::pair<const char*, const std::string&>{"driver_class", c->driver_class},
+        {"driver_low", c->driver_low},
+        {"driver_high", c->driver_high},
+        {"driver_from", c->driver_from},
+        {"regularity_c", c->regularity_c},
+        {"regularity_from", c->regularity_from}}) {
+    if (!value.empty()) j[key] = value;
+  }
+  j["obligations"] = c->obligations;
+  return j;
+}
+
 Json basis_json(const VerdictBasis& b) {
   Json j;
   j["kind"] = basis_name(b.kind);
@@ -125,6 +145,7 @@ Json basis_json(const VerdictBasis& b) {
   }
   j["reading"] = b.reading;
   j["other_reading"] = b.other_reading ? Json(verdict_name(*b.other_reading)) : Json(nullptr);
+  j["certificate"] = certificate_json(b.certificate);
   return j;
 }
 

@@ -18,7 +18,7 @@ nlohmann::ordered_json band_row_to_json(const BandRow& r);
 
 // Version of the layout render_json writes; docs/json-schema.md says what
 // each version holds.
-inline constexpr int kJsonSchemaVersion = 2;
+inline constexpr int kJsonSchemaVersion = 3;
 
 // Pretty-printed JSON (2-space indent, keys in a fixed order, UTF-8 kept as
 // is, invalid UTF-8 replaced by U+FFFD), ending with a newline. Sizes and

@@ -341,6 +341,14 @@ std::string render_text(const RunResult& raw_run, const TextStyle& style) {
   Glossary glossary;
   for (const ClaimResult& c : run.claims) {
     out += claim_line(c, name_column, painter);
+    if (c.verdict == Verdict::kHolds && c.basis.certificate) {
+      // Under the proof the claim line names: what a checker re-verifies.
+      size_t count = c.basis.certificate->obligations.size();
+      out +=
+          kIndent +
+          painter.dim(fmt::format("certificate: {} obligation{}", count, count == 1 ? "" : "s")) +
+          "\n";
+    }
     if (c.verdict == Verdict::kHolds && c.code) {
       // A passing claim still says what its costs covered.
       std::string coverage = code_coverage(*c.code);

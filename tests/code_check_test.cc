@@ -226,7 +226,7 @@ TEST_F(CostsFile, EveryReportShowsTheMeasuredLink) {
       << text;
   EXPECT_NE(text.find("m.txt:2): counted cost 9 > T(n) = 8"), std::string::npos) << text;
   auto json = nlohmann::json::parse(render_json(run_));
-  EXPECT_EQ(json["schema_version"], 2);
+  EXPECT_EQ(json["schema_version"], 3);
   const auto& code = json["claims"][0]["code"];
   EXPECT_EQ(code["relation"], "upper bound");
   EXPECT_EQ(code["violations"][0]["line"], 2);

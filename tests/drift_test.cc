@@ -116,9 +116,9 @@ TEST(DriftBaseline, WrongTypeIsNamedAndLocatedAtTheValue) {
 
 TEST(DriftBaseline, RejectsOtherVersionsBadVerdictsAndBadSizes) {
   Diagnostic version =
-      diagnostic_of([] { read_json_report(R"({"schema_version": 3, "seed": 1, "claims": []})"); });
+      diagnostic_of([] { read_json_report(R"({"schema_version": 4, "seed": 1, "claims": []})"); });
   EXPECT_EQ(version.message,
-            "schema_version 3 is not one this thetagate reads (it reads versions 1 to 2)");
+            "schema_version 4 is not one this thetagate reads (it reads versions 1 to 3)");
   EXPECT_EQ(version.where.column, 20);
 
   Diagnostic missing = diagnostic_of([] { read_json_report(R"({"seed": 1, "claims": []})"); });

@@ -34,7 +34,7 @@ TEST(JsonReport, TopLevelKeysInOrder) {
   Json j = Json::parse(render_json(sample_run()));
   EXPECT_EQ(keys_of(j),
             (std::vector<std::string>{"schema_version", "tool_version", "seed", "claims"}));
-  EXPECT_EQ(j["schema_version"], 2);
+  EXPECT_EQ(j["schema_version"], 3);
   EXPECT_EQ(j["seed"], 20240611u);
   EXPECT_EQ(j["claims"].size(), 6u);
 }
@@ -157,7 +157,7 @@ TEST(JsonReport, InvalidUtf8IsReplacedNotThrown) {
 
 TEST(JsonReport, PrettyPrintedWithTwoSpacesAndFinalNewline) {
   std::string text = render_json(sample_run());
-  EXPECT_EQ(text.substr(0, 24), "{\n  \"schema_version\": 2,");
+  EXPECT_EQ(text.substr(0, 24), "{\n  \"schema_version\": 3,");
   EXPECT_EQ(text.back(), '\n');
 }
 

@@ -29,6 +29,18 @@ inline ClaimResult stable_sort() {
   c.basis.kind = BasisKind::kDerivationAgrees;
   c.basis.theorem = TheoremEvidence{"master theorem, case 2", "n lg n",         "n lg n",
                                     ComparedWith::kTheta,     Agreement::kSame, false};
+  // As the engine certifies T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1, T(1) = 0.
+  Certificate cert;
+  cert.method = "divide";
+  cert.proof = "master theorem, case 2";
+  cert.driver_class = "n";
+  cert.driver_low = "1/2";
+  cert.driver_high = "2";
+  cert.driver_from = "64";
+  cert.obligations = {"f(n) >= (1/2) n for every n >= 64", "f(n) <= 2 n for every n >= 64",
+                      "a = 2, b = 2: log_b a = 1, equal to the exponent of n in g",
+                      "T(n) > 0 for 32 <= n <= 63"};
+  c.basis.certificate = cert;
   c.steps = {"a = 2, b = 2: critical exponent lg 2 = 1",
              "f(n) = n - 1 is Θ(n^1 lg^0 n): case 2 with k = 0 gives Θ(n lg n)",
              "Akra–Bazzi with Leighton's condition covers ⌈n/2⌉ and ⌊n/2⌋"};

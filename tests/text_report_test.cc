@@ -127,10 +127,21 @@ TEST(TextReport, LongBandIsThinnedKeepingBothEnds) {
 
 TEST(TextReport, HoldingClaimsHaveNoDetail) {
   RunResult run;
-  run.claims.push_back(sample_run().claims[0]);
+  run.claims.push_back(sample_run().claims[2]);  // holds, without a certificate
   std::vector<std::string> lines = lines_of(render_text(run, TextStyle{false}));
   // Header, blank, claim line, blank, summary.
   EXPECT_EQ(lines.size(), 5u);
+}
+
+TEST(TextReport, HoldingClaimsCountTheirCertificatesObligations) {
+  RunResult run;
+  run.claims.push_back(sample_run().claims[0]);  // holds, certificate with 4 obligations
+  std::vector<std::string> lines = lines_of(render_text(run, TextStyle{false}));
+  // Header, blank, claim line, the certificate under it, blank, summary.
+  ASSERT_EQ(lines.size(), 6u);
+  EXPECT_EQ(lines[3], "    certificate: 4 obligations");
+  run.claims[0].basis.certificate->obligations.resize(1);
+  EXPECT_EQ(lines_of(render_text(run, TextStyle{false}))[3], "    certificate: 1 obligation");
 }
 
 TEST(TextReport, SameInputSameBytes) {

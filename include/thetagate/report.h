@@ -58,7 +58,7 @@ THETAGATE_API std::string render(const Report& report, Format format,
                                  const RenderOptions& options = {},
                                  const BaselineChanges* changes = nullptr);
 
-// The Report a JSON report (schema_version 1) was rendered from; reads
+// The Report a JSON report (schema_version 1 to 3) was rendered from; reads
 // render(report, Format::kJson) back exactly. Throws InputError, located in
 // `display_name`, for text that is not such a report.
 THETAGATE_API Report read_json_report(const std::string& json_text,
