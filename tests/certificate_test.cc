@@ -3,16 +3,18 @@
 // own, the certificate's statements are checked here independently of the
 // prover: f, g, T and the regularity bound are written out in this file and
 // evaluated with exact rationals, at every n from driver_from to
-// driver_from + 2000 and at n = 2^k - 1, 2^k, 2^k + 1 for k <= 200. For the
-// demo library, every holds proved by a supported method carries one, and
-// the texts a checker parses (driver_class, the induction bound) read back
-// with parse_expression.
+// driver_from + 2000 and at n = 2^k - 1, 2^k, 2^k + 1 for k <= 200; and the
+// independent re-checker (verifier/recheck) re-verifies each. For the demo
+// library, every holds proved by a supported method carries one, and the
+// texts a checker parses (driver_class, the induction bound) read back with
+// parse_expression.
 #include "verifier/derivation/certificate.h"
 
 #include <gtest/gtest.h>
 
 #include <fstream>
 #include <functional>
+#include <map>
 #include <nlohmann/json.hpp>
 #include <regex>
 #include <sstream>
@@ -23,6 +25,7 @@
 #include "reports/json_report.h"
 #include "verifier/checking/checker.h"
 #include "verifier/model/claim.h"
+#include "verifier/recheck/recheck.h"
 #include "verifier/syntax/parser.h"
 
 namespace thetagate::engine {
@@ -420,6 +423,27 @@ TEST(Certificate, SameClaimsSameBytesAndTheyReadBack) {
   std::string json = render_json(run_result());
   EXPECT_EQ(render_json(check_claims()), json);
   EXPECT_EQ(render_json(read_json_report(json, "old.json")), json);
+}
+
+// The independent re-checker (verifier/recheck, written apart from the
+// prover) re-verifies every certificate these claims carry.
+TEST(Certificate, TheIndependentRecheckerAcceptsThem) {
+  std::multimap<std::string, Claim> claims;
+  for (const ClaimEntry& e : load_claim_text(kClaims, "certificate.toml")) {
+    ASSERT_TRUE(e.claim);
+    claims.emplace(e.claim->name, *e.claim);
+  }
+  recheck::RecheckResult result =
+      recheck::recheck_report(render_json(run_result()), "certificate.json", claims);
+  ASSERT_EQ(result.claims.size(), 10u);  // every claim above holds
+  for (const recheck::RecheckedClaim& c : result.claims) {
+    if (c.name == "orchard::pack / moves, class written") {
+      EXPECT_EQ(c.status, recheck::RuleStatus::kNotRechecked) << recheck::status_line(c);
+      continue;
+    }
+    EXPECT_EQ(c.status, recheck::RuleStatus::kRechecked)
+        << c.name << ": " << recheck::status_line(c);
+  }
 }
 
 TEST(DriverClassText, ReadsBackAsTheClass) {
