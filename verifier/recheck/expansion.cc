@@ -467,24 +467,48 @@ Interval key_on(const Key& k, const Interval& n) {
 
 Interval hull(const Rational& lo, const Rational& hi) { return span(point(lo), point(hi)); }
 
+Interval value_on(const Expansion& e, const Interval& n) {
+  Interval sum = point(0);
+  for (const Term& t : e.terms) sum = sum + t.coef.enclose() * key_on(t.key, n);
+  return sum;
+}
+
+// The smallest integer >= lo on the class, if it is at most hi.
+std::optional<BigInt> integer_in(const Rational& lo, const Rational& hi, uint64_t modulus,
+                                 uint64_t residue) {
+  BigInt n = ceil_of(lo);
+  n += floor_mod(BigInt(residue) - n, BigInt(modulus));
+  if (Rational(n) > hi) return std::nullopt;
+  return n;
+}
+
 struct BlockWalk {
   const Expansion& e;
+  uint64_t modulus, residue;
   uint64_t budget = 400000;
-  std::string failure;
+  ProofOutcome failure;
 
   bool block(const Rational& lo, const Rational& hi, int depth) {
     if (budget == 0) {
-      failure = "the block budget ran out near n = " + to_string(lo);
+      failure = {Proof::kUnproved, "the block budget ran out near n = " + to_string(lo)};
       return false;
     }
     --budget;
-    Interval n = hull(lo, hi);
-    Interval sum = point(0);
-    for (const Term& t : e.terms) sum = sum + t.coef.enclose() * key_on(t.key, n);
+    Interval sum = value_on(e, hull(lo, hi));
     if (sum.certainly_nonnegative()) return true;
-    if (depth >= 40) {
-      failure = "the expression may be negative near n = " + point(lo).str(8);
-      return false;
+    if (depth >= 40 || sum.certainly_negative()) {
+      if (auto n = integer_in(lo, hi, modulus, residue)) {
+        Interval at = value_on(e, point(Rational(*n)));
+        if (at.certainly_negative()) {
+          failure = {Proof::kFalse, "it is negative at n = " + n->str() + " (" + at.str(6) + ")"};
+          return false;
+        }
+      }
+      if (depth >= 40) {
+        failure = {Proof::kUnproved,
+                   "the enclosure is too wide to decide near n = " + point(lo).str(8)};
+        return false;
+      }
     }
     Rational mid = (lo + hi) / 2;
     return block(lo, mid, depth + 1) && block(mid, hi, depth + 1);
@@ -493,17 +517,22 @@ struct BlockWalk {
 
 }  // namespace
 
-std::string prove_nonnegative(const Expansion& input, const BigInt& from) {
-  if (from < 2) return "the range starts below n = 2";
+ProofOutcome prove_nonnegative(const Expansion& input, const BigInt& from, uint64_t modulus,
+                               uint64_t residue) {
+  if (from < 2) return {Proof::kUnproved, "the range starts below n = 2"};
   Expansion e;
   for (const Term& t : input.terms)
     if (!t.coef.is_zero()) e.terms.push_back(t);
-  if (e.terms.empty()) return "";  // identically zero
+  if (e.terms.empty()) return {};  // identically zero
   auto lead = std::max_element(e.terms.begin(), e.terms.end(), [](const Term& a, const Term& b) {
     return compare_keys(a.key, b.key) < 0;
   });
   Interval c0 = lead->coef.enclose();
-  if (!c0.certainly_positive()) return "its leading term is not positive: " + describe(e);
+  if (c0.certainly_negative())
+    return {Proof::kFalse,
+            "its leading term is negative, so it is negative for every large n: " + describe(e)};
+  if (!c0.certainly_positive())
+    return {Proof::kUnproved, "the sign of its leading term is not decided: " + describe(e)};
   Interval ln2 = point(2).log();
   // Beyond 2^K each other term's ratio to the leading term decreases and
   // the ratios add up to less than the leading coefficient.
@@ -539,19 +568,20 @@ std::string prove_nonnegative(const Expansion& input, const BigInt& from) {
   uint64_t k0 = std::max<uint64_t>(1, bit_length(from));
   uint64_t K = k0;
   while (!tail_holds(K)) {
-    if (++K > k0 + 20000) return "its leading term does not outweigh the rest: " + describe(e);
+    if (++K > k0 + 20000)
+      return {Proof::kUnproved, "its leading term does not outweigh the rest: " + describe(e)};
   }
-  BlockWalk walk{e};
+  BlockWalk walk{e, modulus, residue};
   Rational lo(from);
   Rational top = Rational(BigInt(1) << K);
   while (lo < top) {
     Rational hi = Rational(BigInt(1) << bit_length(floor_of(lo)));
     if (hi <= lo) hi = lo * 2;
     hi = std::min(hi, top);
-    if (!walk.block(lo, hi, 0)) return walk.failure + ": " + describe(e);
+    if (!walk.block(lo, hi, 0)) return {walk.failure.proof, walk.failure.why + ": " + describe(e)};
     lo = hi;
   }
-  return "";
+  return {};
 }
 
 std::string describe(const Expansion& e) {

@@ -104,9 +104,17 @@ const CaseLine& line_on_class(const Function& f, const Context& ctx, const Ratio
 
 // Proves e(n) >= 0 for every real n >= from: a positive leading term that
 // outweighs the rest beyond 2^K (every ratio to it decreasing there), and
-// interval arithmetic on blocks between `from` and 2^K. Returns "" when
-// proved, else why not, with the n where it failed.
-std::string prove_nonnegative(const Expansion& e, const BigInt& from);
+// interval arithmetic on blocks between `from` and 2^K. The answer is kFalse
+// only with certainty: a leading coefficient certainly negative, or an
+// integer n >= from on the class (modulus, residue) where e(n) < 0 for sure;
+// an enclosure too wide to decide is kUnproved, never kFalse.
+enum class Proof { kProved, kFalse, kUnproved };
+struct ProofOutcome {
+  Proof proof = Proof::kProved;
+  std::string why;  // for kFalse and kUnproved, with the n where it failed
+};
+ProofOutcome prove_nonnegative(const Expansion& e, const BigInt& from, uint64_t modulus = 1,
+                               uint64_t residue = 0);
 
 // "3 n^2 lg n - (1/2) n + [-0.1, 0.2]" for messages.
 std::string describe(const Expansion& e);

@@ -122,10 +122,45 @@ Key leading_key(const Expansion& e, const std::string& what) {
   return lead->key;
 }
 
-void require(const Expansion& e, const BigInt& from, const std::string& statement, int& count) {
-  std::string why = prove_nonnegative(e, from);
-  if (!why.empty()) throw Rejected{statement + ": " + why};
+// A proof that fails for sure rejects the certificate; one the re-checker
+// cannot finish leaves the claim not re-checked.
+void require(const Expansion& e, const Context& ctx, const std::string& statement, int& count) {
+  ProofOutcome p = prove_nonnegative(e, ctx.from, ctx.modulus, ctx.residue);
+  if (p.proof == Proof::kFalse) throw Rejected{statement + ": " + p.why};
+  if (p.proof == Proof::kUnproved) throw Unsupported("could not prove " + statement + ": " + p.why);
   ++count;
+}
+
+// E(n) >= 0 for every real n >= ctx.from on ctx's class, with E expanded in
+// x = n + shift for the first shift that proves it (the class of x and its
+// start move with it). Rejected only when the unshifted attempt fails for sure.
+void require_shifted(const std::function<Expansion(const Context&, const Rational&)>& build,
+                     const Context& ctx, const std::string& statement, int& count) {
+  std::optional<ProofOutcome> unshifted;
+  std::string unsupported;
+  for (int shift : {0, -1, 1, -2, 2}) {
+    Context shifted = ctx;
+    shifted.from = ctx.from + shift;
+    shifted.residue =
+        static_cast<uint64_t>(floor_mod(BigInt(ctx.residue) + shift, BigInt(ctx.modulus)));
+    ProofOutcome p;
+    try {
+      p = prove_nonnegative(build(shifted, Rational(shift)), shifted.from, shifted.modulus,
+                            shifted.residue);
+    } catch (const Unsupported& u) {
+      if (unsupported.empty()) unsupported = u.what();
+      continue;
+    }
+    if (p.proof == Proof::kProved) {
+      ++count;
+      return;
+    }
+    if (!unshifted) unshifted = p;
+  }
+  if (unshifted && unshifted->proof == Proof::kFalse)
+    throw Rejected{statement + ": " + unshifted->why};
+  throw Unsupported("could not prove " + statement + ": " +
+                    (unshifted ? unshifted->why : unsupported));
 }
 
 std::string class_name(const Context& ctx) {
@@ -219,8 +254,7 @@ void require_positive(SmallEvaluator& eval, const BigInt& lo, const BigInt& hi, 
   if (hi - lo > SmallEvaluator::kLargestSize) throw Unsupported("a base range too long");
   for (BigInt n = lo; n <= hi; ++n) {
     Value v = eval.at(n);
-    int sign = eval.sign_of_difference(v, Value(int64_t{0}));
-    if (sign < 0 || (strict && sign == 0))
+    if (!eval.at_least(v, Value(int64_t{0}), strict))
       throw Rejected{std::string("T(n) ") + (strict ? "> 0" : ">= 0") + " for " + lo.str() +
                      " <= n <= " + hi.str() + " fails at n = " + n.str() + ": T(n) = " + v.str()};
   }
@@ -257,9 +291,9 @@ void require_driver_bounds(const Recurrence& r, const Structure& st, const Drive
           Expansion f = driver_of(lin, ctx);
           Expansion g = expand(*d.g, ctx);
           std::string where = " for every n >= " + d.from.str() + class_name(ctx);
-          require(add(f, negate(scale(g, Coef::of(d.low)))), d.from,
+          require(add(f, negate(scale(g, Coef::of(d.low)))), ctx,
                   "f(n) >= " + to_string(d.low) + " g(n)" + where, here);
-          require(add(scale(g, Coef::of(d.high)), negate(f)), d.from,
+          require(add(scale(g, Coef::of(d.high)), negate(f)), ctx,
                   "f(n) <= " + to_string(d.high) + " g(n)" + where, here);
         },
         d.from, &r.helpers, count);
@@ -355,7 +389,7 @@ RuleOutcome divide(const Recurrence& r, const Bound& bound, const CertificateDat
                   add(lhs, scale(driver_of(inner, ctx, aff->first, aff->second), Coef::of(call.a)));
             }
             Expansion slack = add(scale(driver_of(lin, ctx), Coef::of(rc)), negate(lhs));
-            require(slack, from,
+            require(slack, ctx,
                     "regularity: a f(n/b) <= " + to_string(rc) +
                         " f(n) for every n >= " + from.str() + class_name(ctx),
                     here);
@@ -523,9 +557,9 @@ void require_range(SmallEvaluator& eval, const SideProof& sp, const ExprPtr& e, 
   for (BigInt n = lo; n <= hi; ++n) {
     Value t = eval.at(n);
     Value b = eval.value(*e, n);
-    int sign = eval.sign_of_difference(t, b);
-    if (sp.side == Side::kLower) sign = -sign;
-    if (sign > 0 || (sp.strict && sign == 0))
+    bool holds =
+        sp.side == Side::kUpper ? eval.at_least(b, t, sp.strict) : eval.at_least(t, b, sp.strict);
+    if (!holds)
       throw Rejected{"T(n) " + std::string(op) + " " + print(*e) + " for " + lo.str() +
                      " <= n <= " + hi.str() + " fails at n = " + n.str() + ": T(n) = " + t.str() +
                      ", bound " + b.str()};
@@ -549,53 +583,74 @@ RuleOutcome induction(const Recurrence& r, const Bound& bound, const Certificate
   SmallEvaluator eval(r);
   for (const SideProof& sp : sides_of(bound, c)) {
     const char* op = sp.side == Side::kUpper ? "<=" : ">=";
-    BigInt lowest = m;
-    for (uint64_t res = 0; res < L; ++res) {
-      Context ctx{from, L, res, &r.helpers};
-      std::string where = class_name(ctx);
-      const CaseLine& line = line_on_class(r.main, ctx);
-      Linear lin;
-      linearize(line.body, 1, r.main.name, lin);
-      if (sp.strict && lin.calls.empty())
-        throw Rejected{"a strict bound needs a recursive term" + where};
-      Expansion hyp_at_n = expand(*sp.carried, ctx);
-      Expansion rhs = driver_of(lin, ctx);
-      BigInt first = from + floor_mod(BigInt(res) - from, modulus);
-      for (const Call& call : lin.calls) {
-        if (call.a <= 0) throw Rejected{"a recursive term with a coefficient <= 0" + where};
-        auto aff = as_affine(expand(*make_call("floor", {call.arg}), ctx));
-        if (!aff)
-          throw Rejected{"the argument " + print(*call.arg) + " is not exact modulo " +
-                         modulus.str() + where};
-        auto [s, t] = *aff;
-        if (s <= 0 || s > 1 || (1 - s) * Rational(first) - t <= 0)
-          throw Rejected{"the argument " + print(*call.arg) + " does not shrink for n > " +
-                         m.str() + where};
-        Rational low = s * Rational(first) + t;
-        if (denominator(low) != 1 || low < 0)
-          throw Rejected{"the argument " + print(*call.arg) + " is not a size"};
-        lowest = std::min(lowest, numerator(low));
-        rhs = add(rhs, scale(expand(*sp.carried, ctx, s, t), Coef::of(call.a)));
-      }
-      Expansion slack = add(hyp_at_n, negate(rhs));
-      if (sp.side == Side::kLower) slack = negate(slack);
-      require(slack, from,
-              std::string("step: ") +
-                  (sp.side == Side::kUpper ? "H(n) - (the right side with H)"
-                                           : "(the right side with H) - H(n)") +
-                  " >= 0 for every real n > " + m.str() + where + ", H(n) = " + print(*sp.carried),
-              count);
-      if (!same_tree(*sp.carried, *sp.claimed)) {
-        Expansion inside = add(expand(*sp.claimed, ctx), negate(hyp_at_n));
-        if (sp.side == Side::kLower) inside = negate(inside);
-        require(inside, from,
-                print(*sp.carried) + " " + op + " " + print(*sp.claimed) + " for every n > " +
-                    m.str() + where,
-                count);
-      }
-    }
+    // The exact checks first: they are certain either way.
     require_range(eval, sp, sp.claimed, bound.n0, m, count);
+    BigInt lowest = m;
+    // A step the re-checker cannot finish waits until the exact check where
+    // the step lands has had its say (a false hypothesis fails there for sure).
+    std::optional<Unsupported> unfinished;
+    for (uint64_t res = 0; res < L; ++res) try {
+        Context ctx{from, L, res, &r.helpers};
+        std::string where = class_name(ctx);
+        const CaseLine& line = line_on_class(r.main, ctx);
+        Linear lin;
+        linearize(line.body, 1, r.main.name, lin);
+        if (sp.strict && lin.calls.empty())
+          throw Rejected{"a strict bound needs a recursive term" + where};
+        BigInt first = from + floor_mod(BigInt(res) - from, modulus);
+        struct Arg {
+          Rational a, s, t;
+        };
+        std::vector<Arg> args;
+        for (const Call& call : lin.calls) {
+          if (call.a <= 0) throw Rejected{"a recursive term with a coefficient <= 0" + where};
+          auto aff = as_affine(expand(*make_call("floor", {call.arg}), ctx));
+          if (!aff)
+            throw Rejected{"the argument " + print(*call.arg) + " is not exact modulo " +
+                           modulus.str() + where};
+          auto [s, t] = *aff;
+          if (s <= 0 || s > 1 || (1 - s) * Rational(first) - t <= 0)
+            throw Rejected{"the argument " + print(*call.arg) + " does not shrink for n > " +
+                           m.str() + where};
+          Rational low = s * Rational(first) + t;
+          if (denominator(low) != 1 || low < 0)
+            throw Rejected{"the argument " + print(*call.arg) + " is not a size"};
+          lowest = std::min(lowest, numerator(low));
+          args.push_back({call.a, s, t});
+        }
+        // The step's slack, expanded in x = n + shift: H(n) = 3 (n - 1)^(lg 3)
+        // is a single term in x = n - 1, so an identity stays exact there.
+        auto slack_in = [&](const Context& shifted, const Rational& shift) {
+          Expansion rhs = driver_of(lin, shifted, 1, -shift);
+          for (const Arg& arg : args)
+            rhs = add(rhs, scale(expand(*sp.carried, shifted, arg.s, arg.t - arg.s * shift),
+                                 Coef::of(arg.a)));
+          Expansion slack = add(expand(*sp.carried, shifted, 1, -shift), negate(rhs));
+          return sp.side == Side::kLower ? negate(slack) : slack;
+        };
+        require_shifted(slack_in, ctx,
+                        std::string("step: ") +
+                            (sp.side == Side::kUpper ? "H(n) - (the right side with H)"
+                                                     : "(the right side with H) - H(n)") +
+                            " >= 0 for every real n > " + m.str() + where +
+                            ", H(n) = " + print(*sp.carried),
+                        count);
+        if (!same_tree(*sp.carried, *sp.claimed)) {
+          auto inside_in = [&](const Context& shifted, const Rational& shift) {
+            Expansion inside = add(expand(*sp.claimed, shifted, 1, -shift),
+                                   negate(expand(*sp.carried, shifted, 1, -shift)));
+            return sp.side == Side::kLower ? negate(inside) : inside;
+          };
+          require_shifted(inside_in, ctx,
+                          print(*sp.carried) + " " + op + " " + print(*sp.claimed) +
+                              " for every n > " + m.str() + where,
+                          count);
+        }
+      } catch (const Unsupported& u) {
+        if (!unfinished) unfinished = u;
+      }
     require_range(eval, sp, sp.carried, lowest, m, count);
+    if (unfinished) throw *unfinished;
   }
   out.status = RuleStatus::kRechecked;
   return out;

@@ -1,5 +1,6 @@
 #include "verifier/recheck/small_eval.h"
 
+#include <algorithm>
 #include <exception>
 #include <optional>
 
@@ -10,6 +11,16 @@ namespace {
 
 constexpr int kMaxDepth = 4000;
 constexpr int64_t kMaxSumTerms = 1000000;
+
+bool calls_anything(const Expr& e) {
+  if (e.kind == ExprKind::kCall || e.kind == ExprKind::kSum || e.kind == ExprKind::kBound)
+    return !(e.kind == ExprKind::kCall &&
+             (e.name == "lg" || e.name == "log" || e.name == "log2" || e.name == "sqrt")) ||
+           std::any_of(e.args.begin(), e.args.end(),
+                       [](const ExprPtr& a) { return calls_anything(*a); });
+  return std::any_of(e.args.begin(), e.args.end(),
+                     [](const ExprPtr& a) { return calls_anything(*a); });
+}
 
 }  // namespace
 
@@ -24,6 +35,19 @@ int SmallEvaluator::sign_of_difference(const Value& a, const Value& b) const {
     throw Unsupported("two values agree to " + std::to_string(ctx_.precision_bits) +
                       " bits: " + a.str() + " and " + b.str());
   }
+}
+
+bool SmallEvaluator::at_least(const Value& a, const Value& b, bool strict) const {
+  Value d = sub(a, b, ctx_);
+  if (d.is_exact()) {
+    int sign = d.exact() == 0 ? 0 : (d.exact() > 0 ? 1 : -1);
+    return strict ? sign > 0 : sign >= 0;
+  }
+  const Interval& iv = d.as_interval();
+  if (strict ? iv.certainly_positive() : iv.certainly_nonnegative()) return true;
+  if (strict ? !(iv.upper() > 0) : iv.certainly_negative()) return false;
+  throw Unsupported("the difference of " + a.str() + " and " + b.str() + " is not decided at " +
+                    std::to_string(ctx_.precision_bits) + " bits");
 }
 
 Value SmallEvaluator::at(const BigInt& n) {
@@ -135,8 +159,20 @@ Value SmallEvaluator::eval(const Expr& e, const Value& n, std::map<std::string, 
         return div(sub(0), sub(1), ctx_);
       case ExprKind::kNeg:
         return neg(sub(0));
-      case ExprKind::kPow:
-        return power(sub(0), sub(1), ctx_);
+      case ExprKind::kPow: {
+        Value base = sub(0);
+        // 2^(lg 3) is 3: a constant exponent on an exact base is tried
+        // exactly first (rational_power verifies its guess with exact logs).
+        if (base.is_exact() && base.exact() > 0 && !mentions_n(*e.args[1]) &&
+            !calls_anything(*e.args[1])) {
+          try {
+            Coef c = rational_power(base.exact(), constant_value(*e.args[1]));
+            if (c.exact) return Value(*c.exact);
+          } catch (const Unsupported&) {
+          }
+        }
+        return power(base, sub(1), ctx_);
+      }
       case ExprKind::kSum: {
         Value lo = sub(0), hi = sub(1);
         if (!lo.is_integer() || !hi.is_integer())

@@ -26,6 +26,9 @@ class SmallEvaluator {
   Value value(const Expr& e, const BigInt& n);
   // The sign of a - b: -1, 0, +1; throws Unsupported when undecidable.
   int sign_of_difference(const Value& a, const Value& b) const;
+  // Whether a - b >= 0 (or > 0 when strict) for sure: true, false, or
+  // Unsupported when the enclosure straddles the boundary.
+  bool at_least(const Value& a, const Value& b, bool strict) const;
 
   static constexpr long kLargestSize = 200000;
 
