@@ -9,6 +9,7 @@
 #include "reports/verdict_text.h"
 #include "verifier/checking/checker.h"
 #include "verifier/checking/run.h"
+#include "verifier/checking/shard.h"
 #include "verifier/model/limits.h"
 #include "verifier/recheck/recheck.h"
 
@@ -111,10 +112,11 @@ void recheck_run(engine::RunResult& run, const std::vector<engine::ClaimEntry>& 
       c.recheck = engine::recheck::status_line(r);
       continue;
     }
+    std::string proof = engine::proof_name(c);  // while the claim still holds
     c.verdict = engine::Verdict::kError;
     c.basis.kind = engine::BasisKind::kInternalInconsistency;
-    c.internal_error = "the independent re-check rejected the certificate of this holds (" +
-                       c.method + "): " + r.detail;
+    c.internal_error = "the independent re-check rejected the certificate of this holds (" + proof +
+                       "): " + r.detail;
     c.recheck = engine::recheck::status_line(r);
   }
 }
@@ -208,10 +210,35 @@ ClaimResult check(const Claim& claim, const CheckOptions& options) {
 
 Report check(const std::vector<Claim>& claims, const CheckOptions& options) {
   engine::CheckOptions engine = engine_options(options);
+  if (options.shard_count != 0 && (options.shard_count > 1024 || options.shard_index < 1 ||
+                                   options.shard_index > options.shard_count)) {
+    throw InputError(Diagnostic{Location{"<options>", 1, 1},
+                                "shard " + std::to_string(options.shard_index) + " of " +
+                                    std::to_string(options.shard_count) + " does not exist",
+                                "1 <= shard_index <= shard_count <= 1024", ""});
+  }
   std::vector<engine::ClaimEntry> entries = entries_of(claims, options.families);
-  engine::RunResult run = engine::check_in_parallel(entries, engine, options.jobs, options.progress,
-                                                    options.memory_limit);
-  if (options.recheck) recheck_run(run, entries);
+  if (options.shard_count == 0) {
+    engine::RunResult run = engine::check_in_parallel(entries, engine, options.jobs,
+                                                      options.progress, options.memory_limit);
+    if (options.recheck) recheck_run(run, entries);
+    return detail::Access::make_report(std::move(run));
+  }
+  // One shard: its claims keep their places in the whole run, for the merge.
+  std::vector<uint64_t> shard = engine::assign_shards(entries, engine, options.shard_count);
+  std::vector<engine::ClaimEntry> mine;
+  std::vector<uint64_t> positions;
+  for (size_t i = 0; i < entries.size(); ++i) {
+    if (shard[i] != options.shard_index) continue;
+    mine.push_back(entries[i]);
+    positions.push_back(i);
+  }
+  engine::RunResult run =
+      engine::check_in_parallel(mine, engine, options.jobs, options.progress, options.memory_limit);
+  for (size_t i = 0; i < run.claims.size(); ++i) run.claims[i].position = positions[i];
+  run.shard = engine::ShardInfo{options.shard_index, options.shard_count,
+                                engine::run_digest(entries, engine), entries.size()};
+  if (options.recheck) recheck_run(run, mine);
   return detail::Access::make_report(std::move(run));
 }
 

@@ -9,6 +9,7 @@
 #include "reports/markdown_report.h"
 #include "reports/report_file.h"
 #include "reports/text_report.h"
+#include "verifier/checking/shard.h"
 #include "verifier/syntax/input_file.h"
 
 namespace thetagate {
@@ -70,6 +71,17 @@ Report read_json_report_file(const std::string& path) {
       path, engine::kMaxReportFileBytes, "baseline report",
       "give the JSON report of an earlier run: thetagate check --format json --out OLD.json");
   return read_json_report(text, path);
+}
+
+Report merge_shards(const std::vector<std::string>& paths) {
+  std::vector<engine::RunResult> shards;
+  for (const std::string& path : paths) {
+    std::string text = engine::read_input_file(
+        path, engine::kMaxReportFileBytes, "shard report",
+        "give the JSON reports of 'thetagate check --shard K/N --format json'");
+    shards.push_back(detail::Access::run(read_json_report(text, path)));
+  }
+  return detail::Access::make_report(engine::merge_shards(std::move(shards), paths));
 }
 
 void check_output_location(const std::string& out, bool folder) {

@@ -51,7 +51,26 @@ struct CheckArguments {
   std::string recurrence;      // a claim given on the command line: --recurrence,
   std::string bound;           // --bound and
   std::string name = "claim";  // --name
+  std::string shard;           // --shard K/N
 };
+
+struct ShardSpec {
+  uint64_t index = 1;
+  uint64_t count = 1;
+};
+
+// "K/N" with 1 <= K <= N <= 1024.
+std::optional<ShardSpec> parse_shard_option(const std::string& text) {
+  size_t slash = text.find('/');
+  if (slash == std::string::npos || slash == 0 || slash + 1 == text.size() ||
+      text.find_first_not_of("0123456789/") != std::string::npos ||
+      text.find('/', slash + 1) != std::string::npos || text.size() > 9) {
+    return std::nullopt;
+  }
+  ShardSpec s{std::stoull(text.substr(0, slash)), std::stoull(text.substr(slash + 1))};
+  if (s.count < 1 || s.count > 1024 || s.index < 1 || s.index > s.count) return std::nullopt;
+  return s;
+}
 
 // Standard input holds at most a claim file's worth.
 constexpr size_t kMaxStdinBytes = size_t{16} << 20;
@@ -235,14 +254,24 @@ int list_families(const std::string& format) {
   return 0;
 }
 
-int run_check(const CheckArguments& args) {
-  if (args.list_families) return list_families(args.format);
-  cli::FailOn fail_on = args.fail_on.empty() ? cli::FailOn{} : cli::parse_fail_on(args.fail_on);
+// Where a report goes and what fails the run: everything a check or a merge
+// settles before its claims are read, so a bad --out does not cost the run.
+struct OutputPlan {
+  cli::FailOn fail_on;
+  std::optional<Report> baseline;
+  Format format = Format::kText;
+  bool out_is_folder = false;
+};
+
+// Returns an exit code when the arguments are refused (the message printed).
+std::optional<int> prepare_output(const CheckArguments& args, OutputPlan& plan) {
+  cli::FailOn& fail_on = plan.fail_on;
+  std::optional<Report>& baseline = plan.baseline;
+  fail_on = args.fail_on.empty() ? cli::FailOn{} : cli::parse_fail_on(args.fail_on);
   if (fail_on.drift && args.baseline.empty()) {
     std::cerr << "thetagate: --fail-on drift needs --baseline OLD.json\n";
-    return kExitBadInput;
+    return {kExitBadInput};
   }
-  std::optional<Report> baseline;
   if (!args.baseline.empty()) {
     // The first night has no last night: a baseline that does not exist yet
     // is a note, and drift has nothing to fail on. One that exists but cannot
@@ -259,20 +288,21 @@ int run_check(const CheckArguments& args) {
   if (args.recurrence.empty() != args.bound.empty()) {
     std::cerr << "thetagate: --recurrence and --bound go together\n  hint: thetagate check "
                  "--recurrence 'T(n) = 2T(n/2) + n; T(1) = 0' --bound 'Theta(n lg n)'\n";
-    return kExitBadInput;
+    return {kExitBadInput};
   }
   if (!args.recurrence.empty() && !args.paths.empty()) {
     std::cerr << "thetagate: a claim given with --recurrence and --bound is checked alone\n"
                  "  hint: drop the paths, or put the claim into a claim file\n";
-    return kExitBadInput;
+    return {kExitBadInput};
   }
-  Format format = format_of(args.format);
+  Format& format = plan.format;
+  format = format_of(args.format);
   // One claim on the command line is a reviewer's question: one line answers
   // it, unless a format was asked for.
   if (args.brief || (!args.recurrence.empty() && !args.format_given)) {
     if (args.format_given && format != Format::kText) {
       std::cerr << "thetagate: --brief is a text report; --format says " << args.format << "\n";
-      return kExitBadInput;
+      return {kExitBadInput};
     }
     format = Format::kBrief;
   }
@@ -284,41 +314,24 @@ int run_check(const CheckArguments& args) {
                 << "' asks by its extension for the " << format_name(*by_extension)
                 << " format, but --format says " << args.format
                 << "\n  hint: drop --format (the extension decides), or change the extension\n";
-      return kExitBadInput;
+      return {kExitBadInput};
     }
     if (by_extension) format = *by_extension;
   }
   // Where the reports go is checked before any claim is: a bad --out must
   // not cost the run.
-  bool out_is_folder = !args.out.empty() && out_is_folder_path(args.out);
-  if (!args.out.empty()) check_output_location(args.out, out_is_folder);
-  CheckOptions options;
-  try {
-    options.seed = parse_seed(args.seed);
-  } catch (const std::invalid_argument&) {
-    std::cerr << "thetagate: --seed takes a whole number or 'random', not '"
-              << engine::escape_controls(args.seed) << "'\n";
-    return kExitBadInput;
-  } catch (const std::out_of_range&) {
-    std::cerr << "thetagate: --seed takes a whole number below 2^64 or 'random', not '"
-              << engine::escape_controls(args.seed) << "'\n";
-    return kExitBadInput;
-  }
-  options.max_bits = args.max_bits;
-  options.clock_limit = args.clock_limit;
-  options.effort = args.effort;
-  if (args.rounding == "floor") options.rounding = Rounding::kFloor;
-  if (args.rounding == "ceil") options.rounding = Rounding::kCeil;
-  if (args.rounding == "both") options.rounding = Rounding::kBoth;
-  options.jobs = args.jobs;
-  options.costs_root = args.costs_root;
-  options.recheck = args.recheck;
-  options.memory_limit = args.memory_mib << 20;
-  Progress progress;
-  options.progress = [&progress](size_t done, size_t total, const std::string& name) {
-    progress.update(done, total, name);
-  };
-  Report report = check(select_claims(claims_of(args), args.claims), options);
+  plan.out_is_folder = !args.out.empty() && out_is_folder_path(args.out);
+  if (!args.out.empty()) check_output_location(args.out, plan.out_is_folder);
+  return std::nullopt;
+}
+
+// Renders `report` as the plan says, writes or prints it, and returns the
+// exit code.
+int deliver(const Report& report, const CheckArguments& args, const OutputPlan& plan) {
+  const cli::FailOn& fail_on = plan.fail_on;
+  const std::optional<Report>& baseline = plan.baseline;
+  Format format = plan.format;
+  bool out_is_folder = plan.out_is_folder;
   std::optional<BaselineChanges> changes;
   if (baseline) changes = compare_with_baseline(*baseline, report);
   const BaselineChanges* changes_ptr = changes ? &*changes : nullptr;
@@ -368,6 +381,59 @@ int run_check(const CheckArguments& args) {
               << "\n  please report it with the claim file and the command line\n";
   }
   return cli::exit_code(report, changes_ptr, fail_on);
+}
+
+int run_check(const CheckArguments& args) {
+  if (args.list_families) return list_families(args.format);
+  OutputPlan plan;
+  if (std::optional<int> refused = prepare_output(args, plan)) return *refused;
+  CheckOptions options;
+  try {
+    options.seed = parse_seed(args.seed);
+  } catch (const std::invalid_argument&) {
+    std::cerr << "thetagate: --seed takes a whole number or 'random', not '"
+              << engine::escape_controls(args.seed) << "'\n";
+    return kExitBadInput;
+  } catch (const std::out_of_range&) {
+    std::cerr << "thetagate: --seed takes a whole number below 2^64 or 'random', not '"
+              << engine::escape_controls(args.seed) << "'\n";
+    return kExitBadInput;
+  }
+  options.max_bits = args.max_bits;
+  options.clock_limit = args.clock_limit;
+  options.effort = args.effort;
+  if (args.rounding == "floor") options.rounding = Rounding::kFloor;
+  if (args.rounding == "ceil") options.rounding = Rounding::kCeil;
+  if (args.rounding == "both") options.rounding = Rounding::kBoth;
+  options.jobs = args.jobs;
+  options.costs_root = args.costs_root;
+  options.recheck = args.recheck;
+  options.memory_limit = args.memory_mib << 20;
+  Progress progress;
+  options.progress = [&progress](size_t done, size_t total, const std::string& name) {
+    progress.update(done, total, name);
+  };
+  if (!args.shard.empty()) {
+    std::optional<ShardSpec> shard = parse_shard_option(args.shard);
+    if (!shard) {
+      std::cerr << "thetagate: --shard takes K/N with 1 <= K <= N <= 1024, not '"
+                << engine::escape_controls(args.shard)
+                << "'\n  hint: for the second of three machines: --shard 2/3\n";
+      return kExitBadInput;
+    }
+    options.shard_index = shard->index;
+    options.shard_count = shard->count;
+  }
+  Report report = check(select_claims(claims_of(args), args.claims), options);
+  return deliver(report, args, plan);
+}
+
+// Joins the JSON reports of a run's shards into the run's report, with every
+// output, baseline and exit code a check gives.
+int run_merge(const CheckArguments& args) {
+  OutputPlan plan;
+  if (std::optional<int> refused = prepare_output(args, plan)) return *refused;
+  return deliver(merge_shards(args.paths), args, plan);
 }
 
 int run_derive(const std::string& recurrence_text, const std::string& format) {
@@ -549,6 +615,9 @@ int main(int argc, char** argv) {
   check_command->add_option("--costs-root", check.costs_root,
                             "a folder whose files claims may name as costs files, besides each "
                             "claim file's own folder tree");
+  check_command->add_option("--shard", check.shard,
+                            "check only part K of N of the claims (K/N), for one of N CI machines; "
+                            "'thetagate merge' joins the N JSON reports");
   check_command->add_flag("--recheck", check.recheck,
                           "re-verify each holds's certificate with the independent re-checker; "
                           "a rejected one is an error (exit 3)");
@@ -578,6 +647,24 @@ int main(int argc, char** argv) {
       ->required();
   eval_command->add_option("sizes", sizes, "sizes N, e.g. 100 2^4096+7")->required();
 
+  CheckArguments merge;
+  auto* merge_command = app.add_subcommand(
+      "merge", "join the JSON reports of a run's shards (check --shard K/N) into one report");
+  merge_command->add_option("reports", merge.paths, "the N shard reports (JSON)")->required();
+  merge_command
+      ->add_option("--format", merge.format, "report format: text, json, junit, html or markdown")
+      ->check(CLI::IsMember({"text", "json", "junit", "html", "markdown"}));
+  merge_command->add_option("--out", merge.out,
+                            "write the report to FILE (the extension picks the format) or to a "
+                            "folder (every format)");
+  merge_command->add_option("--baseline", merge.baseline, "an earlier JSON report: drift");
+  merge_command
+      ->add_option("--fail-on", merge.fail_on,
+                   "what exits 1: refuted (default), undecided, drift; comma-separated")
+      ->delimiter(',');
+  merge_command->add_flag("--undecided-fails", merge.undecided_fails,
+                          "JUnit: report undecided claims as failures, not skipped");
+
   RecheckArguments recheck_args;
   auto* recheck_command = app.add_subcommand(
       "recheck", "re-verify the certificate of every holds in a JSON report, independently");
@@ -601,7 +688,8 @@ int main(int argc, char** argv) {
   // CLI11 would say "a subcommand is required" for a misspelt one.
   if (argc > 1 && argv[1][0] != '-') {
     std::string word = argv[1];
-    const std::vector<std::string> commands = {"check", "derive", "eval", "recheck", "sizes"};
+    const std::vector<std::string> commands = {"check", "derive",  "eval",
+                                               "merge", "recheck", "sizes"};
     if (std::find(commands.begin(), commands.end(), word) == commands.end()) {
       std::string closest = commands.front();
       for (const std::string& c : commands) {
@@ -610,7 +698,7 @@ int main(int argc, char** argv) {
       std::cerr << "thetagate: unknown command '" << engine::escape_controls(word) << "'\n  hint: "
                 << (engine::edit_distance(word, closest) <= 2 ? "did you mean '" + closest + "'? "
                                                               : "")
-                << "commands: check, derive, eval, recheck, sizes (thetagate --help)\n";
+                << "commands: check, derive, eval, merge, recheck, sizes (thetagate --help)\n";
       return kExitBadInput;
     }
   }
@@ -623,6 +711,8 @@ int main(int argc, char** argv) {
   // The one place that maps outcomes to exit codes; nothing escapes main.
   try {
     check.format_given = check_command->count("--format") > 0;
+    merge.format_given = merge_command->count("--format") > 0;
+    if (*merge_command) return run_merge(merge);
     if (*check_command) return run_check(check);
     if (*derive_command) return run_derive(recurrence_text, derive_format);
     if (*eval_command) return run_eval(recurrence_text, sizes);

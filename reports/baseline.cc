@@ -149,6 +149,14 @@ class ReportReader {
     if (const Json* effort = optional_key(root, "effort"); effort && !effort->is_null()) {
       run.effort = unsigned_value(*effort, "effort");
     }
+    if (const Json* shard = optional_key(root, "shard"); shard && !shard->is_null()) {
+      ShardInfo info;
+      info.index = unsigned_at(*shard, "shard", "index");
+      info.count = unsigned_at(*shard, "shard", "count");
+      info.digest = string_at(*shard, "shard", "digest");
+      info.claims = unsigned_at(*shard, "shard", "claims");
+      run.shard = info;
+    }
     const Json& claims = require(root, "", "claims");
     expect_array(claims, "claims");
     for (size_t i = 0; i < claims.size(); ++i) {
@@ -643,6 +651,8 @@ class ReportReader {
     }
     c.note = optional_string(j, path, "note");
     c.recurrence = optional_string(j, path, "recurrence");
+    c.recheck = optional_string(j, path, "recheck");
+    c.position = optional_unsigned(j, path, "position");
     c.sizes_checked = optional_unsigned(j, path, "sizes_checked");
     c.largest_bits = optional_unsigned(j, path, "largest_bits");
     c.error = error(j, path);

@@ -187,7 +187,7 @@ Json code_json(const std::optional<CodeResult>& code) {
   return j;
 }
 
-Json claim_json(const ClaimResult& c) {
+Json claim_json(const ClaimResult& c, bool shard) {
   Json j;
   // The docs/design.md §6 keys first, in that order.
   j["name"] = c.name;
@@ -222,6 +222,9 @@ Json claim_json(const ClaimResult& c) {
   j["code"] = code_json(c.code);
   // Added without a version bump (readers ignore keys they do not know).
   j["recurrence"] = c.recurrence;
+  // Added in schema version 3.
+  j["recheck"] = c.recheck;
+  if (shard) j["position"] = c.position;
   return j;
 }
 
@@ -235,8 +238,16 @@ std::string render_json(const RunResult& run) {
   // The options a replay needs besides the seed, when they were given.
   if (run.max_bits) j["max_bits"] = *run.max_bits;
   if (run.effort) j["effort"] = *run.effort;
+  // One shard of a run: which, and of what, so that a merge can join them.
+  if (run.shard) {
+    j["shard"] = {{"index", run.shard->index},
+                  {"count", run.shard->count},
+                  {"digest", run.shard->digest},
+                  {"claims", run.shard->claims}};
+  }
   j["claims"] = Json::array();
-  for (const ClaimResult& c : run.claims) j["claims"].push_back(claim_json(c));
+  for (const ClaimResult& c : run.claims)
+    j["claims"].push_back(claim_json(c, run.shard.has_value()));
   return json_escape_controls(j.dump(2, ' ', false, Json::error_handler_t::replace)) + "\n";
 }
 

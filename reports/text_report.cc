@@ -341,13 +341,16 @@ std::string render_text(const RunResult& raw_run, const TextStyle& style) {
   Glossary glossary;
   for (const ClaimResult& c : run.claims) {
     out += claim_line(c, name_column, painter);
-    if (c.verdict == Verdict::kHolds && c.basis.certificate) {
-      // Under the proof the claim line names: what a checker re-verifies.
-      size_t count = c.basis.certificate->obligations.size();
-      out +=
-          kIndent +
-          painter.dim(fmt::format("certificate: {} obligation{}", count, count == 1 ? "" : "s")) +
-          "\n";
+    if (c.verdict == Verdict::kHolds && (c.basis.certificate || !c.recheck.empty())) {
+      // Under the proof the claim line names: what a checker re-verifies,
+      // and what the independent re-check said (check --recheck).
+      std::string line;
+      if (c.basis.certificate) {
+        size_t count = c.basis.certificate->obligations.size();
+        line = fmt::format("certificate: {} obligation{}", count, count == 1 ? "" : "s");
+      }
+      if (!c.recheck.empty()) line += (line.empty() ? "" : "; ") + escape_controls(c.recheck);
+      out += kIndent + painter.dim(line) + "\n";
     }
     if (c.verdict == Verdict::kHolds && c.code) {
       // A passing claim still says what its costs covered.

@@ -137,6 +137,12 @@ struct CheckOptions {
   // Called after each claim, serialised: (claims done, claims in all, name).
   // If it throws, no further claim starts and check() rethrows it.
   std::function<void(size_t, size_t, const std::string&)> progress;
+  // Check only shard `shard_index` of `shard_count` (1-based) of the claims:
+  // a deterministic part, balanced by expected cost (docs/nightly.md); the
+  // report is a shard report, which merge_shards() joins with the others.
+  // shard_count 0: the whole run, no shard report.
+  uint64_t shard_index = 1;
+  uint64_t shard_count = 0;
   // Re-verify every holds's certificate with the independent re-checker
   // (thetagate/recheck.h) after the check.
   bool recheck = false;

@@ -68,6 +68,12 @@ THETAGATE_API Report read_json_report(const std::string& json_text,
 // `path` when it is missing, unreadable, too large (256 MiB) or not a report.
 THETAGATE_API Report read_json_report_file(const std::string& path);
 
+// Joins the JSON reports of the shards of one run (check with shard_count
+// N, read from `paths`) into the report one unsharded run gives. Throws
+// InputError for a file that is not a shard report, shards of different
+// runs (seed, options, claim set, version), or a shard missing or twice.
+THETAGATE_API Report merge_shards(const std::vector<std::string>& paths);
+
 // Checks, before any work is done, that reports can be written at `out`:
 // into a folder (created when missing) when `folder`, else as one file whose
 // folder exists. Throws InputError located at `out` with the reason.

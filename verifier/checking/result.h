@@ -226,7 +226,16 @@ struct ClaimResult {
   std::string note;  // the claim's own `note`, copied
   uint64_t sizes_checked = 0;
   uint64_t largest_bits = 0;       // bits of the largest size evaluated
+  uint64_t position = 0;           // the claim's place in the whole run (a shard keeps it)
   std::optional<CodeResult> code;  // the claim's link to code, when it has one
+};
+
+// A run that checked one shard of the claims (--shard K/N).
+struct ShardInfo {
+  uint64_t index = 1;   // K, from 1
+  uint64_t count = 1;   // N
+  std::string digest;   // of the whole run's claim set and options (shard.h)
+  uint64_t claims = 0;  // claims in the whole run
 };
 
 struct RunResult {
@@ -237,6 +246,7 @@ struct RunResult {
   std::optional<uint64_t> max_bits;  // --max-bits, when given (for replay commands)
   std::optional<uint64_t> effort;    // --effort, when not 1 (for replay commands)
   std::vector<ClaimResult> claims;
+  std::optional<ShardInfo> shard;  // set for one shard of a run
   bool any_refuted() const;
 };
 

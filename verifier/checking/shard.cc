@@ -128,4 +128,64 @@ std::string run_digest(const std::vector<ClaimEntry>& entries, const CheckOption
   return text;
 }
 
+RunResult merge_shards(std::vector<RunResult> shards, const std::vector<std::string>& names) {
+  auto refuse = [&](size_t i, const std::string& message, const std::string& hint) {
+    throw InputError(
+        Diagnostic{Location{i < names.size() ? names[i] : "<shard>", 1, 1}, message, hint, ""});
+  };
+  if (shards.empty()) refuse(0, "no shard reports to merge", "give the N reports of one run");
+  for (size_t i = 0; i < shards.size(); ++i) {
+    if (!shards[i].shard)
+      refuse(i, "this report is not a shard of a run", "merge the reports of 'check --shard K/N'");
+  }
+  const RunResult& first = shards.front();
+  const ShardInfo& info = *first.shard;
+  std::vector<int> seen(info.count + 1, -1);
+  for (size_t i = 0; i < shards.size(); ++i) {
+    const RunResult& r = shards[i];
+    const ShardInfo& s = *r.shard;
+    if (r.seed != first.seed)
+      refuse(i,
+             "this shard ran with seed " + std::to_string(r.seed) + ", the first with " +
+                 std::to_string(first.seed),
+             "merge the shards of one run: the same seed and options on every machine");
+    if (s.count != info.count || s.digest != info.digest || s.claims != info.claims ||
+        r.max_bits != first.max_bits || r.effort != first.effort ||
+        r.tool_version != first.tool_version)
+      refuse(i, "this shard belongs to another run (other claims, options or thetagate version)",
+             "merge the shards of one run: the same claim files, options and version everywhere");
+    if (s.index < 1 || s.index > info.count) refuse(i, "shard number out of range", "");
+    if (seen[s.index] >= 0)
+      refuse(i,
+             "shard " + std::to_string(s.index) + "/" + std::to_string(s.count) +
+                 " is given twice (also " + names[seen[s.index]] + ")",
+             "give each shard once");
+    seen[s.index] = static_cast<int>(i);
+  }
+  for (uint64_t k = 1; k <= info.count; ++k) {
+    if (seen[k] < 0)
+      refuse(0, "shard " + std::to_string(k) + "/" + std::to_string(info.count) + " is missing",
+             "give all " + std::to_string(info.count) + " shard reports of the run");
+  }
+  RunResult whole;
+  whole.tool_version = first.tool_version;
+  whole.seed = first.seed;
+  whole.max_bits = first.max_bits;
+  whole.effort = first.effort;
+  std::vector<std::optional<ClaimResult>> placed(info.claims);
+  for (size_t i = 0; i < shards.size(); ++i) {
+    for (ClaimResult& c : shards[i].claims) {
+      if (c.position >= info.claims || placed[c.position])
+        refuse(i, "the claim '" + c.name + "' has a place that is out of range or taken",
+               "the shard reports were edited: rerun the shards");
+      placed[c.position] = std::move(c);
+    }
+  }
+  for (auto& c : placed) {
+    if (!c) refuse(0, "the shards do not hold every claim of the run", "rerun the shards");
+    whole.claims.push_back(std::move(*c));
+  }
+  return whole;
+}
+
 }  // namespace thetagate::engine

@@ -19,6 +19,7 @@
 #include <vector>
 
 #include "verifier/checking/checker.h"
+#include "verifier/checking/result.h"
 #include "verifier/model/claim.h"
 
 namespace thetagate::engine {
@@ -43,6 +44,13 @@ std::vector<uint64_t> assign_shards(const std::vector<ClaimEntry>& entries,
 // A digest of the run's claim set and options, the same in every shard of
 // one run: merging refuses shards whose digests differ.
 std::string run_digest(const std::vector<ClaimEntry>& entries, const CheckOptions& options);
+
+// Joins the reports of the N shards of one run into the run's report, the
+// claims in their places as one unsharded run gives them. `names` name the
+// reports in messages. Throws InputError for a report that is not a shard,
+// shards of different runs (seed, options, claim set), and a shard missing
+// or given twice.
+RunResult merge_shards(std::vector<RunResult> shards, const std::vector<std::string>& names);
 
 }  // namespace thetagate::engine
 
