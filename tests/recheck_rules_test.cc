@@ -207,6 +207,15 @@ TEST(RecheckSubtract, OneStepAtATimeSumsTheDriver) {
   EXPECT_REJECTED(run("T(n) = T(n - 1) + n - 1\nT(1) = 0", "Theta(n^3)", c), "does not establish");
 }
 
+TEST(RecheckSubtract, AHarmonicDriverSumsToALogarithm) {
+  // orchard::ordered_map: the n-th key lands 2/n deeper on average; the sum
+  // of 2/j is 2 H_n = Θ(lg n) (common practice: the harmonic numbers).
+  CertificateData c = divide("subtract-and-conquer, a = 1", "1/n", "2", "2", "4");
+  c.method = "subtract";
+  EXPECT_RECHECKED(run("T(n) = T(n - 1) + 2/n\nT(0) = 0", "Theta(lg n)", c));
+  EXPECT_REJECTED(run("T(n) = T(n - 1) + 2/n\nT(0) = 0", "Theta(1)", c), "does not establish");
+}
+
 // --- Induction -------------------------------------------------------------
 
 TEST(RecheckInduction, MergeWorstCaseIsAtMostTwoNLgN) {

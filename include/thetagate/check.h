@@ -104,7 +104,7 @@ struct ClaimResult {
   std::optional<Diagnostic> error;             // kError from bad input: where and why
   std::string internal_error;                  // kError from a bug: what broke ("" otherwise)
   // With CheckOptions::recheck, for a claim that held: "re-checked (5
-  // obligations)", or "not re-checked: WHY"; a certificate the re-checker
+  // checks)", or "not re-checked: WHY"; a certificate the re-checker
   // rejects makes the claim kError with internal_error saying why.
   std::string recheck;
   std::string note;  // the claim's own note

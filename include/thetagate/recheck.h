@@ -34,7 +34,7 @@ THETAGATE_API std::vector<RecheckedClaim> recheck(const std::string& report_json
                                                   const std::string& report_name,
                                                   const std::vector<std::string>& claim_paths = {});
 
-// "re-checked (5 obligations)", "REJECTED: ...", "not re-checked: ...".
+// "re-checked (5 checks)", "REJECTED: ...", "not re-checked: ...".
 THETAGATE_API std::string recheck_status_line(const RecheckedClaim& claim);
 
 }  // namespace thetagate

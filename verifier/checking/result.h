@@ -221,7 +221,7 @@ struct ClaimResult {
   std::optional<Diagnostic> error;             // verdict error: the located input error
   std::string internal_error;                  // verdict error: a bug, what broke ("" otherwise)
   // The independent re-check of a holds's certificate, when one was asked
-  // for: "re-checked (5 obligations)", "not re-checked: WHY" ("" otherwise).
+  // for: "re-checked (5 checks)", "not re-checked: WHY" ("" otherwise).
   std::string recheck;
   std::string note;  // the claim's own `note`, copied
   uint64_t sizes_checked = 0;

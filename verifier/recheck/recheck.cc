@@ -179,7 +179,7 @@ RecheckResult recheck_report(const std::string& report_text, const std::string& 
 std::string status_line(const RecheckedClaim& claim) {
   switch (claim.status) {
     case RuleStatus::kRechecked:
-      return "re-checked (" + std::to_string(claim.obligations) + " obligations)";
+      return "re-checked (" + std::to_string(claim.obligations) + " checks)";
     case RuleStatus::kRejected:
       return "REJECTED: " + claim.detail;
     case RuleStatus::kNotRechecked:

@@ -43,7 +43,7 @@ RecheckResult recheck_report(const std::string& report_text, const std::string& 
 RecheckResult recheck_report(const std::string& report_text, const std::string& report_name,
                              const std::multimap<std::string, Claim>& claims);
 
-// "re-checked (5 obligations)", "REJECTED: ...", "not re-checked: ...".
+// "re-checked (5 checks)", "REJECTED: ...", "not re-checked: ...".
 std::string status_line(const RecheckedClaim& claim);
 
 }  // namespace thetagate::engine::recheck

@@ -484,14 +484,20 @@ RuleOutcome subtract(const Recurrence& r, const Bound& bound, const CertificateD
   Split sp = split_of(first.calls[0], r);
   ++count;
   DriverFacts d = driver_facts(c);
-  if (d.key.alpha < RealNumber(0L)) throw Unsupported("a driver that decreases");
+  // The sum of g = n^q lg^k n over the sizes up to n (common practice:
+  // compare it with the integral): Θ(n g(n)) for q > -1, Θ(lg^(k+1) n) for
+  // q = -1 and k > -1 (the harmonic numbers for k = 0); it converges below.
+  const RealNumber minus_one(-1L);
+  if (d.key.alpha < minus_one || (d.key.alpha == minus_one && d.key.beta <= -1))
+    throw Unsupported("a driver whose sum converges or grows like lg lg n");
   require_driver_bounds(r, st, d, count);
   SmallEvaluator eval(r);
   BigInt base_end = std::max(BigInt(st.threshold + numerator(Rational(-sp.t_low))), d.from);
   require_positive(eval, BigInt(1), base_end, false, count);
-  // T(n) = T(n0) + sum of f over n0 < j <= n, j ≡ n (mod c): Θ(n g(n)) for
-  // g = n^q lg^k n with q >= 0 (the sum of a regularly growing function).
-  Key t{1, d.key.alpha + RealNumber(1L), d.key.beta};
+  // T(n) = T(n0) + the sum of f over n0 < j <= n, j ≡ n (mod c), and f lies
+  // between low·g and high·g there.
+  Key t = d.key.alpha == minus_one ? Key{1, RealNumber(0L), d.key.beta + 1}
+                                   : Key{1, d.key.alpha + RealNumber(1L), d.key.beta};
   Key claimed =
       leading_key(expand(*bound.growth, Context{BigInt(16), 1, 0, nullptr}), "the claimed bound");
   int order = compare_keys(t, claimed);
