@@ -571,7 +571,7 @@ ProofOutcome prove_nonnegative(const Expansion& input, const BigInt& from, uint6
     if (++K > k0 + 20000)
       return {Proof::kUnproved, "its leading term does not outweigh the rest: " + describe(e)};
   }
-  BlockWalk walk{e, modulus, residue};
+  BlockWalk walk{e, modulus, residue, 400000, {}};
   Rational lo(from);
   Rational top = Rational(BigInt(1) << K);
   while (lo < top) {
