@@ -501,6 +501,7 @@ class ReportReader {
     c.method = string_at(j, path, "method");
     c.proof = string_at(j, path, "proof");
     c.driver_class = optional_string(j, path, "driver_class");
+    c.driver_class_low = optional_string(j, path, "driver_class_low");
     c.driver_low = optional_string(j, path, "driver_low");
     c.driver_high = optional_string(j, path, "driver_high");
     c.driver_from = optional_string(j, path, "driver_from");

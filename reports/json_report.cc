@@ -78,6 +78,7 @@ Json certificate_json(const std::optional<Certificate>& c) {
   j["proof"] = c->proof;
   for (const auto& [key, value] :
        {std::pair<const char*, const std::string&>{"driver_class", c->driver_class},
+        {"driver_class_low", c->driver_class_low},
         {"driver_low", c->driver_low},
         {"driver_high", c->driver_high},
         {"driver_from", c->driver_from},

@@ -191,6 +191,22 @@ TEST(RecheckDivide, IrregularDriverRegularityStatementIsRejectedWithItsClass) {
   EXPECT_REJECTED(run(rec, "Theta(n^2)", c), "n ≡ 1 (mod 4)");
 }
 
+TEST(RecheckDivide, AComparisonWithTwoDriversBoundsEachSide) {
+  // orchard::prune_odd: odd sizes cost n^2, even ones n. T lies between the
+  // recursions driven by n and by n^2: O(n^2) and Ω(n lg n).
+  const char* rec = "T(n) = 2T(n/2) + f(n)\nf(n) = n^2 if n odd\nf(n) = n otherwise\nT(1) = 1";
+  CertificateData c =
+      divide("comparison with the drivers n and n^2: master theorem", "n^2", "1/2", "1");
+  c.driver_class_low = "n";
+  EXPECT_RECHECKED(run(rec, "O(n^2)", c));
+  EXPECT_RECHECKED(run(rec, "Omega(n lg n)", c));
+  EXPECT_REJECTED(run(rec, "Theta(n^2)", c), "O(n^2) and Ω(n lg n)");
+  EXPECT_REJECTED(run(rec, "O(n lg n)", c), "does not establish");
+  // The lower constant past the truth on even lines: n >= 2 n fails.
+  c.driver_low = "2";
+  EXPECT_REJECTED(run(rec, "O(n^2)", c), "f(n) >= 2 g_low(n)");
+}
+
 TEST(RecheckDivide, APositiveBaseIsRequired) {
   // T(1) = -5 makes T(n) negative for a while: Leighton's base is positive.
   EXPECT_REJECTED(run("T(n) = 2T(n/2) + 1\nT(1) = -1000", "Theta(n)",

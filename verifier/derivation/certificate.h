@@ -27,6 +27,10 @@ struct Certificate {
   std::string driver_low;    // positive rationals in decimal: "1/2", "3"
   std::string driver_high;
   std::string driver_from;  // a whole number in decimal
+  // A comparison with two drivers (f has no single class): driver_low
+  // bounds f from below by this class instead of driver_class, which then
+  // bounds it from above only. "" when both bounds use driver_class.
+  std::string driver_class_low;
   // Case 3 concluded through a regularity bound proved on f itself:
   // a f(floor(n/b)) <= c f(n) for every n >= regularity_from. "" when unused.
   std::string regularity_c;

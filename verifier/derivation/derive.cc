@@ -235,6 +235,8 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
   d.driving = input.driving;
   d.driving_is_class = input.driving_is_class;
   d.driving_one_sided = input.driving_one_sided;
+  d.driving_upper = input.driving_upper;
+  d.driving_lower = input.driving_lower;
   // Exact values of T and f, for the theorems that look at numbers. Not
   // when the recurrence has a class term: its values are one member's, and a
   // theorem that solves with them (a linear recurrence's initial values and

@@ -36,6 +36,9 @@ struct Derivation {
   Classification driving;
   bool driving_is_class = false;   // f holds growth classes written as terms
   bool driving_one_sided = false;  // f has O or Ω terms
+  // Where f has no single class: the classes of its largest and smallest
+  // case lines (the drivers a comparison bounds f by).
+  std::optional<GrowthClass> driving_upper, driving_lower;
   // The applying theorem's case 3 rests on this regularity bound on f itself.
   std::optional<RegularityBound> regularity;
 

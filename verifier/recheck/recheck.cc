@@ -41,6 +41,7 @@ CertificateData certificate_of(const Json& basis) {
   c.method = text_at(cert, "method");
   c.proof = text_at(cert, "proof");
   c.driver_class = text_at(cert, "driver_class");
+  c.driver_class_low = text_at(cert, "driver_class_low");
   c.driver_low = text_at(cert, "driver_low");
   c.driver_high = text_at(cert, "driver_high");
   c.driver_from = text_at(cert, "driver_from");

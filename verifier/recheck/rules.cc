@@ -171,9 +171,17 @@ std::string class_name(const Context& ctx) {
 std::string key_text(const Key& k) {
   std::string out;
   if (k.rho != 1) out += to_string(k.rho) + "^n";
-  if (k.alpha.sign() != 0) out += (out.empty() ? "" : " ") + std::string("n^") + k.alpha.str();
-  if (k.beta != 0)
-    out += (out.empty() ? "" : " ") + std::string("lg^") + std::to_string(k.beta) + " n";
+  auto join = [&](const std::string& part) { out += (out.empty() ? "" : " ") + part; };
+  if (k.alpha == RealNumber(1L)) {
+    join("n");
+  } else if (k.alpha.sign() != 0) {
+    join("n^" + k.alpha.str());
+  }
+  if (k.beta == 1) {
+    join("lg n");
+  } else if (k.beta != 0) {
+    join("lg^" + std::to_string(k.beta) + " n");
+  }
   return out.empty() ? "1" : out;
 }
 
@@ -263,10 +271,12 @@ void require_positive(SmallEvaluator& eval, const BigInt& lo, const BigInt& hi, 
 
 // The driver bounds low·g <= f <= high·g from `from` on, for every line.
 struct DriverFacts {
-  ExprPtr g;
+  ExprPtr g;      // bounds f from above (and from below, unless g_low differs)
+  ExprPtr g_low;  // bounds f from below
   Rational low, high;
   BigInt from;
-  Key key;
+  Key key, key_low;
+  bool two_classes = false;  // a comparison: g_low is another class than g
 };
 
 DriverFacts driver_facts(const CertificateData& c) {
@@ -275,9 +285,15 @@ DriverFacts driver_facts(const CertificateData& c) {
   d.low = parse_rational(c.driver_low, "driver constant");
   d.high = parse_rational(c.driver_high, "driver constant");
   d.from = std::max(parse_size(c.driver_from, "driver start"), BigInt(4));
-  if (d.low <= 0 || d.high < d.low) throw Rejected{"the driver constants are not 0 < low <= high"};
+  d.two_classes = !c.driver_class_low.empty();
+  if (d.low <= 0 || d.high <= 0 || (!d.two_classes && d.high < d.low))
+    throw Rejected{"the driver constants are not 0 < low <= high"};
   d.key = leading_key(expand(*d.g, Context{BigInt(16), 1, 0, nullptr}), "the driver class");
-  if (d.key.rho != 1) throw Unsupported("an exponential driver class");
+  d.g_low = d.two_classes ? parse_text(c.driver_class_low, "lower driver class") : d.g;
+  d.key_low = leading_key(expand(*d.g_low, Context{BigInt(16), 1, 0, nullptr}), "the driver class");
+  if (d.two_classes && compare_keys(d.key_low, d.key) > 0)
+    throw Rejected{"the lower driver class grows faster than the upper one"};
+  if (d.key.rho != 1 || d.key_low.rho != 1) throw Unsupported("an exponential driver class");
   return d;
 }
 
@@ -290,9 +306,11 @@ void require_driver_bounds(const Recurrence& r, const Structure& st, const Drive
         [&](const Context& ctx, int& here) {
           Expansion f = driver_of(lin, ctx);
           Expansion g = expand(*d.g, ctx);
+          Expansion g_low = d.two_classes ? expand(*d.g_low, ctx) : g;
           std::string where = " for every n >= " + d.from.str() + class_name(ctx);
-          require(add(f, negate(scale(g, Coef::of(d.low)))), ctx,
-                  "f(n) >= " + to_string(d.low) + " g(n)" + where, here);
+          require(add(f, negate(scale(g_low, Coef::of(d.low)))), ctx,
+                  "f(n) >= " + to_string(d.low) + (d.two_classes ? " g_low(n)" : " g(n)") + where,
+                  here);
           require(add(scale(g, Coef::of(d.high)), negate(f)), ctx,
                   "f(n) <= " + to_string(d.high) + " g(n)" + where, here);
         },
@@ -416,48 +434,53 @@ RuleOutcome divide(const Recurrence& r, const Bound& bound, const CertificateDat
     throw Unsupported("whether the critical exponent equals " + x.str() +
                       " cannot be decided exactly");
   };
-  // sign(S(x) - 1) > 0 means x < p.
-  const RealNumber q = d.key.alpha;
-  const int k = d.key.beta;
-  int q_vs_p = -S_minus_1(q);  // -1: q < p, 0: q = p, +1: q > p
-  int named_case = 0;
-  if (c.proof.rfind("master theorem, case ", 0) == 0) named_case = c.proof[21] - '0';
-  int actual_case = q_vs_p < 0 ? 1 : (q_vs_p == 0 ? 2 : 3);
-  if (named_case != 0 && named_case != actual_case)
-    throw Rejected{"the certificate names case " + std::to_string(named_case) +
-                   ", but the driver n^" + q.str() +
-                   (q_vs_p < 0    ? " grows slower than"
-                    : q_vs_p == 0 ? " matches"
-                                  : " grows faster than") +
-                   " n^p (case " + std::to_string(actual_case) + ")"};
-  ++count;
+  // Compares the solution driven by g = n^q lg^k n with the claimed class:
+  // -1, 0, +1 as it is below, equal to, above it; `text` names it.
   Key claimed =
       leading_key(expand(*bound.growth, Context{BigInt(16), 1, 0, nullptr}), "the claimed bound");
-  // Compare the conclusion with the claim: -1, 0, +1 as conclusion <, =, > claimed.
-  int order;
-  std::string conclusion;
-  if (q_vs_p > 0 || (q_vs_p == 0 && k >= 0)) {
-    Key t{1, q, q_vs_p > 0 ? k : k + 1};
-    order = compare_keys(t, claimed);
-    conclusion = key_text(t);
-  } else if (q_vs_p == 0 && k == -1) {
-    throw Unsupported("a conclusion with lg lg n");
-  } else {
-    // Θ(n^p), p known through S: compare p with the claimed exponent.
-    conclusion = "n^p";
-    if (claimed.rho != 1) {
-      order = claimed.rho > 1 ? -1 : 1;
-    } else {
-      int c_vs_p = -S_minus_1(claimed.alpha);
-      order = c_vs_p != 0 ? -c_vs_p : (claimed.beta == 0 ? 0 : (claimed.beta > 0 ? -1 : 1));
+  auto order_of = [&](const Key& g, std::string& text) {
+    int q_vs_p = -S_minus_1(g.alpha);  // sign(S(x) - 1) > 0 means x < p
+    if (q_vs_p > 0 || (q_vs_p == 0 && g.beta >= 0)) {
+      Key t{1, g.alpha, q_vs_p > 0 ? g.beta : g.beta + 1};
+      text = key_text(t);
+      return compare_keys(t, claimed);
     }
+    if (q_vs_p == 0 && g.beta == -1) throw Unsupported("a conclusion with lg lg n");
+    // Θ(n^p), p known through S: compare p with the claimed exponent.
+    text = "n^p";
+    if (claimed.rho != 1) return claimed.rho > 1 ? -1 : 1;
+    int c_vs_p = -S_minus_1(claimed.alpha);
+    return c_vs_p != 0 ? -c_vs_p : (claimed.beta == 0 ? 0 : (claimed.beta > 0 ? -1 : 1));
+  };
+  if (!d.two_classes) {
+    int q_vs_p = -S_minus_1(d.key.alpha);  // -1: q < p, 0: q = p, +1: q > p
+    int named_case = 0;
+    if (c.proof.rfind("master theorem, case ", 0) == 0) named_case = c.proof[21] - '0';
+    int actual_case = q_vs_p < 0 ? 1 : (q_vs_p == 0 ? 2 : 3);
+    if (named_case != 0 && named_case != actual_case)
+      throw Rejected{"the certificate names case " + std::to_string(named_case) +
+                     ", but the driver n^" + d.key.alpha.str() +
+                     (q_vs_p < 0    ? " grows slower than"
+                      : q_vs_p == 0 ? " matches"
+                                    : " grows faster than") +
+                     " n^p (case " + std::to_string(actual_case) + ")"};
   }
-  bool holds = bound.kind == BoundKind::kTheta  ? order == 0
-               : bound.kind == BoundKind::kBigO ? order <= 0
-                                                : order >= 0;
-  if (!holds)
-    throw Rejected{"Akra–Bazzi gives Θ(" + conclusion + "), which does not establish " +
-                   bound.text()};
+  ++count;
+  // T lies between the solutions driven by low·g_low and high·g (a > 0: T is
+  // monotone in f); Akra–Bazzi gives each. An O claim needs the upper one
+  // at most the claim, an Ω claim the lower one at least, Θ both equal.
+  std::string upper_text, lower_text;
+  int upper = order_of(d.key, upper_text);
+  int lower = d.two_classes ? order_of(d.key_low, lower_text) : upper;
+  if (!d.two_classes) lower_text = upper_text;
+  bool holds = bound.kind == BoundKind::kTheta  ? upper == 0 && lower == 0
+               : bound.kind == BoundKind::kBigO ? upper <= 0
+                                                : lower >= 0;
+  if (!holds) {
+    std::string gives =
+        d.two_classes ? "O(" + upper_text + ") and Ω(" + lower_text + ")" : "Θ(" + upper_text + ")";
+    throw Rejected{"Akra–Bazzi gives " + gives + ", which does not establish " + bound.text()};
+  }
   ++count;
   out.status = RuleStatus::kRechecked;
   return out;
@@ -484,6 +507,7 @@ RuleOutcome subtract(const Recurrence& r, const Bound& bound, const CertificateD
   Split sp = split_of(first.calls[0], r);
   ++count;
   DriverFacts d = driver_facts(c);
+  if (d.two_classes) throw Unsupported("a comparison with two drivers in subtract-and-conquer");
   // The sum of g = n^q lg^k n over the sizes up to n (common practice:
   // compare it with the integral): Θ(n g(n)) for q > -1, Θ(lg^(k+1) n) for
   // q = -1 and k > -1 (the harmonic numbers for k = 0); it converges below.

@@ -21,6 +21,7 @@ struct CertificateData {
   std::string method;  // "divide", "subtract", "induction"
   std::string proof;   // "master theorem, case 2", ...
   std::string driver_class, driver_low, driver_high, driver_from;
+  std::string driver_class_low;  // a comparison: the lower driver's class
   std::string regularity_c, regularity_from;
   // Induction: the report's `induction` object.
   std::vector<std::string> sides;  // "upper", "lower"
