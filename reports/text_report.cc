@@ -318,6 +318,21 @@ std::string brief_evidence(const ClaimResult& c) {
   return why;
 }
 
+// After `check --recheck`: how the independent re-check answered, in one
+// line ("" without it). A rejected certificate made its claim an error.
+static std::string recheck_line(const RunResult& run) {
+  int rechecked = 0, not_rechecked = 0, rejected = 0;
+  for (const ClaimResult& c : run.claims) {
+    if (c.recheck.rfind("re-checked", 0) == 0) ++rechecked;
+    if (c.recheck.rfind("not re-checked", 0) == 0) ++not_rechecked;
+    if (c.recheck.rfind("REJECTED", 0) == 0) ++rejected;
+  }
+  if (rechecked + not_rechecked + rejected == 0) return "";
+  return fmt::format(
+      "re-check of the certificates: {} re-checked, {} not re-checked, {} rejected\n", rechecked,
+      not_rechecked, rejected);
+}
+
 std::string render_text(const RunResult& raw_run, const TextStyle& style) {
   // Names and notes come from claim files: their control bytes (escape
   // sequences, NUL) are shown escaped, never sent to the terminal.
@@ -365,6 +380,7 @@ std::string render_text(const RunResult& raw_run, const TextStyle& style) {
   }
   if (!run.claims.empty() && run.claims.back().verdict == Verdict::kHolds) out += "\n";
   out += summary_line(run);
+  out += recheck_line(run);
   // The fields above are escaped one by one; this pass catches any text a
   // future field brings along, so nothing from a claim file ever acts on the
   // reader's terminal. Only our own colour sequences stay.
@@ -391,6 +407,7 @@ std::string render_brief(const RunResult& raw_run, const TextStyle& style) {
     out += line + "\n";
   }
   out += summary_line(run);
+  out += recheck_line(run);
   return terminal_safe(out, style.colour);
 }
 

@@ -127,6 +127,19 @@ TEST_F(RecheckCli, CheckWithRecheckShowsTheAnswerUnderEachHolds) {
   EXPECT_EQ(r.status, 0) << r.out;
   EXPECT_NE(r.out.find("certificate: "), std::string::npos) << r.out;
   EXPECT_NE(r.out.find("; re-checked ("), std::string::npos) << r.out;
+  EXPECT_NE(r.out.find("re-check of the certificates: 1 re-checked, 0 not re-checked, 0 rejected"),
+            std::string::npos)
+      << r.out;
+  // The one-line answer a reviewer pastes says it too.
+  CommandResult brief = run_shell(
+      tg("check --recurrence 'T(n) = 2T(n/2) + n; T(1) = 1' --bound 'Theta(n lg n)' --recheck"));
+  EXPECT_EQ(brief.status, 0) << brief.out;
+  EXPECT_NE(brief.out.find("re-check of the certificates: 1 re-checked"), std::string::npos)
+      << brief.out;
+  // Without --recheck, nothing is said about a re-check.
+  CommandResult plain =
+      run_shell(tg("check --recurrence 'T(n) = 2T(n/2) + n; T(1) = 1' --bound 'Theta(n lg n)'"));
+  EXPECT_EQ(plain.out.find("re-check"), std::string::npos) << plain.out;
 }
 
 }  // namespace
