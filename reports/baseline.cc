@@ -142,6 +142,9 @@ class ReportReader {
       run.tool_version = tool->get<std::string>();
     }
     run.seed = unsigned_at(root, "", "seed");
+    if (const Json* started = optional_key(root, "started"); started && started->is_string()) {
+      run.started = started->get<std::string>();
+    }
     // Only when given: --max-bits and --effort, for replay commands.
     if (const Json* max_bits = optional_key(root, "max_bits"); max_bits && !max_bits->is_null()) {
       run.max_bits = unsigned_value(*max_bits, "max_bits");
@@ -653,6 +656,9 @@ class ReportReader {
     c.note = optional_string(j, path, "note");
     c.recurrence = optional_string(j, path, "recurrence");
     c.recheck = optional_string(j, path, "recheck");
+    if (const Json* s = optional_key(j, "seconds"); s && s->is_number() && s->get<double>() >= 0) {
+      c.seconds = s->get<double>();
+    }
     c.position = optional_unsigned(j, path, "position");
     c.sizes_checked = optional_unsigned(j, path, "sizes_checked");
     c.largest_bits = optional_unsigned(j, path, "largest_bits");

@@ -272,7 +272,8 @@ std::string render_html(const RunResult& run, const DriftReport* drift) {
     const ClaimResult& c = run.claims[i];
     s += claim_section(c, i + 1, c.verdict == Verdict::kHolds && !drifted[i]);
   }
-  s += "<footer><p>Checked by thetagate " + esc(run.tool_version) + ".</p></footer>\n";
+  s += "<footer><p>Checked by thetagate " + esc(run.tool_version) +
+       (run.started.empty() ? "" : ", started " + esc(run.started)) + ".</p></footer>\n";
   s += "</body>\n</html>\n";
   return s;
 }

@@ -225,6 +225,7 @@ Json claim_json(const ClaimResult& c, bool shard) {
   j["recurrence"] = c.recurrence;
   // Added in schema version 3.
   j["recheck"] = c.recheck;
+  j["seconds"] = c.seconds;
   if (shard) j["position"] = c.position;
   return j;
 }
@@ -235,6 +236,7 @@ std::string render_json(const RunResult& run) {
   Json j;
   j["schema_version"] = kJsonSchemaVersion;
   j["tool_version"] = run.tool_version;
+  j["started"] = run.started;
   j["seed"] = run.seed;
   // The options a replay needs besides the seed, when they were given.
   if (run.max_bits) j["max_bits"] = *run.max_bits;

@@ -184,7 +184,13 @@ std::string render_junit(const RunResult& run, const JunitOptions& options) {
     for (const ClaimResult& c : run.claims) {
       if (suite_name(c) == suite) counts.add(c, options);
     }
-    out += "  <testsuite" + attr("name", suite) + counts.attributes() + ">\n";
+    double suite_seconds = 0;
+    for (const ClaimResult& c : run.claims) {
+      if (suite_name(c) == suite) suite_seconds += c.seconds;
+    }
+    out += "  <testsuite" + attr("name", suite) + counts.attributes() +
+           attr("time", fmt::format("{:.3f}", suite_seconds)) +
+           (run.started.empty() ? "" : attr("timestamp", run.started.substr(0, 19))) + ">\n";
     out += "    <properties>\n";
     out +=
         "      <property" + attr("name", "seed") + attr("value", std::to_string(run.seed)) + "/>\n";
@@ -193,7 +199,8 @@ std::string render_junit(const RunResult& run, const JunitOptions& options) {
     out += "    </properties>\n";
     for (const ClaimResult& c : run.claims) {
       if (suite_name(c) != suite) continue;
-      out += "    <testcase" + attr("name", c.name) + attr("classname", class_name(c.file));
+      out += "    <testcase" + attr("name", c.name) + attr("classname", class_name(c.file)) +
+             attr("time", fmt::format("{:.3f}", c.seconds));
       if (!c.file.empty()) out += attr("file", c.file) + attr("line", std::to_string(c.line));
       const ClaimDrift* drift = drift_of(c, options);
       std::string outcome = outcome_element(c, options);

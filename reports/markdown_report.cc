@@ -133,6 +133,7 @@ std::string render_markdown(const RunResult& run) {
   std::string out = "### thetagate: " + summary + "\n\n";
   out += "Seed " + std::to_string(run.seed);
   if (!run.tool_version.empty()) out += ", thetagate " + markdown_text(run.tool_version);
+  if (!run.started.empty()) out += ", started " + markdown_text(run.started);
   out += ".";
   if (run.claims.empty()) return out + "\n";
   out += " Claims that did not hold are explained below the table.\n\n";

@@ -346,6 +346,9 @@ std::string render_text(const RunResult& raw_run, const TextStyle& style) {
   }
   Painter painter(style);
   std::string tool = run.tool_version.empty() ? "" : "thetagate " + run.tool_version + " \u00b7 ";
+  // "2026-12-05T07:32:04Z" reads as "2026-12-05 07:32 UTC".
+  if (run.started.size() == 20)
+    tool += run.started.substr(0, 10) + " " + run.started.substr(11, 5) + " UTC \u00b7 ";
   std::string out = painter.dim(fmt::format("{}seed {} (rerun with {} to replay this run)",
                                             escape_controls(tool), run.seed, replay_options(run)));
   out += "\n\n";

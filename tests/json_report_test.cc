@@ -32,8 +32,8 @@ TEST(JsonReport, MatchesGolden) { expect_matches_golden("report.json", render_js
 
 TEST(JsonReport, TopLevelKeysInOrder) {
   Json j = Json::parse(render_json(sample_run()));
-  EXPECT_EQ(keys_of(j),
-            (std::vector<std::string>{"schema_version", "tool_version", "seed", "claims"}));
+  EXPECT_EQ(keys_of(j), (std::vector<std::string>{"schema_version", "tool_version", "started",
+                                                  "seed", "claims"}));
   EXPECT_EQ(j["schema_version"], 3);
   EXPECT_EQ(j["seed"], 20240611u);
   EXPECT_EQ(j["claims"].size(), 6u);
@@ -49,7 +49,7 @@ TEST(JsonReport, ClaimKeysStartWithTheDesignKeys) {
       "method",     "tight",   "witnesses", "band",          "message",           "numeric_only",
       "notes",      "reasons", "note",      "sizes_checked", "largest_bits",      "error",
       "function",   "proof",   "basis",     "steps",         "failed_hypotheses", "code",
-      "recurrence", "recheck"};
+      "recurrence", "recheck", "seconds"};
   for (const Json& claim : j["claims"]) EXPECT_EQ(keys_of(claim), expected);
 }
 

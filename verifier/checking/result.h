@@ -227,6 +227,7 @@ struct ClaimResult {
   uint64_t sizes_checked = 0;
   uint64_t largest_bits = 0;       // bits of the largest size evaluated
   uint64_t position = 0;           // the claim's place in the whole run (a shard keeps it)
+  double seconds = 0;              // wall time of the claim's check (0 in a reproducible run)
   std::optional<CodeResult> code;  // the claim's link to code, when it has one
 };
 
@@ -243,6 +244,9 @@ struct RunResult {
   // report written before reports carried it.
   std::string tool_version = THETAGATE_VERSION_STRING;
   uint64_t seed = 0;
+  // When the run started, UTC, "2026-12-05T07:32:04Z" (SOURCE_DATE_EPOCH's
+  // time in a reproducible run, run.h); "" for a report written before.
+  std::string started;
   std::optional<uint64_t> max_bits;  // --max-bits, when given (for replay commands)
   std::optional<uint64_t> effort;    // --effort, when not 1 (for replay commands)
   std::vector<ClaimResult> claims;

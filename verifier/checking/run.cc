@@ -4,6 +4,11 @@
 
 #include <algorithm>
 #include <atomic>
+#include <cerrno>
+#include <chrono>
+#include <cmath>
+#include <cstdlib>
+#include <ctime>
 #include <exception>
 #include <map>
 #include <mutex>
@@ -105,6 +110,25 @@ std::vector<size_t> select_names(const std::vector<std::string>& all,
   return picked;
 }
 
+std::optional<int64_t> reproducible_epoch() {
+  const char* text = std::getenv("SOURCE_DATE_EPOCH");
+  if (text == nullptr || *text == '\0') return std::nullopt;
+  char* end = nullptr;
+  errno = 0;
+  long long value = std::strtoll(text, &end, 10);
+  if (errno != 0 || *end != '\0' || value < 0) return std::nullopt;
+  return value;
+}
+
+std::string utc_text(int64_t seconds) {
+  std::time_t t = static_cast<std::time_t>(seconds);
+  std::tm parts{};
+  gmtime_r(&t, &parts);
+  char text[32];
+  std::strftime(text, sizeof text, "%Y-%m-%dT%H:%M:%SZ", &parts);
+  return text;
+}
+
 RunResult check_in_parallel(const std::vector<ClaimEntry>& entries, const CheckOptions& requested,
                             unsigned jobs,
                             const std::function<void(size_t, size_t, const std::string&)>& progress,
@@ -116,6 +140,11 @@ RunResult check_in_parallel(const std::vector<ClaimEntry>& entries, const CheckO
       std::max<uint64_t>(1, std::min(options.budget.max_memo_bytes, memory_limit));
   RunResult run;
   run.seed = options.seed;
+  std::optional<int64_t> epoch = reproducible_epoch();
+  run.started = utc_text(epoch ? *epoch
+                               : std::chrono::duration_cast<std::chrono::seconds>(
+                                     std::chrono::system_clock::now().time_since_epoch())
+                                     .count());
   run.max_bits = options.max_bits;
   if (options.effort != 1) run.effort = options.effort;
   run.claims.resize(entries.size());
@@ -128,7 +157,12 @@ RunResult check_in_parallel(const std::vector<ClaimEntry>& entries, const CheckO
       size_t i = next.fetch_add(1);
       if (i >= entries.size()) break;
       // check_entry keeps every exception of the claim on the claim.
+      auto begin = std::chrono::steady_clock::now();
       run.claims[i] = check_entry(entries[i], options);
+      if (!epoch) {
+        std::chrono::duration<double> spent = std::chrono::steady_clock::now() - begin;
+        run.claims[i].seconds = std::round(spent.count() * 1000) / 1000;  // milliseconds
+      }
       if (progress) {
         std::lock_guard<std::mutex> lock(progress_lock);
         if (progress_failure) break;

@@ -59,6 +59,14 @@ std::vector<size_t> select_names(const std::vector<std::string>& all,
 // same as a serial run, claim for claim, and a bug in one claim stays on
 // that claim. `progress` may be empty; if it throws, no further claims are
 // started and its exception is rethrown here once the workers stop.
+// A reproducible run: SOURCE_DATE_EPOCH (seconds since 1970, common practice
+// for reproducible builds) set to a whole number. Its report then carries
+// that time as the run's start and 0 as every claim's wall time, so the
+// same claims and seed give the same bytes; nullopt when not set.
+std::optional<int64_t> reproducible_epoch();
+// "2026-12-05T07:32:04Z" for a time in seconds since 1970.
+std::string utc_text(int64_t seconds);
+
 RunResult check_in_parallel(const std::vector<ClaimEntry>& entries, const CheckOptions& options,
                             unsigned jobs,
                             const std::function<void(size_t, size_t, const std::string&)>& progress,

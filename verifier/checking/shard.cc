@@ -170,6 +170,11 @@ RunResult merge_shards(std::vector<RunResult> shards, const std::vector<std::str
   RunResult whole;
   whole.tool_version = first.tool_version;
   whole.seed = first.seed;
+  // The run started when its first shard did.
+  for (const RunResult& r : shards) {
+    if (whole.started.empty() || (!r.started.empty() && r.started < whole.started))
+      whole.started = r.started;
+  }
   whole.max_bits = first.max_bits;
   whole.effort = first.effort;
   std::vector<std::optional<ClaimResult>> placed(info.claims);
