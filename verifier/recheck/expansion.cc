@@ -214,8 +214,9 @@ Coef rational_power(const Rational& s, const RealNumber& k) {
       // s^k = guess exactly iff log_s(guess) = k, both exact logarithms.
       try {
         if (guess > 0 && RealNumber::log(s, guess) == k) return Coef::of(guess);
-      } catch (const std::exception&) {
+      } catch (const PrecisionShortfall&) {
         // Not decidable exactly: keep the enclosure.
+      } catch (const DomainError&) {
       }
       if (rest - a < 1e-12) break;
       rest = 1 / (rest - a);

@@ -700,13 +700,15 @@ RuleOutcome check_certificate(const Recurrence& recurrence, const Bound& bound,
     return {RuleStatus::kRejected, r.why, 0};
   } catch (const Unsupported& u) {
     return {RuleStatus::kNotRechecked, u.what(), 0};
-  } catch (const std::bad_alloc&) {
-    throw;
-  } catch (const std::exception& e) {
+  } catch (const PrecisionShortfall& e) {
     // A comparison the exact reals cannot decide, a domain error, a budget:
     // the re-checker cannot follow, which is never an acceptance.
     return {RuleStatus::kNotRechecked, std::string("the re-checker could not decide: ") + e.what(),
             0};
+  } catch (const DomainError& e) {
+    return {RuleStatus::kNotRechecked, std::string("the re-checker met: ") + e.what(), 0};
+  } catch (const LimitReached& e) {
+    return {RuleStatus::kNotRechecked, std::string("the re-checker ran out: ") + e.what(), 0};
   }
 }
 

@@ -60,9 +60,10 @@ Value SmallEvaluator::at(const BigInt& n) {
   for (; m < n; ++m) {
     try {
       at(m);
-    } catch (const std::exception&) {
+    } catch (const Unsupported&) {
       // A size the claim never reaches (T(0) with lg 0 in its line): only an
       // error if some later size needs it, and then it is raised there.
+    } catch (const LimitReached&) {
     }
   }
   std::map<std::string, Value> bound;
