@@ -12,7 +12,10 @@ namespace thetagate::engine {
 
 namespace {
 
-constexpr double kLeft = 64, kRight = 72, kTop = 14, kBottom = 40;
+constexpr double kLeft = 64, kRight = 72, kTop = 24, kBottom = 40;
+// Labels of constant lines closer than this (in pixels) to one already drawn
+// are left out; the line keeps its label as a tooltip.
+constexpr double kLabelGap = 13;
 constexpr size_t kMaxMarkers = 64;
 
 // log2 of a band end: the engine's log2 where it was filled in, else from the
@@ -116,10 +119,9 @@ std::string render_band_plot(const std::vector<BandRow>& band, const std::vector
       "<text class=\"axis\" x=\"{:.1f}\" y=\"{:.1f}\" text-anchor=\"middle\">"
       "size n in bits</text>\n",
       kLeft + plot_w / 2, height - 6);
-  svg += fmt::format(
-      "<text class=\"axis\" transform=\"translate(14 {:.1f}) rotate(-90)\" "
-      "text-anchor=\"middle\">T(n)/g(n), log scale</text>\n",
-      kTop + plot_h / 2);
+  // Above the plot, where no tick label reaches it.
+  svg += fmt::format("<text class=\"axis\" x=\"{:.1f}\" y=\"{:.1f}\">T(n)/g(n), log scale</text>\n",
+                     kLeft, kTop - 9);
 
   // The band, then its two edges.
   std::string band_points, low_points, high_points;
@@ -146,14 +148,25 @@ std::string render_band_plot(const std::vector<BandRow>& band, const std::vector
     }
   }
 
-  // Constant lines, labelled in the right margin.
+  // Constant lines, labelled in the right margin where a label fits (the
+  // first lines first: ratio 1, then the ladder's lowest rungs); every line
+  // keeps its label as a tooltip.
+  std::vector<double> labelled;
   for (const PlotLine& line : lines) {
     double y = sy(std::log2(line.ratio));
+    std::string label = xml_escape_text(line.label);
     svg += fmt::format(
         "<line class=\"constant\" x1=\"{0:.1f}\" y1=\"{1:.1f}\" x2=\"{2:.1f}\" "
-        "y2=\"{1:.1f}\"/><text class=\"constant-label\" x=\"{3:.1f}\" "
-        "y=\"{4:.1f}\">{5}</text>\n",
-        kLeft, y, kLeft + plot_w, kLeft + plot_w + 4, y + 4, xml_escape_text(line.label));
+        "y2=\"{1:.1f}\"><title>{3}</title></line>",
+        kLeft, y, kLeft + plot_w, label);
+    bool fits = std::none_of(labelled.begin(), labelled.end(),
+                             [&](double other) { return std::fabs(other - y) < kLabelGap; });
+    if (fits) {
+      labelled.push_back(y);
+      svg += fmt::format("<text class=\"constant-label\" x=\"{:.1f}\" y=\"{:.1f}\">{}</text>",
+                         kLeft + plot_w + 4, y + 4, label);
+    }
+    svg += "\n";
   }
   svg += "</svg>";
   return svg;

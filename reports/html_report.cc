@@ -29,6 +29,8 @@ code, pre, .num { font-family: ui-monospace, monospace; font-size: 0.92em; }
 table { border-collapse: collapse; margin: 0.4em 0; }
 th, td { text-align: left; padding: 0.2em 0.7em; border-bottom: 1px solid #ddd; vertical-align: top; }
 th { font-weight: 600; white-space: nowrap; }
+table.witnesses { width: 100%; table-layout: fixed; }
+table.witnesses th, table.witnesses td { overflow-wrap: anywhere; white-space: normal; }
 .summary td:first-child { white-space: nowrap; }
 .claim { border: 1px solid #ccd; border-left-width: 6px; border-radius: 4px; padding: 0.8em 1.1em;
          margin: 1.4em 0; }
@@ -110,7 +112,13 @@ std::vector<PlotLine> plot_lines(const ClaimResult& c) {
     double factor = std::strtod(w.factor.c_str(), nullptr);
     if (!(factor > 0) || !std::isfinite(factor)) continue;
     double ratio = w.side == Side::kUpper ? factor : 1.0 / factor;
-    std::string label = (w.side == Side::kUpper ? "c = " : "1/c, c = ") + w.factor;
+    // Powers of ten as 10^k: "c = 10^12" fits the plot's margin.
+    std::string factor_text = w.factor;
+    if (factor_text.size() > 4 && factor_text[0] == '1' &&
+        factor_text.find_first_not_of('0', 1) == std::string::npos) {
+      factor_text = "10^" + std::to_string(factor_text.size() - 1);
+    }
+    std::string label = (w.side == Side::kUpper ? "c = " : "1/c, c = ") + factor_text;
     bool seen = false;
     for (const PlotLine& l : lines) seen = seen || l.label == label;
     if (!seen) lines.push_back({ratio, label});

@@ -127,7 +127,8 @@ class HtmlReportBrowser : public ::testing::Test {
 
   // Runs the browser on `page` (written to a file) with `action`, e.g.
   // "--dump-dom"; returns stdout. A failed or hung browser fails the test.
-  std::string run(const std::string& page, const std::string& action) {
+  std::string run(const std::string& page, const std::string& action,
+                  const std::string& window = "1280,2400") {
     std::string file = dir_ + "/page.html";
     std::ofstream(file, std::ios::binary) << page;
     std::string out = dir_ + "/stdout";
@@ -135,9 +136,9 @@ class HtmlReportBrowser : public ::testing::Test {
         "timeout 120 '" + browser_ +
         "' --headless --no-sandbox --disable-gpu --disable-quic "
         "--no-first-run --disable-background-networking --disable-component-update --disable-sync "
-        "--hide-scrollbars --window-size=1280,2400 --user-data-dir='" +
-        dir_ + "/profile' " + action + " 'file://" + file + "' >'" + out + "' 2>'" + dir_ +
-        "/stderr'";
+        "--hide-scrollbars --window-size=" +
+        window + " --user-data-dir='" + dir_ + "/profile' " + action + " 'file://" + file + "' >'" +
+        out + "' 2>'" + dir_ + "/stderr'";
     int status = std::system(command.c_str());
     EXPECT_TRUE(WIFEXITED(status) && WEXITSTATUS(status) == 0) << command << "\n"
                                                                << read_file(dir_ + "/stderr");
@@ -219,6 +220,58 @@ TEST_F(HtmlReportBrowser, HtmlReportScreenshotIsAFullWindowPng) {
   if (const char* keep = std::getenv("THETAGATE_KEEP_SCREENSHOT")) {
     std::filesystem::copy_file(shot, keep, std::filesystem::copy_options::overwrite_existing);
   }
+}
+
+// The layout of a whole report, measured by the browser (issue 18, §4): with
+// every <details> opened, no element sticks out of its claim's card, and no
+// two labels of a plot overlap. Written into the DOM as "ok" or the problems.
+const char* const kLayout = R"js(<script>
+const problems = [];
+for (const card of document.querySelectorAll('section.claim')) {
+  for (const d of card.querySelectorAll('details')) d.open = true;
+}
+for (const card of document.querySelectorAll('section.claim')) {
+  const c = card.getBoundingClientRect();
+  for (const el of card.querySelectorAll('*')) {
+    const r = el.getBoundingClientRect();
+    if (r.width === 0) continue;
+    if (r.right > c.right + 1 || r.left < c.left - 1)
+      problems.push(`wider than its card: ${card.id} ${el.tagName}.${el.className && el.className.baseVal !== undefined ? el.className.baseVal : el.className} ${Math.round(r.left)}..${Math.round(r.right)} card ${Math.round(c.left)}..${Math.round(c.right)}`);
+  }
+}
+for (const svg of document.querySelectorAll('svg')) {
+  const texts = [...svg.querySelectorAll('text')].map(t => [t, t.getBoundingClientRect()]).filter(x => x[1].width > 0);
+  for (let i = 0; i < texts.length; ++i)
+    for (let j = i + 1; j < texts.length; ++j) {
+      const a = texts[i][1], b = texts[j][1];
+      if (a.left < b.right - 0.5 && b.left < a.right - 0.5 && a.top < b.bottom - 0.5 && b.top < a.bottom - 0.5)
+        problems.push(`overlapping labels in ${svg.closest('section') ? svg.closest('section').id : '?'}: "${texts[i][0].textContent}" and "${texts[j][0].textContent}"`);
+    }
+}
+const out = document.createElement('pre');
+out.id = 'measured';
+out.textContent = problems.length ? problems.join('\n') : 'ok';
+document.body.appendChild(out);
+</script>
+)js";
+
+// The demo report at 1400 pixels: long witness values and ladders of many
+// rungs (c = 10 ... 10^12) are what broke it before.
+TEST_F(HtmlReportBrowser, DemoReportFitsItsCardsAndItsLabelsDoNotOverlap) {
+  std::string report = dir_ + "/demo.html";
+  test_support::CommandResult r = test_support::run_shell(
+      std::string("cd '") + THETAGATE_SOURCE_DIR + "' && '" + THETAGATE_BINARY +
+      "' check claims --jobs 2 --format html --out '" + report + "'");
+  ASSERT_LE(r.status, 1) << r.out;
+  std::string html = read_file(report);
+  size_t body_end = html.rfind("</body>");
+  ASSERT_NE(body_end, std::string::npos);
+  std::string dom =
+      run(html.substr(0, body_end) + kLayout + html.substr(body_end), "--dump-dom", "1400,2400");
+  size_t start = dom.find("<pre id=\"measured\">");
+  ASSERT_NE(start, std::string::npos) << "the measuring script did not run";
+  start += std::string("<pre id=\"measured\">").size();
+  EXPECT_EQ(dom.substr(start, dom.find("</pre>", start) - start), "ok");
 }
 
 }  // namespace
