@@ -68,30 +68,32 @@ std::string render_cost_plot(const CodeResult& code) {
     points.push_back({x, model, cost, broken});
   }
   if (points.empty()) return "";
+  // y: the counted cost over T(n), on a linear scale around 1, so that a
+  // cost 2% past the model stands out as clearly as one 10 times past it.
+  std::vector<double> ratios;
   double x_lo = points.front().x, x_hi = points.back().x;
-  double y_lo = INFINITY, y_hi = -INFINITY;
+  double y_lo = 1, y_hi = 1;
   for (const Point& p : points) {
-    for (double y : {p.model, p.cost}) {
-      if (!std::isfinite(y)) continue;
-      y_lo = std::min(y_lo, y);
-      y_hi = std::max(y_hi, y);
-    }
+    double r = std::isfinite(p.model) && std::isfinite(p.cost) ? std::exp2(p.cost - p.model) : NAN;
+    ratios.push_back(r);
+    if (!std::isfinite(r)) continue;
+    y_lo = std::min(y_lo, r);
+    y_hi = std::max(y_hi, r);
   }
-  if (!std::isfinite(y_lo)) return "";
   if (x_hi - x_lo < 1) x_hi = x_lo + 1;
-  if (y_hi - y_lo < 1) y_hi = y_lo + 1;
-  y_lo = std::floor(y_lo);
-  y_hi = std::ceil(y_hi);
   x_lo = std::floor(x_lo);
   x_hi = std::ceil(x_hi);
+  double pad = std::max((y_hi - y_lo) * 0.1, 0.02);
+  y_lo = std::max(0.0, y_lo - pad);
+  y_hi += pad;
   const double plot_w = kWidth - kLeft - kRight, plot_h = kHeight - kTop - kBottom;
   auto px = [&](double x) { return kLeft + (x - x_lo) / (x_hi - x_lo) * plot_w; };
   auto py = [&](double y) { return kTop + (1 - (y - y_lo) / (y_hi - y_lo)) * plot_h; };
 
   std::string svg = fmt::format(
       "<svg class=\"cost-plot\" width=\"{0}\" height=\"{1}\" viewBox=\"0 0 {0} {1}\" "
-      "xmlns=\"http://www.w3.org/2000/svg\" role=\"img\" aria-label=\"counted cost and T(n) "
-      "over n, log-log\">\n",
+      "xmlns=\"http://www.w3.org/2000/svg\" role=\"img\" aria-label=\"counted cost over T(n) "
+      "against n\">\n",
       kWidth, kHeight);
   svg += fmt::format("<rect class=\"frame\" x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"/>\n",
                      kLeft, kTop, plot_w, plot_h);
@@ -102,37 +104,37 @@ std::string render_cost_plot(const CodeResult& code) {
         "<text class=\"tick\" x=\"{0:.1f}\" y=\"{3:.1f}\" text-anchor=\"middle\">2^{4}</text>\n",
         px(x), kTop, kTop + plot_h, kTop + plot_h + 14, static_cast<int>(x));
   }
-  int y_step = std::max(1, static_cast<int>(std::ceil((y_hi - y_lo) / 6)));
-  for (double y = y_lo; y <= y_hi + 1e-9; y += y_step) {
+  // Ticks at 1, 2 or 5 times a power of ten apart, about five of them.
+  double raw = (y_hi - y_lo) / 5;
+  double step = std::pow(10.0, std::floor(std::log10(raw)));
+  for (double m : {1.0, 2.0, 5.0, 10.0}) {
+    if (m * step >= raw) {
+      step *= m;
+      break;
+    }
+  }
+  for (double y = std::ceil(y_lo / step) * step; y <= y_hi + 1e-9; y += step) {
     svg += fmt::format(
         "<line class=\"grid\" x1=\"{0:.1f}\" y1=\"{1:.1f}\" x2=\"{2:.1f}\" y2=\"{1:.1f}\"/>"
-        "<text class=\"tick\" x=\"{3:.1f}\" y=\"{4:.1f}\" text-anchor=\"end\">2^{5}</text>\n",
-        kLeft, py(y), kLeft + plot_w, kLeft - 4, py(y) + 4, static_cast<int>(y));
+        "<text class=\"tick\" x=\"{3:.1f}\" y=\"{4:.1f}\" text-anchor=\"end\">{5:g}</text>\n",
+        kLeft, py(y), kLeft + plot_w, kLeft - 4, py(y) + 4, std::round(y * 1000) / 1000);
   }
   svg += fmt::format(
       "<text class=\"axis\" x=\"{:.1f}\" y=\"{:.1f}\" text-anchor=\"middle\">n</text>\n",
       kLeft + plot_w / 2, kHeight - 6);
+  // The model itself: cost = T(n), ratio 1.
   svg += fmt::format(
-      "<text class=\"axis\" transform=\"translate(14 {:.1f}) rotate(-90)\" "
-      "text-anchor=\"middle\">cost</text>\n",
-      kTop + plot_h / 2);
-  std::string line;
-  for (const Point& p : points) {
-    if (!std::isfinite(p.model)) continue;
-    line += fmt::format("{:.1f},{:.1f} ", px(p.x), py(p.model));
-  }
-  if (!line.empty()) {
-    line.pop_back();
-    svg += "<polyline class=\"model\" points=\"" + line + "\"/>\n";
-  }
-  for (const Point& p : points) {
-    if (!std::isfinite(p.cost)) continue;
+      "<line class=\"model\" x1=\"{0:.1f}\" y1=\"{1:.1f}\" x2=\"{2:.1f}\" y2=\"{1:.1f}\"/>\n",
+      kLeft, py(1), kLeft + plot_w);
+  for (size_t i = 0; i < points.size(); ++i) {
+    if (!std::isfinite(ratios[i])) continue;
     svg += fmt::format("<circle class=\"{}\" cx=\"{:.1f}\" cy=\"{:.1f}\" r=\"3\"/>\n",
-                       p.broken ? "counted broken" : "counted", px(p.x), py(p.cost));
+                       points[i].broken ? "counted broken" : "counted", px(points[i].x),
+                       py(ratios[i]));
   }
   svg += fmt::format(
-      "<text class=\"legend\" x=\"{:.1f}\" y=\"{:.1f}\">line: T(n); dots: counted cost "
-      "({})</text>\n",
+      "<text class=\"legend\" x=\"{:.1f}\" y=\"{:.1f}\">dots: counted cost / T(n) ({}); "
+      "line: 1, the model</text>\n",
       kLeft + 8, kTop + 14,
       code.relation == ModelRelation::kUpperBound   ? "largest per size"
       : code.relation == ModelRelation::kLowerBound ? "smallest per size"

@@ -1,5 +1,6 @@
-// An inline SVG plot of counted costs against T(n) over n (log-log), for the
-// HTML report's code -> model section.
+// An inline SVG plot of counted cost / T(n) over n (n on a log scale, the
+// ratio on a linear one around 1), for the HTML report's code -> model
+// section: a cost a few percent past the model is visible.
 #ifndef THETAGATE_REPORTS_COST_PLOT_H_
 #define THETAGATE_REPORTS_COST_PLOT_H_
 
@@ -14,9 +15,9 @@ namespace thetagate::engine {
 // is none of these.
 double log2_of_decimal_text(const std::string& text);
 
-// The plot, or "" when fewer than one row has a positive size and cost. T(n)
-// is a line through the rows; each row's counted cost is a dot, red where it
-// breaks the model.
+// The plot, or "" when no row has a positive size. The model is the line at
+// ratio 1; each row's counted cost over T(n) is a dot, red where it breaks
+// the model.
 std::string render_cost_plot(const CodeResult& code);
 
 }  // namespace thetagate::engine

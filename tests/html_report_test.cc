@@ -16,6 +16,7 @@
 #include <sstream>
 
 #include "reports/band_plot.h"
+#include "reports/cost_plot.h"
 #include "tests/report_fixture.h"
 #include "tests/test_support.h"
 
@@ -272,6 +273,41 @@ TEST_F(HtmlReportBrowser, DemoReportFitsItsCardsAndItsLabelsDoNotOverlap) {
   ASSERT_NE(start, std::string::npos) << "the measuring script did not run";
   start += std::string("<pre id=\"measured\">").size();
   EXPECT_EQ(dom.substr(start, dom.find("</pre>", start) - start), "ok");
+}
+
+}  // namespace
+}  // namespace thetagate::engine
+
+namespace thetagate::engine {
+namespace {
+
+// The counted-cost plot shows cost / T(n) on a linear scale (issue 18, §4):
+// a cost 2% past the model sits well clear of the model's line.
+TEST(CostPlot, AFewPercentPastTheModelIsVisible) {
+  CodeResult code;
+  code.relation = ModelRelation::kUpperBound;
+  for (int k = 4; k <= 12; ++k) {
+    CostRow row;
+    row.n = BigInt(1) << k;
+    BigInt t = BigInt(k) << k;  // T(n) = n lg n
+    bool over = k == 10;
+    row.model = t.str();
+    row.cost = over ? BigInt(t * 102 / 100).str() : t.str();
+    row.sign = over ? 1 : 0;
+    code.rows.push_back(row);
+  }
+  std::string svg = render_cost_plot(code);
+  auto number_after = [&](const std::string& key, size_t from) {
+    size_t at = svg.find(key, from);
+    EXPECT_NE(at, std::string::npos) << key;
+    return std::stod(svg.substr(at + key.size()));
+  };
+  double model_y = number_after("<line class=\"model\" x1=\"", 0);
+  model_y = number_after("y1=\"", svg.find("<line class=\"model\""));
+  double broken_y = number_after("cy=\"", svg.find("class=\"counted broken\""));
+  double fine_y = number_after("cy=\"", svg.find("class=\"counted\""));
+  EXPECT_NEAR(fine_y, model_y, 0.5);
+  EXPECT_GT(model_y - broken_y, 20) << svg;  // pixels: visibly above the line
 }
 
 }  // namespace
