@@ -12,6 +12,7 @@
 #include "reports/cost_plot.h"
 #include "reports/drift.h"
 #include "reports/number_text.h"
+#include "reports/text_report.h"
 #include "reports/verdict_text.h"
 #include "reports/xml_escape.h"
 
@@ -259,9 +260,9 @@ std::string render_html(const RunResult& run, const DriftReport* drift) {
   s += std::string("<style>") + kStyle + "</style>\n</head>\n<body>\n";
   s += "<header>\n<h1>thetagate report</h1>\n";
   s += fmt::format(
-      "<p>Seed <code>{0}</code>: rerun with <code>--seed {0}</code> to replay this "
-      "run. {1}.</p>\n</header>\n",
-      run.seed, esc(summary));
+      "<p>Seed <code>{0}</code>: rerun with <code>{1}</code> to replay this "
+      "run. {2}.</p>\n</header>\n",
+      run.seed, esc(replay_options(run)), esc(summary));
   if (drift) s += drift_section(*drift);
   s += "<table class=\"summary\">\n<tr><th>verdict</th><th>claim</th><th>claimed</th>"
        "<th>derived</th></tr>\n";

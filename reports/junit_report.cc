@@ -8,6 +8,7 @@
 #include "reports/code_text.h"
 #include "reports/drift.h"
 #include "reports/number_text.h"
+#include "reports/text_report.h"
 #include "reports/verdict_text.h"
 #include "reports/xml_escape.h"
 
@@ -196,6 +197,8 @@ std::string render_junit(const RunResult& run, const JunitOptions& options) {
         "      <property" + attr("name", "seed") + attr("value", std::to_string(run.seed)) + "/>\n";
     out += "      <property" + attr("name", "thetagate.version") + attr("value", run.tool_version) +
            "/>\n";
+    out += "      <property" + attr("name", "thetagate.options") +
+           attr("value", replay_options(run)) + "/>\n";
     out += "    </properties>\n";
     for (const ClaimResult& c : run.claims) {
       if (suite_name(c) != suite) continue;

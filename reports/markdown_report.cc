@@ -132,6 +132,7 @@ std::string render_markdown(const RunResult& run) {
   summary.pop_back();  // the newline
   std::string out = "### thetagate: " + summary + "\n\n";
   out += "Seed " + std::to_string(run.seed);
+  if (run.max_bits || run.effort) out += " (replay: `" + replay_options(run) + "`)";
   if (!run.tool_version.empty()) out += ", thetagate " + markdown_text(run.tool_version);
   if (!run.started.empty()) out += ", started " + markdown_text(run.started);
   out += ".";

@@ -16,6 +16,9 @@
 
 namespace thetagate::engine {
 
+// Defined below, outside the file's own helpers: other writers use it too.
+std::string replay_options(const RunResult& run);
+
 namespace {
 
 constexpr size_t kVerdictWidth = 11;  // "undecided" plus two spaces
@@ -243,14 +246,6 @@ std::string shell_quote(const std::string& word) {
   return quoted + "'";
 }
 
-// The options that make a run choose the same sizes again.
-std::string replay_options(const RunResult& run) {
-  std::string options = "--seed " + std::to_string(run.seed);
-  if (run.max_bits) options += " --max-bits " + std::to_string(*run.max_bits);
-  if (run.effort) options += " --effort " + std::to_string(*run.effort);
-  return options;
-}
-
 // A command that checks this claim again with the same sizes.
 std::string replay_command(const RunResult& run, const ClaimResult& c) {
   return "thetagate check " + shell_quote(c.file) + " " + replay_options(run) + " --claim " +
@@ -290,6 +285,14 @@ void append_detail(std::string& out, const RunResult& run, const ClaimResult& c,
 }
 
 }  // namespace
+
+// The options that make a run choose the same sizes again.
+std::string replay_options(const RunResult& run) {
+  std::string options = "--seed " + std::to_string(run.seed);
+  if (run.max_bits) options += " --max-bits " + std::to_string(*run.max_bits);
+  if (run.effort) options += " --effort " + std::to_string(*run.effort);
+  return options;
+}
 
 std::string summary_line(const RunResult& run) {
   std::array<size_t, 4> count{};

@@ -36,6 +36,9 @@ std::string render_brief(const RunResult& run, const TextStyle& style);
 // "3 claims: 1 holds, 1 refuted, 1 undecided, 0 errors\n".
 std::string summary_line(const RunResult& run);
 
+// The options that replay the run: "--seed 1 --max-bits 64 --effort 20".
+std::string replay_options(const RunResult& run);
+
 // The one fact a claim's verdict rests on, for one-line reports: the proof
 // of a holds ("proof: master theorem, case 2"), else the first witness
 // ("witness n = 2^19: T(n)/g(n) = 10.3"), the located error, or the first
