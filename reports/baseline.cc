@@ -656,6 +656,9 @@ class ReportReader {
     c.note = optional_string(j, path, "note");
     c.recurrence = optional_string(j, path, "recurrence");
     c.recheck = optional_string(j, path, "recheck");
+    c.settings_known = optional_key(j, "sizes") != nullptr;
+    c.sizes = optional_string(j, path, "sizes");
+    c.rounding = optional_string(j, path, "rounding");
     if (const Json* s = optional_key(j, "seconds"); s && s->is_number() && s->get<double>() >= 0) {
       c.seconds = s->get<double>();
     }

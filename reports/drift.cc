@@ -106,6 +106,16 @@ std::string claim_text(const ClaimDrift& d, const TextStyle& style) {
     s += fmt::format("{}the bound changed: {} → {}\n", kIndent, escape_controls(d.claimed_before),
                      escape_controls(d.claimed_after));
   }
+  auto shown = [](const std::string& v) { return v.empty() ? std::string("(defaults)") : v; };
+  if (d.sizes_edited()) {
+    s += fmt::format("{}the sizes changed: {} → {}\n", kIndent,
+                     escape_controls(shown(d.sizes_before)), escape_controls(shown(d.sizes_after)));
+  }
+  if (d.rounding_edited()) {
+    s += fmt::format("{}the rounding changed: {} → {}\n", kIndent,
+                     escape_controls(shown(d.rounding_before)),
+                     escape_controls(shown(d.rounding_after)));
+  }
   if (d.verdict_changed()) {
     s += fmt::format("{}verdict {} → {}\n", kIndent, verdict_name(*d.before),
                      verdict_name(*d.after));
@@ -153,6 +163,10 @@ Json claim_json(const ClaimDrift& d) {
   j["recurrence_after"] = d.recurrence_after;
   j["claimed_before"] = d.claimed_before;
   j["claimed_after"] = d.claimed_after;
+  j["sizes_before"] = d.sizes_before;
+  j["sizes_after"] = d.sizes_after;
+  j["rounding_before"] = d.rounding_before;
+  j["rounding_after"] = d.rounding_after;
   j["proof_before"] = d.proof_before;
   j["proof_after"] = d.proof_after;
   j["verdict_before"] = d.before ? verdict_name(*d.before) : "";

@@ -225,6 +225,8 @@ Json claim_json(const ClaimResult& c, bool shard) {
   j["recurrence"] = c.recurrence;
   // Added in schema version 3.
   j["recheck"] = c.recheck;
+  j["sizes"] = c.sizes;
+  j["rounding"] = c.rounding;
   j["seconds"] = c.seconds;
   if (shard) j["position"] = c.position;
   return j;

@@ -7,8 +7,10 @@
 #include <cmath>
 #include <nlohmann/json.hpp>
 
+#include "reports/baseline.h"
 #include "reports/drift.h"
 #include "reports/html_report.h"
+#include "reports/json_report.h"
 #include "verifier/checking/run_comparison.h"
 
 namespace thetagate::engine {
@@ -97,6 +99,35 @@ TEST(DriftCause, ARenamedClaimIsMatchedByItsText) {
   // A different text under a new name stays one lost and one new.
   RunResult other = run_of({claim("orchard::bisect / comparisons", kHalving, "O(n)", 1.1)});
   EXPECT_EQ(compare_runs(before, other).claims.size(), 2u);
+}
+
+// Sizes and rounding are part of the claim too (issue 18, §2): an edit of
+// either is named first, read back from the JSON of both runs.
+TEST(DriftCause, EditedSizesAndRoundingAreNamed) {
+  ClaimResult old = claim("orchard::bisect / probes", kHalving, "Theta(lg n)", 1.1);
+  ClaimResult now = old;
+  now.sizes = "max_bits = 128";
+  now.rounding = "both";
+  RunResult before = read_json_report(render_json(run_of({old})), "last.json");
+  RunResult after = read_json_report(render_json(run_of({now})), "now.json");
+  DriftReport drift = compare_runs(before, after);
+  ASSERT_EQ(drift.claims.size(), 1u);
+  const ClaimDrift& d = drift.claims[0];
+  EXPECT_TRUE(d.sizes_edited());
+  EXPECT_TRUE(d.rounding_edited());
+  std::string text = render_claim_drift_text(d);
+  EXPECT_NE(text.find("the sizes changed: (defaults) → max_bits = 128"), std::string::npos) << text;
+  EXPECT_NE(text.find("the rounding changed: (defaults) → both"), std::string::npos) << text;
+  nlohmann::json j = nlohmann::json::parse(render_json_with_drift(after, drift));
+  EXPECT_EQ(j["drift"]["claims"][0]["sizes_after"], "max_bits = 128");
+  EXPECT_EQ(j["drift"]["claims"][0]["rounding_after"], "both");
+  // A baseline from before reports carried the settings claims no edit.
+  nlohmann::json old_json = nlohmann::json::parse(render_json(run_of({old})));
+  old_json["claims"][0].erase("sizes");
+  old_json["claims"][0].erase("rounding");
+  RunResult older = read_json_report(old_json.dump(), "older.json");
+  EXPECT_FALSE(compare_runs(older, after).claims.size() == 1 &&
+               compare_runs(older, after).claims[0].edited());
 }
 
 TEST(DriftCause, ABaselineWithoutRecurrencesReportsNoEdit) {

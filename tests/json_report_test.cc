@@ -43,13 +43,37 @@ TEST(JsonReport, ClaimKeysStartWithTheDesignKeys) {
   Json j = Json::parse(render_json(sample_run()));
   // docs/design.md §6 keys first and in that order, then the schema-1 and
   // schema-2 additions (`code`, from the link to code), then keys added
-  // since (`recurrence`; `recheck` in schema 3, `position` only in a shard).
-  std::vector<std::string> expected = {
-      "name",       "file",    "line",      "verdict",       "claimed",           "derived",
-      "method",     "tight",   "witnesses", "band",          "message",           "numeric_only",
-      "notes",      "reasons", "note",      "sizes_checked", "largest_bits",      "error",
-      "function",   "proof",   "basis",     "steps",         "failed_hypotheses", "code",
-      "recurrence", "recheck", "seconds"};
+  // since (`recurrence`; `recheck`, `sizes`, `rounding`, `seconds` in schema 3,
+  // `position` only in a shard).
+  std::vector<std::string> expected = {"name",
+                                       "file",
+                                       "line",
+                                       "verdict",
+                                       "claimed",
+                                       "derived",
+                                       "method",
+                                       "tight",
+                                       "witnesses",
+                                       "band",
+                                       "message",
+                                       "numeric_only",
+                                       "notes",
+                                       "reasons",
+                                       "note",
+                                       "sizes_checked",
+                                       "largest_bits",
+                                       "error",
+                                       "function",
+                                       "proof",
+                                       "basis",
+                                       "steps",
+                                       "failed_hypotheses",
+                                       "code",
+                                       "recurrence",
+                                       "recheck",
+                                       "sizes",
+                                       "rounding",
+                                       "seconds"};
   for (const Json& claim : j["claims"]) EXPECT_EQ(keys_of(claim), expected);
 }
 

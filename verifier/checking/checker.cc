@@ -121,6 +121,22 @@ std::vector<Size> harness_sizes(const Claim& claim, const BigInt& max_n, const B
 
 namespace {
 
+// The claim's [claim.sizes] as written, keys in the file's order of the
+// reference (docs/language.md); "" when it sets none.
+std::string sizes_text(const SizeOptions& s) {
+  std::string out;
+  auto add = [&](const std::string& part) { out += (out.empty() ? "" : ", ") + part; };
+  if (s.max_bits) add("max_bits = " + std::to_string(*s.max_bits));
+  if (!s.families.empty()) {
+    std::string list;
+    for (const std::string& f : s.families) list += (list.empty() ? "" : ", ") + f;
+    add("families = [" + list + "]");
+  }
+  if (s.min_n) add("min_n = " + s.min_n->str());
+  if (s.effort != 1) add("effort = " + std::to_string(s.effort));
+  return out;
+}
+
 ClaimResult check_one_reading(const Claim& claim, const CheckOptions& options) {
   ClaimResult result;
   result.name = claim.name;
@@ -128,6 +144,8 @@ ClaimResult check_one_reading(const Claim& claim, const CheckOptions& options) {
   result.line = claim.where.line;
   result.recurrence = claim.recurrence->text();
   result.claimed = claim.bound.text();
+  result.sizes = sizes_text(claim.sizes);
+  result.rounding = claim.rounding ? rounding_name(*claim.rounding) : "";
   result.note = claim.note;
   result.notes = claim.recurrence->notes;
   result.notes.insert(result.notes.end(), claim.bound.notes.begin(), claim.bound.notes.end());

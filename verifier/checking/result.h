@@ -207,12 +207,18 @@ struct ClaimResult {
   std::string function = "T";  // the recursive function's name
   Verdict verdict = Verdict::kUndecided;
   VerdictBasis basis;
-  std::string recurrence;     // the recurrence as written ("" when it could not be read)
-  std::string claimed;        // the bound as written
-  std::string derived;        // the derived class, "" when none
-  std::string method;         // theorem used, or "numeric"
-  bool tight = true;          // false: an O/Omega claim that holds loosely
-  bool numeric_only = false;  // decided from the numbers alone
+  std::string recurrence;  // the recurrence as written ("" when it could not be read)
+  std::string claimed;     // the bound as written
+  // The claim's own [claim.sizes] and `rounding`, as written ("max_bits = 64,
+  // min_n = 2^10"; "both"), "" where the claim does not set them: so drift can
+  // say that they changed.
+  std::string sizes;
+  std::string rounding;
+  bool settings_known = true;  // false for a baseline whose report predates `sizes`
+  std::string derived;         // the derived class, "" when none
+  std::string method;          // theorem used, or "numeric"
+  bool tight = true;           // false: an O/Omega claim that holds loosely
+  bool numeric_only = false;   // decided from the numbers alone
   std::vector<Witness> witnesses;
   std::vector<BandRow> band;
   std::vector<std::string> notes;              // assumptions stated for the reader

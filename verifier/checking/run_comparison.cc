@@ -71,6 +71,14 @@ ClaimDrift drift_of_claim(const ClaimResult& before, const ClaimResult& after) {
   d.recurrence_after = after.recurrence;
   d.claimed_before = before.claimed;
   d.claimed_after = after.claimed;
+  d.sizes_before = before.sizes;
+  d.sizes_after = after.sizes;
+  d.rounding_before = before.rounding;
+  d.rounding_after = after.rounding;
+  // A report written before claims carried their settings says nothing of
+  // them: no edit is claimed from it (both have the recurrence then).
+  d.has_settings = !before.recurrence.empty() && !after.recurrence.empty() &&
+                   before.settings_known && after.settings_known;
   d.derived_before = before.derived;
   d.derived_after = after.derived;
   d.proof_before = proof_of(before);

@@ -50,7 +50,9 @@ struct ClaimDrift {
   // carried the recurrence): then no edit is reported.
   std::string recurrence_before, recurrence_after;
   std::string claimed_before, claimed_after;
-  std::string derived_before;  // "" when none was derived
+  std::string sizes_before, sizes_after;        // [claim.sizes] as written
+  std::string rounding_before, rounding_after;  // the claim's rounding key
+  std::string derived_before;                   // "" when none was derived
   std::string derived_after;
   std::vector<Witness> new_witnesses;   // in this run only, matched by n and side
   std::vector<Witness> lost_witnesses;  // in the baseline only
@@ -77,7 +79,17 @@ struct ClaimDrift {
            recurrence_before != recurrence_after;
   }
   bool bound_edited() const { return before && after && claimed_before != claimed_after; }
-  bool edited() const { return recurrence_edited() || bound_edited(); }
+  // Sizes and rounding: only between reports that both carry them (schema 3).
+  bool sizes_edited() const {
+    return before && after && has_settings && sizes_before != sizes_after;
+  }
+  bool rounding_edited() const {
+    return before && after && has_settings && rounding_before != rounding_after;
+  }
+  bool has_settings = false;  // both runs' reports say what the claim set
+  bool edited() const {
+    return recurrence_edited() || bound_edited() || sizes_edited() || rounding_edited();
+  }
   bool renamed() const { return !renamed_from.empty(); }
 };
 
