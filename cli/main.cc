@@ -555,6 +555,26 @@ void install_signal_handlers() {
 
 }  // namespace
 
+// The options that shape a report, shared by check and merge: its format,
+// where it goes, the baseline it is compared with and what fails the run.
+static void add_report_options(CLI::App* command, CheckArguments& args) {
+  command->add_option("--format", args.format, "report format: text, json, junit, html or markdown")
+      ->check(CLI::IsMember({"text", "json", "junit", "html", "markdown"}));
+  command->add_option("--out", args.out,
+                      "write the report to FILE (.txt, .json, .xml, .html or .md picks the "
+                      "format); to a folder (existing, or ending in '/'): every format at "
+                      "once");
+  command->add_option("--baseline", args.baseline,
+                      "an earlier JSON report: mark verdict changes, new or lost witnesses "
+                      "and band moves");
+  command
+      ->add_option("--fail-on", args.fail_on,
+                   "what exits 1: refuted (default), undecided, drift; comma-separated")
+      ->delimiter(',');
+  command->add_flag("--undecided-fails", args.undecided_fails,
+                    "JUnit: report undecided claims as failures, not skipped");
+}
+
 int main(int argc, char** argv) {
   install_signal_handlers();
   CLI::App app{"thetagate: checks claimed complexity bounds of recurrences"};
@@ -577,13 +597,7 @@ int main(int argc, char** argv) {
   check_command->add_option("--name", check.name, "the name of the --recurrence claim");
   check_command->add_flag("--brief", check.brief,
                           "one line per claim (its proof or first witness), then the summary");
-  check_command
-      ->add_option("--format", check.format, "report format: text, json, junit, html or markdown")
-      ->check(CLI::IsMember({"text", "json", "junit", "html", "markdown"}));
-  check_command->add_option("--out", check.out,
-                            "write the report to FILE (.txt, .json, .xml, .html or .md picks the "
-                            "format); to a folder (existing, or ending in '/'): every format at "
-                            "once");
+  add_report_options(check_command, check);
   check_command->add_option("--seed", check.seed, "seed for random sizes: a number, or 'random'");
   check_command->add_option("--max-bits", check.max_bits, "largest size in bits (default 4096)")
       ->check(CLI::Range(int64_t{1}, engine::kMaxBitsLimit));
@@ -621,17 +635,8 @@ int main(int argc, char** argv) {
   check_command->add_flag("--recheck", check.recheck,
                           "re-verify each holds's certificate with the independent re-checker; "
                           "a rejected one is an error (exit 3)");
-  check_command->add_flag("--undecided-fails", check.undecided_fails,
-                          "JUnit: report undecided claims as failures, not skipped");
   check_command->add_flag("--list-families", check.list_families,
                           "describe the size families and exit");
-  check_command->add_option("--baseline", check.baseline,
-                            "an earlier JSON report: mark verdict changes, new or lost witnesses "
-                            "and band moves");
-  check_command
-      ->add_option("--fail-on", check.fail_on,
-                   "what exits 1: refuted (default), undecided, drift; comma-separated")
-      ->delimiter(',');
 
   std::string recurrence_text;
   std::string derive_format = "text";
@@ -651,19 +656,7 @@ int main(int argc, char** argv) {
   auto* merge_command = app.add_subcommand(
       "merge", "join the JSON reports of a run's shards (check --shard K/N) into one report");
   merge_command->add_option("reports", merge.paths, "the N shard reports (JSON)")->required();
-  merge_command
-      ->add_option("--format", merge.format, "report format: text, json, junit, html or markdown")
-      ->check(CLI::IsMember({"text", "json", "junit", "html", "markdown"}));
-  merge_command->add_option("--out", merge.out,
-                            "write the report to FILE (the extension picks the format) or to a "
-                            "folder (every format)");
-  merge_command->add_option("--baseline", merge.baseline, "an earlier JSON report: drift");
-  merge_command
-      ->add_option("--fail-on", merge.fail_on,
-                   "what exits 1: refuted (default), undecided, drift; comma-separated")
-      ->delimiter(',');
-  merge_command->add_flag("--undecided-fails", merge.undecided_fails,
-                          "JUnit: report undecided claims as failures, not skipped");
+  add_report_options(merge_command, merge);
 
   RecheckArguments recheck_args;
   auto* recheck_command = app.add_subcommand(

@@ -5,13 +5,24 @@
 // same claims and seed give the same bytes.
 #include <gtest/gtest.h>
 
+#include <cstdlib>
 #include <nlohmann/json.hpp>
 #include <regex>
 #include <string>
 
 #include "tests/test_support.h"
+#include "verifier/checking/run.h"
 
 namespace {
+
+// Every test in this binary, and every thetagate it starts, writes its
+// reports as a reproducible run, so that reports compare byte for byte.
+// The tests of the timing itself unset it for their own commands.
+constexpr const char* kTestEpoch = "1780000000";  // 2026-05-28T20:26:40Z
+const bool kReproducible = [] {
+  ::setenv("SOURCE_DATE_EPOCH", kTestEpoch, /*overwrite=*/0);
+  return true;
+}();
 
 using thetagate::engine::test_support::CommandResult;
 using thetagate::engine::test_support::run_shell;
@@ -48,6 +59,22 @@ TEST(RunTime, AReportSaysWhenTheRunStartedAndHowLongEachClaimTook) {
   CommandResult text =
       run_shell(tg("env -u SOURCE_DATE_EPOCH", std::string(kClaim) + "--format text"));
   EXPECT_TRUE(std::regex_search(text.out, std::regex(R"(\d\d:\d\d UTC)"))) << text.out;
+}
+
+TEST(RunTime, TheTestBinaryRunsReproducibly) {
+  ASSERT_TRUE(kReproducible);
+  // Set before main, so also in every command a test starts.
+  const char* epoch = std::getenv("SOURCE_DATE_EPOCH");
+  ASSERT_NE(epoch, nullptr);
+  EXPECT_STREQ(epoch, kTestEpoch);
+  ASSERT_TRUE(thetagate::engine::reproducible_epoch().has_value());
+  EXPECT_EQ(thetagate::engine::utc_text(*thetagate::engine::reproducible_epoch()),
+            "2026-05-28T20:26:40Z");
+  CommandResult r = run_shell(tg("", std::string(kClaim) + "--format json"));
+  ASSERT_EQ(r.status, 0) << r.out;
+  nlohmann::json j = nlohmann::json::parse(r.out);
+  EXPECT_EQ(j["started"], "2026-05-28T20:26:40Z");
+  EXPECT_EQ(j["claims"][0]["seconds"], 0.0);
 }
 
 TEST(RunTime, AReproducibleRunGivesTheSameBytes) {

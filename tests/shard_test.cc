@@ -22,14 +22,6 @@ std::vector<ClaimEntry> entries(int count, int first = 0) {
   return load_claim_text(text, "orchard.toml");
 }
 
-TEST(Shard, ParsesKOfN) {
-  ShardSpec s = parse_shard("2/3");
-  EXPECT_EQ(s.index, 2u);
-  EXPECT_EQ(s.count, 3u);
-  for (const char* bad : {"0/3", "4/3", "3", "1/0", "a/b", "1/2/3", "-1/2", "1/2x", "1/2000"})
-    EXPECT_THROW(parse_shard(bad), InputError) << bad;
-}
-
 TEST(Shard, EveryClaimLandsInExactlyOneShardTheSameWayEachTime) {
   auto all = entries(200);
   CheckOptions options;

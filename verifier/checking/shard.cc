@@ -33,22 +33,7 @@ std::string identity(const ClaimEntry& e) {
   return e.where.file + ":" + std::to_string(e.where.line);
 }
 
-[[noreturn]] void bad_shard(const std::string& text) {
-  throw InputError(Diagnostic{Location{"<command line>", 1, 1},
-                              "--shard takes K/N with 1 <= K <= N <= 1024, not '" + text + "'",
-                              "for the second of three machines: --shard 2/3", text});
-}
-
 }  // namespace
-
-ShardSpec parse_shard(const std::string& text) {
-  unsigned long long k = 0, n = 0;
-  char rest = 0;
-  if (std::sscanf(text.c_str(), "%llu/%llu%c", &k, &n, &rest) != 2) bad_shard(text);
-  if (text.find_first_not_of("0123456789/") != std::string::npos) bad_shard(text);
-  if (n < 1 || n > 1024 || k < 1 || k > n) bad_shard(text);
-  return ShardSpec{k, n};
-}
 
 double expected_cost(const ClaimEntry& entry, const CheckOptions& options) {
   if (!entry.claim) return 0.01;  // an error entry costs next to nothing

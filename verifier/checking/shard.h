@@ -24,16 +24,6 @@
 
 namespace thetagate::engine {
 
-// Shard K of N, 1 <= K <= N.
-struct ShardSpec {
-  uint64_t index = 1;
-  uint64_t count = 1;
-  bool whole() const { return count == 1; }
-};
-
-// "K/N" with 1 <= K <= N <= 1024. Throws InputError (file "<command line>").
-ShardSpec parse_shard(const std::string& text);
-
 // The claim's relative cost: effort x largest size in bits / 4096 x readings.
 double expected_cost(const ClaimEntry& entry, const CheckOptions& options);
 
