@@ -114,7 +114,7 @@ void DeriveGoldenSplitAndCompare(benchmark::State& state) {
   for (auto _ : state) {
     thetagate::engine::Derivation d = thetagate::engine::derive(*r);
     thetagate::engine::ClaimComparison c = thetagate::engine::compare_with_derivation(d, bound);
-    state.counters["agree"] = c.agreement == thetagate::engine::ClaimAgreement::kAgree;
+    state.counters["agree"] = c.agreement == thetagate::engine::Agreement::kSame;
     benchmark::DoNotOptimize(c);
   }
 }

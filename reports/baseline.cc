@@ -434,9 +434,10 @@ class ReportReader {
       e.claimed = string_at(*t, at, "claimed");
       e.kind = compared_with_at(*t, at);
       std::string a = string_at(*t, at, "agreement");
-      e.agreement = a == "same"    ? Agreement::kSame
-                    : a == "loose" ? Agreement::kLoose
-                                   : Agreement::kContradicts;
+      e.agreement = Agreement::kContradicts;
+      for (Agreement known : {Agreement::kSame, Agreement::kLoose}) {
+        if (a == agreement_name(known)) e.agreement = known;
+      }
       if (optional_key(*t, "relation")) e.relation = one_sided_at(*t, at);
       e.claimed_below = optional_key(*t, "claimed_below") &&
                         boolean_value(require(*t, at, "claimed_below"), join(at, "claimed_below"));

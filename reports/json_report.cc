@@ -104,9 +104,7 @@ Json basis_json(const VerdictBasis& b) {
     if (t.relation != BoundKind::kTheta) th["relation"] = bound_kind_name(t.relation);
     th["claimed"] = t.claimed;
     th["kind"] = compared_with_name(t.kind);
-    th["agreement"] = t.agreement == Agreement::kSame    ? "same"
-                      : t.agreement == Agreement::kLoose ? "loose"
-                                                         : "contradicts";
+    th["agreement"] = agreement_name(t.agreement);
     th["claimed_below"] = t.claimed_below;
     j["theorem"] = th;
   } else {

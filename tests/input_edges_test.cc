@@ -15,7 +15,7 @@
 #include "reports/text_report.h"
 #include "tests/report_fixture.h"
 #include "verifier/checking/checker.h"
-#include "verifier/checking/claim_check.h"
+#include "verifier/checking/claim_evaluation.h"
 #include "verifier/checking/run.h"
 #include "verifier/model/claim.h"
 #include "verifier/model/claim_discovery.h"

@@ -390,9 +390,9 @@ TEST(CriticalExponent, GoldenClaimAgreesExactly) {
   EXPECT_EQ(d.derived, "n^(lg((1 + sqrt(5))/2))") << all_steps(d);
   ClaimComparison c = compare_with_derivation(
       d, parse_bound(SourceText::whole("<b>", "Theta(n^(lg((1 + sqrt(5))/2)))")));
-  EXPECT_EQ(c.agreement, ClaimAgreement::kAgree) << c.detail;
+  EXPECT_EQ(c.agreement, Agreement::kSame) << c.detail;
   c = compare_with_derivation(d, parse_bound(SourceText::whole("<b>", "O(n^0.6942)")));
-  EXPECT_EQ(c.agreement, ClaimAgreement::kContradicts) << c.detail;
+  EXPECT_EQ(c.agreement, Agreement::kContradicts) << c.detail;
 }
 
 }  // namespace

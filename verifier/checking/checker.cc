@@ -9,6 +9,7 @@
 
 #include "verifier/checking/claim_check.h"
 #include "verifier/checking/code_check.h"
+#include "verifier/checking/verdict.h"
 #include "verifier/numbers/allocation.h"
 
 namespace thetagate::engine {

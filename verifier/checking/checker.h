@@ -22,8 +22,8 @@ struct CheckOptions {
   std::optional<Rounding> rounding;  // overrides every claim's `rounding`
   Budget budget = default_check_budget();
   // Work per claim, in subproblems weighted by their bits and by the
-  // evaluation path (claim_check.cc, work_of). Deterministic, unlike time: the
-  // sizes phase stops at 60% of it, local search at 85%, so a run replays
+  // evaluation path (claim_evaluation.cc, work_of). Deterministic, unlike
+  // time: its split between the stages is WorkShares there, so a run replays
   // exactly under any load. The default is about 200 ms on one core of the
   // reference machine (DEVELOPERS.md); --effort multiplies it.
   uint64_t work_budget = kDefaultWorkBudget;

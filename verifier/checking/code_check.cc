@@ -391,23 +391,4 @@ CodeResult check_costs_text(const Claim& claim, std::string bytes,
 
 namespace {}  // namespace
 
-void apply_code_result(ClaimResult& result, CodeResult code) {
-  if (!code.violations.empty()) {
-    code.model_verdict = result.verdict;
-    code.model_basis = result.basis;
-    result.verdict = Verdict::kRefuted;
-    result.basis = VerdictBasis{};
-    result.basis.kind = BasisKind::kCodeBreaksModel;
-  } else if (!code.families_missed.empty() && result.verdict == Verdict::kHolds) {
-    // The bound holds, but the code was never measured where floors and
-    // ceilings bite: the code link is not shown green.
-    code.model_verdict = result.verdict;
-    code.model_basis = result.basis;
-    result.verdict = Verdict::kUndecided;
-    result.basis = VerdictBasis{};
-    result.basis.kind = BasisKind::kCodeSizesMissed;
-  }
-  result.code = std::move(code);
-}
-
 }  // namespace thetagate::engine

@@ -95,10 +95,6 @@ CodeResult check_costs_file(const Claim& claim, const std::string& widened_root 
 CodeResult check_costs_text(const Claim& claim, std::string bytes,
                             std::optional<double> clock_limit = std::nullopt);
 
-// Folds a code result into a claim result: violations refute the claim (the
-// code breaks its model) whatever the bound's verdict; the message says so.
-void apply_code_result(ClaimResult& result, CodeResult code);
-
 }  // namespace thetagate::engine
 
 #endif  // THETAGATE_VERIFIER_CHECKING_CODE_CHECK_H_

@@ -10,6 +10,7 @@
 
 #include "thetagate/version.h"
 #include "verifier/derivation/certificate.h"
+#include "verifier/derivation/derive.h"
 #include "verifier/derivation/induction_proof.h"
 #include "verifier/model/bound.h"
 #include "verifier/model/claim.h"
@@ -98,9 +99,6 @@ enum class Unproved {
   kEvaluatorLimit,       // an evaluator limit ended the run (detail: which)
 };
 const char* unproved_name(Unproved u);
-
-// How the claim compares with a derived class (asymptotic bounds).
-enum class Agreement { kSame, kLoose, kContradicts };
 
 // What a derived class was set against: the claim's class (Θ, O, Ω), an
 // explicit bound's classes, or one side of an explicit bound.

@@ -97,4 +97,22 @@ TrendReading read_trend(const std::vector<BandRow>& band) {
   return t;
 }
 
+std::vector<BandRow> complete_scales(const std::vector<BandRow>& rows,
+                                     std::optional<uint64_t> partial_scale) {
+  std::vector<BandRow> out;
+  for (const BandRow& row : rows) {
+    if ((!partial_scale || row.scale < *partial_scale) && row.samples >= 3) out.push_back(row);
+  }
+  return out;
+}
+
+std::vector<BandRow> scales_for_escape(const std::vector<BandRow>& rows,
+                                       std::optional<uint64_t> partial_scale) {
+  std::vector<BandRow> out;
+  for (const BandRow& row : rows) {
+    if ((!partial_scale || row.scale <= *partial_scale) && row.samples >= 3) out.push_back(row);
+  }
+  return out;
+}
+
 }  // namespace thetagate::engine

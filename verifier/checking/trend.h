@@ -4,6 +4,8 @@
 #ifndef THETAGATE_VERIFIER_CHECKING_TREND_H_
 #define THETAGATE_VERIFIER_CHECKING_TREND_H_
 
+#include <cstdint>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -21,6 +23,22 @@ TrendReading read_trend(const std::vector<BandRow>& band);
 
 // log2 of the escape factor: 10^6.
 double escape_log2();
+
+// The rows a trend may be read through: scales the size families covered
+// (below `partial_scale`, where they stopped, if they did), with at least
+// three samples. Where the families stopped, and in the scales c·2^k spills
+// into, a row holds one or two shapes (often only even sizes), and its edges
+// would bend the trend.
+std::vector<BandRow> complete_scales(const std::vector<BandRow>& rows,
+                                     std::optional<uint64_t> partial_scale);
+
+// complete_scales plus the scale where the search stopped, when it holds at
+// least three samples. Sound for reading an escape only: a partly sampled
+// scale's highest ratio can only be below the scale's true highest (and its
+// lowest above the true lowest), so an edge that escapes with it escapes
+// without the cut too; a steady reading would not be sound.
+std::vector<BandRow> scales_for_escape(const std::vector<BandRow>& rows,
+                                       std::optional<uint64_t> partial_scale);
 
 }  // namespace thetagate::engine
 

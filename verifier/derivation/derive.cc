@@ -342,20 +342,14 @@ std::string Derivation::bound_text() const {
   return s;
 }
 
-const char* claim_agreement_name(ClaimAgreement a) {
+const char* agreement_name(Agreement a) {
   switch (a) {
-    case ClaimAgreement::kAgree:
-      return "agree";
-    case ClaimAgreement::kHoldsLoosely:
-      return "holds-loosely";
-    case ClaimAgreement::kContradicts:
-      return "contradict";
-    case ClaimAgreement::kCannotClassifyClaim:
-      return "cannot-classify-claim";
-    case ClaimAgreement::kNoDerivation:
-      return "no-derivation";
-    case ClaimAgreement::kNotAsymptotic:
-      return "not-asymptotic";
+    case Agreement::kSame:
+      return "same";
+    case Agreement::kLoose:
+      return "loose";
+    case Agreement::kContradicts:
+      return "contradicts";
   }
   return "?";
 }
@@ -368,8 +362,8 @@ namespace {
 ClaimComparison compare_one_sided(const Derivation& derivation, const Bound& bound,
                                   ClaimComparison r) {
   const GrowthClass& g = *r.claimed;
-  r.agreement = ClaimAgreement::kNoDerivation;
-  auto settle = [&](ClaimAgreement a, const GrowthClass& derived, BoundKind relation,
+  r.agreement.reset();
+  auto settle = [&](Agreement a, const GrowthClass& derived, BoundKind relation,
                     bool claimed_below) {
     r.agreement = a;
     r.derived = derived;
@@ -380,18 +374,19 @@ ClaimComparison compare_one_sided(const Derivation& derivation, const Bound& bou
     bool upper_side = bound.kind == BoundKind::kBigO || bound.kind == BoundKind::kTheta;
     bool lower_side = bound.kind == BoundKind::kOmega || bound.kind == BoundKind::kTheta;
     if (upper_side && derivation.lower && compare(g, *derivation.lower) < 0) {
-      settle(ClaimAgreement::kContradicts, *derivation.lower, BoundKind::kOmega, true);
+      settle(Agreement::kContradicts, *derivation.lower, BoundKind::kOmega, true);
     } else if (lower_side && derivation.upper && compare(g, *derivation.upper) > 0) {
-      settle(ClaimAgreement::kContradicts, *derivation.upper, BoundKind::kBigO, false);
+      settle(Agreement::kContradicts, *derivation.upper, BoundKind::kBigO, false);
     } else if (bound.kind == BoundKind::kBigO && derivation.upper &&
                compare(g, *derivation.upper) >= 0) {
-      settle(ClaimAgreement::kHoldsLoosely, *derivation.upper, BoundKind::kBigO, false);
+      settle(Agreement::kLoose, *derivation.upper, BoundKind::kBigO, false);
     } else if (bound.kind == BoundKind::kOmega && derivation.lower &&
                compare(g, *derivation.lower) <= 0) {
-      settle(ClaimAgreement::kHoldsLoosely, *derivation.lower, BoundKind::kOmega, false);
+      settle(Agreement::kLoose, *derivation.lower, BoundKind::kOmega, false);
     }
   } catch (const PrecisionShortfall& e) {
-    r.agreement = ClaimAgreement::kCannotClassifyClaim;
+    r.agreement.reset();
+    r.claim_unclassified = true;
     r.detail = std::string("the claimed and derived classes could not be ordered: ") + e.what();
   }
   return r;
@@ -401,39 +396,32 @@ ClaimComparison compare_one_sided(const Derivation& derivation, const Bound& bou
 
 ClaimComparison compare_with_derivation(const Derivation& derivation, const Bound& bound) {
   ClaimComparison r;
-  if (!bound.is_asymptotic()) {
-    r.agreement = ClaimAgreement::kNotAsymptotic;
-    return r;
-  }
+  if (!bound.is_asymptotic()) return r;
   Classification g = classify(*bound.growth);
   if (!g) {
-    r.agreement = ClaimAgreement::kCannotClassifyClaim;
+    r.claim_unclassified = true;
     r.detail = "the claimed class " + print(*bound.growth) + " has no normal form: " + g.reason;
     return r;
   }
   r.claimed = g.growth;
   if (derivation.one_sided()) return compare_one_sided(derivation, bound, r);
-  if (!derivation.growth) {
-    r.agreement = ClaimAgreement::kNoDerivation;
-    return r;
-  }
+  if (!derivation.growth) return r;
   r.derived = derivation.growth;
   int c;
   try {
     c = compare(*g.growth, *derivation.growth);
   } catch (const PrecisionShortfall& e) {
-    r.agreement = ClaimAgreement::kCannotClassifyClaim;
+    r.claim_unclassified = true;
     r.detail = std::string("the claimed and derived classes could not be ordered: ") + e.what();
     return r;
   }
   if (c == 0) {
-    r.agreement = ClaimAgreement::kAgree;
-    r.tight = true;
+    r.agreement = Agreement::kSame;
   } else if ((bound.kind == BoundKind::kBigO && c > 0) ||
              (bound.kind == BoundKind::kOmega && c < 0)) {
-    r.agreement = ClaimAgreement::kHoldsLoosely;
+    r.agreement = Agreement::kLoose;
   } else {
-    r.agreement = ClaimAgreement::kContradicts;
+    r.agreement = Agreement::kContradicts;
     r.claimed_below = c < 0;
   }
   return r;

@@ -57,34 +57,33 @@ struct Derivation {
 // apply and derive different classes are a bug: throws InternalError.
 Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limit = std::nullopt);
 
-enum class ClaimAgreement {
-  kAgree,                // the claimed class equals the derived one (tight)
-  kHoldsLoosely,         // O(g) with g above, or Omega(g) with g below (tight = false)
-  kContradicts,          // the claim is false if the derivation is right
-  kCannotClassifyClaim,  // g has no growth class; message says why
-  kNoDerivation,         // no theorem applied
-  kNotAsymptotic,        // an explicit bound: decided by numbers, not here
-};
+// How a claim's class compares with a derived one: the same class, a looser
+// bound that the derived class still proves (O(g) with g above it, Ω(g) with
+// g below), or a class the derived one excludes.
+enum class Agreement { kSame, kLoose, kContradicts };
+const char* agreement_name(Agreement a);  // "same", "loose", "contradicts"
 
 struct ClaimComparison {
-  ClaimAgreement agreement = ClaimAgreement::kNoDerivation;
-  bool tight = false;
+  // Unset when the two could not be compared: no theorem derives a class
+  // (or a one-sided one that does not settle the claim), or the claim's
+  // class has no normal form (claim_unclassified).
+  std::optional<Agreement> agreement;
+  bool claim_unclassified = false;
   std::optional<GrowthClass> claimed;
   // The derived class the claim was measured against and how it bounds T:
   // "Θ" for a derived class, "O" or "Ω" for a one-sided derivation.
   std::optional<GrowthClass> derived;
   BoundKind relation = BoundKind::kTheta;
-  // kCannotClassifyClaim: why the claimed class has no normal form (or could
+  // claim_unclassified: why the claimed class has no normal form (or could
   // not be ordered); empty otherwise. reports/ composes the sentences.
   std::string detail;
   bool claimed_below = false;  // kContradicts: the claimed class is the smaller one
 };
 
 // Compares an asymptotic bound Theta/O/Omega(g) with the derivation exactly
-// (lg 7 is not 2.807; a lg lg n factor counts).
+// (lg 7 is not 2.807; a lg lg n factor counts). An explicit bound is not
+// compared (agreement unset).
 ClaimComparison compare_with_derivation(const Derivation& derivation, const Bound& bound);
-
-const char* claim_agreement_name(ClaimAgreement a);
 
 }  // namespace thetagate::engine
 
