@@ -28,7 +28,7 @@ struct Report::Impl {
   std::vector<ClaimResult> claims;  // the public values of run.claims
 };
 
-struct BaselineChanges::Impl {
+struct Drift::Impl {
   engine::DriftReport drift;
 };
 
@@ -49,8 +49,8 @@ struct Access {
   static const engine::ClaimEntry& entry(const Claim& c) { return c.impl_->entry; }
   static Report make_report(engine::RunResult run);
   static const engine::RunResult& run(const Report& r) { return r.impl_->run; }
-  static BaselineChanges make_changes(engine::DriftReport drift);
-  static const engine::DriftReport& drift(const BaselineChanges& c) { return c.impl_->drift; }
+  static Drift make_drift(engine::DriftReport drift);
+  static const engine::DriftReport& drift(const Drift& c) { return c.impl_->drift; }
   static Derivation make_derivation(engine::Derivation d);
   static const std::shared_ptr<const engine::Recurrence>& recurrence(const Recurrence& r) {
     return r.impl_->recurrence;

@@ -21,8 +21,8 @@ bool Derivation::derived() const { return impl_->derivation.derived_class(); }
 const std::string& Derivation::bound() const { return impl_->derivation.derived; }
 const std::string& Derivation::method() const { return impl_->derivation.method; }
 const std::vector<std::string>& Derivation::steps() const { return impl_->derivation.steps; }
-const std::vector<std::string>& Derivation::not_applied() const {
-  return impl_->derivation.reasons;
+const std::vector<std::string>& Derivation::failed_hypotheses() const {
+  return impl_->derivation.failed_hypotheses;
 }
 const std::vector<std::string>& Derivation::notes() const { return impl_->derivation.notes; }
 std::string Derivation::to_text() const {

@@ -16,24 +16,23 @@ namespace thetagate {
 
 namespace detail {
 
-BaselineChanges Access::make_changes(engine::DriftReport drift) {
-  return BaselineChanges(
-      std::make_shared<const BaselineChanges::Impl>(BaselineChanges::Impl{std::move(drift)}));
+Drift Access::make_drift(engine::DriftReport drift) {
+  return Drift(std::make_shared<const Drift::Impl>(Drift::Impl{std::move(drift)}));
 }
 
 }  // namespace detail
 
-BaselineChanges::BaselineChanges(std::shared_ptr<const Impl> impl) : impl_(std::move(impl)) {}
-bool BaselineChanges::any() const { return impl_->drift.any(); }
-size_t BaselineChanges::compared() const { return impl_->drift.compared; }
-std::vector<std::string> BaselineChanges::changed_claims() const {
+Drift::Drift(std::shared_ptr<const Impl> impl) : impl_(std::move(impl)) {}
+bool Drift::any() const { return impl_->drift.any(); }
+size_t Drift::compared() const { return impl_->drift.compared; }
+std::vector<std::string> Drift::changed_claims() const {
   std::vector<std::string> names;
   for (const engine::ClaimDrift& c : impl_->drift.claims) names.push_back(c.name);
   return names;
 }
 
 std::string render(const Report& report, Format format, const RenderOptions& options,
-                   const BaselineChanges* changes) {
+                   const Drift* changes) {
   const engine::RunResult& run = detail::Access::run(report);
   const engine::DriftReport* drift = changes ? &detail::Access::drift(*changes) : nullptr;
   switch (format) {
@@ -94,8 +93,8 @@ std::string write_files_whole(const std::vector<std::pair<std::string, std::stri
 
 void remove_unfinished_reports() noexcept { engine::remove_unfinished_reports(); }
 
-BaselineChanges compare_with_baseline(const Report& baseline, const Report& current) {
-  return detail::Access::make_changes(
+Drift drift_from_baseline(const Report& baseline, const Report& current) {
+  return detail::Access::make_drift(
       engine::compare_runs(detail::Access::run(baseline), detail::Access::run(current)));
 }
 

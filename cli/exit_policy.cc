@@ -34,7 +34,7 @@ FailOn parse_fail_on(const std::vector<std::string>& words) {
   return on;
 }
 
-bool should_fail(const Report& report, const BaselineChanges* changes, const FailOn& on) {
+bool should_fail(const Report& report, const Drift* changes, const FailOn& on) {
   for (const ClaimResult& c : report.claims()) {
     if (on.refuted && c.verdict == Verdict::kRefuted) return true;
     if (on.undecided && c.verdict == Verdict::kUndecided) return true;
@@ -42,7 +42,7 @@ bool should_fail(const Report& report, const BaselineChanges* changes, const Fai
   return on.drift && changes != nullptr && changes->any();
 }
 
-int exit_code(const Report& report, const BaselineChanges* changes, const FailOn& on) {
+int exit_code(const Report& report, const Drift* changes, const FailOn& on) {
   if (report.any_internal_error()) return kExitInternalError;
   if (report.any_error()) return kExitBadInput;
   return should_fail(report, changes, on) ? kExitFailed : kExitFine;

@@ -37,12 +37,12 @@ FailOn parse_fail_on(const std::vector<std::string>& words);
 // True when the run should exit 1: a refuted claim with on.refuted, an
 // undecided one with on.undecided, any change with on.drift and non-null
 // `changes`. Claims with verdict error are not counted here (exit_code).
-bool should_fail(const Report& report, const BaselineChanges* changes, const FailOn& on);
+bool should_fail(const Report& report, const Drift* changes, const FailOn& on);
 
 // The exit code of a finished check: 3 if a claim hit a bug, else 2 if a
 // claim has an input error (the others are still in the report), else 1 if
 // should_fail, else 0.
-int exit_code(const Report& report, const BaselineChanges* changes, const FailOn& on);
+int exit_code(const Report& report, const Drift* changes, const FailOn& on);
 
 }  // namespace thetagate::cli
 

@@ -332,9 +332,9 @@ int deliver(const Report& report, const CheckArguments& args, const OutputPlan& 
   const std::optional<Report>& baseline = plan.baseline;
   Format format = plan.format;
   bool out_is_folder = plan.out_is_folder;
-  std::optional<BaselineChanges> changes;
-  if (baseline) changes = compare_with_baseline(*baseline, report);
-  const BaselineChanges* changes_ptr = changes ? &*changes : nullptr;
+  std::optional<Drift> changes;
+  if (baseline) changes = drift_from_baseline(*baseline, report);
+  const Drift* changes_ptr = changes ? &*changes : nullptr;
 
   RenderOptions render_options;
   render_options.undecided_fails = args.undecided_fails;

@@ -418,10 +418,9 @@ class ReportReader {
       if (kind == basis_name(k)) b.kind = k;
     }
     std::string unproved = string_at(j, path, "unproved");
-    for (Unproved u :
-         {Unproved::kNone, Unproved::kNoDerivation, Unproved::kSideUnclassified,
-          Unproved::kDerivedOutgrowsSide, Unproved::kInductionFailed, Unproved::kNumbersOnly,
-          Unproved::kTrendUnsettled, Unproved::kClaimUnclassified, Unproved::kEvaluatorLimit}) {
+    for (Unproved u : {Unproved::kNone, Unproved::kDerivedOutgrowsSide, Unproved::kInductionFailed,
+                       Unproved::kNumbersOnly, Unproved::kTrendUnsettled,
+                       Unproved::kClaimUnclassified, Unproved::kEvaluatorLimit}) {
       if (unproved == unproved_name(u)) b.unproved = u;
     }
     b.detail = string_at(j, path, "detail");

@@ -25,9 +25,9 @@ std::string render_derivation_text(const Derivation& d) {
       out += fmt::format("  {:>2}. {}\n", i + 1, d.steps[i]);
     }
   }
-  if (!d.reasons.empty()) {
+  if (!d.failed_hypotheses.empty()) {
     out += d.growth ? "\nother theorems:\n" : "\nwhy not:\n";
-    for (const std::string& r : d.reasons) out += "  - " + r + "\n";
+    for (const std::string& r : d.failed_hypotheses) out += "  - " + r + "\n";
   }
   if (!d.notes.empty()) {
     out += "\nassumptions:\n";
@@ -40,17 +40,13 @@ std::string render_derivation_json(const Derivation& d) {
   nlohmann::ordered_json j;
   j["derived"] = d.derived;
   j["method"] = d.method;
-  nlohmann::ordered_json reasons = nlohmann::ordered_json::array();
-  for (const auto& s : d.steps) reasons.push_back(s);
-  for (const auto& r : d.reasons) reasons.push_back(r);
-  j["reasons"] = reasons;
   j["steps"] = d.steps;
   // One-sided bounds, present only when no Θ class was derived.
   if (d.one_sided()) {
     j["upper"] = d.upper ? to_string(*d.upper) : "";
     j["lower"] = d.lower ? to_string(*d.lower) : "";
   }
-  j["not_applied"] = d.reasons;
+  j["failed_hypotheses"] = d.failed_hypotheses;
   j["notes"] = d.notes;
   return json_escape_controls(j.dump(2, ' ', false, nlohmann::json::error_handler_t::replace)) +
          "\n";

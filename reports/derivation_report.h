@@ -13,9 +13,10 @@ namespace thetagate::engine {
 // with a newline.
 std::string render_derivation_text(const Derivation& d);
 
-// {"derived", "method", "reasons": [...], "steps": [...], "not_applied": [...],
-//  "notes": [...]}: `reasons` holds the steps followed by the failed
-// hypotheses (docs/design.md §6); the other arrays split them. Ends with a newline.
+// {"derived", "method", "steps": [...], ["upper", "lower",]
+//  "failed_hypotheses": [...], "notes": [...]}: the keys and their meaning
+// are those of a claim in the JSON check report (docs/json-schema.md). Ends
+// with a newline.
 std::string render_derivation_json(const Derivation& d);
 
 }  // namespace thetagate::engine

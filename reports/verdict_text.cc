@@ -166,12 +166,6 @@ std::string basis_message(const ClaimResult& c) {
       switch (b.unproved) {
         case Unproved::kEvaluatorLimit:
           return "out of budget: " + b.detail;
-        case Unproved::kNoDerivation:
-          return not_proved_phrase(c) +
-                 ": no theorem derives the class, so the numbers cannot "
-                 "cover every n";
-        case Unproved::kSideUnclassified:
-          return not_proved_phrase(c) + ": " + b.detail;
         case Unproved::kDerivedOutgrowsSide:
           if (!b.theorem) return not_proved_phrase(c);
           return checked_phrase(c) +

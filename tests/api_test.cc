@@ -114,6 +114,14 @@ TEST(PublicApi, DerivesWithTheMasterTheorem) {
   EXPECT_FALSE(d.steps().empty());
   EXPECT_NE(d.to_text().find("Θ(n lg lg n)"), std::string::npos);
   EXPECT_NE(d.to_json().find("\"derived\""), std::string::npos);
+  // The theorems that did not apply have one name, in the API and the JSON.
+  thetagate::Derivation none = thetagate::derive("T(n) = T(n/2) + n mod 3; T(1) = 1");
+  ASSERT_FALSE(none.derived());
+  ASSERT_FALSE(none.failed_hypotheses().empty());
+  EXPECT_NE(none.to_json().find("\"failed_hypotheses\": [\n    \"" + none.failed_hypotheses()[0]),
+            std::string::npos)
+      << none.to_json();
+  EXPECT_EQ(none.to_json().find("not_applied"), std::string::npos);
 }
 
 TEST(PublicApi, LoadsSelectsAndChecksClaimsFromToml) {
@@ -165,7 +173,7 @@ TEST(PublicApi, ReportsRenderAndReadBack) {
   std::string json = thetagate::render(report, thetagate::Format::kJson);
   thetagate::Report again = thetagate::read_json_report(json, "old.json");
   EXPECT_EQ(thetagate::render(again, thetagate::Format::kJson), json);
-  EXPECT_FALSE(thetagate::compare_with_baseline(again, report).any());
+  EXPECT_FALSE(thetagate::drift_from_baseline(again, report).any());
   EXPECT_NE(thetagate::render(report, thetagate::Format::kText).find("holds"), std::string::npos);
   EXPECT_NE(thetagate::render(report, thetagate::Format::kJunit).find("<testsuites"),
             std::string::npos);

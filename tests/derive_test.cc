@@ -22,7 +22,7 @@ Derivation derived(const std::string& text) { return derive(*recurrence_from_tex
 
 std::string reasons(const Derivation& d) {
   std::string s;
-  for (const auto& r : d.reasons) s += r + "\n";
+  for (const auto& r : d.failed_hypotheses) s += r + "\n";
   return s;
 }
 

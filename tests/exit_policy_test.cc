@@ -22,8 +22,8 @@ TEST(ExitPolicy, FailOnCountsOnlyTheKindsAsked) {
   engine::RunResult changed = sample_run();
   changed.claims[0].verdict = engine::Verdict::kRefuted;  // holds today
   Report now = report_of(run);
-  BaselineChanges drift = compare_with_baseline(report_of(changed), now);
-  BaselineChanges none = compare_with_baseline(now, now);
+  Drift drift = drift_from_baseline(report_of(changed), now);
+  Drift none = drift_from_baseline(now, now);
   ASSERT_TRUE(drift.any());
   ASSERT_FALSE(none.any());
 

@@ -91,7 +91,7 @@ TEST(JunitReport, HostileTextStaysWellFormedAndValid) {
   RunResult run = sample_run();
   run.claims[1].name = "a]]><b>&amp;\"'\x01\xff\xC0\x80 end";
   run.claims[1].basis.kind = BasisKind::kBudgetReached;
-  run.claims[1].basis.unproved = Unproved::kSideUnclassified;
+  run.claims[1].basis.unproved = Unproved::kEvaluatorLimit;
   run.claims[1].basis.detail = "line one\nline two\r\n<![CDATA[ x ]]>";
   run.claims[1].file = "claims/we\"ird & <odd>.toml";
   EXPECT_EQ(validate(xmllint, render_junit(run, JunitOptions{}), "junit_hostile.xml"), 0);

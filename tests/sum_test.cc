@@ -83,7 +83,7 @@ Derivation derived(const std::string& text) { return derive(*recurrence_from_tex
 std::string all_steps(const Derivation& d) {
   std::string s;
   for (const auto& x : d.steps) s += x + "\n";
-  for (const auto& x : d.reasons) s += x + "\n";
+  for (const auto& x : d.failed_hypotheses) s += x + "\n";
   return s;
 }
 

@@ -26,10 +26,11 @@ class THETAGATE_API Derivation {
   const std::string& method() const;              // "master theorem, case 2"; "" when none
   const std::vector<std::string>& steps() const;  // the applying theorem's steps, in order
   // One line per theorem that did not apply ("THEOREM: failing hypothesis").
-  const std::vector<std::string>& not_applied() const;
+  const std::vector<std::string>& failed_hypotheses() const;
   const std::vector<std::string>& notes() const;  // assumptions (n/2 read as floor, ...)
   std::string to_text() const;  // numbered steps, then "did not apply:"; ends with a newline
-  std::string to_json() const;  // {"derived", "method", "reasons", "steps", ...}; ends with '\n'
+  std::string to_json()
+      const;  // {"derived", "method", "steps", "failed_hypotheses", ...}; ends with '\n'
 
  private:
   struct Impl;
@@ -40,7 +41,7 @@ class THETAGATE_API Derivation {
 
 // Derives the growth class of `recurrence`. Throws InputError for a call
 // that does not shrink (T(n) calling T(n + 1)), as evaluating would; a
-// theorem that cannot decide says so in not_applied(). Two theorems that
+// theorem that cannot decide says so in failed_hypotheses(). Two theorems that
 // apply and derive different classes are a bug: throws InternalError.
 THETAGATE_API Derivation derive(const Recurrence& recurrence);
 // As derive(Recurrence::parse(text)): throws InputError for bad text.

@@ -37,7 +37,7 @@ struct RenderOptions {
 
 // What changed between a baseline run and this one: verdicts, new and lost
 // claims and witnesses, band moves, derived classes. Cheap to copy.
-class THETAGATE_API BaselineChanges {
+class THETAGATE_API Drift {
  public:
   bool any() const;                                 // some claim changed
   size_t compared() const;                          // claims present in both runs
@@ -45,7 +45,7 @@ class THETAGATE_API BaselineChanges {
 
  private:
   struct Impl;
-  explicit BaselineChanges(std::shared_ptr<const Impl> impl);
+  explicit Drift(std::shared_ptr<const Impl> impl);
   std::shared_ptr<const Impl> impl_;
   friend struct detail::Access;
 };
@@ -55,8 +55,7 @@ class THETAGATE_API BaselineChanges {
 // section, the JSON report a "drift" key, and the JUnit report (with
 // RenderOptions::drift_fails) a failure per drifted or lost claim.
 THETAGATE_API std::string render(const Report& report, Format format,
-                                 const RenderOptions& options = {},
-                                 const BaselineChanges* changes = nullptr);
+                                 const RenderOptions& options = {}, const Drift* changes = nullptr);
 
 // The Report a JSON report (schema_version 1 to 3) was rendered from; reads
 // render(report, Format::kJson) back exactly. Throws InputError, located in
@@ -95,7 +94,7 @@ THETAGATE_API std::string write_files_whole(
 THETAGATE_API void remove_unfinished_reports() noexcept;
 
 // Every change from `baseline` to `current`. Never throws.
-THETAGATE_API BaselineChanges compare_with_baseline(const Report& baseline, const Report& current);
+THETAGATE_API Drift drift_from_baseline(const Report& baseline, const Report& current);
 
 // True when text written to file descriptor `fd` should be coloured: a
 // terminal, and NO_COLOR unset or empty. Never throws.

@@ -24,7 +24,7 @@ void ClaimCheck::run() {
   result_.method = derivation.method;
   result_.function = claim_.recurrence->main.name;
   result_.steps = derivation.steps;
-  result_.failed_hypotheses = derivation.reasons;
+  result_.failed_hypotheses = derivation.failed_hypotheses;
 
   // 2. The sizes; 3. the search over them; 4. the proof attempt.
   SearchOutcome search = search_witnesses(eval_, plan_sizes());

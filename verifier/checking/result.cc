@@ -100,10 +100,6 @@ const char* unproved_name(Unproved u) {
   switch (u) {
     case Unproved::kNone:
       return "";
-    case Unproved::kNoDerivation:
-      return "no_derivation";
-    case Unproved::kSideUnclassified:
-      return "side_unclassified";
     case Unproved::kDerivedOutgrowsSide:
       return "derived_outgrows_side";
     case Unproved::kInductionFailed:

@@ -89,8 +89,6 @@ const char* basis_name(BasisKind k);  // "derivation_agrees", "induction", ...
 // Why no proof was found, when none was.
 enum class Unproved {
   kNone,
-  kNoDerivation,         // no theorem derives the class
-  kSideUnclassified,     // an explicit side has no growth class (detail: why)
   kDerivedOutgrowsSide,  // the derived class lies beyond a side: it must break further out
   kInductionFailed,      // the class fits, but no induction certificate was found (detail)
   kNumbersOnly,          // only numbers: a steady band is evidence, not a proof

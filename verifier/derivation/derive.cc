@@ -225,7 +225,7 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
   d.notes = recurrence.notes;
   Shape shape = extract_shape(recurrence);
   if (!shape.ok) {
-    d.reasons.push_back("no theorem's shape fits: " + shape.reason);
+    d.failed_hypotheses.push_back("no theorem's shape fits: " + shape.reason);
     return d;
   }
   DerivationInput input;
@@ -283,7 +283,7 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
                 {"linear recurrence with constant coefficients", linear_recurrence}};
   }
   if (!shape.scaled.empty() && (!shape.subtractive.empty() || !shape.roots.empty())) {
-    d.reasons.push_back(
+    d.failed_hypotheses.push_back(
         "the recurrence mixes T(b n) terms with T(n - c) or T(n^(1/k)) terms; no theorem here "
         "covers that");
   }
@@ -304,7 +304,7 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
     if (o.theorem.empty()) o.theorem = name;
     d.outcomes.push_back(o);
     if (!o.applies()) {
-      d.reasons.push_back(outcome_reason(o));
+      d.failed_hypotheses.push_back(outcome_reason(o));
       continue;
     }
     if (!d.growth) {

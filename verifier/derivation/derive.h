@@ -22,7 +22,7 @@ struct Derivation {
   std::vector<std::string> steps;     // the applying theorem's steps, in order (unnumbered)
   // One entry per theorem that was tried and did not apply, as
   // "THEOREM: failing hypothesis"; also shape problems.
-  std::vector<std::string> reasons;
+  std::vector<std::string> failed_hypotheses;
   std::vector<TheoremOutcome> outcomes;  // every theorem tried, in order
   std::vector<std::string> notes;        // the model's notes (n/2 read as floor ...)
   // When no Θ class was derived but a theorem bounds T on one side or both
