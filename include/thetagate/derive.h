@@ -29,8 +29,8 @@ class THETAGATE_API Derivation {
   const std::vector<std::string>& failed_hypotheses() const;
   const std::vector<std::string>& notes() const;  // assumptions (n/2 read as floor, ...)
   std::string to_text() const;  // numbered steps, then "did not apply:"; ends with a newline
-  std::string to_json()
-      const;  // {"derived", "method", "steps", "failed_hypotheses", ...}; ends with '\n'
+  // {"derived", "method", "steps", "failed_hypotheses", ...}; ends with '\n'.
+  std::string to_json() const;
 
  private:
   struct Impl;
