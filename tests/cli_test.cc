@@ -11,7 +11,8 @@
 #include <nlohmann/json.hpp>
 #include <string>
 
-#include "tests/test_support.h"
+#include "tests/support/claim_texts.h"
+#include "tests/support/test_support.h"
 
 namespace {
 
@@ -50,11 +51,7 @@ T(1) = 0
 bound = "T(n) <= n lg n for n >= 1"
 )toml";
 
-const char* kTooTight = R"toml([[claim]]
-name = "too tight"
-recurrence = "T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1; T(1) = 0"
-bound = "T(n) <= n lg n - n for n >= 2"
-)toml";
+const char* const kTooTight = thetagate::engine::test_support::kTooTightMergeClaim;
 
 TEST(CliEval, PrintsExactValuesOneLineEach) {
   // W(37) = 159: M. A. Suchenek, "Elementary yet precise worst-case analysis of
