@@ -7,6 +7,7 @@
 #include <fstream>
 #include <string>
 
+#include "tests/support/claim_texts.h"
 #include "thetagate/thetagate.h"
 
 namespace {
@@ -125,21 +126,14 @@ TEST(PublicApi, DerivesWithTheMasterTheorem) {
 }
 
 TEST(PublicApi, LoadsSelectsAndChecksClaimsFromToml) {
-  std::string toml = R"toml([[claim]]
-name = "orchard::heap / sift-downs"
-recurrence = "T(n) = T(floor(n/2)) + 1; T(1) = 0"
-bound = "Theta(lg n)"
-
+  // The broken claim's recurrence is on line 8.
+  std::string toml = std::string(thetagate::engine::test_support::kHeapSiftDownsClaim) + R"toml(
 [[claim]]
 name = "orchard::heap / broken"
 recurrence = "T(n) = T(n/2) + "
 bound = "Theta(lg n)"
 
-[[claim]]
-name = "orchard::heap / build"
-recurrence = "T(n) = 2T(floor(n/2)) + lg n; T(1) = 0"
-bound = "O(n)"
-)toml";
+)toml" + thetagate::engine::test_support::kHeapBuildClaim;
   std::vector<Claim> claims = thetagate::load_claims_from_text(toml, "heap.toml");
   ASSERT_EQ(claims.size(), 3u);
   EXPECT_FALSE(claims[0].error());

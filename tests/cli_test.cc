@@ -11,7 +11,9 @@
 #include <nlohmann/json.hpp>
 #include <string>
 
-#include "tests/test_support.h"
+#include "tests/support/claim_texts.h"
+#include "tests/support/scratch_test.h"
+#include "tests/support/test_support.h"
 
 namespace {
 
@@ -22,23 +24,9 @@ CommandResult run(const std::string& arguments) {
                                                     arguments);
 }
 
-class Cli : public ::testing::Test {
+class Cli : public thetagate::engine::test_support::ScratchTest {
  protected:
-  void SetUp() override {
-    dir_ = std::filesystem::temp_directory_path() /
-           ("thetagate-cli-" + std::to_string(::getpid()) + "-" +
-            ::testing::UnitTest::GetInstance()->current_test_info()->name());
-    std::filesystem::create_directories(dir_);
-  }
-  void TearDown() override { std::filesystem::remove_all(dir_); }
-
-  std::string write_file(const std::string& name, const std::string& text) {
-    std::filesystem::path p = dir_ / name;
-    std::ofstream(p) << text;
-    return p.string();
-  }
-
-  std::filesystem::path dir_;
+  Cli() : ScratchTest("cli") {}
 };
 
 const char* kMergeSortTrue = R"toml([[claim]]
@@ -50,11 +38,7 @@ T(1) = 0
 bound = "T(n) <= n lg n for n >= 1"
 )toml";
 
-const char* kTooTight = R"toml([[claim]]
-name = "too tight"
-recurrence = "T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1; T(1) = 0"
-bound = "T(n) <= n lg n - n for n >= 2"
-)toml";
+const char* const kTooTight = thetagate::engine::test_support::kTooTightMergeClaim;
 
 TEST(CliEval, PrintsExactValuesOneLineEach) {
   // W(37) = 159: M. A. Suchenek, "Elementary yet precise worst-case analysis of
@@ -83,7 +67,7 @@ TEST(CliEval, BadRecurrenceIsALocatedErrorWithExitTwo) {
 }
 
 TEST_F(Cli, HoldingOrUndecidedClaimsExitZero) {
-  std::string file = write_file("true.toml", kMergeSortTrue);
+  std::string file = write("true.toml", kMergeSortTrue);
   CommandResult r = run("check --max-bits 256 --format json " + file);
   EXPECT_EQ(r.status, 0) << r.out;
   auto json = nlohmann::json::parse(r.out);
@@ -93,7 +77,7 @@ TEST_F(Cli, HoldingOrUndecidedClaimsExitZero) {
 }
 
 TEST_F(Cli, RefutedClaimExitsOneWithAWitness) {
-  std::string file = write_file("tight.toml", kTooTight);
+  std::string file = write("tight.toml", kTooTight);
   CommandResult r = run("check --max-bits 64 --seed 7 --format json " + file);
   EXPECT_EQ(r.status, 1) << r.out;
   auto json = nlohmann::json::parse(r.out);
@@ -113,7 +97,7 @@ TEST_F(Cli, RefutedClaimExitsOneWithAWitness) {
 }
 
 TEST_F(Cli, ABadClaimDoesNotHideTheOthers) {
-  std::string file = write_file("mixed.toml", std::string(kTooTight) + R"toml(
+  std::string file = write("mixed.toml", std::string(kTooTight) + R"toml(
 [[claim]]
 name = "broken"
 recurrence = "T(n) = T(n/2 +"
@@ -130,9 +114,9 @@ bound = "O(lg n)"
 }
 
 TEST_F(Cli, OnlyErrorsExitTwo) {
-  std::string file = write_file("bad.toml",
-                                "[[claim]]\nname = \"x\"\nrecurrence = \"T(n) = T(n/2) + "
-                                "1\"\nbound = \"O(lg n)\"\nbounds = \"typo\"\n");
+  std::string file = write("bad.toml",
+                           "[[claim]]\nname = \"x\"\nrecurrence = \"T(n) = T(n/2) + "
+                           "1\"\nbound = \"O(lg n)\"\nbounds = \"typo\"\n");
   CommandResult r = run("check " + file);
   EXPECT_EQ(r.status, 2) << r.out;
   EXPECT_NE(r.out.find("bad.toml:5:1"), std::string::npos) << r.out;
@@ -142,14 +126,14 @@ TEST_F(Cli, MeasuredCostsAreCheckedLineByLine) {
   // Costs written by a test in another language: T(5) = 8 for the merge-sort
   // worst case (Suchenek's closed form n ceil(lg n) - 2^ceil(lg n) + 1).
   std::filesystem::create_directories(dir_ / "costs");
-  write_file("costs/merge.txt", "# n comparisons\n4 5\n5 9\n");
-  std::string file = write_file(
+  write("costs/merge.txt", "# n comparisons\n4 5\n5 9\n");
+  std::string file = write(
       "measured.toml", std::string(kMergeSortTrue) + "[claim.code]\ncosts = \"costs/merge.txt\"\n");
   CommandResult r = run("check --max-bits 64 " + file);
   EXPECT_EQ(r.status, 1) << r.out;
   EXPECT_NE(r.out.find("the code breaks its model: at n = 5"), std::string::npos) << r.out;
   EXPECT_NE(r.out.find("merge.txt:3): counted cost 9 > T(n) = 8"), std::string::npos) << r.out;
-  write_file("costs/merge.txt", "4 5\n5 eight\n");
+  write("costs/merge.txt", "4 5\n5 eight\n");
   CommandResult bad = run("check --max-bits 64 " + file);
   EXPECT_EQ(bad.status, 2) << bad.out;
   EXPECT_NE(bad.out.find("merge.txt:2:3: error: the cost must be a non-negative whole number"),
@@ -174,7 +158,7 @@ T(n) = T(n/5) + T(7n/10) + n
 """
 bound = "Theta(n)"
 )toml";
-  std::string file = write_file("select.toml", claim);
+  std::string file = write("select.toml", claim);
   CommandResult base = run("check --max-bits 256 --format json " + file);
   CommandResult deep = run("check --max-bits 256 --effort 4 --format json " + file);
   ASSERT_EQ(base.status, 0) << base.out;
@@ -194,14 +178,14 @@ bound = "Theta(n)"
   EXPECT_EQ(run("check --effort 0 " + file).status, 2);
 
   // The claim's own effort multiplies the same budget.
-  std::string own = write_file("select-own.toml", claim + "sizes = { effort = 4 }\n");
+  std::string own = write("select-own.toml", claim + "sizes = { effort = 4 }\n");
   auto o = nlohmann::json::parse(run("check --max-bits 256 --format json " + own).out);
   EXPECT_EQ(o["claims"][0]["largest_bits"], d["claims"][0]["largest_bits"]);
   EXPECT_EQ(o["claims"][0]["sizes_checked"], d["claims"][0]["sizes_checked"]);
 }
 
 TEST_F(Cli, SameSeedSameReportByteForByte) {
-  std::string file = write_file("true.toml", kMergeSortTrue);
+  std::string file = write("true.toml", kMergeSortTrue);
   CommandResult a = run("check --max-bits 128 --seed 42 --format json " + file);
   CommandResult b = run("check --max-bits 128 --seed 42 --format json " + file);
   EXPECT_EQ(a.out, b.out);
@@ -253,7 +237,7 @@ TEST_F(Cli, ParallelRunPrintsWhatASerialRunPrints) {
 }
 
 TEST_F(Cli, OutFolderGetsEveryFormatAndABaselineGatesOnDrift) {
-  std::string file = write_file("tight.toml", kTooTight);
+  std::string file = write("tight.toml", kTooTight);
   std::string folder = (dir_ / "nightly").string() + "/";
   CommandResult first = run("check --max-bits 64 --seed 3 --out " + folder + " " + file);
   EXPECT_EQ(first.status, 1) << first.out;
@@ -266,7 +250,7 @@ TEST_F(Cli, OutFolderGetsEveryFormatAndABaselineGatesOnDrift) {
                             "report.json " + file);
   EXPECT_EQ(again.status, 0) << again.out;
   // The claim is fixed: its verdict changes from refuted, which is drift.
-  std::string fixed = write_file("tight.toml", R"toml([[claim]]
+  std::string fixed = write("tight.toml", R"toml([[claim]]
 name = "too tight"
 recurrence = "T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1; T(1) = 0"
 bound = "T(n) <= n lg n for n >= 2"

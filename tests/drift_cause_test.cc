@@ -11,10 +11,13 @@
 #include "reports/drift.h"
 #include "reports/html_report.h"
 #include "reports/json_report.h"
+#include "tests/support/report_fixture.h"
 #include "verifier/checking/run_comparison.h"
 
 namespace thetagate::engine {
 namespace {
+
+using test_support::run_of;
 
 constexpr const char* kHalving = "T(n) = T(floor(n/2)) + 1\nT(1) = 1";
 
@@ -36,13 +39,6 @@ ClaimResult claim(const std::string& name, const std::string& recurrence, const 
   row.high_log2 = std::log2(high);
   c.band = {row};
   return c;
-}
-
-RunResult run_of(std::vector<ClaimResult> claims) {
-  RunResult run;
-  run.seed = 1;
-  run.claims = std::move(claims);
-  return run;
 }
 
 TEST(DriftCause, AnEditedBoundIsNamedAndItsBandMovesAreNot) {

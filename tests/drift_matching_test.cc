@@ -3,10 +3,13 @@
 // run's root, then by name; repeated baseline copies are not "lost".
 #include <gtest/gtest.h>
 
+#include "tests/support/report_fixture.h"
 #include "verifier/checking/run_comparison.h"
 
 namespace thetagate::engine {
 namespace {
+
+using test_support::run_of;
 
 ClaimResult claim(const std::string& name, const std::string& file, Verdict verdict) {
   ClaimResult c;
@@ -15,13 +18,6 @@ ClaimResult claim(const std::string& name, const std::string& file, Verdict verd
   c.line = 1;
   c.verdict = verdict;
   return c;
-}
-
-RunResult run_of(std::vector<ClaimResult> claims) {
-  RunResult run;
-  run.seed = 1;
-  run.claims = std::move(claims);
-  return run;
 }
 
 // `check claimsdir` against `check ./claimsdir`: the same claims, and the one

@@ -11,7 +11,7 @@
 
 #include "reports/baseline.h"
 #include "reports/json_report.h"
-#include "tests/report_fixture.h"
+#include "tests/support/report_fixture.h"
 
 namespace thetagate::engine {
 namespace {

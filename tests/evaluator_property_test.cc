@@ -10,7 +10,7 @@
 #include <string>
 #include <vector>
 
-#include "tests/test_support.h"
+#include "tests/support/test_support.h"
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/model/recurrence.h"
 

@@ -5,7 +5,7 @@
 #include <gtest/gtest.h>
 
 #include "api/access.h"
-#include "tests/report_fixture.h"
+#include "tests/support/report_fixture.h"
 
 namespace thetagate::cli {
 namespace {

@@ -10,54 +10,26 @@
 #include <nlohmann/json.hpp>
 #include <string>
 
-#include "tests/test_support.h"
+#include "tests/support/claim_texts.h"
+#include "tests/support/scratch_test.h"
+#include "tests/support/test_support.h"
 
 namespace {
 
 namespace fs = std::filesystem;
 
-using Outcome = thetagate::engine::test_support::CommandResult;
+namespace support = thetagate::engine::test_support;
+using Outcome = support::CommandResult;
 
 // Runs a shell command line; "$TG" in it is the thetagate binary.
-Outcome shell(const std::string& line) {
-  return thetagate::engine::test_support::run_shell("TG='" + std::string(THETAGATE_BINARY) + "'; " +
-                                                    line);
-}
+Outcome shell(const std::string& line) { return support::run_thetagate_shell(line); }
 
-class HardeningCli : public ::testing::Test {
+class HardeningCli : public support::ScratchTest {
  protected:
-  void SetUp() override {
-    dir_ = fs::temp_directory_path() /
-           ("thetagate-hcli-" + std::to_string(::getpid()) + "-" +
-            ::testing::UnitTest::GetInstance()->current_test_info()->name());
-    fs::remove_all(dir_);
-    fs::create_directories(dir_);
-  }
-  void TearDown() override { fs::remove_all(dir_); }
-  std::string write(const std::string& name, const std::string& text) {
-    fs::create_directories((dir_ / name).parent_path());
-    std::ofstream(dir_ / name, std::ios::binary) << text;
-    return (dir_ / name).string();
-  }
-  std::string read(const std::string& name) {
-    std::ifstream in(dir_ / name, std::ios::binary);
-    return std::string(std::istreambuf_iterator<char>(in), {});
-  }
-  fs::path dir_;
+  HardeningCli() : ScratchTest("hcli") {}
 };
 
-// Refuted at n = 2 already: 2 lg 2 - 2 = 0 < T(2) = 1.
-const char* kRefuted = R"toml([[claim]]
-name = "too tight"
-recurrence = "T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1; T(1) = 0"
-bound = "T(n) <= n lg n - n for n >= 2"
-)toml";
-
-const char* kHolds = R"toml([[claim]]
-name = "halving"
-recurrence = "T(n) = T(n/2) + 1; T(1) = 1"
-bound = "Theta(lg n)"
-)toml";
+const char* const kHolds = support::kHalvingClaim;
 
 const char* kBroken = R"toml([[claim]]
 name = "broken"
@@ -67,7 +39,8 @@ bound = "O(lg n)"
 
 // 10. Input errors show in the exit code even beside a refutation.
 TEST_F(HardeningCli, InputErrorsWinOverARefutation) {
-  std::string file = write("mixed.toml", std::string(kRefuted) + "\n" + kBroken);
+  std::string file =
+      write("mixed.toml", std::string(support::kTooTightMergeClaim) + "\n" + kBroken);
   Outcome r = shell("$TG check --max-bits 64 --clock-limit 0 --format json " + file);
   EXPECT_EQ(r.status, 2) << r.out;
   auto json = nlohmann::json::parse(r.out.substr(0, r.out.rfind('}') + 1));
@@ -85,7 +58,7 @@ TEST_F(HardeningCli, ALinkLoopInAFolderCostsOnlyItself) {
   EXPECT_EQ(r.status, 2) << r.out;
   auto json = nlohmann::json::parse(r.out.substr(0, r.out.rfind('}') + 1));
   ASSERT_EQ(json["claims"].size(), 2u) << r.out;
-  EXPECT_EQ(json["claims"][0]["name"], "halving");
+  EXPECT_EQ(json["claims"][0]["name"], "orchard::halving");
   EXPECT_EQ(json["claims"][0]["verdict"], "holds");
   EXPECT_EQ(json["claims"][1]["verdict"], "error");
   EXPECT_EQ(json["claims"][1]["file"], (dir_ / "claims" / "loop.toml").string());

@@ -8,7 +8,7 @@
 #include <nlohmann/json.hpp>
 #include <string>
 
-#include "tests/test_support.h"
+#include "tests/support/test_support.h"
 #include "verifier/derivation/derive.h"
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/model/bound.h"

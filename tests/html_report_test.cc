@@ -17,8 +17,8 @@
 
 #include "reports/band_plot.h"
 #include "reports/cost_plot.h"
-#include "tests/report_fixture.h"
-#include "tests/test_support.h"
+#include "tests/support/report_fixture.h"
+#include "tests/support/test_support.h"
 
 namespace thetagate::engine {
 namespace {

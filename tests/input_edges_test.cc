@@ -13,7 +13,8 @@
 #include "reports/baseline.h"
 #include "reports/json_report.h"
 #include "reports/text_report.h"
-#include "tests/report_fixture.h"
+#include "tests/support/claim_texts.h"
+#include "tests/support/report_fixture.h"
 #include "verifier/checking/checker.h"
 #include "verifier/checking/claim_evaluation.h"
 #include "verifier/checking/run.h"
@@ -82,12 +83,8 @@ bound = "O(n^(10^10))"
 // error at min_n, not a verdict on no sizes.
 TEST(InputEdges, ASmallestSizeAboveEveryCheckedSizeIsAnError) {
   for (const char* min_n : {"\"2^70000\"", "\"2^64\""}) {
-    ClaimResult r = check_text(std::string(R"toml([[claim]]
-name = "orchard::halving"
-recurrence = "T(n) = T(n/2) + 1; T(1) = 1"
-bound = "Theta(lg n)"
-[claim.sizes]
-min_n = )toml") + min_n + "\n");
+    ClaimResult r = check_text(std::string(test_support::kHalvingClaim) +
+                               "[claim.sizes]\nmin_n = " + min_n + "\n");
     ASSERT_EQ(r.verdict, Verdict::kError) << min_n;
     ASSERT_TRUE(r.error.has_value());
     EXPECT_EQ(r.error->where.line, 6);
@@ -97,12 +94,8 @@ min_n = )toml") + min_n + "\n");
     EXPECT_EQ(r.sizes_checked, 0u);
   }
   // Just below 2^max_bits is fine.
-  ClaimResult fine = check_text(R"toml([[claim]]
-name = "orchard::halving"
-recurrence = "T(n) = T(n/2) + 1; T(1) = 1"
-bound = "Theta(lg n)"
-sizes = { min_n = "2^63" }
-)toml");
+  ClaimResult fine =
+      check_text(std::string(test_support::kHalvingClaim) + "sizes = { min_n = \"2^63\" }\n");
   EXPECT_EQ(fine.verdict, Verdict::kHolds);
   EXPECT_GT(fine.sizes_checked, 0u);
   // The same through an explicit bound's own "for n >= N0".

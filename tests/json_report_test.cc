@@ -13,7 +13,7 @@
 
 #include "reports/verdict_text.h"
 #include "tests/golden.h"
-#include "tests/report_fixture.h"
+#include "tests/support/report_fixture.h"
 
 namespace thetagate::engine {
 namespace {

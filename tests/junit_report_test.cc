@@ -16,8 +16,8 @@
 #include "reports/verdict_text.h"
 #include "reports/xml_escape.h"
 #include "tests/golden.h"
-#include "tests/report_fixture.h"
-#include "tests/test_support.h"
+#include "tests/support/report_fixture.h"
+#include "tests/support/test_support.h"
 
 namespace thetagate::engine {
 namespace {

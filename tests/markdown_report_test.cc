@@ -17,7 +17,7 @@
 #include <string>
 #include <vector>
 
-#include "tests/test_support.h"
+#include "tests/support/test_support.h"
 #include "verifier/syntax/terminal_text.h"
 
 namespace thetagate::engine {

@@ -17,7 +17,9 @@
 #include <string>
 
 #include "reports/json_report.h"
-#include "tests/test_support.h"
+#include "tests/support/claim_texts.h"
+#include "tests/support/scratch_test.h"
+#include "tests/support/test_support.h"
 #include "thetagate/thetagate.h"
 #include "verifier/checking/run.h"
 #include "verifier/evaluation/evaluator.h"
@@ -28,32 +30,14 @@ namespace {
 
 namespace fs = std::filesystem;
 
-using Outcome = thetagate::engine::test_support::CommandResult;
+namespace support = thetagate::engine::test_support;
+using Outcome = support::CommandResult;
 
-Outcome shell(const std::string& line) {
-  return thetagate::engine::test_support::run_shell("TG='" + std::string(THETAGATE_BINARY) + "'; " +
-                                                    line);
-}
+Outcome shell(const std::string& line) { return support::run_thetagate_shell(line); }
 
-class ResourceLimits : public ::testing::Test {
+class ResourceLimits : public support::ScratchTest {
  protected:
-  void SetUp() override {
-    dir_ = fs::temp_directory_path() /
-           ("thetagate-limits-" + std::to_string(::getpid()) + "-" +
-            ::testing::UnitTest::GetInstance()->current_test_info()->name());
-    fs::remove_all(dir_);
-    fs::create_directories(dir_);
-  }
-  void TearDown() override { fs::remove_all(dir_); }
-  std::string write(const std::string& name, const std::string& text) {
-    fs::create_directories((dir_ / name).parent_path());
-    std::ofstream(dir_ / name, std::ios::binary) << text;
-    return (dir_ / name).string();
-  }
-  std::string read(const std::string& name) {
-    std::ifstream in(dir_ / name, std::ios::binary);
-    return std::string(std::istreambuf_iterator<char>(in), {});
-  }
+  ResourceLimits() : ScratchTest("limits") {}
   // The names in the folder that look like our temporary files.
   std::vector<std::string> temporaries(const std::string& folder) {
     std::vector<std::string> out;
@@ -63,14 +47,9 @@ class ResourceLimits : public ::testing::Test {
     }
     return out;
   }
-  fs::path dir_;
 };
 
-const char* kHolds = R"toml([[claim]]
-name = "orchard::halving"
-recurrence = "T(n) = T(n/2) + 1; T(1) = 1"
-bound = "Theta(lg n)"
-)toml";
+const char* const kHolds = support::kHalvingClaim;
 
 // 5. Over the file size limit, without the shell ignoring SIGXFSZ for us:
 // "File too large", exit 2, the old report whole, no temporary file.

@@ -5,24 +5,18 @@
 #include <gtest/gtest.h>
 
 #include <stdexcept>
+#include <string>
 
 #include "reports/verdict_text.h"
+#include "tests/support/claim_texts.h"
 #include "verifier/checking/checker.h"
 #include "verifier/model/claim.h"
 
 namespace thetagate::engine {
 namespace {
 
-const char* kTwoClaims = R"toml([[claim]]
-name = "orchard::heap / sift-downs"
-recurrence = "T(n) = T(floor(n/2)) + 1; T(1) = 0"
-bound = "Theta(lg n)"
-
-[[claim]]
-name = "orchard::heap / build"
-recurrence = "T(n) = 2T(floor(n/2)) + lg n; T(1) = 0"
-bound = "O(n)"
-)toml";
+const std::string kTwoClaims =
+    std::string(test_support::kHeapSiftDownsClaim) + "\n" + test_support::kHeapBuildClaim;
 
 TEST(Run, ABugInOneClaimIsReportedOnThatClaimOnly) {
   std::vector<ClaimEntry> entries = load_claim_text(kTwoClaims, "heap.toml");

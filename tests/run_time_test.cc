@@ -10,7 +10,7 @@
 #include <regex>
 #include <string>
 
-#include "tests/test_support.h"
+#include "tests/support/test_support.h"
 #include "verifier/checking/run.h"
 
 namespace {

@@ -8,7 +8,8 @@
 #include <fstream>
 #include <string>
 
-#include "tests/test_support.h"
+#include "tests/support/scratch_test.h"
+#include "tests/support/test_support.h"
 
 namespace {
 
@@ -16,21 +17,13 @@ namespace fs = std::filesystem;
 using thetagate::engine::test_support::CommandResult;
 using thetagate::engine::test_support::run_shell;
 
-std::string read(const fs::path& path) {
-  std::ifstream in(path, std::ios::binary);
-  return std::string(std::istreambuf_iterator<char>(in), {});
-}
-
-class ShardMerge : public ::testing::Test {
+class ShardMerge : public thetagate::engine::test_support::ScratchTest {
  protected:
+  ShardMerge() : ScratchTest("shards") {}
   void SetUp() override {
-    dir_ = fs::temp_directory_path() /
-           ("thetagate-shards-" + std::to_string(::getpid()) + "-" +
-            ::testing::UnitTest::GetInstance()->current_test_info()->name());
-    fs::remove_all(dir_);
-    fs::create_directories(dir_ / "claims");
+    ScratchTest::SetUp();
     // A few orchard claims of each verdict, small enough to run quickly.
-    std::ofstream(dir_ / "claims" / "search.toml") << R"toml([[claim]]
+    write("claims/search.toml", R"toml([[claim]]
 name = "orchard::find_sorted / probes"
 recurrence = "T(n) = T(n/2) + 1; T(1) = 1"
 bound = "Theta(lg n)"
@@ -44,8 +37,8 @@ bound = "O(1)"
 name = "orchard::scan / comparisons"
 recurrence = "T(n) = T(n - 1) + n - 1; T(1) = 0"
 bound = "T(n) = n(n - 1)/2"
-)toml";
-    std::ofstream(dir_ / "claims" / "sort.toml") << R"toml([[claim]]
+)toml");
+    write("claims/sort.toml", R"toml([[claim]]
 name = "orchard::merge_rows / comparisons"
 recurrence = "T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1; T(1) = 0"
 bound = "Theta(n lg n)"
@@ -64,21 +57,18 @@ bound = "Theta(n^2)"
 name = "orchard::broken / a typo"
 recurrence = "T(n) = 2T(n/2) + + n"
 bound = "Theta(n)"
-)toml";
+)toml");
   }
-  void TearDown() override { fs::remove_all(dir_); }
 
   CommandResult tg(const std::string& args) {
     return run_shell("cd '" + dir_.string() + "' && '" + THETAGATE_BINARY + "' " + args);
   }
-
-  fs::path dir_;
 };
 
 TEST_F(ShardMerge, MergedShardsReadExactlyLikeOneRun) {
   CommandResult whole = tg("check claims --seed 7 --format json --out whole.json");
   ASSERT_EQ(whole.status, 1) << whole.out;  // refuted claims, an error claim: exit 1
-  std::string expected = read(dir_ / "whole.json");
+  std::string expected = read("whole.json");
   ASSERT_FALSE(expected.empty());
   for (int n = 1; n <= 3; ++n) {
     std::string shards;
@@ -88,7 +78,7 @@ TEST_F(ShardMerge, MergedShardsReadExactlyLikeOneRun) {
       CommandResult r = tg("check claims --seed 7 --shard " + std::to_string(k) + "/" +
                            std::to_string(n) + " --format json --out " + name);
       ASSERT_LE(r.status, 1) << r.out;
-      std::string text = read(dir_ / name);
+      std::string text = read(name);
       EXPECT_NE(text.find("\"shard\""), std::string::npos);
       for (size_t at = text.find("\"position\""); at != std::string::npos;
            at = text.find("\"position\"", at + 1))
@@ -98,7 +88,7 @@ TEST_F(ShardMerge, MergedShardsReadExactlyLikeOneRun) {
     EXPECT_EQ(claims, 7u) << n << " shards hold every claim once";
     CommandResult merged = tg("merge" + shards + " --format json --out merged.json");
     EXPECT_EQ(merged.status, whole.status) << merged.out;
-    EXPECT_EQ(read(dir_ / "merged.json"), expected) << n << " shards";
+    EXPECT_EQ(read("merged.json"), expected) << n << " shards";
     // The text report of the merge is the unsharded one's too.
     CommandResult text_whole = tg("check claims --seed 7");
     CommandResult text_merged = tg("merge" + shards);

@@ -16,7 +16,7 @@
 #include "reports/junit_report.h"
 #include "reports/text_report.h"
 #include "reports/xml_escape.h"
-#include "tests/test_support.h"
+#include "tests/support/test_support.h"
 #include "verifier/checking/checker.h"
 #include "verifier/checking/code_check.h"
 #include "verifier/checking/run_comparison.h"

@@ -12,7 +12,7 @@
 #include <string>
 #include <vector>
 
-#include "tests/test_support.h"
+#include "tests/support/test_support.h"
 #include "verifier/numbers/interval.h"
 #include "verifier/numbers/number.h"
 

@@ -1,6 +1,15 @@
 // The arithmetic of asymptotic expansions (classify_expansion.h): merging
 // terms by growth class, products and powers by leading terms, and lg of an
 // expansion, each folding what it cannot keep exactly into the remainder.
+//
+// Unlike series.cc (certified bounds for a proof), these expansions only
+// decide a growth class and, where it is known, the leading constant C in
+// f ~ C g (docs/design.md, "Proofs": the master theorem's case 3 uses C).
+// The soundness argument is the usual one for O-terms: every operation
+// returns terms that are exact plus a remainder R = O(E) whose class E is an
+// upper bound of everything dropped, so the leading term of the result is
+// exact whenever it lies strictly above E. A sign is attached to E only when
+// R is known to be Θ(E) with that sign.
 #include "verifier/derivation/classify_expansion.h"
 
 #include <algorithm>
@@ -12,9 +21,15 @@ namespace thetagate::engine::classify_internal {
 
 namespace {
 
+// Terms kept before the rest is folded into the remainder. Products of
+// k-term expansions have k^2 terms. What is read exactly is a driver's
+// leading term and an exponent's terms down to its constant (c^(n + lg n + 1)),
+// a few terms each, so 24 loses nothing in practice and bounds the work.
 constexpr size_t kMaxTerms = 24;
 
 // The class just below the leading term: the second term or the remainder.
+// It is the relative error of keeping only the leading term: x = c G (1 +
+// O(next / G)), which powers and lg carry through.
 std::optional<GrowthClass> next_class(const Expansion& x) {
   std::optional<GrowthClass> next;
   if (x.terms.size() >= 2) next = x.terms[1].g;
@@ -53,6 +68,8 @@ Expansion pure_expansion(const GrowthClass& g, int sign) {
   return x;
 }
 
+// O(E1) + O(E2) = O(max(E1, E2)); equal classes with opposite or unknown
+// signs may cancel to anything below, so only the O() survives (sign 0).
 void absorb(Expansion& x, const GrowthClass& g, int sign) {
   if (!x.error || compare(g, *x.error) > 0) {
     x.error = g;
@@ -73,6 +90,9 @@ void normalize(Expansion& x) {
       merged.push_back(t);
     }
   }
+  // A term at or below the remainder's class is not exact information any
+  // more: c E + O(E) is O(E). One below disappears into it; one of the same
+  // class leaves the remainder's sign only when the signs agree.
   std::vector<Term> kept;
   for (auto& t : merged) {
     int s = t.c.sign();
@@ -91,6 +111,8 @@ void normalize(Expansion& x) {
   x.terms = std::move(kept);
 }
 
+// With no exact term the remainder leads only when its sign is known
+// (R = Θ(E)); O(E) alone could be 0 or o(E), so the class is not known.
 Lead lead_of(const Expansion& x) {
   if (!x.terms.empty()) return {x.terms[0].g, x.terms[0].c, true, x.terms[0].c.sign()};
   if (x.error && x.error_sign != 0)
@@ -115,6 +137,10 @@ Expansion negate(Expansion x) {
   return x;
 }
 
+// (sum s_i + O(E)) (sum t_j + O(F)) = sum s_i t_j + O(t_0 E) + O(s_0 F)
+// (+ O(E F), smaller than both): the error of each factor times the other's
+// leading term. When a factor is only Θ(E) with a sign, the product is
+// Θ(lead x · lead y) with the product of the signs, and no constant.
 Expansion multiply(const Expansion& x, const Expansion& y) {
   if (x.is_zero() || y.is_zero()) return {};
   if (x.is_pure() || y.is_pure()) {
@@ -135,16 +161,23 @@ Expansion multiply(const Expansion& x, const Expansion& y) {
 // x^r by its leading term: c^r G^r (1 + O(next/G)).
 Expansion approximate_power(const Expansion& x, const RealNumber& r, const std::string& what) {
   if (x.is_zero()) throw Refusal{"'" + what + "' takes a power of zero"};
+  // A negative base to a fractional power is not real. To a whole power it
+  // is, but only integer_power (0 ... 12) multiplies the signs out; this
+  // path does not track them, so it refuses.
   Lead l = lead_of(x);
   if (l.sign < 0)
     throw Refusal{"'" + what + "' takes a fractional or negative power of a negative quantity"};
   GrowthClass g = l.g.power(r);
   if (!l.known) return pure_expansion(g, 1);
+  // (c G (1 + O(e)))^r = c^r G^r (1 + O(e)) for e = next/G -> 0 (binomial
+  // series), so the error is G^r · next/G.
   Expansion out = term_expansion(pow(l.c, r), g);
   if (auto next = next_class(x)) out.error = g.times(next->over(l.g));
   return out;
 }
 
+// Repeated products keep the lower terms exact (n + 1)^2 = n^2 + 2n + 1;
+// past 12 factors the term count (and work) grows too fast for the gain.
 Expansion integer_power(const Expansion& x, long k, const std::string& what) {
   if (k > 12) return approximate_power(x, RealNumber(k), what);
   Expansion r = constant_expansion(RealNumber(1L));
@@ -152,11 +185,16 @@ Expansion integer_power(const Expansion& x, long k, const std::string& what) {
   return r;
 }
 
+// lg(c G (1 + O(e))) = lg G + lg c + O(e), since lg(1 + O(e)) = O(e); and
+// lg G for G = rho^n n^alpha lg^beta n (lg lg n)^gamma is
+// n lg rho + alpha lg n + beta lg lg n + gamma lg lg lg n.
 Expansion lg_of(const Expansion& x, const std::string& what) {
   if (x.is_zero()) throw Refusal{"'" + what + "' takes lg of zero"};
   Lead l = lead_of(x);
   if (l.sign < 0) throw Refusal{"'" + what + "' takes lg of a negative quantity"};
   if (l.g.is_constant()) {
+    // lg of a bounded quantity is a constant only if the constant is known,
+    // and tends to lg 1 = 0 (no class) when it is 1.
     if (!l.known)
       throw Refusal{"'" + what + "' takes lg of a bounded quantity with unknown constant"};
     if (l.c == RealNumber(1L)) throw Refusal{"'" + what + "' takes lg of a quantity tending to 1"};

@@ -1,3 +1,14 @@
+// The substitution method, mechanised (induction.h; docs/design.md,
+// "Proofs"). Why a proof built here proves the claim: T(n) is compared
+// exactly with B for n0 <= n <= M (the caller's check_range), and with the
+// carried bound B' on every size the step lands on; for n > M each
+// recursive line is T(n) = sum a_i T(arg_i(n)) + f(n) with a_i > 0 and
+// arg_i(n) < n, so if every T(arg_i(n)) <= B'(arg_i(n)) (strong induction on
+// n) then T(n) <= sum a_i B'(arg_i(n)) + f(n) <= B'(n) as soon as the slack
+// B'(n) - sum a_i B'(arg_i(n)) - f(n) is >= 0 (series.h proves it for every
+// real n > M). a_i > 0 is what lets the inequality pass through the sum; on
+// the lower side every inequality is reversed. Finally B' <= B beyond M
+// (same method) carries the conclusion back to the claim.
 #include "verifier/derivation/induction.h"
 
 #include <algorithm>
@@ -11,15 +22,23 @@ namespace thetagate::engine {
 namespace {
 
 // Where the exact check ends and the inductive step begins: the smallest
-// first, a larger one when the step fails close to it.
+// first, a larger one when the step fails close to it. A larger M helps
+// twice: the slack's lower-order terms weigh less against the leading one,
+// and Taylor remainders expanded from M are tighter.
 const BigInt kFirstM = 64;
 const BigInt kSecondM = 1024;
 const BigInt kThirdM = 4096;
 // The longest exact check a proof may ask for.
 const BigInt kLongestCheck = 65536;
 // The largest modulus n is split by (floors of n/b for every b in the recurrence).
+// The modulus grows to (at least) the lcm of the divisors whose floors need
+// it: 720 = 16 · 9 · 5 admits every set of divisors from 2 to 6 (lcm 60) and
+// more; each residue costs a whole step proof, so the cap bounds the work.
 constexpr uint64_t kMaxModulus = 720;
 
+// One proof attempt failed (DEVELOPERS.md, signals): caught in run() to try
+// the next candidate or plan; prove_by_induction() catches it too, as a net
+// (every throw today is inside an attempt).
 struct Failure {
   std::string why;
 };
@@ -47,7 +66,10 @@ std::optional<Rational> rational_constant(const Expr& e) {
   return v->rational();
 }
 
-// body = sum a_i T(arg_i) + f(n).
+// body = sum a_i T(arg_i) + f(n). Only constant multiples are accepted:
+// a coefficient that depends on n (n T(n/2)) would make the slack's
+// inequality depend on the sign and size of that factor, which the step does
+// not track.
 void linearize(const ExprPtr& e, const Rational& factor, const std::string& name, Linear& out) {
   if (!calls_function(e, name)) {
     ExprPtr term = factor == 1 ? e : make_binary(ExprKind::kMul, make_number(factor), e);
@@ -94,6 +116,10 @@ void linearize(const ExprPtr& e, const Rational& factor, const std::string& name
   throw Failure{"the recursive line is not a sum of constant multiples of " + name + "(...)"};
 }
 
+// The line that defines T(n) for every n > m in this residue class. A point
+// line beyond m would be a value the step cannot see; a condition that the
+// residue and n > m do not decide (n < 1000 with m = 64) would make the line
+// change inside the class.
 const CaseLine& line_for(const Function& f, uint64_t modulus, uint64_t residue, const BigInt& m) {
   for (const CaseLine& p : f.points) {
     if (p.point && *p.point > m) throw Failure{"a point case lies beyond the checked range"};
@@ -137,6 +163,8 @@ class Prover {
   uint64_t work_ = 0;
 };
 
+// prove_nonnegative's SeriesUnsupported is this attempt's Failure;
+// NeedModulus passes through to run(), which splits n further.
 StepProof Prover::nonnegative(const std::function<Series(const SeriesContext&)>& build,
                               SeriesContext ctx) {
   try {
@@ -156,6 +184,9 @@ StepProof Prover::step(const ExprPtr& candidate, const ExprPtr& claimed, Side si
     const CaseLine& line = line_for(rec.main, modulus, r, m);
     Linear lin;
     linearize(line.body, Rational(1), rec.main.name, lin);
+    // Strictness is inherited from the exact checks through the recursive
+    // terms (T(arg) < B'(arg) and a > 0 give <); a line without one would
+    // need f(n) < B'(n) strictly, which a non-negative slack does not say.
     if (strict && lin.calls.empty()) throw Failure{"a strict bound needs a recursive term"};
     // The smallest n > m in this residue class.
     BigInt n1 = m + 1;
@@ -166,7 +197,12 @@ StepProof Prover::step(const ExprPtr& candidate, const ExprPtr& claimed, Side si
     probe.helpers = &rec.helpers;
     std::vector<Series> args;
     for (const Call& call : lin.calls) {
+      // With a < 0, T(arg) <= B'(arg) turns into a T(arg) >= a B'(arg): the
+      // wrong way for the step.
       if (call.a <= 0) throw Failure{"a recursive term with a coefficient <= 0"};
+      // The argument as the evaluator reads it: T takes whole numbers, so
+      // an argument is floored; on this residue class that is exact,
+      // s n + t.
       Series arg;
       try {
         arg = expand(*make_call("floor", {call.arg}), variable_series(), probe);
@@ -174,12 +210,17 @@ StepProof Prover::step(const ExprPtr& candidate, const ExprPtr& claimed, Side si
         throw Failure{"the argument " + print(*call.arg) + ": " + e.why};
       }
       std::optional<std::pair<Rational, Rational>> aff = as_affine(arg);
+      // 0 < s <= 1 with (1 - s)(m + 1) > t below: arg(n) < n for every
+      // n > m (s n + t - n is non-increasing), so the induction is well
+      // founded.
       if (!aff || aff->first <= 0 || aff->first > 1)
         throw Failure{"the argument " + print(*call.arg) + " is not s n + t with 0 < s <= 1"};
       auto [s, t] = *aff;
       // arg(n) < n for every n > m, and the smallest argument reached.
       if ((1 - s) * Rational(m + 1) - t <= 0)
         throw Failure{"the argument " + print(*call.arg) + " does not shrink"};
+      // The smallest argument the step reaches, at the class's first n > m
+      // (arg is increasing): T must be within B' from there up to m.
       Rational lowest = s * Rational(n1) + t;
       if (denominator(lowest) != 1) throw Failure{"an argument that is not a whole number"};
       lowest_argument = std::min(lowest_argument, numerator(lowest));
@@ -187,6 +228,8 @@ StepProof Prover::step(const ExprPtr& candidate, const ExprPtr& claimed, Side si
     }
     const std::vector<Call> calls = lin.calls;
     ExprPtr f = lin.f;
+    // The slack B'(n) - sum a_i B'(arg_i(n)) - f(n), rebuilt for every
+    // `from` prove_nonnegative asks for (remainders depend on it).
     auto build = [&, calls, f, args](const SeriesContext& ctx) {
       Series n = variable_series();
       Series sum = expand(*candidate, n, ctx);
@@ -226,6 +269,15 @@ struct Candidate {
   std::string strengthening;
 };
 
+// The bounds tried in the step, the claim first: the classic repairs of a
+// step that fails by a lower-order amount (docs/sources.md, "The substitution
+// method"). Moving B away from T by h (B - h on the upper side) adds
+// sum a_i h(arg_i) - h(n) to the slack: positive when sum a_i > 1 and h
+// grows slowly enough (h = 1, lg n, sqrt n), which is why a bound with no
+// room in its step (T(n) = 2T(n/2) + 1 against 2n) goes through as 2n - 1.
+// The shift B(n -+ 1) absorbs a bounded rounding of the arguments. Roughly
+// from the smallest change to the largest, so the proof names a small
+// strengthening that works.
 std::vector<Candidate> candidates(const ExprPtr& b, Side side) {
   std::vector<Candidate> out{{b, ""}};
   ExprPtr n = make_variable();
@@ -280,6 +332,7 @@ InductionOutcome Prover::run() {
       }
     }
     for (auto [start, m] : plans) {
+      // Both sides share one M (the proof reports one checked range).
       if (m_used != 0) m = std::max(m, m_used);
       for (const Candidate& cand : candidates(claimed, side)) {
         try {
@@ -292,11 +345,15 @@ InductionOutcome Prover::run() {
               p = step(cand.bound, claimed, side, strict, m, modulus, lowest);
               break;
             } catch (const NeedModulus& need) {
+              // A floor of s n + t is exact only on classes mod a multiple
+              // of s's denominator (series.cc, rounded): split and redo.
               uint64_t next = modulus * need.factor;
               if (next > kMaxModulus) throw Failure{"floors need too many residue classes"};
               modulus = next;
             }
           }
+          // Below `start` nothing about T is checked: the hypothesis would
+          // be used where it was never established.
           if (lowest < start) throw Failure{"the step reaches arguments below n = " + start.str()};
           // Exact checks: T against the claim up to m, against the carried
           // bound where the step lands.
@@ -330,7 +387,12 @@ InductionOutcome Prover::run() {
           proved = true;
           break;
         } catch (const Failure& f) {
+          // The reason reported is the claim's own bound's (the first
+          // candidate of the last plan): why the bound as written fails is
+          // what a reader can act on; strengthenings are our guesses.
           if (out.failure.empty() || cand.strengthening.empty()) out.failure = f.why;
+          // The work budget is shared by every attempt: once spent, later
+          // candidates cannot run either.
           if (f.why == "the proof's work budget ran out") {
             out.failure = f.why;
             out.work = work_;
@@ -345,6 +407,7 @@ InductionOutcome Prover::run() {
       return out;
     }
   }
+  // Both sides proved with the same carried bound: T(n) equals it.
   if (texts.size() == 2 && texts[0].substr(3) == texts[1].substr(3) && !bound.strict_upper &&
       !bound.strict_lower) {
     proof.bound = "= " + texts[0].substr(3);

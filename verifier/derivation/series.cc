@@ -1,3 +1,21 @@
+// Certified expansions for the inductive step (series.h; the method in
+// docs/design.md, "Proofs"). The mathematics this file relies on, in order:
+//
+// - Coefficients: exact rationals, or rational combinations of products of
+//   *named* irrational constants. Two coefficients cancel only when their
+//   names say they are the same number (lg 3 on both sides of a step), never
+//   because two enclosures happen to overlap: that would be a guess.
+// - Powers and logarithms of a sum A = L (1 + u), with L its leading term:
+//   the binomial series (1 + u)^k = sum binom(k, j) u^j and the series
+//   ln(1 + u) = sum (-1)^(j+1) u^j / j, cut after `order` terms, with the
+//   Lagrange form of the remainder bounding what was cut. Both need
+//   |u(n)| <= u0 < 1/2 for every n >= from, which relative_rest() proves.
+// - Floors and ceilings: on one residue class n = M m + r, an affine
+//   argument s n + t with s M whole has the same fractional part for every
+//   m, so its floor is s n + t minus a constant: exact, not a bound.
+// - Signs: beyond some x the leading term outweighs the others, bounded by
+//   their ratios to it at x (each ratio non-increasing from x on); below x,
+//   interval arithmetic on blocks [x, 2x].
 #include "verifier/derivation/series.h"
 
 #include <algorithm>
@@ -26,6 +44,10 @@ Interval magnitude(const Interval& x) {
   return Interval::max(hi, lo);
 }
 
+// A coefficient as monomials: name -> (rational multiplier, enclosure of
+// the monomial). "" is the rational part (enclosure 1). Addition merges equal
+// names, so equal constants cancel exactly; an unnamed constant gets a
+// unique name ("#k", Coef::of(Interval)) and so never cancels with another.
 using Monomials = std::map<std::string, std::pair<Rational, Interval>>;
 
 Monomials monomials_of(const Coef& c, long p) {
@@ -51,6 +73,8 @@ Coef from_monomials(Monomials m) {
   return c;
 }
 
+// The name of a product of two monomials: the multiset of their atoms,
+// sorted, so that a*b and b*a are the same monomial and merge.
 std::string monomial_product(const std::string& a, const std::string& b) {
   if (a.empty()) return b;
   if (b.empty()) return a;
@@ -110,6 +134,9 @@ Coef cneg(const Coef& a) {
   return r;
 }
 
+// 1/a. A combination of named constants has no named inverse, so the
+// inverse of an inexact coefficient is an unnamed enclosure: it cannot take
+// part in an exact cancellation, which only costs a proof, never soundness.
 Coef cinverse(const Coef& a, long p) {
   if (a.exact) {
     if (a.q == 0) throw SeriesUnsupported{"division by zero"};
@@ -134,11 +161,16 @@ Coef coef_of_real(const RealNumber& x, long p) {
   return Coef::of(x.enclose(p));
 }
 
-// A constant that a name describes exactly when its inputs are exact.
+// A constant that a name describes exactly when its inputs are exact: a
+// rational or q + c log_g a. Only such constants may be named, because the
+// name is what decides that two of them are equal.
 bool nameable(const RealNumber& k) {
   return k.kind() == RealNumber::Kind::kRational || k.kind() == RealNumber::Kind::kLog;
 }
 
+// Exponents are ordered exactly; two that intervals cannot tell apart
+// (equal, or equal to 2^-16384) leave the key order unknown, and an unknown
+// order is no basis for merging terms or naming the leading one.
 int compare_real(const RealNumber& a, const RealNumber& b) {
   try {
     return compare(a, b);
@@ -164,6 +196,8 @@ Series constant(const Coef& c) {
 }
 
 // Adds one term, merging it into a term of the same key (and remainder).
+// Two remainders with the same key but different tags are different unknown
+// functions: adding their coefficients would assume they are equal.
 void accumulate(Series& s, const SeriesKey& key, const Coef& c, long p, const std::string& tag = "",
                 const std::optional<Interval>& bound = std::nullopt) {
   if (c.is_zero()) return;
@@ -181,6 +215,9 @@ void accumulate(Series& s, const SeriesTerm& t, long p) {
   accumulate(s, t.key, t.coef, p, t.tag, t.bound);
 }
 
+// The product term by term. A remainder times an ordinary term is the same
+// remainder function scaled; a product of two remainders is a new unknown
+// function (named by both tags) with |R1 R2| <= b1 b2 key1 key2.
 Series mul(const Series& a, const Series& b, long p) {
   Series r;
   for (const SeriesTerm& x : a.terms) {
@@ -204,6 +241,11 @@ Series mul(const Series& a, const Series& b, long p) {
 
 // A name for a remainder function: its kind and the exact series it
 // depends on; unique (never shared) when that series is not exact.
+// The remainder of (1 + u)^k or lg(1 + u) cut after `order` terms is a
+// function of k, order and u alone: where the same exact u occurs on both
+// sides of a step (f(n) = lg(n + 1) against a bound with lg(n + 1) in it),
+// the two remainders are one function and cancel. With inexact coefficients
+// in u two series that print alike may differ, so the name is made unique.
 std::string remainder_tag(const std::string& kind, const RealNumber& k, const Series& u,
                           int order) {
   static std::atomic<uint64_t> unique{0};
@@ -223,6 +265,8 @@ std::string remainder_tag(const std::string& kind, const RealNumber& k, const Se
   return tag + ")";
 }
 
+// The term with the fastest-growing key (the first of equals; accumulate
+// keeps at most one per key and tag).
 size_t leading_index(const Series& s) {
   size_t lead = 0;
   for (size_t i = 1; i < s.terms.size(); ++i) {
@@ -234,7 +278,9 @@ size_t leading_index(const Series& s) {
 // An interval for n at the real point x.
 Interval point(const BigInt& x, long p) { return Interval(x, p); }
 
-// key(n) on the interval n (every point >= 2).
+// key(n) on the interval n (every point >= 2), as exp(n ln rho) ·
+// exp(alpha ln n) · exp(beta ln lg n): with n >= 2, lg n >= 1, so every
+// logarithm is of a positive number and the enclosure is certified.
 Interval key_value(const SeriesKey& k, const Interval& n, long p) {
   Interval v(Rational(1), p);
   if (k.rho != 1) v = v * (n * pinterval(k.rho, p).log()).exp();
@@ -245,6 +291,9 @@ Interval key_value(const SeriesKey& k, const Interval& n, long p) {
 
 // The supremum of a(n)/b(n) over n >= x, when a/b does not increase from x
 // on (b dominates a, or a = b); nullopt otherwise.
+// With d = a/b = rho^n n^alpha lg^beta n, ln d(n) = n ln rho + alpha ln n +
+// beta ln lg n, whose derivative is ln rho + (alpha + beta / ln n) / n. When
+// it is <= 0 on [x, oo), d is non-increasing there and sup d = d(x).
 std::optional<Interval> sup_ratio(const SeriesKey& a, const SeriesKey& b, const BigInt& x, long p) {
   SeriesKey d = key_div(a, b);
   Interval X = point(x, p);
@@ -253,6 +302,7 @@ std::optional<Interval> sup_ratio(const SeriesKey& a, const SeriesKey& b, const 
   if (rho > 0) return std::nullopt;
   int alpha = d.alpha.sign();
   if (rho == 0) {
+    // No exponential factor: alpha > 0, or alpha = 0 with beta > 0, grows.
     if (alpha > 0) return std::nullopt;
     if (alpha == 0 && d.beta > 0) return std::nullopt;
     if (alpha < 0 && d.beta > 0) {
@@ -272,7 +322,9 @@ std::optional<Interval> sup_ratio(const SeriesKey& a, const SeriesKey& b, const 
   return key_value(d, X, p);
 }
 
-// Binomial coefficient binom(k, j) for real k.
+// Binomial coefficient binom(k, j) = k (k - 1) ... (k - j + 1) / j! for
+// real k. For a nameable k it is named, so binom(lg 3, 2) on both sides of
+// a step cancels exactly.
 Coef binomial(const RealNumber& k, int j, long p) {
   if (k.is_rational()) {
     Rational r = 1;
@@ -289,6 +341,11 @@ Coef binomial(const RealNumber& k, int j, long p) {
 
 // lead^k for a single term, exactly where the rationals allow: c^k with c a
 // rational power of the logarithm's base stays rational ((1/2)^(lg 3) = 1/3).
+// Why: with k = q + c' log_g a and c = g^e, c^k = g^(e q) · g^(e c' log_g a)
+// = g^(e q) · a^(e c'). A step's coefficients are powers of its divisors
+// ((1/2)^k for n/2), so |e| <= 64 covers the divisors 2^-64 ... 2^64 that
+// share the logarithm's base; any other c gets a named power, which still
+// cancels against itself.
 Coef coef_power(const Coef& c, const RealNumber& k, long p) {
   if (c.exact) {
     if (c.q <= 0) throw SeriesUnsupported{"a power of a non-positive coefficient"};
@@ -317,6 +374,8 @@ Coef coef_power(const Coef& c, const RealNumber& k, long p) {
   return Coef::of(v.pow(k.enclose(p)));
 }
 
+// The expansion of A around its leading term L: A = L (1 + u). Every bound
+// on the Taylor remainders below rests on |u(n)| <= u0 for all n >= from.
 struct Relative {
   Series u;         // A / lead - 1
   SeriesKey kappa;  // u's largest key
@@ -325,6 +384,12 @@ struct Relative {
 };
 
 // A = lead · (1 + u): the relative rest and its bounds.
+// |u(n)| = |sum c_t t(n)| <= kappa(n) · sum |c_t| sup_{m >= from} t(m)/kappa(m)
+// = U kappa(n), each ratio non-increasing (sup_ratio); kappa itself decays
+// (its key is below 1), so kappa(n) <= kappa(from) and |u| <= u0 = U
+// kappa(from). Requiring u0 < 1/2 keeps the series convergent and the
+// remainder factors (1 +- u0)^(k - order) and 1/(1 - u0) below 2^|k - order|
+// and 2, so the remainder bounds stay useful.
 Relative relative_rest(const Series& a, size_t lead, const SeriesContext& ctx) {
   long p = ctx.precision;
   const SeriesTerm& l = a.terms[lead];
@@ -352,6 +417,13 @@ Relative relative_rest(const Series& a, size_t lead, const SeriesContext& ctx) {
   return r;
 }
 
+// A^k. Small whole powers are multiplied out exactly (no remainder). Else
+// A^k = L^k (1 + u)^k with (1 + u)^k = sum_{j < order} binom(k, j) u^j + R and,
+// by Lagrange's form of the remainder, R = binom(k, order) (1 + xi)^(k - order)
+// u^order for some |xi| <= |u| <= u0; (1 + xi)^(k - order) is monotone in xi,
+// so its largest value on [-u0, u0] is at an end:
+// |R| <= |binom(k, order)| max((1 - u0)^(k - order), (1 + u0)^(k - order))
+//        · U^order · kappa(n)^order.
 Series power(const Series& a, const RealNumber& k, const SeriesContext& ctx) {
   long p = ctx.precision;
   if (a.terms.empty()) {
@@ -369,6 +441,7 @@ Series power(const Series& a, const RealNumber& k, const SeriesContext& ctx) {
   const SeriesTerm& l = a.terms[lead];
   SeriesKey key = l.key;
   if (key.rho != 1) {
+    // (rho^n)^k = (rho^k)^n needs rho^k rational: a whole k.
     if (!k.is_rational() || denominator(k.rational()) != 1)
       throw SeriesUnsupported{"a non-integer power of an exponential"};
     Rational rho = 1;
@@ -378,6 +451,7 @@ Series power(const Series& a, const RealNumber& k, const SeriesContext& ctx) {
   }
   key.alpha = key.alpha * k;
   if (l.key.beta != 0) {
+    // Keys carry whole powers of lg n only: (lg n)^(1/2) has no key.
     RealNumber b = RealNumber(static_cast<long>(l.key.beta)) * k;
     if (!b.is_integer()) throw SeriesUnsupported{"a fractional power of lg n"};
     key.beta = static_cast<int>(numerator(b.rational()));
@@ -394,6 +468,8 @@ Series power(const Series& a, const RealNumber& k, const SeriesContext& ctx) {
     u_power = mul(u_power, rel.u, p);
     sum = add(sum, scale(u_power, binomial(k, j, p), p), p);
   }
+  // binom(k, order) = 0 when k is a whole number below order: the series
+  // ends, the sum is exact and no remainder is added.
   Coef bj = binomial(k, order, p);
   if (!bj.is_zero()) {
     Interval kk = k.enclose(p) - Interval(Rational(order), p);
@@ -410,6 +486,13 @@ Series power(const Series& a, const RealNumber& k, const SeriesContext& ctx) {
   return mul(lead_power, sum, p);
 }
 
+// lg A with A = c n^alpha (1 + u): lg c + alpha lg n + ln(1 + u) / ln 2, and
+// ln(1 + u) = sum_{j < order} (-1)^(j+1) u^j / j + R. The order-th derivative
+// of ln(1 + x) is (-1)^(order+1) (order - 1)! / (1 + x)^order, so Lagrange's
+// form gives |R| <= |u|^order / (order (1 - u0)^order)
+//               <= (U / (1 - u0))^order kappa(n)^order / order.
+// A leading lg^beta n would give lg lg n, which has no key; a leading rho^n
+// (n lg rho) occurs in no step we prove and is refused as well.
 Series log2_series(const Series& a, const SeriesContext& ctx) {
   long p = ctx.precision;
   if (a.terms.empty()) throw SeriesUnsupported{"lg of zero"};
@@ -420,6 +503,8 @@ Series log2_series(const Series& a, const SeriesContext& ctx) {
   if (!l.tag.empty()) throw SeriesUnsupported{"lg around a remainder term"};
   Interval c0 = l.coef.enclose(p);
   if (!c0.certainly_positive()) throw SeriesUnsupported{"lg of a term that is not positive"};
+  // lg c: a whole number for c a power of two, else the named log_2 c, so
+  // that lg 3 from the two sides of a step cancels.
   Series r;
   if (l.coef.exact && exact_log2(l.coef.q)) {
     accumulate(r, unit_key(), Coef::of(Rational(*exact_log2(l.coef.q))), p);
@@ -450,12 +535,19 @@ Series log2_series(const Series& a, const SeriesContext& ctx) {
   return add(r, rem, p);
 }
 
+// The value of a subtree without n, exactly where constant_value can
+// (lg 3, 3/2): constants become one coefficient, not a product of series.
 std::optional<RealNumber> constant_of(const Expr& e) {
   if (mentions_n(e)) return std::nullopt;
   std::string reason;
   return constant_value(e, &reason);
 }
 
+// floor or ceil of an affine x = s n + t on the class n = M m + r:
+// x = (s M) m + (s r + t). When s M is whole, x - (s r + t) is whole for
+// every m, so floor(x) = x + (floor(v) - v) with v = s r + t: exact on the
+// whole class. When it is not, the class is too coarse: NeedModulus asks the
+// caller to split n further by the denominator of s M.
 Series rounded(const Series& x, bool ceiling, const SeriesContext& ctx) {
   std::optional<std::pair<Rational, Rational>> aff = as_affine(x);
   if (!aff) throw SeriesUnsupported{"a floor or ceiling of a non-affine argument"};
@@ -474,6 +566,9 @@ Series rounded(const Series& x, bool ceiling, const SeriesContext& ctx) {
 
 // The value of a helper f(x) for x = `argument`: the line that applies on
 // this residue class for every n >= from, expanded.
+// A point line (f(3) = 7) has no expansion: it must be out of reach, which
+// holds when the argument is increasing (slope > 0) and already past the
+// point at n = from.
 Series expand_helper(const Function& f, const Series& argument, const SeriesContext& ctx) {
   if (f.inlined_size > kMaxInlinedHelperSize) {
     throw SeriesUnsupported{"helper " + f.name + " expands to too many terms"};
@@ -506,7 +601,10 @@ std::optional<std::pair<Rational, Rational>> affine_operand(const Expr& e, const
 }
 
 // For x = s n + t with n = modulus·m + residue: x = (s·modulus) m + (s·residue + t).
-// The residue of x modulo k, when the class decides it.
+// The residue of x modulo k, when the class decides it: x mod k is the same
+// for every m iff k divides s·modulus; otherwise the class must be split
+// (NeedModulus). A base that is not whole means x is never an integer: no
+// residue.
 std::optional<BigInt> residue_of(const std::pair<Rational, Rational>& x, uint64_t k,
                                  const SeriesContext& ctx) {
   Rational step = x.first * Rational(ctx.modulus);
@@ -519,6 +617,8 @@ std::optional<BigInt> residue_of(const std::pair<Rational, Rational>& x, uint64_
 
 }  // namespace
 
+// Three-valued: a conjunction is false when either side is, whatever the
+// other; a disjunction is true when either side is.
 std::optional<bool> decide_condition(const Expr& c, const Series& value, const SeriesContext& ctx) {
   switch (c.kind) {
     case ExprKind::kAnd:
@@ -573,6 +673,8 @@ std::optional<bool> decide_condition(const Expr& c, const Series& value, const S
       std::optional<std::pair<Rational, Rational>> b = affine_operand(r, value, ctx);
       if (!a || !b) return std::nullopt;
       Rational s = a->first - b->first, t = a->second - b->second;
+      // l - r = s n + t is monotone in n: its sign is fixed on [from, oo)
+      // when it is constant, or already has the sign of its slope at from.
       Rational at_from = s * Rational(ctx.from) + t;
       int sign;  // of l - r for every n >= from, when fixed
       if (s == 0) {
@@ -605,6 +707,9 @@ NonnegativeProof prove_nonnegative(const std::function<Series(const SeriesContex
   BigInt lo = ctx.from;
   for (;;) {
     spend(1);
+    // Expanded afresh from lo: a larger `from` makes u0 smaller and every
+    // remainder bound tighter, so a tail that does not dominate at 64 may
+    // at 2^k.
     ctx.from = lo;
     Series s = build(ctx);
     if (is_identically_zero(s)) return proof;
@@ -613,12 +718,20 @@ NonnegativeProof prove_nonnegative(const std::function<Series(const SeriesContex
       proof.tail_log2 = bit_length(lo) - 1;
       return proof;
     }
+    // Hopeless cases end here rather than after 8192 doublings: a negative
+    // leading term makes the slack negative for all large n (this bound's
+    // step fails there; no block can help), and a leading coefficient of
+    // unknown sign stays unknown at every larger `from` (it does not depend
+    // on `from`).
     if (eventually_negative(s, ctx.precision))
       throw SeriesUnsupported{"the slack has a negative leading term"};
     if (leading_sign_unknown(s, ctx.precision))
       throw SeriesUnsupported{"the expansion does not settle the sign of the slack's leading term"};
     if (bit_length(lo) > kMaxBlockScale)
       throw SeriesUnsupported{"the slack's leading term does not dominate by 2^8192"};
+    // The block [lo, 2 lo]: one enclosure on the whole block, else 16 pieces.
+    // Interval evaluation loses to dependency (n^2 - 300 n on a wide block),
+    // so narrower pieces succeed where the whole block does not.
     BigInt hi = 2 * lo;
     spend(1);
     if (!enclose_on(s, lo, hi, ctx.precision).certainly_nonnegative()) {
@@ -657,6 +770,8 @@ Coef Coef::of(const Rational& q) {
   return c;
 }
 
+// An unnamed constant: a fresh name, so it never cancels with another
+// (two enclosures that overlap need not be the same number).
 Coef Coef::of(const Interval& iv) {
   // A point interval encloses exactly one number: that number, exactly.
   if (mpfr_equal_p(&iv.raw()->left, &iv.raw()->right) && mpfr_number_p(&iv.raw()->left))
@@ -705,6 +820,8 @@ Series scale(const Series& a, const Coef& c, long precision) {
   return r;
 }
 
+// Affine means exact, with no remainder and no rho^n or lg n factor: only
+// then is floor(s n + t) exact per residue (rounded()).
 std::optional<std::pair<Rational, Rational>> as_affine(const Series& s) {
   Rational slope = 0, shift = 0;
   for (const SeriesTerm& t : s.terms) {
@@ -740,6 +857,8 @@ Series expand(const Expr& e, const Series& n_value, const SeriesContext& ctx) {
     case ExprKind::kDiv:
       return mul(arg(0), power(arg(1), RealNumber(-1L), ctx), p);
     case ExprKind::kPow: {
+      // x^k with k constant, or b^(s n + t) = (b^s)^n · b^t with whole s, t:
+      // an exponential key with a rational rho, exact.
       if (std::optional<RealNumber> k = constant_of(*e.args[1])) return power(arg(0), *k, ctx);
       std::optional<RealNumber> base = constant_of(*e.args[0]);
       if (!base || !base->is_rational() || base->rational() <= 0)
@@ -761,6 +880,8 @@ Series expand(const Expr& e, const Series& n_value, const SeriesContext& ctx) {
       const std::string& name = e.name;
       if (name == "floor" || name == "ceil") return rounded(arg(0), name == "ceil", ctx);
       if (name == "lg" || name == "log2") return log2_series(arg(0), ctx);
+      // ln x = ln 2 · lg x and log_b x = lg x / lg b: named constants, so
+      // they cancel across the step like lg does.
       if (name == "ln") {
         Coef ln2 = Coef::atom("ln2", Interval(Rational(2), p).log());
         return scale(log2_series(arg(0), ctx), ln2, p);
@@ -791,11 +912,16 @@ bool is_identically_zero(const Series& s) {
   return true;
 }
 
+// Used only to give up early (prove_nonnegative): every term of a smaller
+// key is o() of the leading one, so a certainly negative leading coefficient
+// makes the series negative from some n on. A remainder of the same key
+// could outweigh it; then giving up costs a proof, never a false holds.
 bool eventually_negative(const Series& s, long precision) {
   if (is_identically_zero(s)) return false;
   return s.terms[leading_index(s)].effective(precision).certainly_negative();
 }
 
+// A remainder leading has no sign at all: |R| <= b key is all we know.
 bool leading_sign_unknown(const Series& s, long precision) {
   if (is_identically_zero(s)) return false;
   const SeriesTerm& lead = s.terms[leading_index(s)];
@@ -803,6 +929,10 @@ bool leading_sign_unknown(const Series& s, long precision) {
   return !lead.tag.empty() || (!c.certainly_positive() && !c.certainly_negative());
 }
 
+// For n >= from: s(n) = c0 L(n) + sum c_i t_i(n)
+//   >= L(n) (c0 - sum |c_i| sup_{m >= from} t_i(m)/L(m)),
+// non-negative when the bracket is, with the lower end of c0 (remainders
+// count with their full [-b, b]).
 bool dominates_from(const Series& s, const SeriesContext& ctx) {
   if (is_identically_zero(s)) return true;
   long p = ctx.precision;
@@ -819,6 +949,9 @@ bool dominates_from(const Series& s, const SeriesContext& ctx) {
   return (Interval(c0.lower(), p) - rest).certainly_positive();
 }
 
+// Every term enclosed on the hull [lo, hi] at once: certified but not tight
+// (the terms' extremes need not fall at the same n), which is why blocks are
+// split when it fails.
 Interval enclose_on(const Series& s, const BigInt& lo, const BigInt& hi, long precision) {
   Interval n = hull(point(lo, precision), point(hi, precision));
   Interval sum(Rational(0), precision);

@@ -3,10 +3,12 @@
 // sizes, an undecided numeric-only claim with a long ratio band, an input
 // error with its diagnostic, and names that need escaping. Shared by the
 // text, JSON and JUnit report tests and their golden files.
-#ifndef THETAGATE_TESTS_REPORT_FIXTURE_H_
-#define THETAGATE_TESTS_REPORT_FIXTURE_H_
+#ifndef THETAGATE_TESTS_SUPPORT_REPORT_FIXTURE_H_
+#define THETAGATE_TESTS_SUPPORT_REPORT_FIXTURE_H_
 
 #include <cmath>
+#include <utility>
+#include <vector>
 
 #include "verifier/checking/result.h"
 
@@ -201,6 +203,14 @@ inline ClaimResult karatsuba() {
   return c;
 }
 
+// A run of just these claims (seed 1): the two sides of a drift comparison.
+inline RunResult run_of(std::vector<ClaimResult> claims) {
+  RunResult run;
+  run.seed = 1;
+  run.claims = std::move(claims);
+  return run;
+}
+
 inline RunResult sample_run() {
   RunResult run;
   run.seed = 20240611;
@@ -211,4 +221,4 @@ inline RunResult sample_run() {
 
 }  // namespace thetagate::engine::test_support
 
-#endif  // THETAGATE_TESTS_REPORT_FIXTURE_H_
+#endif  // THETAGATE_TESTS_SUPPORT_REPORT_FIXTURE_H_
