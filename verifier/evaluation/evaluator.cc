@@ -7,6 +7,7 @@
 #include <type_traits>
 
 #include "verifier/evaluation/expression_eval.h"
+#include "verifier/evaluation/precision.h"
 #include "verifier/numbers/allocation.h"
 #include "verifier/syntax/parser.h"
 
@@ -236,22 +237,19 @@ void Evaluator::clear_memo() {
 
 template <class F>
 auto Evaluator::with_precision(F&& f) -> decltype(f()) {
-  while (true) {
-    try {
-      return f();
-    } catch (const PrecisionShortfall& shortfall) {
-      if (ctx_.precision_bits * 2 > budget_.max_precision_bits) {
-        throw PrecisionExhausted(std::string("an interval stayed too wide to decide (") +
-                                 shortfall.what() + ") even at " +
-                                 std::to_string(ctx_.precision_bits) + " bits of precision");
-      }
-      ctx_.precision_bits *= 2;
-      ++stats_.precision_retries;
-      // Remembered intervals are still correct, but too wide; start over
-      // so every interval uses the new precision. Exact values stay.
-      if (memo_has_intervals_) clear_memo();
-    }
+  auto outcome = run_at_increasing_precision(ctx_, budget_.max_precision_bits, f, [this] {
+    ++stats_.precision_retries;
+    // Remembered intervals are still correct, but too wide; start over so
+    // every interval uses the new precision. Exact values stay: they are the
+    // same at every precision.
+    if (memo_has_intervals_) clear_memo();
+  });
+  if (!outcome.decided()) {
+    throw PrecisionExhausted(std::string("an interval stayed too wide to decide (") +
+                             outcome.shortfall + ") even at " + std::to_string(outcome.bits) +
+                             " bits of precision");
   }
+  return std::move(*outcome.value);
 }
 
 Value Evaluator::value_at(const BigInt& n) {
