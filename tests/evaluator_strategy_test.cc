@@ -5,6 +5,8 @@
 #include <gmp.h>
 #include <gtest/gtest.h>
 
+#include <functional>
+#include <map>
 #include <string>
 
 #include "tests/test_support.h"
@@ -150,6 +152,31 @@ TEST(EvaluatorPrecision, EqualIrrationalSidesRunOutOfPrecisionNeverGuessed) {
   }
   // 128 -> 256 -> 512 -> 1024.
   EXPECT_EQ(ev.stats().precision_retries, 3u);
+}
+
+// T(n) = n sqrt(2) exactly, so T(n) against n sqrt(2) is equal irrational
+// sides (common practice: no interval separates them). The comparison must
+// climb the whole ladder and end in PrecisionExhausted: T(n)'s own
+// evaluation, reached from inside the comparison, must neither restart the
+// precision nor keep intervals made at a lower one (before, the window
+// strategy looped here without end and without charging a step).
+TEST(EvaluatorPrecision, ComparingAnIntervalTWithAnEqualSideClimbsTheWholeLadder) {
+  const char* recurrences[] = {
+      "T(n) = T(n - 1) + sqrt(2)\nT(0) = 0",                                   // sliding window
+      "T(n) = T(n - 1) + sqrt(2) if n > 0\nT(0) = 0\nT(n) = T(n/2) if n < 0",  // top-down
+  };
+  for (const char* text : recurrences) {
+    Budget budget = work_only();
+    budget.max_precision_bits = 1024;
+    Evaluator ev(recurrence_from_text(text), budget);
+    SourceText t_source = SourceText::whole("<t>", "T(n)");
+    SourceText g_source = SourceText::whole("<g>", "n sqrt(2)");
+    ExprPtr t = parse_expression(t_source), g = parse_expression(g_source);
+    EXPECT_THROW(ev.compare_at(*t, t_source, *g, g_source, BigInt(10)), PrecisionExhausted) << text;
+    // 128 -> 256 -> 512 -> 1024, each attempt re-evaluating T at its precision.
+    EXPECT_EQ(ev.stats().precision_retries, 3u) << text;
+    EXPECT_LE(ev.stats().steps, 4u * 11u) << text;
+  }
 }
 
 }  // namespace

@@ -250,6 +250,8 @@ void check_calls_shrink(const Recurrence& recurrence) {
 
 template <class F>
 auto Evaluator::with_precision(F&& f) -> decltype(f()) {
+  ResetOnExit depth_reset(precision_depth_, precision_depth_);
+  ++precision_depth_;
   auto outcome = run_at_increasing_precision(ctx_, budget_.max_precision_bits, f, [this] {
     ++stats_.precision_retries;
     // Remembered intervals are still correct, but too wide; start over so
@@ -371,9 +373,9 @@ Value Evaluator::lookup(const Expr& call, const Value& n, const EvalScope& scope
   Value m = call_argument_value(call, n, scope);
   if (const Value* value = memo_.find(m)) return *value;
   if (strategy_ == EvaluationStrategy::kIntegerKernel) {
-    // Not through value_at(): that would restart the precision this
-    // expression's evaluation may be raising (with_precision). The
-    // per-size step limit still counts from here, as for a size of its own.
+    // Straight to the kernel (exact: no precision involved), without
+    // value_at()'s top-level bookkeeping. The per-size step limit still
+    // counts from here, as for a size of its own.
     call_start_steps_ = stats_.steps + stats_.helper_steps;
     if (std::optional<Value> fast = kernel_value(m.integer())) return std::move(*fast);
   }
@@ -618,8 +620,11 @@ Value Evaluator::sweep_up(const BigInt& n) {
     }
     return std::nullopt;
   };
-  // The ring is the window's memory whatever n: not counted as memo.
+  // The ring is the window's memory whatever n: not counted as memo. An
+  // interval in it is dropped on a precision raise like any remembered one.
   sweep(target, first_non_shrinking, [this](int64_t m, SweptSize kept) -> std::optional<uint64_t> {
+    const Value* value = std::get_if<Value>(&kept);
+    if (value != nullptr && !value->is_exact()) memo_has_intervals_ = true;
     ring_[static_cast<size_t>(m % window_)] = std::move(kept);
     return std::nullopt;
   });

@@ -146,7 +146,14 @@ class Evaluator {
   // PrecisionExhausted when even max_precision_bits cannot decide.
   template <class F>
   auto with_precision(F&& f) -> decltype(f());
-  void restart_precision() { ctx_.precision_bits = budget_.start_precision_bits; }
+  // A top-level computation starts at start_precision_bits. Inside a
+  // running ladder (value_at() reached from an expression that evaluate()
+  // or compare_at() is evaluating) it keeps the precision reached: starting
+  // low again would undo every raise, and the outer ladder would never
+  // climb.
+  void restart_precision() {
+    if (precision_depth_ == 0) ctx_.precision_bits = budget_.start_precision_bits;
+  }
 
   // The one place work is counted ("What a step is", evaluator.cc). One
   // step: a subproblem expanded, a size swept, a sum term added, or (with
@@ -244,6 +251,7 @@ class Evaluator {
   // (pointers into memo_, whose elements never move).
   const std::vector<const Expr*>* current_calls_ = nullptr;
   const Value* const* current_values_ = nullptr;
+  int precision_depth_ = 0;  // with_precision() calls running
   bool probed_ = false;
   bool large_sizes_shrink_ = false;  // probe_calls() passed
   uint64_t call_start_steps_ = 0;
