@@ -6,6 +6,8 @@
 #include <gtest/gtest.h>
 #include <rapidcheck/gtest.h>
 
+#include <functional>
+#include <set>
 #include <string>
 #include <vector>
 
@@ -235,6 +237,101 @@ TEST(IntegerKernel, MergeSortWorstCaseMatchesItsClosedFormAtLargeSizes) {
     mpz_sub(expected.get(), expected.get(), power.get());
     mpz_add_ui(expected.get(), expected.get(), 1);
     EXPECT_EQ(ev.value_at(n).str(), expected.str());
+  }
+}
+
+// The sizes a memoised top-down evaluation of T(n) visits: n and, for each
+// size that is not a base case, the sizes its calls reach. Each is one
+// subproblem (common practice: memoised recursion evaluates every distinct
+// subproblem once), computed here with plain GMP arithmetic and a std::set,
+// independently of both evaluation paths.
+size_t sizes_reached(const BigInt& n, const std::function<bool(const Mpz&)>& is_base,
+                     const std::function<std::vector<Mpz>(const Mpz&)>& calls) {
+  auto less = [](const Mpz& a, const Mpz& b) { return mpz_cmp(a.get(), b.get()) < 0; };
+  std::set<Mpz, decltype(less)> seen(less);
+  std::vector<Mpz> pending(1);
+  mpz_set(pending[0].get(), n.backend().data());
+  while (!pending.empty()) {
+    Mpz m = pending.back();
+    pending.pop_back();
+    if (!seen.insert(m).second || is_base(m)) continue;
+    for (const Mpz& next : calls(m)) pending.push_back(next);
+  }
+  return seen.size();
+}
+
+// m / d rounded down (floor) or up (ceil), and floor(sqrt(m)), in GMP.
+Mpz fdiv(const Mpz& m, unsigned long d) {
+  Mpz q;
+  mpz_fdiv_q_ui(q.get(), m.get(), d);
+  return q;
+}
+Mpz cdiv(const Mpz& m, unsigned long d) {
+  Mpz q;
+  mpz_cdiv_q_ui(q.get(), m.get(), d);
+  return q;
+}
+bool at_most(const Mpz& m, unsigned long k) { return mpz_cmp_ui(m.get(), k) <= 0; }
+
+// Budgets, the checker's work units and the golden reports count steps: the
+// kernel must charge exactly the steps of the general path's walk. Pinned on
+// representative shapes, each against the sizes-reached count above.
+TEST(IntegerKernel, CountsTheSameStepsAsTheGeneralPathOnRepresentativeRecurrences) {
+  struct Case {
+    const char* text;
+    std::function<bool(const Mpz&)> is_base;
+    std::function<std::vector<Mpz>(const Mpz&)> calls;
+  };
+  const Case cases[] = {
+      // Two calls that stay two adjacent sizes per level.
+      {"T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1\nT(1) = 0",
+       [](const Mpz& m) { return at_most(m, 1); },
+       [](const Mpz& m) {
+         return std::vector<Mpz>{cdiv(m, 2), fdiv(m, 2)};
+       }},
+      // Three calls over two primes: the sizes floor(n / (2^a 3^b)).
+      {"T(n) = T(floor(n/2)) + T(floor(n/3)) + T(floor(n/6)) + n\nT(0) = 0",
+       [](const Mpz& m) { return at_most(m, 0); },
+       [](const Mpz& m) {
+         return std::vector<Mpz>{fdiv(m, 2), fdiv(m, 3), fdiv(m, 6)};
+       }},
+      // Case lines by parity (J(n/2) and J((n - 1)/2) are both floor(n/2)).
+      {"J(n) = 2J(n/2) - 1 if n even\nJ(n) = 2J((n-1)/2) + 1 if n odd\nJ(1) = 1",
+       [](const Mpz& m) { return at_most(m, 1); },
+       [](const Mpz& m) { return std::vector<Mpz>{fdiv(m, 2)}; }},
+      // A conditional base case and an unbalanced split.
+      {"T(n) = 1 if n <= 4\nT(n) = T(n/5) + T(7n/10) + n",
+       [](const Mpz& m) { return at_most(m, 4); },
+       [](const Mpz& m) {
+         Mpz seven_m;
+         mpz_mul_ui(seven_m.get(), m.get(), 7);
+         return std::vector<Mpz>{fdiv(m, 5), fdiv(seven_m, 10)};
+       }},
+      // Rounded roots: lg lg n levels.
+      {"T(n) = 2T(floor(sqrt(n))) + 1 if n > 2\nT(n) = 1 if n <= 2",
+       [](const Mpz& m) { return at_most(m, 2); },
+       [](const Mpz& m) {
+         Mpz root;
+         mpz_sqrt(root.get(), m.get());
+         return std::vector<Mpz>{root};
+       }},
+  };
+  for (const Case& c : cases) {
+    auto recurrence = recurrence_from_text(c.text);
+    for (const BigInt& n : {BigInt(1000003), (BigInt(1) << 200) + 12345}) {
+      Evaluator fast(recurrence, work_only());
+      Evaluator general(recurrence, work_only(), EvaluationPath::kGeneral);
+      ASSERT_TRUE(fast.uses_integer_kernel()) << c.text;
+      ASSERT_EQ(general.strategy(), EvaluationStrategy::kTopDown) << c.text;
+      EXPECT_EQ(fast.value_at(n).str(), general.value_at(n).str()) << c.text;
+      ASSERT_EQ(general.stats().precision_retries, 0u) << c.text;
+      size_t expected = sizes_reached(n, c.is_base, c.calls);
+      EXPECT_EQ(fast.stats().steps, expected) << c.text << " at n = " << n;
+      EXPECT_EQ(general.stats().steps, expected) << c.text << " at n = " << n;
+      // Every size reached is remembered once, on either path.
+      EXPECT_EQ(fast.stats().memo_entries, expected) << c.text;
+      EXPECT_EQ(general.stats().memo_entries, expected) << c.text;
+    }
   }
 }
 

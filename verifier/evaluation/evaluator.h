@@ -1,7 +1,13 @@
 // Exact evaluation of a recurrence: memoised over the distinct arguments
 // reached, iterative (an explicit work stack, never native recursion that
-// grows with n), with budgets. Recurrences whose calls are all T(n - c) are
-// evaluated bottom-up with a sliding window, so memory does not grow with n.
+// grows with n), under budgets.
+//
+// How T(n) is computed is chosen once, when the Evaluator is built, from the
+// shape of the recurrence's calls (EvaluationStrategy below): bottom-up for
+// T(n - c) and for sums over earlier values, top-down otherwise, on the
+// integer kernel where the recurrence stays in the integers. Whatever the
+// strategy, the same work is counted the same way (charge_step, "What a
+// step is" in evaluator.cc), so budgets and reports do not depend on it.
 #ifndef THETAGATE_VERIFIER_EVALUATION_EVALUATOR_H_
 #define THETAGATE_VERIFIER_EVALUATION_EVALUATOR_H_
 
@@ -11,6 +17,7 @@
 #include <memory>
 #include <optional>
 #include <unordered_map>
+#include <variant>
 #include <vector>
 
 #include "verifier/evaluation/expression_eval.h"
@@ -49,6 +56,27 @@ struct EvaluatorStats {
 // recurrence compiles to it; kGeneral never does (tests compare the two).
 enum class EvaluationPath { kAuto, kGeneral };
 
+// How an Evaluator computes T(n); the first that fits the recurrence, in
+// this order, fixed for the evaluator's life.
+enum class EvaluationStrategy {
+  // A line sums over earlier values (sum(k, 0, n - 1, T(k))): every size
+  // from 0 up is evaluated once, in order, and kept; a sum whose body
+  // depends only on its variable is kept as a running (prefix) sum, so each
+  // size costs O(1) amortised steps.
+  kFullHistory,
+  // Every call is T(n - c) for whole constants 1 <= c <= 10^6: sizes from 0
+  // up, keeping only the last max c values (a ring), so memory does not
+  // grow with n.
+  kSlidingWindow,
+  // Top-down over the distinct sizes reached, on the integer kernel's GMP
+  // registers and limb memo. A size it declines (an error to report) is
+  // redone by kTopDown's walk, which names the problem.
+  kIntegerKernel,
+  // Top-down over the distinct sizes reached, with general values
+  // (rationals, intervals, helper functions).
+  kTopDown,
+};
+
 class Evaluator {
  public:
   explicit Evaluator(std::shared_ptr<const Recurrence> recurrence, Budget budget = {},
@@ -84,33 +112,94 @@ class Evaluator {
 
   const EvaluatorStats& stats() const { return stats_; }
   const Recurrence& recurrence() const { return *recurrence_; }
-  // True when every recursive call is T(n - c), or a line sums over earlier
-  // values: evaluated bottom-up.
-  bool bottom_up() const { return window_ > 0 || history_; }
-  // True when a line sums over earlier values: every size from 0 up is
-  // evaluated once and kept, and sums whose body depends only on their
-  // variable are kept as running (prefix) sums: O(1) amortised per size.
-  bool full_history() const { return history_; }
-  // True when top-down sizes go through the integer kernel.
-  bool uses_integer_kernel() const { return kernel_ != nullptr; }
+  EvaluationStrategy strategy() const { return strategy_; }
+  // True when sizes are evaluated from 0 up (kFullHistory, kSlidingWindow).
+  bool bottom_up() const {
+    return strategy_ == EvaluationStrategy::kFullHistory ||
+           strategy_ == EvaluationStrategy::kSlidingWindow;
+  }
+  bool full_history() const { return strategy_ == EvaluationStrategy::kFullHistory; }
+  bool uses_integer_kernel() const { return strategy_ == EvaluationStrategy::kIntegerKernel; }
 
  private:
   class Resolver;
   class KernelLink;
-  EvalScope scope(const SourceText& source);
-  Value top_down(const Value& n);
-  std::optional<Value> kernel_value(const BigInt& n);
-  Value sweep_up(const BigInt& n);
-  Value sweep_history(const BigInt& n);
-  Value history_lookup(const Expr& call, const Value& n, const EvalScope& scope);
   struct PrefixSums;
-  Value sum_value(const Expr& sum, const Value& n, const EvalScope& scope);
-  Value prefix_at(PrefixSums& p, const Expr& sum, int64_t m, const Value& n,
-                  const EvalScope& scope);
+  // What a bottom-up sweep keeps for one size: its value, or the error its
+  // line raised (raised again only if a later size needs the value).
+  using SweptSize = std::variant<Value, Diagnostic>;
+  // A call of a size's line that does not reach a smaller size >= 0.
+  struct NonShrinkingCall {
+    const Expr* call;
+    BigInt argument;
+  };
+
+  EvalScope scope(const SourceText& source);
+  // value_at() below the precision loop: the one dispatch on strategy_.
+  Value value_by_strategy(const BigInt& n);
+  // The value of one of the recurrence's calls inside an expression
+  // (CallResolver::resolve), answered as strategy_ keeps values.
   Value lookup(const Expr& call, const Value& n, const EvalScope& scope);
+
+  // The precision loop (precision.h) with the evaluator's memo: intervals
+  // made at a lower precision are dropped on each raise. Throws
+  // PrecisionExhausted when even max_precision_bits cannot decide.
+  template <class F>
+  auto with_precision(F&& f) -> decltype(f());
+  // A top-level computation starts at start_precision_bits. Inside a
+  // running ladder (value_at() reached from an expression that evaluate()
+  // or compare_at() is evaluating) it keeps the precision reached: starting
+  // low again would undo every raise, and the outer ladder would never
+  // climb.
+  void restart_precision() {
+    if (precision_depth_ == 0) ctx_.precision_bits = budget_.start_precision_bits;
+  }
+
+  // The one place work is counted ("What a step is", evaluator.cc). One
+  // step: a subproblem expanded, a size swept, a sum term added, or (with
+  // `helper`) a helper value computed, kept apart in stats().helper_steps.
+  // `pending_bytes` are held by the sizes waiting on a work stack, counted
+  // with the memo against max_memo_bytes. Throws BudgetExceeded.
+  void charge_step(uint64_t pending_bytes = 0, bool helper = false);
+  // Counts one remembered value against the memo budget (every memo, both
+  // paths, at the same nominal cost). Throws BudgetExceeded.
+  void account_memo(uint64_t key_bits, uint64_t value_bits);
+  size_t memo_size() const;
+  void clear_memo();
+  // Returns the remembered value (stable: memo_'s elements never move).
+  const Value* remember(const Value& m, const Value& v);
+  const Value* remembered(const Value& m) const;  // REQUIRES: m was remembered
   // A helper's value at an argument: remembered by exact argument, and each
   // one computed is a step (budgets, the clock, the per-size limit).
   Value helper_value(const Function& f, const Value& argument, const EvalScope& scope);
+
+  // Top-down (kIntegerKernel, kTopDown).
+  std::optional<Value> kernel_value(const BigInt& n);  // nullopt: the kernel declined
+  Value top_down(const Value& n);
+
+  // Bottom-up (kSlidingWindow, kFullHistory).
+  // n as a machine integer; throws BudgetExceeded past 2^62 (`how` says
+  // how the sweep would proceed).
+  int64_t sweep_target(const BigInt& n, const std::string& how) const;
+  // Throws BudgetExceeded, before any work, when `needed` more steps would
+  // pass max_steps.
+  void reserve_sweep_steps(const BigInt& n, uint64_t needed) const;
+  // Evaluates the sizes next_..target in order, one step each; keep(m,
+  // SweptSize) stores a size and returns the bits it holds for the memory
+  // budget (nullopt: storage of fixed size).
+  template <class FirstNonShrinking, class Keep>
+  void sweep(int64_t target, FirstNonShrinking&& first_non_shrinking, Keep&& keep);
+  template <class FirstNonShrinking>
+  SweptSize sweep_size(int64_t m, FirstNonShrinking&& first_non_shrinking, const EvalScope& s);
+  Value sweep_up(const BigInt& n);
+  Value window_lookup(const Expr& call, const Value& n) const;
+  Value sweep_history(const BigInt& n);
+  Value history_lookup(const Expr& call, const Value& n, const EvalScope& scope);
+  Value sum_value(const Expr& sum, const Value& n, const EvalScope& scope);
+  Value prefix_at(PrefixSums& p, const Expr& sum, int64_t m, const Value& n,
+                  const EvalScope& scope);
+
+  // Errors: calls that do not shrink, gaps below the base cases.
   void probe_calls();
   Value default_base_value(const BigInt& n, const Expr& call, const BigInt& m);
   [[noreturn]] void not_shrinking(const BigInt& n, const Expr& call, const BigInt& m);
@@ -118,31 +207,25 @@ class Evaluator {
   // error naming the sizes that reach it and the base case that closes the
   // gap; returns when the failure is not of that kind.
   void small_size_gap(const BigInt& n, const Expr& call, const BigInt& m, const std::string& head);
-  // One subproblem expanded; `pending_bytes` are held by the sizes waiting
-  // on a work stack, counted with the memo against max_memo_bytes.
-  // A helper's value (`helper`) counts toward the same limits, kept apart
-  // in stats().helper_steps.
-  void charge_step(uint64_t pending_bytes = 0, bool helper = false);
-  // Returns the remembered value (stable: memo_'s elements never move).
-  const Value* remember(const Value& m, const Value& v);
-  const Value* remembered(const Value& m) const;  // REQUIRES: m was remembered
-  // Counts one remembered value against the memo budget (both memos).
-  void account_memo(uint64_t key_bits, uint64_t value_bits);
-  size_t memo_size() const;
-  void clear_memo();
-  template <class F>
-  auto with_precision(F&& f) -> decltype(f());
 
   std::shared_ptr<const Recurrence> recurrence_;
   Budget budget_;
+  EvaluationStrategy strategy_ = EvaluationStrategy::kTopDown;  // set once, by the constructor
   NumericContext ctx_;
   EvaluatorStats stats_;
   std::chrono::steady_clock::time_point deadline_;
   std::unique_ptr<Resolver> resolver_;
-  // Keys are canonical integers (canonical_integer), shared with the frames
-  // that computed them: no limb copies on insert or lookup.
+
+  // The memos. Invariants: a remembered value is T at its size, computed at
+  // the precision in force then (exact values are the same at every
+  // precision; intervals only get narrower); memo_has_intervals_ is set
+  // when any memo holds an interval, so a precision raise clears them only
+  // then. memo_bytes_ and memo_size() count every memo at nominal costs.
+  //
+  // Top-down: keys are canonical integers (canonical_integer), shared with
+  // the frames that computed them: no limb copies on insert or lookup.
   MemoTable memo_;
-  std::unique_ptr<IntegerKernel> kernel_;  // null: the general path only
+  std::unique_ptr<IntegerKernel> kernel_;  // kIntegerKernel only; it keeps its own memo
   std::unique_ptr<KernelLink> kernel_link_;
   // Helper values by argument: whole numbers in a MemoTable, other exact
   // arguments (f(n/2) at odd n) in a map; interval arguments are not kept.
@@ -154,23 +237,21 @@ class Evaluator {
   size_t helper_entries_ = 0;
   uint64_t memo_bytes_ = 0;
   bool memo_has_intervals_ = false;
-  // Bottom-up state: window_ = largest c in T(n - c); the ring holds the
-  // values (or the errors) of the window_ sizes just below next_.
+  // Bottom-up: every size below next_ has been swept. kSlidingWindow keeps
+  // the last window_ of them (window_ = the largest c in T(n - c)) in
+  // ring_[m mod window_]; kFullHistory keeps history_[m] for every m < next_.
   int64_t window_ = 0;
   int64_t next_ = 0;
-  std::vector<std::optional<Value>> ring_;
-  std::vector<std::optional<Diagnostic>> ring_errors_;
-  bool in_sweep_ = false;
-  // Full-history state: history_values_[m] is T(m) (or its error) for m < next_.
-  bool history_ = false;
-  std::vector<std::optional<Value>> history_values_;
-  std::vector<std::optional<Diagnostic>> history_errors_;
+  std::vector<SweptSize> ring_;
+  std::vector<SweptSize> history_;
+  bool in_sweep_ = false;  // a swept size's line is being evaluated
   // Running sums, one per sum node whose body depends only on its variable.
   std::unordered_map<const Expr*, std::unique_ptr<PrefixSums>> prefix_;
   // While a top-down frame's body is evaluated: its calls and their values
   // (pointers into memo_, whose elements never move).
   const std::vector<const Expr*>* current_calls_ = nullptr;
   const Value* const* current_values_ = nullptr;
+  int precision_depth_ = 0;  // with_precision() calls running
   bool probed_ = false;
   bool large_sizes_shrink_ = false;  // probe_calls() passed
   uint64_t call_start_steps_ = 0;

@@ -4,6 +4,33 @@
 #include <stdexcept>
 #include <utility>
 
+// How the kernel works. compile() translates each case line into nodes of a
+// flat program (IntegerKernel::Node, children by index), refusing anything
+// whose value could leave the integers. value_at() then walks the sizes
+// exactly as Evaluator::top_down does (see "What a step is" in
+// evaluator.cc) but evaluates nodes into GMP registers that are allocated
+// once and reused (temp(depth) for intermediate results, arg_register(i) for
+// the i-th pending call argument), and remembers values as raw limbs
+// (LimbMemo). A call's value is read straight from the memo's limbs through
+// a read-only mpz (LimbView::as_mpz): no copy.
+//
+// Each operation is the exact integer meaning the general path gives the
+// same expression, so the two paths agree value for value:
+//   floor(a/b), ceil(a/b)  GMP's fdiv/cdiv: rounding toward -inf / +inf,
+//                          also for negative operands;
+//   a mod b                GMP's fdiv_r: the sign of the divisor, as
+//                          mod_value on the general path;
+//   floor(lg v), ceil(lg v) from the bit length: for v >= 1 with b bits,
+//                          2^(b-1) <= v < 2^b, so floor(lg v) = b - 1, and
+//                          ceil(lg v) = b - 1 exactly when v is a power of 2,
+//                          else b;
+//   floor(sqrt v), ceil(sqrt v) mpz_sqrt (the floor), plus one unless v is a
+//                          perfect square.
+// What the general path reports as an error (lg 0, a zero divisor, no line
+// applies, a call that does not shrink past the default base case) the
+// kernel declines instead (KernelDeclines), and the general path redoes the
+// size to name the problem with its location.
+
 namespace thetagate::engine {
 
 namespace {
@@ -46,6 +73,8 @@ uint64_t bits_of(mpz_srcptr x) { return mpz_sgn(x) == 0 ? 0 : mpz_sizeinbase(x, 
 
 }  // namespace
 
+// One operation of the compiled program; a and b index its operands in
+// nodes_.
 struct IntegerKernel::Node {
   Op op = Op::kConst;
   ExprKind relation = ExprKind::kEq;  // kCompare: kEq, kNe, kLt, kLe, kGt or kGe
@@ -64,6 +93,8 @@ struct IntegerKernel::Line {
   uint32_t body = 0;
 };
 
+// A size on value_at()'s work stack; the root's size is the caller's n,
+// every other size lives in args_[key] (its parent's argument register).
 struct IntegerKernel::Frame {
   size_t key;          // index into args_ of the size, or kRoot
   size_t parent_slot;  // known_[parent_slot] receives the value, or kRoot
@@ -122,6 +153,9 @@ class IntegerKernel::Compiler {
     std::optional<uint32_t> y = x ? value(b) : std::nullopt;
     if (!y) return std::nullopt;
     uint32_t id = node(op, *x, *y);
+    // A positive word constant on the right (n/2, n - 1, 3n) uses GMP's _ui
+    // forms, and a power of two a shift: the common shapes of divide and
+    // conquer never touch a second register.
     bool arithmetic = op == Op::kAdd || op == Op::kSub || op == Op::kMul || op == Op::kFloorDiv ||
                       op == Op::kCeilDiv || op == Op::kMod;
     const Node& right = k_.nodes_[*y];
@@ -260,6 +294,9 @@ IntegerKernel::~IntegerKernel() = default;
 
 std::unique_ptr<IntegerKernel> IntegerKernel::compile(const Recurrence& r,
                                                       const NumericContext& ctx) {
+  // All or nothing: one line that may leave the integers (a helper, lg n
+  // unrounded, a fraction) and the whole recurrence stays on the general
+  // path, so a size never mixes the two.
   std::unique_ptr<IntegerKernel> kernel(new IntegerKernel());
   kernel->default_base_ = r.default_base;
   kernel->ctx_ = ctx;
@@ -280,6 +317,8 @@ std::unique_ptr<IntegerKernel> IntegerKernel::compile(const Recurrence& r,
   return kernel;
 }
 
+// Registers grow on first use and are kept: after the first few sizes an
+// evaluation allocates only when a value outgrows its register's limbs.
 mpz_ptr IntegerKernel::temp(size_t depth) {
   while (temps_.size() <= depth) temps_.push_back(std::make_unique<Register>());
   return temps_[depth]->z;
@@ -295,6 +334,9 @@ void IntegerKernel::check_result_bits(mpz_srcptr x) const {
   if (mpz_size(x) * GMP_NUMB_BITS > ctx_.max_value_bits) check_bits(bits_of(x), ctx_);
 }
 
+// `depth` is the first temp() register this subtree may use: an operand
+// evaluated into temp(depth) must not be overwritten while its sibling is
+// evaluated, so the sibling gets depth + 1.
 mpz_srcptr IntegerKernel::operand(uint32_t id, mpz_ptr scratch, size_t depth, mpz_ptr view) {
   const Node& x = nodes_[id];
   switch (x.op) {
@@ -345,7 +387,9 @@ void IntegerKernel::eval(uint32_t id, mpz_ptr out, size_t depth) {
     case Op::kPow: {
       mpz_srcptr base = operand(x.a, out, depth, view_a);
       // Estimate first, as the general path does: a huge power is a budget
-      // error, never an allocation failure.
+      // error, never an allocation failure. |base| >= 2^(bits-1), so
+      // |base^k| has at least (bits - 1) k + 1 bits: over the limit for sure
+      // when that estimate is.
       if (mpz_cmpabs_ui(base, 1) > 0) {
         uint64_t bits = bits_of(base);
         check_bits((bits > 1 ? bits - 1 : 1) * x.k, ctx_);
@@ -368,6 +412,7 @@ void IntegerKernel::eval(uint32_t id, mpz_ptr out, size_t depth) {
         mpz_sub_ui(out, a, k);
         break;
       case Op::kMul:
+        // bits(a k) <= bits(a) + bits(k): checked before GMP allocates.
         check_bits(bits_of(a) + (64 - static_cast<uint64_t>(__builtin_clzl(k))), ctx_);
         mpz_mul_ui(out, a, k);
         break;
@@ -455,6 +500,9 @@ bool IntegerKernel::test(uint32_t id, size_t depth) {
   return comparison_holds(x.relation, mpz_cmp(a, b));
 }
 
+// The order of select_case on the general path: a point case for n if one
+// exists (binary search over the sorted points), else the first conditional
+// line that holds, else the line without a condition (last in lines_).
 const IntegerKernel::Line* IntegerKernel::select(mpz_srcptr n) {
   current_n_ = n;
   auto points_end = std::partition_point(lines_.begin(), lines_.end(),
@@ -469,6 +517,8 @@ const IntegerKernel::Line* IntegerKernel::select(mpz_srcptr n) {
   throw KernelDeclines{};  // no line applies: the general path says so
 }
 
+// Only a new entry is charged to the memo budget, with the bit lengths the
+// general path would charge for the same key and value.
 LimbView IntegerKernel::remember(mpz_srcptr key, mpz_srcptr value, KernelHooks& hooks) {
   size_t before = memo_.size();
   LimbView stored = memo_.insert(key, value);
@@ -483,7 +533,12 @@ mpz_srcptr IntegerKernel::key_of(const Frame& f, mpz_srcptr root) const {
 void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
   // The same walk as Evaluator::top_down: a frame is expanded once (one
   // step), its calls' arguments are computed, unknown ones are pushed, and
-  // the body is evaluated when they are all remembered.
+  // the body is evaluated when they are all remembered. Steps are charged
+  // through `hooks` at the same points as there, with the same pending
+  // bytes, so both paths count the same steps and memory. A decline may
+  // come after some steps were charged; the general path then charges its
+  // own walk of the size again (the sizes the kernel remembered stay: they
+  // are exact).
   LimbView result;
   mpz_t view;
   if (memo_.find(n, result)) {
@@ -513,6 +568,8 @@ void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
     if (frame.line == nullptr) {
       // Pushed by two parents, a size is evaluated once; unless something was
       // remembered since it was pushed, the memo still lacks it.
+      // (An unchanged memo size skips the hash lookup; the outcome is the
+      // general walk's memo_.find, so the steps are the same.)
       LimbView known;
       if (memo_.size() != frame.memo_size && memo_.find(m, known)) {
         deliver(frame.parent_slot, known);
@@ -528,6 +585,8 @@ void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
         current_n_ = m;
         eval(a, arg, 0);
         if (mpz_sgn(arg) < 0 || mpz_cmp(arg, m) >= 0) {
+          // The default base case T(m) = 1, where the general path applies
+          // it; anything else is an error the general path reports.
           if (!default_base_ || mpz_cmp_ui(m, kDefaultBaseLimit) >= 0) throw KernelDeclines{};
           deliver(frame.parent_slot, remember(m, one_.z, hooks));
           base = true;
@@ -552,6 +611,8 @@ void IntegerKernel::value_at(mpz_srcptr n, mpz_ptr out, KernelHooks& hooks) {
       }
       continue;
     }
+    // Every child is remembered: evaluate the body with the calls' values
+    // read in place from the memo (current_slots_).
     Frame done = frame;
     frames_.pop_back();
     for (size_t i = done.first_arg; i < arg_count; ++i) {
