@@ -243,16 +243,14 @@ TEST(SeriesExpand, RemainderShrinksAsTheTheoryPredicts) {
   EXPECT_GT(width, Rational(0));  // a remainder is left, not dropped
 }
 
-// Known bug, left for the owner of series.cc (this change alters no
-// behaviour): expanding A = n^2 + n^(sqrt 2) around n^2 bounds the ratio of
-// u's leading key to itself, whose exponent (sqrt 2 - 2) - (sqrt 2 - 2) is an
-// enclosed zero; its sign() throws PrecisionShortfall after 16384 bits, which
-// series.h does not declare and induction.cc does not catch. A claim
-// "T(n) = T(n - 1) + 1; T(1) = 1" with bound
-// "T(n) <= sqrt(n^2 + n^(sqrt(2))) for n >= 1" ends as an internal error
-// (exit 3) instead of undecided. Enable when sup_ratio's signs are decided
-// like compare_real's (PrecisionShortfall -> SeriesUnsupported).
-TEST(SeriesExpand, DISABLED_EqualIrrationalExponentsAreRefusedNotAPrecisionError) {
+// A regression: expanding A = n^2 + n^(sqrt 2) around n^2 bounds the ratio
+// of u's leading key to itself, whose exponent (sqrt 2 - 2) - (sqrt 2 - 2) is
+// an irrational zero not known to be one; its sign cannot be decided, and
+// that used to escape as PrecisionShortfall (series.h promises only
+// SeriesUnsupported or NeedModulus), ending the claim
+// "T(n) = T(n - 1) + 1; T(1) = 1", "T(n) <= sqrt(n^2 + n^(sqrt(2))) for n >= 1"
+// as an internal error (exit 3) instead of undecided.
+TEST(SeriesExpand, EqualIrrationalExponentsAreRefusedNotAPrecisionError) {
   for (const char* text : {"sqrt(n^2 + n^(sqrt(2)))", "lg(n^2 + n^(sqrt(2)))"}) {
     bool within_contract = false;  // expanded, or refused with a reason
     try {

@@ -179,6 +179,17 @@ int compare_real(const RealNumber& a, const RealNumber& b) {
   }
 }
 
+// The sign of an exponent or constant, exactly; one that intervals cannot
+// tell from 0 (an irrational zero such as (sqrt(2) - 2) - (sqrt(2) - 2), not
+// known to be one) is, as in compare_real, no basis for a term's shape.
+int sign_of_real(const RealNumber& k) {
+  try {
+    return k.sign();
+  } catch (const PrecisionShortfall&) {
+    throw SeriesUnsupported{"the sign of an exponent could not be decided exactly"};
+  }
+}
+
 SeriesKey key_mul(const SeriesKey& a, const SeriesKey& b) {
   return SeriesKey{a.rho * b.rho, a.alpha + b.alpha, a.beta + b.beta};
 }
@@ -284,7 +295,7 @@ Interval point(const BigInt& x, long p) { return Interval(x, p); }
 Interval key_value(const SeriesKey& k, const Interval& n, long p) {
   Interval v(Rational(1), p);
   if (k.rho != 1) v = v * (n * pinterval(k.rho, p).log()).exp();
-  if (k.alpha.sign() != 0) v = v * (k.alpha.enclose(p) * n.log()).exp();
+  if (sign_of_real(k.alpha) != 0) v = v * (k.alpha.enclose(p) * n.log()).exp();
   if (k.beta != 0) v = v * (Interval(Rational(k.beta), p) * n.log2().log()).exp();
   return v;
 }
@@ -300,7 +311,7 @@ std::optional<Interval> sup_ratio(const SeriesKey& a, const SeriesKey& b, const 
   Interval lnx = X.log();
   int rho = compare(d.rho, Rational(1));
   if (rho > 0) return std::nullopt;
-  int alpha = d.alpha.sign();
+  int alpha = sign_of_real(d.alpha);
   if (rho == 0) {
     // No exponential factor: alpha > 0, or alpha = 0 with beta > 0, grows.
     if (alpha > 0) return std::nullopt;
@@ -427,7 +438,7 @@ Relative relative_rest(const Series& a, size_t lead, const SeriesContext& ctx) {
 Series power(const Series& a, const RealNumber& k, const SeriesContext& ctx) {
   long p = ctx.precision;
   if (a.terms.empty()) {
-    if (k.sign() > 0) return a;
+    if (sign_of_real(k) > 0) return a;
     throw SeriesUnsupported{"a non-positive power of zero"};
   }
   bool small_integer =
@@ -826,9 +837,18 @@ std::optional<std::pair<Rational, Rational>> as_affine(const Series& s) {
   Rational slope = 0, shift = 0;
   for (const SeriesTerm& t : s.terms) {
     if (!t.coef.exact || !t.tag.empty() || t.key.rho != 1 || t.key.beta != 0) return std::nullopt;
-    if (compare_real(t.key.alpha, RealNumber(1L)) == 0) {
+    // An exponent whose order is unknown is not affine (as_affine promises
+    // nullopt, not a refusal).
+    int order = 0, sign = 0;
+    try {
+      order = compare_real(t.key.alpha, RealNumber(1L));
+      sign = sign_of_real(t.key.alpha);
+    } catch (const SeriesUnsupported&) {
+      return std::nullopt;
+    }
+    if (order == 0) {
       slope = t.coef.q;
-    } else if (t.key.alpha.sign() == 0) {
+    } else if (sign == 0) {
       shift = t.coef.q;
     } else {
       return std::nullopt;
