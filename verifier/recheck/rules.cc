@@ -629,6 +629,7 @@ void linear(const Recurrence& r, const Bound& bound, const CertificateData& c, i
   ++count;
   // The root: the only root of the certificate's polynomial in (low, high],
   // a root of p (their gcd keeps it), and > 1.
+  if (c.root_polynomial.size() > 65) throw Unsupported("a root polynomial of degree above 64");
   std::vector<Rational> rc;
   for (const std::string& x : c.root_polynomial) rc.push_back(parse_rational(x, "coefficient"));
   Polynomial root_p(rc);
