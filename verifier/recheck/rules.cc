@@ -580,7 +580,9 @@ void subtract(const Recurrence& r, const Bound& bound, const CertificateData& c,
   require_driver_bounds(r, st, d, count);
   SmallEvaluator eval(r);
   BigInt base_end = std::max(BigInt(st.threshold + numerator(b)), d.from);
-  require_positive(eval, BigInt(1), base_end, theta > 1, count);
+  require_positive(eval, BigInt(1), base_end, false, count);
+  // a^(n/b) T(w) is the lower bound when theta > 1: w in the last b sizes.
+  if (theta > 1) require_positive(eval, base_end - numerator(b) + 1, base_end, true, count);
   int order = compare_keys(t, growth_key(*bound.growth, "the claimed bound"));
   require_establishes(bound, order, order, "the sum gives Θ(" + key_text(t) + ")");
   ++count;
