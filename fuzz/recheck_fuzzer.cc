@@ -46,6 +46,31 @@ T(n) = T(n - 1) + n - 1
 T(1) = 0
 """
 bound = "T(n) = n(n - 1)/2"
+
+[[claim]]
+name = "rope"
+recurrence = """
+T(n) = T(n - 1) + T(n - 2) + 1
+T(1) = 1
+T(0) = 1
+"""
+bound = "Theta(((1 + sqrt(5))/2)^n)"
+
+[[claim]]
+name = "quick"
+recurrence = """
+C(n) = n - 1 + (2/n) sum(k, 0, n - 1, C(k))
+C(0) = 0
+"""
+bound = "Theta(n lg n)"
+
+[[claim]]
+name = "levels"
+recurrence = """
+T(n) = 1 if n <= 2
+T(n) = T(floor(sqrt(n))) + 1
+"""
+bound = "Theta(lg lg n)"
 )toml";
     for (auto& entry : thetagate::engine::load_claim_text(text, "orchard.toml"))
       if (entry.claim) out->emplace(entry.name, *entry.claim);

@@ -510,6 +510,14 @@ class ReportReader {
     c.driver_from = optional_string(j, path, "driver_from");
     c.regularity_c = optional_string(j, path, "regularity_c");
     c.regularity_from = optional_string(j, path, "regularity_from");
+    c.root_polynomial = optional_strings(j, path, "root_polynomial");
+    for (auto [field, key] : {std::pair{&c.root_low, "root_low"},
+                              {&c.root_high, "root_high"},
+                              {&c.bound_class, "bound_class"},
+                              {&c.bound_low, "bound_low"},
+                              {&c.bound_high, "bound_high"},
+                              {&c.bound_from, "bound_from"}})
+      *field = optional_string(j, path, key);
     c.obligations = optional_strings(j, path, "obligations");
     return c;
   }

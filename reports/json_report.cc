@@ -83,9 +83,16 @@ Json certificate_json(const std::optional<Certificate>& c) {
         {"driver_high", c->driver_high},
         {"driver_from", c->driver_from},
         {"regularity_c", c->regularity_c},
-        {"regularity_from", c->regularity_from}}) {
+        {"regularity_from", c->regularity_from},
+        {"root_low", c->root_low},
+        {"root_high", c->root_high},
+        {"bound_class", c->bound_class},
+        {"bound_low", c->bound_low},
+        {"bound_high", c->bound_high},
+        {"bound_from", c->bound_from}}) {
     if (!value.empty()) j[key] = value;
   }
+  if (!c->root_polynomial.empty()) j["root_polynomial"] = c->root_polynomial;
   j["obligations"] = c->obligations;
   return j;
 }

@@ -46,9 +46,8 @@ TEST_F(RecheckCli, EveryHoldsOfTheDemoAndTheTestClaimsIsReCheckedOrSaysWhyNot) {
   CommandResult again = run_shell(tg("recheck '" + report.string() + "'"));
   EXPECT_EQ(again.status, 0) << again.out;
   EXPECT_EQ(count_of(again.out, "REJECTED"), 0u) << again.out;
-  // 22 of the demo's 28 holds and both of tests/data's; the rest have
-  // proofs the re-checker has no rule for, and say so.
-  EXPECT_GE(count_of(again.out, ": re-checked ("), 24u) << again.out;
+  // All 28 of the demo's holds and both of tests/data's.
+  EXPECT_EQ(count_of(again.out, ": re-checked ("), 30u) << again.out;
   EXPECT_NE(again.out.find("30 holds: "), std::string::npos) << again.out;
   EXPECT_NE(again.out.find("0 rejected"), std::string::npos) << again.out;
   // The JSON of the --recheck run carries the same answers.
@@ -64,7 +63,7 @@ TEST_F(RecheckCli, EveryHoldsOfTheDemoAndTheTestClaimsIsReCheckedOrSaysWhyNot) {
     EXPECT_FALSE(answer.empty()) << c["name"];
     rechecked += answer.rfind("re-checked (", 0) == 0;
   }
-  EXPECT_GE(rechecked, 24);
+  EXPECT_EQ(rechecked, 30);
 }
 
 TEST_F(RecheckCli, ADoctoredCertificateIsRejectedWithItsObligationAndExit3) {

@@ -5,6 +5,7 @@
 #include <gtest/gtest.h>
 #include <rapidcheck/gtest.h>
 
+#include <cmath>
 #include <map>
 #include <nlohmann/json.hpp>
 #include <string>
@@ -239,6 +240,94 @@ RC_GTEST_PROP(RecheckMutants, InductionMutantsAreRejected, ()) {
   CertificateData above = c;
   above.hypothesis = "<= 3n*lg(n)";  // true of T, but not inside the claim
   RC_ASSERT(check_certificate(*r, b, above).status == RuleStatus::kRejected);
+}
+
+// Linear recurrences T(n) = a T(n - 1) + b T(n - 2) + c, T(0) = T(1) = 1:
+// Θ(rho^n), rho = (a + sqrt(a^2 + 4b))/2 the positive root of x^2 - a x - b
+// (common practice). Mutants move the isolating interval off the root or onto
+// the negative one, change the polynomial, or claim another base.
+RC_GTEST_PROP(RecheckMutants, LinearRootMutantsAreRejected, ()) {
+  int a = *rc::gen::inRange(1, 6), b = *rc::gen::inRange(1, 6), c = *rc::gen::inRange(0, 6);
+  auto r = recurrence_from_text("T(n) = " + std::to_string(a) + "T(n - 1) + " + std::to_string(b) +
+                                "T(n - 2) + " + std::to_string(c) + "\nT(0) = 1\nT(1) = 1");
+  auto claim = [&](int d) {
+    return parse_bound(SourceText::whole(
+        "<bound>", "Theta(((" + std::to_string(a) + " + sqrt(" + std::to_string(d) + "))/2)^n)"));
+  };
+  auto around = [](double x) {  // (k/1000, (k + 2)/1000] around x
+    long k = static_cast<long>(std::floor(x * 1000)) - 1;
+    return std::pair{std::to_string(k) + "/1000", std::to_string(k + 2) + "/1000"};
+  };
+  auto cert = [&](int bb, std::pair<std::string, std::string> box) {
+    CertificateData d;
+    d.method = "linear";
+    d.root_polynomial = {std::to_string(-bb), std::to_string(-a), "1"};
+    d.root_low = box.first;
+    d.root_high = box.second;
+    return d;
+  };
+  int disc = a * a + 4 * b;
+  double rho = (a + std::sqrt(disc)) / 2, sigma = (a - std::sqrt(disc)) / 2;
+  RC_ASSERT(check_certificate(*r, claim(disc), cert(b, around(rho))).status ==
+            RuleStatus::kRechecked);
+  RC_ASSERT(check_certificate(*r, claim(disc), cert(b, around(rho + 1))).status ==
+            RuleStatus::kRejected);
+  RC_ASSERT(check_certificate(*r, claim(disc), cert(b, around(sigma))).status ==
+            RuleStatus::kRejected);
+  double rho1 = (a + std::sqrt(disc + 4)) / 2;
+  RC_ASSERT(check_certificate(*r, claim(disc), cert(b + 1, around(rho1))).status ==
+            RuleStatus::kRejected);
+  RC_ASSERT(check_certificate(*r, claim(disc + 1), cert(b, around(rho))).status ==
+            RuleStatus::kRejected);
+}
+
+// Subtract-and-conquer with an exponential driver, T(n) = a T(n - 1) + r^n:
+// Θ(n r^n) for a = r, Θ(r^n) for a < r, Θ(a^n) for a > r (common practice:
+// unroll and sum the geometric series). Mutants: another driver base, another class.
+RC_GTEST_PROP(RecheckMutants, ExponentialDriverMutantsAreRejected, ()) {
+  int a = *rc::gen::inRange(1, 5), base = *rc::gen::inRange(1, 5);
+  auto r = recurrence_from_text("T(n) = " + std::to_string(a) + "T(n - 1) + " +
+                                std::to_string(base) + "^n\nT(0) = 1");
+  std::string rn = std::to_string(base) + "^n";
+  std::string truth = a == base  ? "Theta(n " + rn + ")"
+                      : a < base ? "Theta(" + rn + ")"
+                                 : "Theta(" + std::to_string(a) + "^n)";
+  auto bound = [](const std::string& text) { return parse_bound(SourceText::whole("<b>", text)); };
+  CertificateData c;
+  c.method = "subtract";
+  c.proof = "subtract-and-conquer, exponential driver";
+  c.driver_class = rn;
+  c.driver_low = "1/2";
+  c.driver_high = "2";
+  c.driver_from = "4";
+  RC_ASSERT(check_certificate(*r, bound(truth), c).status == RuleStatus::kRechecked);
+  RC_ASSERT(check_certificate(*r, bound("Theta(n^2 " + rn + ")"), c).status ==
+            RuleStatus::kRejected);
+  CertificateData other = c;
+  other.driver_class = std::to_string(base + 1) + "^n";
+  RC_ASSERT(check_certificate(*r, bound(truth), other).status == RuleStatus::kRejected);
+}
+
+// Full-history: quicksort's average, C(n) ~ (2 ln 2) n lg n with 2 ln 2 =
+// 1.386... and C(64) = 360.7... (Knuth, The Art of Computer Programming,
+// vol. 3, §5.2.2). Constants on the right side of those pass; an upper one
+// below 2 ln 2 or a lower one above C(64)/(64 lg 64) = 0.939... is rejected.
+RC_GTEST_PROP(RecheckMutants, FullHistoryMutantsAreRejected, ()) {
+  auto r = recurrence_from_text("C(n) = n - 1 + (2/n) sum(k, 0, n - 1, C(k))\nC(0) = 0");
+  Bound b = parse_bound(SourceText::whole("<bound>", "Theta(n lg n)"));
+  CertificateData c;
+  c.method = "full-history";
+  c.bound_class = "n*lg(n)";
+  c.bound_from = "64";
+  c.bound_low = std::to_string(*rc::gen::inRange(1, 15)) + "/16";
+  c.bound_high = std::to_string(*rc::gen::inRange(2, 6));
+  RC_ASSERT(check_certificate(*r, b, c).status == RuleStatus::kRechecked);
+  CertificateData high = c;
+  high.bound_high = std::to_string(*rc::gen::inRange(1, 11)) + "/8";
+  RC_ASSERT(check_certificate(*r, b, high).status == RuleStatus::kRejected);
+  CertificateData low = c;
+  low.bound_low = std::to_string(*rc::gen::inRange(9, 17)) + "/8";
+  RC_ASSERT(check_certificate(*r, b, low).status == RuleStatus::kRejected);
 }
 
 }  // namespace

@@ -232,6 +232,137 @@ TEST(RecheckSubtract, AHarmonicDriverSumsToALogarithm) {
   EXPECT_REJECTED(run("T(n) = T(n - 1) + 2/n\nT(0) = 0", "Theta(1)", c), "does not establish");
 }
 
+TEST(RecheckSubtract, AnExponentialDriverIsSummedAgainstA) {
+  // T(n) = 2T(n - 1) + 2^n, T(0) = 1 is (n + 1) 2^n (from memory: divide by
+  // 2^n and sum); theta = a / r^b = 1 gives Θ(n 2^n).
+  CertificateData c = divide("subtract-and-conquer, exponential driver", "2^n", "1/2", "2", "4");
+  c.method = "subtract";
+  const char* rec = "T(n) = 2T(n - 1) + 2^n\nT(0) = 1";
+  EXPECT_RECHECKED(run(rec, "Theta(n 2^n)", c));
+  EXPECT_REJECTED(run(rec, "Theta(2^n)", c), "does not establish");
+  // theta < 1: the driver's own term dominates (a geometric series).
+  EXPECT_RECHECKED(run("T(n) = T(n - 1) + 2^n\nT(0) = 1", "Theta(2^n)", c));
+  // theta > 1: a^n dominates when T > 0 where the unrolling stops (T(1) = 0
+  // early on does not matter).
+  EXPECT_RECHECKED(run("T(n) = 3T(n - 1) + 2^n\nT(1) = 0", "Theta(3^n)", c));
+  // A driver class past the truth: 2^n >= (1/2) 3^n fails.
+  c.driver_class = "3^n";
+  EXPECT_REJECTED(run(rec, "Theta(n 3^n)", c), "f(n) >= 1/2 g(n)");
+}
+
+// --- Linear recurrences ----------------------------------------------------
+
+CertificateData linear(std::vector<std::string> polynomial, const std::string& low,
+                       const std::string& high) {
+  CertificateData c;
+  c.method = "linear";
+  c.proof = "linear recurrence, dominant characteristic root";
+  c.root_polynomial = std::move(polynomial);
+  c.root_low = low;
+  c.root_high = high;
+  return c;
+}
+
+TEST(RecheckLinear, TheGoldenRatioIsComparedExactly) {
+  // T(n) = T(n - 1) + T(n - 2) + 1 with T(0) = T(1) = 1 is 2 F(n + 1) - 1
+  // (from memory), Θ(phi^n) with phi = (1 + sqrt(5))/2 the positive root of
+  // x^2 - x - 1 (common practice).
+  const char* rec = "T(n) = T(n - 1) + T(n - 2) + 1\nT(1) = 1\nT(0) = 1";
+  const char* phi = "Theta(((1 + sqrt(5))/2)^n)";
+  EXPECT_RECHECKED(run(rec, phi, linear({"-1", "-1", "1"}, "8/5", "17/10")));
+  EXPECT_RECHECKED(run(rec, "O(2^n)", linear({"-1", "-1", "1"}, "8/5", "17/10")));
+  EXPECT_REJECTED(run(rec, "Theta(2^n)", linear({"-1", "-1", "1"}, "8/5", "17/10")),
+                  "does not establish");
+  EXPECT_REJECTED(run(rec, "Theta(((1 + sqrt(3))/2)^n)", linear({"-1", "-1", "1"}, "8/5", "17/10")),
+                  "does not establish");
+  // The other root of x^2 - x - 1, about -0.618, is no growth rate.
+  EXPECT_REJECTED(run(rec, phi, linear({"-1", "-1", "1"}, "-7/10", "-3/5")), "is not > 1");
+  // An interval without the root, and a root of another polynomial.
+  EXPECT_REJECTED(run(rec, phi, linear({"-1", "-1", "1"}, "17/10", "9/5")), "does not isolate");
+  EXPECT_REJECTED(run(rec, phi, linear({"-2", "0", "1"}, "7/5", "3/2")),
+                  "no root of the characteristic polynomial");
+}
+
+TEST(RecheckLinear, APolynomialDriverAndARationalRoot) {
+  // T(n) = 2T(n - 1) + n, T(0) = 1 is 2^(n+2) - n - 2 (from memory).
+  const char* rec = "T(n) = 2T(n - 1) + n\nT(0) = 1";
+  EXPECT_RECHECKED(run(rec, "Theta(2^n)", linear({"-2", "1"}, "3/2", "2")));
+  EXPECT_REJECTED(run(rec, "Theta(n 2^n)", linear({"-2", "1"}, "3/2", "2")), "does not establish");
+  // A negative coefficient is beyond this rule: not re-checked, not rejected.
+  RuleOutcome o = run("T(n) = 3T(n - 1) - T(n - 2) + 1\nT(0) = 1\nT(1) = 2", "Theta(3^n)",
+                      linear({"1", "-3", "1"}, "5/2", "3"));
+  EXPECT_EQ(o.status, RuleStatus::kNotRechecked) << o.detail;
+}
+
+// --- Full-history recurrences ----------------------------------------------
+
+CertificateData full_history(const std::string& g, const std::string& low, const std::string& high,
+                             const std::string& from = "64") {
+  CertificateData c;
+  c.method = "full-history";
+  c.proof = "full-history recurrence (summation factor)";
+  c.bound_class = g;
+  c.bound_low = low;
+  c.bound_high = high;
+  c.bound_from = from;
+  return c;
+}
+
+TEST(RecheckFullHistory, QuicksortsAverageIsDifferencedAndCarried) {
+  // C(n) = 2(n + 1) H_n - 4n ~ 2 n ln n = (2 ln 2) n lg n, 2 ln 2 = 1.386...
+  // (Knuth, The Art of Computer Programming, vol. 3, §5.2.2).
+  const char* rec = "C(n) = n - 1 + (2/n) sum(k, 0, n - 1, C(k))\nC(0) = 0";
+  EXPECT_RECHECKED(run(rec, "Theta(n lg n)", full_history("n*lg(n)", "1/2", "4")));
+  // An upper constant below 2 ln 2: the step fails for large n.
+  EXPECT_REJECTED(run(rec, "Theta(n lg n)", full_history("n*lg(n)", "1/2", "5/4")), "step");
+  // A lower constant above C(64)/(64 lg 64) = 0.939...: the start fails.
+  EXPECT_REJECTED(run(rec, "Theta(n lg n)", full_history("n*lg(n)", "1", "4")), "T(64)");
+  EXPECT_REJECTED(run(rec, "Theta(n)", full_history("n*lg(n)", "1/2", "4")), "does not establish");
+}
+
+TEST(RecheckFullHistory, SelectingTheSmallestKeyIsLinear) {
+  // C(n) = 2(n - H_n) (from memory): the differenced form is C(n) = C(n - 1) + 2 - 2/n.
+  const char* rec = "C(n) = n - 1 + (1/n) sum(k, 0, n - 1, C(k))\nC(0) = 0";
+  EXPECT_RECHECKED(run(rec, "Theta(n)", full_history("n", "1/2", "4")));
+  // C(64) = 118.5... <= (15/8) 64, but the step needs 15/8 >= 2 - 2/n.
+  EXPECT_REJECTED(run(rec, "Theta(n)", full_history("n", "1/2", "15/8")), "step");
+  EXPECT_REJECTED(run(rec, "Theta(n)", full_history("n", "1/2", "3/2")), "T(64)");
+}
+
+// --- Change of variables ---------------------------------------------------
+
+TEST(RecheckChangeOfVariables, SquareRootLevelsAreLgLgN) {
+  // m = lg n: S(m) = S(m/2) + 1, master theorem case 2, Θ(lg m) = Θ(lg lg n)
+  // (common practice).
+  const char* rec = "T(n) = 1 if n <= 2\nT(n) = T(floor(sqrt(n))) + 1";
+  CertificateData c = divide("change of variables, then master theorem, case 2", "1", "1/2", "2");
+  c.method = "change-of-variables";
+  EXPECT_RECHECKED(run(rec, "Theta(lg lg n)", c));
+  EXPECT_REJECTED(run(rec, "Theta(lg n)", c), "does not establish");
+  c.proof = "change of variables, then master theorem, case 1";
+  EXPECT_REJECTED(run(rec, "Theta(lg lg n)", c), "names case 1");
+}
+
+TEST(RecheckChangeOfVariables, ALogarithmicDriverBecomesPolynomialInM) {
+  // S(m) = 2 S(m/2) + m: Θ(m lg m) = Θ(lg n lg lg n) (common practice).
+  const char* rec = "T(n) = 1 if n <= 2\nT(n) = 2T(floor(sqrt(n))) + lg(n)";
+  CertificateData c =
+      divide("change of variables, then master theorem, case 2", "lg(n)", "1/2", "2");
+  c.method = "change-of-variables";
+  EXPECT_RECHECKED(run(rec, "Theta(lg n lg lg n)", c));
+  EXPECT_REJECTED(run(rec, "Theta(lg n)", c), "does not establish");
+}
+
+TEST(RecheckDivide, AGoldenCriticalExponentIsDecidedInQOfSqrtFive) {
+  // (1/2)^p + (1/4)^p = 1 at p = lg phi: 1/phi + 1/phi^2 = 1 exactly
+  // (common practice: phi^2 = phi + 1).
+  const char* rec = "T(n) = T(n/2) + T(n/4) + 1\nT(1) = 1\nT(2) = 1\nT(3) = 1";
+  CertificateData c = divide("Akra–Bazzi", "1", "1/2", "2");
+  EXPECT_RECHECKED(run(rec, "Theta(n^(lg((1 + sqrt(5))/2)))", c));
+  EXPECT_REJECTED(run(rec, "Theta(n^(lg((1 + sqrt(3))/2)))", c), "does not establish");
+  EXPECT_REJECTED(run(rec, "Theta(n^(lg((1 + sqrt(5))/2)) lg n)", c), "does not establish");
+}
+
 // --- Induction -------------------------------------------------------------
 
 TEST(RecheckInduction, MergeWorstCaseIsAtMostTwoNLgN) {

@@ -195,6 +195,14 @@ class Sampler {
     return std::max(smallest, BigInt(1));
   }
 
+  // T(n)/g(n), certified, or nullopt where g(n) <= 0.
+  std::optional<Interval> t_over(const Expr& g, const SourceText& g_source, const BigInt& n) {
+    Value gv = evaluator_.evaluate(g, g_source, n);
+    if (gv.sign() <= 0) return std::nullopt;
+    NumericContext ctx;
+    return div(evaluator_.value_at(n), gv, ctx).interval(128);
+  }
+
   // Whether T(n) > 0 for every lo <= n <= hi.
   bool positive(const BigInt& lo, const BigInt& hi) {
     for (BigInt n = lo; n <= hi; ++n) {
@@ -328,7 +336,7 @@ std::vector<std::string> akra_bazzi_obligations(const Shape& shape, const Growth
 }  // namespace
 
 std::optional<std::string> driver_class_text(const GrowthClass& g) {
-  if (!g.is_subexponential() || g.gamma.sign() != 0) return std::nullopt;
+  if (!g.rho.is_rational() || g.gamma.sign() != 0) return std::nullopt;
   if (!g.alpha.is_rational() || !g.beta.is_integer()) return std::nullopt;
   const Rational& q = g.alpha.rational();
   const Rational& k = g.beta.rational();
@@ -342,6 +350,10 @@ std::optional<std::string> driver_class_text(const GrowthClass& g) {
   if (q < 0) bottom.push_back(power("n", -q));
   if (k > 0) top.push_back(power("lg(n)", k));
   if (k < 0) bottom.push_back(power("lg(n)", -k));
+  if (!g.is_subexponential()) {
+    const Rational& r = g.rho.rational();
+    top.insert(top.begin(), (denominator(r) == 1 ? to_string(r) : "(" + to_string(r) + ")") + "^n");
+  }
   std::string text = top.empty() ? "1" : join(top, "*");
   if (bottom.size() == 1) text += "/" + bottom[0];
   if (bottom.size() > 1) text += "/(" + join(bottom, "*") + ")";
@@ -349,6 +361,20 @@ std::optional<std::string> driver_class_text(const GrowthClass& g) {
 }
 
 namespace {
+
+// Runs `make`; what evaluating f, g and T may meet on valid input (a bad
+// class text, a budget, an undecidable comparison, lg 0) means no certificate.
+template <typename Make>
+std::optional<Certificate> or_none(Make make) {
+  try {
+    return make();
+  } catch (const InputError&) {
+  } catch (const LimitReached&) {
+  } catch (const PrecisionShortfall&) {
+  } catch (const DomainError&) {
+  }
+  return std::nullopt;
+}
 
 // f lies between c₁·g_low and c₂·g_high, each a class of f's case lines:
 // T is then between the solutions driven by those two (a comparison), and a
@@ -365,7 +391,7 @@ std::optional<Certificate> comparison_certificate(const Recurrence& recurrence, 
   std::optional<Driver> driver = driver_of(shape, recurrence);
   if (!driver) return std::nullopt;
   std::vector<BigInt> bases = {2};
-  try {
+  return or_none([&]() -> std::optional<Certificate> {
     SourceText high_source = SourceText::whole("<certificate>", *high_text);
     SourceText low_source = SourceText::whole("<certificate>", *low_text);
     ExprPtr g_high = parse_expression(high_source);
@@ -395,12 +421,83 @@ std::optional<Certificate> comparison_certificate(const Recurrence& recurrence, 
           "T(n) > 0 for " + lowest.str() + " <= n <= " + BigInt(from - 1).str()};
       return cert;
     }
-  } catch (const InputError&) {
-  } catch (const LimitReached&) {
+    return std::nullopt;
+  });
+}
+
+// A linear recurrence's growing root rho (Θ(rho^n), a simple root > 1): its
+// polynomial and an isolating interval; a checker rebuilds the rest.
+std::optional<Certificate> linear_certificate(const Derivation& d) {
+  const GrowthClass& g = *d.growth;
+  if (g.alpha.sign() != 0 || g.beta.sign() != 0 || g.gamma.sign() != 0) return std::nullopt;
+  try {
+    if (compare(g.rho, RealNumber(1L)) <= 0) return std::nullopt;
+    Polynomial p = g.rho.is_rational()  ? Polynomial({-g.rho.rational(), Rational(1)})
+                   : g.rho.polynomial() ? *g.rho.polynomial()
+                                        : Polynomial();
+    if (p.is_zero()) return std::nullopt;
+    // Six decimals either side of a 96-bit enclosure: readable, and still
+    // isolating for roots at least 10^-6 apart (the checker makes sure).
+    Interval box = g.rho.enclose(96);
+    const BigInt million = 1000000;
+    Certificate cert;
+    cert.method = "linear";
+    cert.proof = d.method;
+    for (const Rational& c : p.coefficients()) cert.root_polynomial.push_back(to_string(c));
+    cert.root_low = to_string(Rational(floor_of(box.lower() * million) - 1, million));
+    cert.root_high = to_string(Rational(ceil_of(box.upper() * million) + 1, million));
+    cert.obligations = {
+        "rho, the only root of " + p.str() + " in (" + cert.root_low + ", " + cert.root_high +
+            "], is a root > 1 of the characteristic polynomial",
+        "with a polynomial Q solving Q(n) - sum c_i Q(n - i) = -f(n), S = T + Q satisfies the "
+        "homogeneous recurrence, every c_i >= 0",
+        "S(n) > 0 on k consecutive sizes, so S = Θ(rho^n) and T = Θ(rho^n)"};
+    return cert;
   } catch (const PrecisionShortfall&) {
-  } catch (const DomainError&) {
+    return std::nullopt;
   }
-  return std::nullopt;
+}
+
+// A full-history recurrence T(n) = f(n) + (c/n) sum_{k<n} T(k): T over its
+// class g at sizes from 64 to 2^12, a factor 2 of room each way; a checker
+// differences the sum and carries the bounds from 64 on.
+std::optional<Certificate> full_history_certificate(const Recurrence& recurrence,
+                                                    const Derivation& d,
+                                                    std::optional<double> clock_limit) {
+  std::optional<std::string> g_text = driver_class_text(*d.growth);
+  if (!g_text || !d.growth->is_subexponential()) return std::nullopt;
+  return or_none([&]() -> std::optional<Certificate> {
+    SourceText g_source = SourceText::whole("<certificate>", *g_text);
+    ExprPtr g = parse_expression(g_source);
+    Sampler sampler(recurrence, clock_limit);
+    std::optional<RatioRange> range;
+    for (BigInt n = kFirstFrom; n <= kLastFrom; n *= 2) {
+      std::optional<Interval> r = sampler.t_over(*g, g_source, n);
+      if (!r || !r->certainly_positive()) return std::nullopt;
+      if (!range) range = RatioRange{r->lower(), r->upper()};
+      range->low = std::min(range->low, r->lower());
+      range->high = std::max(range->high, r->upper());
+    }
+    Rational low = power_of_two_at_most(range->low / 2),
+             high = power_of_two_at_least(2 * range->high);
+    Certificate cert;
+    cert.method = "full-history";
+    cert.proof = d.method;
+    cert.bound_class = *g_text;
+    cert.bound_low = to_string(low);
+    cert.bound_high = to_string(high);
+    cert.bound_from = kFirstFrom.str();
+    const std::string& from = cert.bound_from;
+    cert.obligations = {
+        "n T(n) - (n - 1) T(n - 1): the sum differenced, T(n) from T(n - 1) alone for n > " + from,
+        "T(" + from + ") between " + times_class(low, *g_text) + " and " +
+            times_class(high, *g_text),
+        "step, upper: the differenced recurrence keeps T(n) <= " + times_class(high, *g_text) +
+            " for every n > " + from,
+        "step, lower: the differenced recurrence keeps T(n) >= " + times_class(low, *g_text) +
+            " for every n > " + from};
+    return cert;
+  });
 }
 
 }  // namespace
@@ -411,9 +508,14 @@ std::optional<Certificate> theorem_certificate(const Recurrence& recurrence,
   const Derivation& d = derivation;
   if (!d.growth && d.one_sided() && d.method.rfind("comparison with the drivers", 0) == 0)
     return comparison_certificate(recurrence, d, clock_limit);
+  if (!d.growth) return std::nullopt;
+  if (d.theorem == "linear recurrence with constant coefficients") return linear_certificate(d);
+  if (d.theorem == "full-history summation factor")
+    return full_history_certificate(recurrence, d, clock_limit);
   bool divide = d.theorem == "master theorem" || d.theorem == "Akra–Bazzi";
-  bool subtract = d.theorem == "subtract-and-conquer" && d.method == "subtract-and-conquer, a = 1";
-  if (!d.growth || (!divide && !subtract)) return std::nullopt;
+  bool subtract = d.theorem == "subtract-and-conquer";
+  bool substitute = d.theorem == "change of variables";
+  if (!divide && !subtract && !substitute) return std::nullopt;
   // A class written as a term stands for any member, and O or Ω terms bound
   // f on one side only: no constants hold for every function they allow.
   if (d.driving_is_class || d.driving_one_sided || !d.driving.growth) return std::nullopt;
@@ -426,11 +528,13 @@ std::optional<Certificate> theorem_certificate(const Recurrence& recurrence,
   if (!driver) return std::nullopt;
 
   Certificate cert;
-  cert.method = divide ? "divide" : "subtract";
+  cert.method = divide ? "divide" : subtract ? "subtract" : "change-of-variables";
   cert.proof = d.method;
   cert.driver_class = *g_text;
   SourceText g_source = SourceText::whole("<certificate>", *g_text);
-  std::vector<BigInt> bases = {2};
+  // An exponential driver is sampled on the range only (2^n at n = 2^256 is out of reach).
+  std::vector<BigInt> bases;
+  if (d.driving.growth->is_subexponential()) bases.push_back(2);
   for (const ScaledTerm& t : shape.scaled) {
     Rational divisor = Rational(1) / t.b;
     if (denominator(divisor) == 1 && numerator(divisor) > 2 && numerator(divisor) <= 1'000'000 &&
@@ -462,8 +566,12 @@ std::optional<Certificate> theorem_certificate(const Recurrence& recurrence,
   try {
     if (subtract) {
       if (shape.subtractive.size() != 1) return std::nullopt;
-      theorem.push_back("a = 1, b = " + shape.subtractive[0].c.str() + ": T(n) = T(n - " +
-                        shape.subtractive[0].c.str() + ") + f(n), f summed");
+      const SubtractiveTerm& t = shape.subtractive[0];
+      std::string a = to_string(t.a), b = t.c.str();
+      theorem.push_back("a = " + a + ", b = " + b + ": T(n) = " + (t.a == 1 ? "" : a + " ") +
+                        "T(n - " + b + ") + f(n), unrolled: a^(j/b) f(n - j) summed");
+    } else if (substitute) {
+      theorem.push_back("m = lg n, S(m) = T(2^m): Akra–Bazzi on S with f(2^m), back to n");
     } else if (d.theorem == "master theorem") {
       std::optional<Split> split = one_split(shape);
       if (!split) return std::nullopt;

@@ -17,8 +17,9 @@
 namespace thetagate::engine {
 
 struct Certificate {
-  std::string method;  // "divide", "subtract" or "induction"
-  std::string proof;   // the proof as the report names it: "master theorem, case 2"
+  // "divide", "subtract", "change-of-variables", "linear", "full-history" or "induction"
+  std::string method;
+  std::string proof;  // the proof as the report names it: "master theorem, case 2"
   // divide and subtract: the driving function f (the non-recursive part of
   // T's recursive line; every line's body when f is given by case lines or
   // by a helper with case lines) lies between driver_low·g(n) and
@@ -35,16 +36,25 @@ struct Certificate {
   // a f(floor(n/b)) <= c f(n) for every n >= regularity_from. "" when unused.
   std::string regularity_c;
   std::string regularity_from;
+  // linear: the growing root rho, given as the only real root of
+  // root_polynomial (coefficients in decimal, x^0 first) in (root_low, root_high].
+  std::vector<std::string> root_polynomial;
+  std::string root_low, root_high;
+  // full-history: bound_low·g(n) <= T(n) <= bound_high·g(n) at n = bound_from,
+  // carried by the differenced recurrence to every n > bound_from; g = bound_class.
+  std::string bound_class, bound_low, bound_high, bound_from;
   // The proof's hypotheses, one statement each, in words and formulas:
   // "f(n) >= (1/2) n for every n >= 64", "T(n) > 0 for 31 <= n <= 63", ...
   std::vector<std::string> obligations;
 };
 
 // The certificate of a Θ class that the master theorem (any case, the
-// polylog extension, case 3 by comparison), Akra–Bazzi ("divide") or
-// subtract-and-conquer with a = 1 ("subtract") derived; nullopt for any
-// other method, and where f is not between constant multiples of one class
-// n^q lg^k n (q rational, k whole): f = 0, lg lg n factors, case lines of
+// polylog extension, case 3 by comparison), Akra–Bazzi ("divide"),
+// subtract-and-conquer ("subtract"), a change of variables m = lg n
+// ("change-of-variables"), a linear recurrence with constant coefficients
+// ("linear": the growing root) or a full-history sum ("full-history": the
+// constants at a start) derived; nullopt for any other method, and where f is not between constant
+// multiples of one class n^q lg^k n (q rational, k whole): f = 0, lg lg n factors, case lines of
 // different classes, growth classes written as terms (any member would do,
 // so no constants hold for all of them), f with no class. The constants are
 // found from exact or certified values of f/g at sizes from driver_from on

@@ -214,6 +214,12 @@ RealNumber RealNumber::log_real(const Rational& base, const RealNumber& x) {
   return make_log_algebraic(0, c, g, x.node_);
 }
 
+std::optional<LogAlgebraicForm> log_algebraic_form(const RealNumber& x) {
+  const Node& n = x.node();
+  if (n.kind != Kind::kLogAlgebraic) return std::nullopt;
+  return LogAlgebraicForm{n.q, n.c, n.g, RealNumber(n.alpha)};
+}
+
 RealNumber RealNumber::root(const Rational& q, unsigned long k) {
   if (q <= 0 || k == 0) throw DomainError("root of a non-positive number");
   if (k == 1) return RealNumber(q);

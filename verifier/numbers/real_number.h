@@ -10,6 +10,7 @@
 
 #include <functional>
 #include <memory>
+#include <optional>
 #include <string>
 
 #include "verifier/numbers/interval.h"
@@ -95,6 +96,15 @@ RealNumber pow(const RealNumber& base, const RealNumber& exponent);
 // lg c: exact for a rational (RealNumber::log) or an algebraic number
 // (RealNumber::log_real), enclosed otherwise. REQUIRES: c > 0.
 RealNumber log2_of(const RealNumber& c);
+
+// The parts of a log-algebraic number x = q + c·log_g(alpha) (g > 1, alpha a
+// positive algebraic number), for exact arithmetic in Q(alpha) by callers;
+// nullopt for every other kind.
+struct LogAlgebraicForm {
+  Rational q, c, g;
+  RealNumber alpha;
+};
+std::optional<LogAlgebraicForm> log_algebraic_form(const RealNumber& x);
 
 // Exact three-way comparison: -1, 0, +1. Throws PrecisionShortfall only when
 // two numbers of different kinds agree to 2^-16384 (never seen in practice).

@@ -47,6 +47,15 @@ CertificateData certificate_of(const Json& basis) {
   c.driver_from = text_at(cert, "driver_from");
   c.regularity_c = text_at(cert, "regularity_c");
   c.regularity_from = text_at(cert, "regularity_from");
+  for (auto [field, key] : {std::pair{&c.root_low, "root_low"},
+                            {&c.root_high, "root_high"},
+                            {&c.bound_class, "bound_class"},
+                            {&c.bound_low, "bound_low"},
+                            {&c.bound_high, "bound_high"},
+                            {&c.bound_from, "bound_from"}})
+    *field = text_at(cert, key);
+  for (const Json& x : cert.value("root_polynomial", Json::array()))
+    if (x.is_string()) c.root_polynomial.push_back(x.get<std::string>());
   auto induction = basis.find("induction");
   if (induction != basis.end() && induction->is_object()) {
     for (const Json& s : induction->value("sides", Json::array()))

@@ -18,11 +18,14 @@ namespace thetagate::engine::recheck {
 // The data of one certificate, as the report carries it (strings in the
 // claim language, numbers as decimal text).
 struct CertificateData {
-  std::string method;  // "divide", "subtract", "induction"
+  std::string method;  // "divide", "subtract", "change-of-variables", "linear", ...
   std::string proof;   // "master theorem, case 2", ...
   std::string driver_class, driver_low, driver_high, driver_from;
   std::string driver_class_low;  // a comparison: the lower driver's class
   std::string regularity_c, regularity_from;
+  std::vector<std::string> root_polynomial;  // linear: x^0 first
+  std::string root_low, root_high;
+  std::string bound_class, bound_low, bound_high, bound_from;  // full-history
   // Induction: the report's `induction` object.
   std::vector<std::string> sides;  // "upper", "lower"
   std::string hypothesis;          // "<= 2n*lg(n)", "= n", ">= a and <= b"
