@@ -9,7 +9,7 @@
 #include <map>
 #include <string>
 
-#include "tests/test_support.h"
+#include "tests/support/test_support.h"
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/parser.h"

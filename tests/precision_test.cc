@@ -9,7 +9,7 @@
 #include <stdexcept>
 #include <string>
 
-#include "tests/test_support.h"
+#include "tests/support/test_support.h"
 
 namespace thetagate::engine {
 namespace {

@@ -74,11 +74,9 @@ EdgeReading read_edge(const std::vector<BandRow>& band, bool upper) {
     r.direction = Direction::kEscapes;
   } else if (std::fabs(r.slope) < kSteadySlope) {
     r.direction = Direction::kSteady;
-  } else if (r.slope > 0 && monotone >= 0.7) {
-    r.direction = upper ? Direction::kRising : Direction::kRising;
-  } else if (r.slope < 0 && (upper ? monotone <= 0.3 : monotone >= 0.7)) {
-    r.direction = Direction::kFalling;
   } else {
+    // Not steady: the slope's sign says which way. (How consistently the
+    // steps go that way matters only for an escape, above.)
     r.direction = r.slope > 0 ? Direction::kRising : Direction::kFalling;
   }
   return r;
