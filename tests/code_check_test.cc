@@ -17,12 +17,15 @@
 #include "reports/junit_report.h"
 #include "reports/text_report.h"
 #include "reports/verdict_text.h"
+#include "tests/support/diagnostic_matchers.h"
 #include "thetagate/cost.h"
 #include "verifier/checking/checker.h"
 #include "verifier/model/claim.h"
 
 namespace thetagate::engine {
 namespace {
+
+using test_support::located;
 
 // A top-down merge sort written the common way (split at n/2, merge until one
 // run is empty, copy the rest), counting its comparisons.
@@ -160,60 +163,80 @@ TEST_F(CostsFile, UpperBoundModelIsBrokenByACostlierRunWhateverTheBound) {
 
 struct MalformedCase {
   const char* text;
-  int line;
-  int column;
-  const char* message;
+  const char* diagnostic;  // located(), after the costs file's path
 };
 
 TEST_F(CostsFile, MalformedLinesAreLocatedInputErrors) {
   const MalformedCase cases[] = {
-      {"4 5\n12 x\n", 2, 4, "the cost must be a non-negative whole number, found 'x'"},
-      {"4 5\n  12\n", 2, 5, "a size without a cost"},
-      {"4 5 6\n", 1, 5, "more than two fields on a line"},
-      {"-3 4\n", 1, 1, "the size must be a non-negative whole number, found '-3'"},
-      {"1e3 5\n", 1, 2, "the size must be a non-negative whole number, found '1e3'"},
-      {"0 0\n", 1, 1, "the model has no value at n = 0"},
+      {"4 5\n12 x\n",
+       ":2:4: the cost must be a non-negative whole number, found 'x' [hint: each line holds a "
+       "size and its counted cost: \"1024 9217\"]"},
+      {"4 5\n  12\n",
+       ":2:5: a size without a cost [hint: each line holds a size and its counted cost: \"1024 "
+       "9217\"]"},
+      {"4 5 6\n",
+       ":1:5: more than two fields on a line [hint: each line holds a size and its counted cost: "
+       "\"1024 9217\" (or \"1024,9217\"); no thousands separators; comments start with '#']"},
+      {"-3 4\n",
+       ":1:1: the size must be a non-negative whole number, found '-3' [hint: a size is never "
+       "negative]"},
+      {"1e3 5\n",
+       ":1:2: the size must be a non-negative whole number, found '1e3' [hint: write the size as a "
+       "whole number in decimal digits (no 1e6, no 2.5)]"},
+      {"0 0\n",
+       ":1:1: the model has no value at n = 0: T(ceil(n/2)) at n = 0 calls T(0), which does not "
+       "shrink [hint: measure only sizes the recurrence defines (see its base cases)]"},
   };
   for (const MalformedCase& c : cases) {
     write("costs/bad.txt", c.text);
     ClaimResult r = check("[claim.code]\ncosts = \"costs/bad.txt\"\n");
     ASSERT_EQ(r.verdict, Verdict::kError) << c.text;
-    ASSERT_TRUE(r.error.has_value());
-    EXPECT_NE(r.error->where.file.find("bad.txt"), std::string::npos);
-    EXPECT_EQ(r.error->where.line, c.line) << c.text;
-    EXPECT_EQ(r.error->where.column, c.column) << c.text;
-    EXPECT_EQ(r.error->message.rfind(c.message, 0), 0u) << r.error->message;
-    EXPECT_FALSE(r.error->hint.empty());
+    // The path is the test's temporary folder, different on each run.
+    EXPECT_EQ(located(r.error), (dir_ / "costs/bad.txt").string() + c.diagnostic) << c.text;
   }
 }
 
 TEST_F(CostsFile, MissingOrEmptyFileIsAnErrorAtTheKey) {
   ClaimResult missing = check("[claim.code]\ncosts = \"costs/none.txt\"\n");
   ASSERT_EQ(missing.verdict, Verdict::kError);
-  EXPECT_NE(missing.error->message.find("cannot read the costs file"), std::string::npos);
-  EXPECT_NE(missing.error->where.file.find("claims.toml"), std::string::npos);
-  EXPECT_EQ(missing.error->where.line, 9);  // the costs key
+  // At the costs key; the path is the test's temporary folder.
+  const std::string claims = (dir_ / "claims.toml").string();
+  EXPECT_EQ(located(missing.error),
+            claims + ":9:9: cannot read the costs file: No such file or directory ('" +
+                (dir_ / "costs/none.txt").string() +
+                "') [hint: 'costs' is relative to the claim file's folder; the file holds lines "
+                "\"size cost\"]");
   write("costs/empty.txt", "# nothing measured yet\n\n");
   ClaimResult empty = check("[claim.code]\ncosts = \"costs/empty.txt\"\n");
   ASSERT_EQ(empty.verdict, Verdict::kError);
-  EXPECT_NE(empty.error->message.find("holds no measurements"), std::string::npos);
+  EXPECT_EQ(located(empty.error), claims + ":9:9: the costs file '" +
+                                      (dir_ / "costs/empty.txt").string() +
+                                      "' holds no measurements [hint: each line holds a size and "
+                                      "its counted cost: \"1024 9217\"]");
   // A pipe would block a reader: refused, not read (common practice for inputs).
   ASSERT_EQ(::mkfifo((dir_ / "costs" / "pipe.txt").c_str(), 0600), 0);
   ClaimResult pipe = check("[claim.code]\ncosts = \"costs/pipe.txt\"\n");
   ASSERT_EQ(pipe.verdict, Verdict::kError);
-  EXPECT_NE(pipe.error->message.find("is not a regular file"), std::string::npos)
-      << pipe.error->message;
+  EXPECT_EQ(located(pipe.error),
+            claims + ":9:9: '" + (dir_ / "costs/pipe.txt").string() +
+                "' is not a regular file (a pipe, socket or device) [hint: save "
+                "the costs file to a file first and give its path]");
 }
 
 TEST_F(CostsFile, BadCodeTableIsAnErrorOnThatClaimOnly) {
   ClaimResult r = check("[claim.code]\nmodel = \"upper\"\n");
   ASSERT_EQ(r.verdict, Verdict::kError);
-  EXPECT_EQ(r.error->message, "'model' must be \"upper bound\", \"exact\" or \"lower bound\"");
-  EXPECT_EQ(r.error->where.line, 9);  // the model key
-  EXPECT_EQ(r.error->where.column, 9);
+  // At the model key.
+  const std::string claims = (dir_ / "claims.toml").string();
+  EXPECT_EQ(located(r.error),
+            claims +
+                ":9:9: 'model' must be \"upper bound\", \"exact\" or \"lower bound\" [hint: "
+                "\"upper bound\": every counted cost is at most T(n) (a worst-case model)]");
   ClaimResult typo = check("[claim.code]\ncost = \"x.txt\"\n");
   ASSERT_EQ(typo.verdict, Verdict::kError);
-  EXPECT_NE(typo.error->hint.find("costs"), std::string::npos) << typo.error->hint;
+  EXPECT_EQ(located(typo.error), claims +
+                                     ":9:1: unknown key 'cost' in code [hint: did you mean "
+                                     "'costs'? allowed keys: model, costs, max_n]");
 }
 
 TEST_F(CostsFile, EveryReportShowsTheMeasuredLink) {

@@ -15,12 +15,15 @@
 #include <string>
 #include <vector>
 
+#include "tests/support/diagnostic_matchers.h"
 #include "verifier/evaluation/size_expression.h"
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/source.h"
 
 namespace thetagate::engine {
 namespace {
+
+using test_support::located_error_of;
 
 BigInt pow2(uint64_t k) { return BigInt(1) << k; }
 
@@ -202,13 +205,9 @@ TEST(Evaluator, DrivingFunctionNOverLgNAtPowersOfTwoIsAnExactHarmonicSum) {
 TEST(Evaluator, DrivingFunctionUndefinedAtOneIsALocatedError) {
   // Without T(1), the line is used at n = 1 and n/lg n divides by lg 1 = 0.
   Evaluator ev(rec("T(n) = 2T(n/2) + n/lg n; T(0) = 0"));
-  try {
-    ev.value_at(BigInt(2));
-    FAIL() << "expected an error at n = 1";
-  } catch (const InputError& e) {
-    EXPECT_EQ(e.diagnostic().where.line, 1);
-    EXPECT_NE(e.diagnostic().message.find("at n = 1"), std::string::npos) << e.what();
-  }
+  EXPECT_EQ(located_error_of([&] { ev.value_at(BigInt(2)); }),
+            "<recurrence>:1:19: division by zero at n = 1 (in 'n/lg(n)') [hint: add a base case "
+            "for the small sizes where this is undefined, e.g. T(1) = 1]");
 }
 
 TEST(Evaluator, SquareRootChangeOfVariablesAtDoublyExponentialSizes) {
@@ -271,27 +270,18 @@ TEST(Evaluator, IrrationalValuesAreCertifiedIntervalsThatHoldTheTrueValue) {
 
 TEST(Evaluator, CallThatDoesNotShrinkIsAnErrorAtTheCall) {
   Evaluator ev(rec("T(n) = T(n) + 1; T(1) = 0"));
-  try {
-    ev.value_at(BigInt(5));
-    FAIL() << "expected an InputError";
-  } catch (const InputError& e) {
-    EXPECT_EQ(e.diagnostic().where.line, 1);
-    EXPECT_EQ(e.diagnostic().where.column, 8);  // under the call T(n)
-    // Found before evaluating, at the first size where the call fails.
-    EXPECT_EQ(e.diagnostic().message, "T(n) at n = 0 calls T(0), which does not shrink");
-  }
+  // Under the call T(n); found before evaluating, at the first size where
+  // the call fails.
+  EXPECT_EQ(located_error_of([&] { ev.value_at(BigInt(5)); }),
+            "<recurrence>:1:8: T(n) at n = 0 calls T(0), which does not shrink [hint: each call "
+            "must reach a smaller size, such as T(n/2) or T(n-1)]");
 }
 
 TEST(Evaluator, GrowingCallWithoutBaseCaseIsAnErrorAtTheCall) {
   Evaluator ev(rec("T(n) = T(n+1) + 1"));
-  try {
-    ev.value_at(BigInt(3));
-    FAIL() << "expected an InputError";
-  } catch (const InputError& e) {
-    EXPECT_EQ(e.diagnostic().where.line, 1);
-    EXPECT_EQ(e.diagnostic().where.column, 8);
-    EXPECT_NE(e.diagnostic().message.find("which does not shrink"), std::string::npos) << e.what();
-  }
+  EXPECT_EQ(located_error_of([&] { ev.value_at(BigInt(3)); }),
+            "<recurrence>:1:8: T(n + 1) at n = 0 calls T(1), which does not shrink [hint: each "
+            "call must reach a smaller size, such as T(n/2) or T(n-1)]");
 }
 
 TEST(Evaluator, SquaringEachStepRunsOutOfValueBitsQuickly) {
@@ -355,9 +345,14 @@ TEST(Evaluator, SizesAreExactConstantExpressions) {
   EXPECT_EQ(evaluate_size("10^30"), BigInt("1000000000000000000000000000000"));
   EXPECT_EQ(evaluate_size("3*2^50"), 3 * pow2(50));
   EXPECT_EQ(evaluate_size("010"), 10);  // decimal, never octal
-  EXPECT_THROW(evaluate_size("n + 1"), InputError);
-  EXPECT_THROW(evaluate_size("7/2"), InputError);
-  EXPECT_THROW(evaluate_size("-3"), InputError);
+  EXPECT_EQ(
+      located_error_of([] { evaluate_size("n + 1"); }),
+      "<size>:1:1: a size must be a number, not an expression in n [hint: for example 2^4096 + 7]");
+  EXPECT_EQ(located_error_of([] { evaluate_size("7/2"); }),
+            "<size>:1:1: the size 7/2 is not a whole number [hint: sizes are whole numbers: 10^6, "
+            "3*2^50]");
+  EXPECT_EQ(located_error_of([] { evaluate_size("-3"); }),
+            "<size>:1:1: the size -3 is negative [hint: sizes are >= 0]");
 }
 
 }  // namespace
@@ -367,14 +362,13 @@ namespace {
 
 TEST(EvaluatorWellFoundedness, NonShrinkingCallNamesTheFirstOffendingSize) {
   // docs/design.md §3: the error names the first offending n and call.
-  try {
-    thetagate::engine::Evaluator ev(thetagate::engine::recurrence_from_text("T(n) = T(n+1) + 1"));
-    ev.value_at(thetagate::engine::BigInt(3));
-    FAIL() << "expected an InputError";
-  } catch (const thetagate::engine::InputError& e) {
-    EXPECT_EQ(e.diagnostic().message, "T(n + 1) at n = 0 calls T(1), which does not shrink");
-    EXPECT_EQ(e.diagnostic().where.column, 8);
-  }
+  EXPECT_EQ(thetagate::engine::test_support::located_error_of([] {
+              thetagate::engine::Evaluator ev(
+                  thetagate::engine::recurrence_from_text("T(n) = T(n+1) + 1"));
+              ev.value_at(thetagate::engine::BigInt(3));
+            }),
+            "<recurrence>:1:8: T(n + 1) at n = 0 calls T(1), which does not shrink [hint: each "
+            "call must reach a smaller size, such as T(n/2) or T(n-1)]");
 }
 
 }  // namespace

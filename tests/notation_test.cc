@@ -3,6 +3,7 @@
 // the canonical form does, so printing and parsing again is unchanged.
 #include <gtest/gtest.h>
 
+#include "tests/support/diagnostic_matchers.h"
 #include "verifier/model/bound.h"
 #include "verifier/model/recurrence.h"
 #include "verifier/syntax/expr.h"
@@ -10,6 +11,8 @@
 
 namespace thetagate::engine {
 namespace {
+
+using test_support::located_error_of;
 
 std::string printed(const std::string& text) {
   SourceText source = SourceText::whole("<recurrence>", text);
@@ -50,7 +53,8 @@ TEST(Notation, DoubleStarIsAPower) {
     EXPECT_EQ(print(*parse_expression(SourceText::whole("<e>", print(*a)))), print(*a));
   }
   // n * *2 is still an error, not a power.
-  EXPECT_THROW(parse_expression(SourceText::whole("<e>", "n * *2")), InputError);
+  EXPECT_EQ(located_error_of([] { parse_expression(SourceText::whole("<e>", "n * *2")); }),
+            "<e>:1:5: expected a number, 'n', a function or '(' after '*', found '*'");
 }
 
 TEST(Notation, LogWithoutABaseIsLgWhereOnlyTheClassMatters) {
@@ -62,9 +66,16 @@ TEST(Notation, LogWithoutABaseIsLgWhereOnlyTheClassMatters) {
   EXPECT_TRUE(parse_bound(SourceText::whole("<bound>", "Theta(n lg n)")).notes.empty());
   // log(b, x) keeps its base; in an exact context a bare log is still an error.
   EXPECT_TRUE(parse_bound(SourceText::whole("<bound>", "Theta(log(3, n))")).notes.empty());
-  EXPECT_THROW(parse_bound(SourceText::whole("<bound>", "T(n) <= n log n")), InputError);
-  EXPECT_THROW(build_recurrence(SourceText::whole("<recurrence>", "T(n) = T(n/2) + log n")),
-               InputError);
+  EXPECT_EQ(located_error_of([] { parse_bound(SourceText::whole("<bound>", "T(n) <= n log n")); }),
+            "<bound>:1:11: 'log' needs its base [hint: write lg n (base 2), ln n (base e) or "
+            "log(b, n); inside Theta(...), O(...) or Omega(...) the base does not matter and log n "
+            "is read as lg n]");
+  EXPECT_EQ(located_error_of([] {
+              build_recurrence(SourceText::whole("<recurrence>", "T(n) = T(n/2) + log n"));
+            }),
+            "<recurrence>:1:17: 'log' needs its base [hint: write lg n (base 2), ln n (base e) or "
+            "log(b, n); inside Theta(...), O(...) or Omega(...) the base does not matter and log n "
+            "is read as lg n]");
 }
 
 }  // namespace
