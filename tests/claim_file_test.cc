@@ -284,7 +284,7 @@ TEST(ClaimFile, SizeTextErrorPointsIntoTheString) {
             "'^', found '^'\n"
             "sizes.min_n = \"2^^4\"\n"
             "                 ^\n"
-            "  hint: write min_n = 1000 or min_n = \"2^20\"");
+            "  hint: a value goes here: a number, a name, a call or a parenthesised expression");
 }
 
 TEST(ClaimFile, SyntaxErrorInMultiLineRecurrencePointsAtTheFileLine) {

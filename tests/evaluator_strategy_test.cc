@@ -62,21 +62,23 @@ TEST(EvaluatorStrategy, SlidingWindowKeepsAnUndefinedSizesErrorUntilItIsNeeded) 
   Evaluator ev(recurrence_from_text("T(n) = T(n - 2) + n\nT(1) = 1"), work_only());
   EXPECT_EQ(ev.strategy(), EvaluationStrategy::kSlidingWindow);
   EXPECT_EQ(ev.value_at(BigInt(999999)).str(), "250000000000");  // k = 500000
-  EXPECT_EQ(located_error_of([&] { ev.value_at(BigInt(1000000)); }),
-            "<recurrence>:1:8: T(n - 2) at n = 0 calls T(-2), which is not a size; the sizes n = 2 "
-            "reach it (T(n - 2) at n = 2 is T(0)), and no base case covers them [hint: add a base "
-            "case for n < 3, e.g. T(n) = 1 if n < 3 (once base cases are written, no other small "
-            "size is assumed: see 'Base cases' in docs/language.md)]");
+  EXPECT_EQ(
+      located_error_of([&] { ev.value_at(BigInt(1000000)); }),
+      "<recurrence>:1:8: T(n - 2) at n = 0 calls T(-2), which is not a size; it is reached "
+      "from n = 2 (T(n - 2) at n = 2 is T(0)), and no base case covers that size [hint: add a base "
+      "case for n < 3, e.g. T(n) = 1 if n < 3 (once base cases are written, no other small "
+      "size is assumed: see 'Base cases' in docs/language.md)]");
   // Below the ring's two kept sizes: the sweep starts over from 0 and meets
   // the same values.
   EXPECT_EQ(ev.value_at(BigInt(11)).str(), "36");  // k = 6
   // T(8) needs T(0), which is undefined: the error is T(0)'s, located at
   // its call and kept by every even size.
-  EXPECT_EQ(located_error_of([&] { ev.value_at(BigInt(8)); }),
-            "<recurrence>:1:8: T(n - 2) at n = 0 calls T(-2), which is not a size; the sizes n = 2 "
-            "reach it (T(n - 2) at n = 2 is T(0)), and no base case covers them [hint: add a base "
-            "case for n < 3, e.g. T(n) = 1 if n < 3 (once base cases are written, no other small "
-            "size is assumed: see 'Base cases' in docs/language.md)]");
+  EXPECT_EQ(
+      located_error_of([&] { ev.value_at(BigInt(8)); }),
+      "<recurrence>:1:8: T(n - 2) at n = 0 calls T(-2), which is not a size; it is reached "
+      "from n = 2 (T(n - 2) at n = 2 is T(0)), and no base case covers that size [hint: add a base "
+      "case for n < 3, e.g. T(n) = 1 if n < 3 (once base cases are written, no other small "
+      "size is assumed: see 'Base cases' in docs/language.md)]");
 }
 
 TEST(EvaluatorStrategy, SlidingWindowOfThreeMatchesGmpLucasNumbers) {

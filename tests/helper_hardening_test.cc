@@ -186,11 +186,12 @@ TEST(HelperHardening, ASumVariableNamedLikeTheFunctionInABoundIsAnError) {
 TEST(HelperHardening, SizesThatFallBelowTheBaseCasesAreNamed) {
   auto r = recurrence_from_text("T(n) = 3T(n/4) + n; T(1) = 1");
   Evaluator evaluator(r, no_clock());
-  EXPECT_EQ(located(error_of([&] { evaluator.value_at(BigInt(2)); })),
-            "<recurrence>:1:9: T(n/4) at n = 0 calls T(0), which does not shrink; the sizes n = "
-            "2..3 reach it (T(n/4) at n = 2 is T(0)), and no base case covers them [hint: add a "
-            "base case for n < 4, e.g. T(n) = 1 if n < 4 (once base cases are written, no other "
-            "small size is assumed: see 'Base cases' in docs/language.md)]");
+  EXPECT_EQ(
+      located(error_of([&] { evaluator.value_at(BigInt(2)); })),
+      "<recurrence>:1:9: T(n/4) at n = 0 calls T(0), which does not shrink; it is reached "
+      "from n = 2..3 (T(n/4) at n = 2 is T(0)), and no base case covers those sizes [hint: add a "
+      "base case for n < 4, e.g. T(n) = 1 if n < 4 (once base cases are written, no other "
+      "small size is assumed: see 'Base cases' in docs/language.md)]");
   // The suggested base case is enough.
   Evaluator fixed(recurrence_from_text("T(n) = 3T(n/4) + n; T(1) = 1; T(n) = 1 if n < 4"),
                   no_clock());

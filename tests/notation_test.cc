@@ -53,8 +53,10 @@ TEST(Notation, DoubleStarIsAPower) {
     EXPECT_EQ(print(*parse_expression(SourceText::whole("<e>", print(*a)))), print(*a));
   }
   // n * *2 is still an error, not a power.
-  EXPECT_EQ(located_error_of([] { parse_expression(SourceText::whole("<e>", "n * *2")); }),
-            "<e>:1:5: expected a number, 'n', a function or '(' after '*', found '*'");
+  EXPECT_EQ(
+      located_error_of([] { parse_expression(SourceText::whole("<e>", "n * *2")); }),
+      "<e>:1:5: expected a number, 'n', a function or '(' after '*', found '*' [hint: a value "
+      "goes here: a number, a name, a call or a parenthesised expression]");
 }
 
 TEST(Notation, LogWithoutABaseIsLgWhereOnlyTheClassMatters) {

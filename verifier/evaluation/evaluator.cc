@@ -842,9 +842,10 @@ void Evaluator::small_size_gap(const BigInt& n, const Expr& call, const BigInt& 
   std::string f = r.main.name;
   std::string what = m >= n ? "which does not shrink" : "which is not a size";
   fail_at(r.source, call.pos,
-          head + what + "; the sizes n = " + sizes + " reach it (" + print(*example_call) +
+          head + what + "; it is reached from n = " + sizes + " (" + print(*example_call) +
               " at n = " + std::to_string(example_size) + " is " + f + "(" +
-              std::to_string(example_target) + ")), and no base case covers them",
+              std::to_string(example_target) + ")), and no base case covers " +
+              (direct.size() == 1 ? "that size" : "those sizes"),
           "add a base case for n < " + std::to_string(below) + ", e.g. " + f + "(n) = " + value +
               " if n < " + std::to_string(below) +
               " (once base cases are written, no other small size is assumed: see 'Base "

@@ -358,10 +358,11 @@ ExprPtr Parser::parse_atom() {
       next();
       return parse_name(t);
     default:
-      fail_expected("a number, 'n', a function or '('",
-                    t.kind == TokenKind::kEnd || t.kind == TokenKind::kNewline
-                        ? "the expression stops too early"
-                        : "");
+      fail_expected(
+          "a number, 'n', a function or '('",
+          t.kind == TokenKind::kEnd || t.kind == TokenKind::kNewline
+              ? "the expression stops too early"
+              : "a value goes here: a number, a name, a call or a parenthesised expression");
   }
 }
 
