@@ -503,15 +503,15 @@ class ReportReader {
     Certificate c;
     c.method = string_at(j, path, "method");
     c.proof = string_at(j, path, "proof");
-    c.driver_class = optional_string(j, path, "driver_class");
-    c.driver_class_low = optional_string(j, path, "driver_class_low");
-    c.driver_low = optional_string(j, path, "driver_low");
-    c.driver_high = optional_string(j, path, "driver_high");
-    c.driver_from = optional_string(j, path, "driver_from");
-    c.regularity_c = optional_string(j, path, "regularity_c");
-    c.regularity_from = optional_string(j, path, "regularity_from");
     c.root_polynomial = optional_strings(j, path, "root_polynomial");
-    for (auto [field, key] : {std::pair{&c.root_low, "root_low"},
+    for (auto [field, key] : {std::pair{&c.driver_class, "driver_class"},
+                              {&c.driver_class_low, "driver_class_low"},
+                              {&c.driver_low, "driver_low"},
+                              {&c.driver_high, "driver_high"},
+                              {&c.driver_from, "driver_from"},
+                              {&c.regularity_c, "regularity_c"},
+                              {&c.regularity_from, "regularity_from"},
+                              {&c.root_low, "root_low"},
                               {&c.root_high, "root_high"},
                               {&c.bound_class, "bound_class"},
                               {&c.bound_low, "bound_low"},

@@ -84,6 +84,23 @@ TEST(WitnessSearchStage, AsymptoticLadderRungsAreCertifiedAndIncreasing) {
   EXPECT_LE(s.counters.largest_bits, 64u);
 }
 
+TEST(WitnessSearchStage, SizeFamiliesStopAtTheirShareOfTheWork) {
+  // A work budget of 1 is spent by the first size: the families stop at the
+  // next one, and the note names their share (WorkShares::kSizeFamilies).
+  Claim claim = claim_from(kMergeSort, "O(n)");
+  CheckOptions options = small_options();
+  options.work_budget = 1;
+  ClaimResult counters;
+  ClaimEvaluation eval(claim, options, counters);
+  SizePlan plan = claim_size_plan(claim, 64, options.exhaustive_limit, options.seed);
+  SearchOutcome search = search_witnesses(eval, generate_sizes(plan));
+  EXPECT_EQ(counters.sizes_checked, 1u);
+  EXPECT_TRUE(search.partial_scale);
+  ASSERT_FALSE(eval.notes().empty());
+  EXPECT_EQ(eval.notes().front(),
+            "the search stopped before n = 2: 60% of the work budget went to the size families");
+}
+
 TEST(ProofStage, TheoremContradictionIsCrossCheckedWithTheNumbers) {
   // Master theorem, case 2: Θ(n lg n) excludes O(n) (common practice).
   Stages s(kMergeSort, "O(n)");

@@ -56,7 +56,7 @@ struct Target {
 
 class WitnessSearch {
  public:
-  WitnessSearch(ClaimEvaluation& eval) : eval_(eval) {}
+  explicit WitnessSearch(ClaimEvaluation& eval) : eval_(eval) {}
 
   SearchOutcome run(const std::vector<Size>& sizes) {
     const Bound& bound = eval_.claim().bound;
@@ -138,9 +138,9 @@ void WitnessSearch::sample_sizes(const std::vector<Size>& sizes) {
   for (const Size& size : sizes) {
     if (eval_.work_used() > WorkShares::kSizeFamilies) {
       eval_.note_stop(
-          fmt::format("the search stopped before n = {}: 60% of the work budget went to the "
-                      "size families",
-                      short_number(size.n)));
+          fmt::format("the search stopped before n = {}: {:.0f}% of the work budget went to "
+                      "the size families",
+                      short_number(size.n), WorkShares::kSizeFamilies * 100));
       outcome_.partial_scale = size.n == 0 ? 0 : bit_length(size.n) - 1;
       break;
     }

@@ -40,14 +40,16 @@ CertificateData certificate_of(const Json& basis) {
   const Json& cert = basis.at("certificate");
   c.method = text_at(cert, "method");
   c.proof = text_at(cert, "proof");
-  c.driver_class = text_at(cert, "driver_class");
-  c.driver_class_low = text_at(cert, "driver_class_low");
-  c.driver_low = text_at(cert, "driver_low");
-  c.driver_high = text_at(cert, "driver_high");
-  c.driver_from = text_at(cert, "driver_from");
-  c.regularity_c = text_at(cert, "regularity_c");
-  c.regularity_from = text_at(cert, "regularity_from");
-  for (auto [field, key] : {std::pair{&c.root_low, "root_low"},
+  // The same keys as reports/baseline.cc reads: the re-checker may not
+  // include reports/, so it keeps its own list.
+  for (auto [field, key] : {std::pair{&c.driver_class, "driver_class"},
+                            {&c.driver_class_low, "driver_class_low"},
+                            {&c.driver_low, "driver_low"},
+                            {&c.driver_high, "driver_high"},
+                            {&c.driver_from, "driver_from"},
+                            {&c.regularity_c, "regularity_c"},
+                            {&c.regularity_from, "regularity_from"},
+                            {&c.root_low, "root_low"},
                             {&c.root_high, "root_high"},
                             {&c.bound_class, "bound_class"},
                             {&c.bound_low, "bound_low"},
