@@ -183,6 +183,13 @@ TEST_F(CostsFile, MalformedLinesAreLocatedInputErrors) {
       {"1e3 5\n",
        ":1:2: the size must be a non-negative whole number, found '1e3' [hint: write the size as a "
        "whole number in decimal digits (no 1e6, no 2.5)]"},
+      // A spreadsheet export's header row, and the same words after a measurement.
+      {"size,cost\n1 0\n",
+       ":1:1: the size must be a non-negative whole number, found 'size' [hint: a header line? "
+       "start it with '#' to make it a comment: \"# size cost\"]"},
+      {"2 3\nsize cost\n",
+       ":2:1: the size must be a non-negative whole number, found 'size' [hint: each line holds a "
+       "size and its counted cost: \"1024 9217\"]"},
       {"0 0\n",
        ":1:1: the model has no value at n = 0: T(ceil(n/2)) at n = 0 calls T(0), which does not "
        "shrink [hint: measure only sizes the recurrence defines (see its base cases)]"},

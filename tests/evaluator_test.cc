@@ -355,6 +355,26 @@ TEST(Evaluator, SizesAreExactConstantExpressions) {
             "<size>:1:1: the size -3 is negative [hint: sizes are >= 0]");
 }
 
+// The starting 128 bits cannot settle the floor of a 41-digit irrational; the
+// precision is raised until they do. Reference: GMP's integer square root,
+// floor(sqrt(2 * 10^80)) = floor(sqrt(2) * 10^40).
+TEST(Evaluator, IrrationalSizesAreSettledAtHigherPrecision) {
+  for (const char* digits : {"40", "300", "3000"}) {
+    BigInt scale = evaluate_size(std::string("10^") + digits);
+    BigInt square = 2 * scale * scale;
+    BigInt expected;
+    mpz_sqrt(expected.backend().data(), square.backend().data());
+    EXPECT_EQ(evaluate_size(std::string("floor(sqrt(2) * 10^") + digits + ")"), expected) << digits;
+  }
+  // sqrt(2)^2 is 2, but an interval never shows it: an error, not a guess.
+  std::string error = located_error_of([] { evaluate_size("floor(sqrt(2)^2)"); });
+  EXPECT_EQ(error.rfind("<size>:1:1: the size could not be settled as a whole number at 65536 "
+                        "bits of precision",
+                        0),
+            0u)
+      << error;
+}
+
 }  // namespace
 }  // namespace thetagate::engine
 

@@ -292,8 +292,8 @@ TEST(Hardening, MessagesSayWhatIsWrong) {
   EXPECT_EQ(located_error_of([] {
               parse_bound(SourceText::whole("<bound>", "T(n) <= n for n >= 10^100000"), "T");
             }),
-            "<bound>:1:20: the starting size is too large: more than 65536 bits [hint: sizes go up "
-            "to 2^65536; for n >= 2^4000, for n >= 10^6]");
+            "<bound>:1:20: the starting size is too large: more than 65536 bits [hint: sizes have "
+            "at most 65536 bits: write, for example, for n >= 2^4000]");
   // A folder as a file.
   TempDir dir;
   EXPECT_EQ(message_of([&] { read_input_file(dir.path().string(), 100, "baseline report", ""); }),

@@ -163,7 +163,7 @@ TEST(HelperHardening, ASumVariableNamedLikeTheFunctionIsAnError) {
   EXPECT_EQ(
       located(recurrence_error("T(n) = n + sum(T, 1, n-1, T(T)); T(1) = 1")),
       "<recurrence>:1:16: the sum's variable 'T' has the name of the function T, which it would "
-      "hide inside the sum [hint: name the variable k, i or j: sum(k, 1, n - 1, T(k))]");
+      "hide inside the sum [hint: give the variable another name: sum(k, 1, n-1, T(k))]");
 }
 
 TEST(HelperHardening, ASumVariableNamedLikeAHelperIsAnError) {
@@ -171,14 +171,14 @@ TEST(HelperHardening, ASumVariableNamedLikeAHelperIsAnError) {
       located(recurrence_error(
           "T(n) = T(n/2) + g(n); T(1) = 1; f(n) = n^2; g(n) = sum(f, 1, n, f(f))")),
       "<recurrence>:1:56: the sum's variable 'f' has the name of the helper function f, which it "
-      "would hide inside the sum [hint: name the variable k, i or j: sum(k, 1, n - 1, T(k))]");
+      "would hide inside the sum [hint: give the variable another name: sum(k, 1, n, f(k))]");
 }
 
 TEST(HelperHardening, ASumVariableNamedLikeTheFunctionInABoundIsAnError) {
   EXPECT_EQ(located(error_of(
                 [] { parse_bound(SourceText::whole("<bound>", "Theta(sum(T, 1, n, T))")); })),
             "<bound>:1:11: the sum's variable 'T' has the name of the function T, which it would "
-            "hide inside the sum [hint: name the variable k, i or j: sum(k, 1, n, T(k))]");
+            "hide inside the sum [hint: give the variable another name: sum(k, 1, n, k)]");
 }
 
 // Item 20: with T(1) = 1 written, T(2) and T(3) call T(0), which has no base

@@ -93,8 +93,9 @@ TEST(InputEdges, ASmallestSizeAboveEveryCheckedSizeIsAnError) {
     ASSERT_EQ(r.verdict, Verdict::kError) << c.min_n;
     EXPECT_EQ(located(r.error),
               std::string("edges.toml:6:9: 'min_n': the smallest size, ") + c.bits +
-                  " bits long, is not below 2^64, the largest size checked (max_bits): no size "
-                  "is left to check [hint: lower it, or raise max_bits ([claim.sizes] or "
+                  " bits long, is not below 2^64: sizes checked have at most 64 bits "
+                  "(max_bits), so no size is left to check [hint: lower it, or raise max_bits "
+                  "([claim.sizes] or "
                   "--max-bits, at most 65536)]");
     EXPECT_EQ(r.sizes_checked, 0u);
   }
@@ -111,8 +112,9 @@ bound = "T(n) <= 2 lg n for n >= 2^64"
 )toml");
   ASSERT_EQ(explicit_bound.verdict, Verdict::kError);
   EXPECT_EQ(located(explicit_bound.error),
-            "edges.toml:4:31: 'for n >= ...': the smallest size, 65 bits long, is not below 2^64, "
-            "the largest size checked (max_bits): no size is left to check [hint: lower it, or "
+            "edges.toml:4:31: 'for n >= ...': the smallest size, 65 bits long, is not below 2^64: "
+            "sizes checked have at most 64 bits (max_bits), so no size is left to check [hint: "
+            "lower it, or "
             "raise max_bits ([claim.sizes] or --max-bits, at most 65536)]");
 }
 

@@ -100,6 +100,21 @@ TEST(Shape, SubtractiveAndRootTerms) {
   EXPECT_TRUE(cube.shape.roots[0].rounded);
 }
 
+TEST(Shape, CaseLinesMayListTheirRootTermsInAnyOrder) {
+  Read r = read(
+      "T(n) = T(sqrt(n)) + 2T(n^(1/3)) + 1 if n even\n"
+      "T(n) = 2T(n^(1/3)) + T(sqrt(n)) + n otherwise\n"
+      "T(1) = 1; T(2) = 1; T(3) = 1; T(4) = 1; T(5) = 1; T(6) = 1; T(7) = 1");
+  ASSERT_TRUE(r.shape.ok) << r.shape.reason;
+  EXPECT_EQ(r.shape.roots.size(), 2u);
+  // Different coefficients are still a different recursion.
+  Read other = read(
+      "T(n) = T(sqrt(n)) + 2T(n^(1/3)) + 1 if n even\n"
+      "T(n) = T(n^(1/3)) + 2T(sqrt(n)) + n otherwise\n"
+      "T(1) = 1; T(2) = 1; T(3) = 1; T(4) = 1; T(5) = 1; T(6) = 1; T(7) = 1");
+  EXPECT_FALSE(other.shape.ok);
+}
+
 TEST(Shape, SumOverEarlierValuesKeepsItsFactor) {
   // Quicksort's average (Knuth, TAOCP vol. 3, §5.2.2):
   // T(n) = n - 1 + (2/n) sum_{k<n} T(k).

@@ -47,8 +47,8 @@ struct Location {
 struct Diagnostic {
   Location where;
   std::string message;
-  std::string hint;         // may be empty
-  std::string source_line;  // the offending line, may be empty
+  std::string hint = {};         // may be empty
+  std::string source_line = {};  // the offending line, may be empty
 };
 
 // "file:line:col: error: message", the line, a caret under the column, and

@@ -53,9 +53,9 @@ std::vector<Size> ClaimCheck::plan_sizes() {
     // Sizes are below 2^max_bits: nothing would be checked. An error at the
     // smallest size, not a verdict on no evidence.
     std::string what = fmt::format(
-        "the smallest size, {} bits long, is not below 2^{}, the largest size checked (max_bits): "
-        "no size is left to check",
-        bit_length(plan.min_n), plan.max_bits);
+        "the smallest size, {} bits long, is not below 2^{}: sizes checked have at most {} bits "
+        "(max_bits), so no size is left to check",
+        bit_length(plan.min_n), plan.max_bits, plan.max_bits);
     std::string hint = fmt::format(
         "lower it, or raise max_bits ([claim.sizes] or --max-bits, at "
         "most 65536)");

@@ -60,8 +60,8 @@ struct Coef {
 struct SeriesTerm {
   SeriesKey key;
   Coef coef;
-  std::string tag;                // "" for an ordinary term
-  std::optional<Interval> bound;  // set with tag
+  std::string tag = {};                // "" for an ordinary term
+  std::optional<Interval> bound = {};  // set with tag
 
   // The term's coefficient as an enclosure of term(n) / key(n).
   Interval effective(long precision) const;

@@ -339,6 +339,13 @@ bool same_recursion(LineParts x, LineParts y) {
     if (x.subtractive[i].a != y.subtractive[i].a || x.subtractive[i].c != y.subtractive[i].c)
       return false;
   }
+  // Lines may list their root terms in any order: T(sqrt(n)) + 2 T(n^(1/3))
+  // recurses as 2 T(n^(1/3)) + T(sqrt(n)).
+  auto by_k = [](const RootTerm& s, const RootTerm& t) {
+    return s.k < t.k || (s.k == t.k && s.a < t.a);
+  };
+  std::sort(x.roots.begin(), x.roots.end(), by_k);
+  std::sort(y.roots.begin(), y.roots.end(), by_k);
   for (size_t i = 0; i < x.roots.size(); ++i) {
     if (x.roots[i].a != y.roots[i].a || x.roots[i].k != y.roots[i].k) return false;
   }

@@ -21,7 +21,7 @@ std::optional<Value> exact_log_power(const Rational& b, const Expr& exponent) {
   std::optional<RealNumber> x = constant_value(exponent);
   if (!x || x->kind() != RealNumber::Kind::kLog) return std::nullopt;
   const RealNumber::Node& node = x->node();
-  if (denominator(node.g) != 1 || denominator(b) != 1 && numerator(b) != 1) return std::nullopt;
+  if (denominator(node.g) != 1 || (denominator(b) != 1 && numerator(b) != 1)) return std::nullopt;
   // b = g^e or 1/g^e.
   BigInt whole = denominator(b) == 1 ? numerator(b) : denominator(b);
   BigInt g = numerator(node.g);

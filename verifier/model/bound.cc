@@ -115,7 +115,8 @@ void check_sum_shadowing(const Bound& b, const SourceText& source, const std::st
       fail_at(source, at == std::string::npos ? sum->pos : at,
               "the sum's variable '" + sum->name + "' has the name of the function " + function +
                   ", which it would hide inside the sum",
-              "name the variable k, i or j: sum(k, 1, n, " + function + "(k))");
+              "give the variable another name: " +
+                  sum_text_with_fresh_variable(source.text, sum->pos, sum->name));
     }
   }
 }
@@ -239,7 +240,7 @@ Bound parse_bound(const SourceText& source, const std::string& function) {
       value = evaluate_expr(*n0, Value(int64_t{0}), scope);
     } catch (const BudgetExceeded&) {
       p.fail(start, "the starting size is too large: more than 65536 bits",
-             "sizes go up to 2^65536; for n >= 2^4000, for n >= 10^6");
+             "sizes have at most 65536 bits: write, for example, for n >= 2^4000");
     } catch (const PrecisionShortfall&) {
     }
     if (!value || !value->is_integer() || value->sign() < 0) {

@@ -97,7 +97,8 @@ void check_sum_variables(const Recurrence& r, const SourceText& source) {
             "the sum's variable '" + sum->name + "' has the name of " +
                 (helper ? "the helper function " : "the function ") + sum->name +
                 ", which it would hide inside the sum",
-            "name the variable k, i or j: sum(k, 1, n - 1, " + r.main.name + "(k))");
+            "give the variable another name: " +
+                sum_text_with_fresh_variable(source.text, sum->pos, sum->name));
   };
   for (const CaseLine* line : r.main.lines_in_order()) {
     check(line->body);

@@ -1,8 +1,11 @@
 #include "verifier/syntax/expr.h"
 
 #include <algorithm>
+#include <cctype>
 #include <cstdint>
 #include <map>
+#include <set>
+#include <string_view>
 
 namespace thetagate::engine {
 
@@ -331,6 +334,59 @@ const Expr* find_sum_shadowing(const Expr& e,
     if (const Expr* found = find_sum_shadowing(*a, is_function)) return found;
   }
   return nullptr;
+}
+
+std::string sum_text_with_fresh_variable(std::string_view text, size_t pos,
+                                         const std::string& name) {
+  // The sum's text: from "sum" to its closing parenthesis.
+  size_t end = text.size();
+  int depth = 0;
+  for (size_t i = text.find('(', pos); i < text.size(); ++i) {
+    if (text[i] == '(') ++depth;
+    if (text[i] == ')' && --depth == 0) {
+      end = i + 1;
+      break;
+    }
+  }
+  std::string_view span = text.substr(pos, end - pos);
+  auto word_char = [](char c) { return std::isalnum(static_cast<unsigned char>(c)) || c == '_'; };
+  struct Word {
+    size_t begin, end;
+  };
+  std::vector<Word> words;
+  std::set<std::string_view> taken;
+  for (size_t i = 0; i < span.size();) {
+    if (!word_char(span[i])) {
+      ++i;
+      continue;
+    }
+    size_t j = i;
+    while (j < span.size() && word_char(span[j])) ++j;
+    words.push_back({i, j});
+    taken.insert(span.substr(i, j - i));
+    i = j;
+  }
+  std::string fresh;
+  for (const char* candidate : {"k", "i", "j", "m", "p", "q", "r"}) {
+    if (taken.count(candidate) == 0) {
+      fresh = candidate;
+      break;
+    }
+  }
+  if (fresh.empty()) return std::string(span);
+  // Every use of the name but a call ("T(" stays T) becomes the fresh name.
+  std::string out;
+  size_t copied = 0;
+  for (const Word& w : words) {
+    if (span.substr(w.begin, w.end - w.begin) != name) continue;
+    size_t next = span.find_first_not_of(" \t", w.end);
+    if (next != std::string_view::npos && span[next] == '(') continue;
+    out += span.substr(copied, w.begin - copied);
+    out += fresh;
+    copied = w.end;
+  }
+  out += span.substr(copied);
+  return out;
 }
 
 bool has_free_bound(const Expr& e) {

@@ -7,6 +7,7 @@
 #include <functional>
 #include <memory>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "thetagate/errors.h"
@@ -126,6 +127,12 @@ bool has_free_bound(const Expr& e);
 // variable would shadow the function inside the sum's body.
 const Expr* find_sum_shadowing(const Expr& e,
                                const std::function<bool(const std::string&)>& is_function);
+// The text of the sum that starts at byte `pos` of `text`, with every use of
+// its variable `name` that is not a call renamed to the first of k, i, j, m,
+// ... the sum does not use: a fix a message can show in the user's own
+// terms ("sum(k, 1, n, T(k))" for "sum(T, 1, n, T(T))").
+std::string sum_text_with_fresh_variable(std::string_view text, size_t pos,
+                                         const std::string& name);
 // True if the body of the sum node `sum` depends on its own variable only
 // (not on n, not on an outer sum's variable): its partial sums can be kept.
 bool sum_body_closed(const Expr& sum);
