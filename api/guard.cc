@@ -86,6 +86,28 @@ double approximately(const std::string& text) {
   return value;
 }
 
+// The claim's own part of a text report: without the run's header (the tool,
+// and how to rerun it from the command line) and its summary line, which a
+// test's failure message has no use for.
+std::string claim_part(const std::string& report) {
+  std::string out = report;
+  if (out.rfind("thetagate ", 0) == 0) {
+    size_t blank = out.find("\n\n");
+    out.erase(0, blank == std::string::npos ? out.size() : blank + 2);
+  }
+  size_t summary = out.rfind("\n\n");
+  if (summary != std::string::npos) {
+    size_t start = summary + 2;
+    size_t digits = out.find_first_not_of("0123456789", start);
+    bool counted = digits != std::string::npos && digits > start;
+    if (counted &&
+        (out.compare(digits, 7, " claim:") == 0 || out.compare(digits, 8, " claims:") == 0)) {
+      out.erase(summary + 1);
+    }
+  }
+  return out;
+}
+
 std::string budget_text(uint64_t n) {
   return fmt::format(
       "the time budget ran out at n = {}: that size and those above ran only their seeds, "
@@ -282,7 +304,7 @@ BoundOutcome Model::check_bound(uint64_t seed) const {
   run.claims.push_back(engine::check_claim(claim, options));
   BoundOutcome out;
   out.verdict = static_cast<Verdict>(run.claims.front().verdict);  // mirrors, see check.cc
-  out.report = engine::render_text(run, TextStyle{});
+  out.report = claim_part(engine::render_text(run, TextStyle{}));
   return out;
 }
 

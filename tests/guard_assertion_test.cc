@@ -85,6 +85,28 @@ TEST(GuardAssertion, AFailureMessageIsTheReportLocatedAtTheAssertion) {
   expect_only_the_report(message);
 }
 
+TEST(GuardAssertion, ARefutedBoundIsReportedWithoutCommandLineLines) {
+  Runner<std::vector<int>> linear = insertion_runner(false);
+  linear.run = [](uint64_t n, const std::vector<int>&, CostCounter& cost) { cost.add(n - 1); };
+  GuardOptions o = quick();
+  o.check_bound = true;
+  auto failures = failures_of([&] {
+    EXPECT_GUARDED(Model::from_text("quadratic, claimed linear", kInsertion, "O(n)"), linear, o);
+  });
+  ASSERT_EQ(failures.size(), 1u);
+  std::string message = failures[0].message();
+  EXPECT_EQ(message.rfind("model -> bound: the claim 'quadratic, claimed linear' is refuted\n"
+                          "refuted    quadratic, claimed linear  claimed O(n)",
+                          0),
+            0u)
+      << message;
+  // No run header (the tool, --seed) and no run summary: not a command line.
+  EXPECT_EQ(message.find("--seed"), std::string::npos) << message;
+  EXPECT_EQ(message.find("1 claim:"), std::string::npos) << message;
+  EXPECT_NE(message.find("code -> model: runner 'insertion sort'"), std::string::npos) << message;
+  expect_only_the_report(message);
+}
+
 TEST(GuardAssertion, AssertGuardedIsFatal) {
   Model model = Model::from_text("insertion", kInsertion, "Theta(n^2)");
   bool went_on = false;
