@@ -8,10 +8,12 @@
 #include <gtest/gtest.h>
 
 #include <algorithm>
+#include <chrono>
 #include <cstdlib>
 #include <functional>
 #include <sstream>
 #include <string>
+#include <thread>
 #include <vector>
 
 #include "thetagate/testing/gtest.h"
@@ -206,6 +208,49 @@ TEST(GuardCoverage, APassingGuardShowsItsSizesRunsAndTightnessPerScale) {
   EXPECT_NE(coverage.find("tightest cost/T(n) = 1.0000 at n = 32 (496 of 496)"), std::string::npos)
       << coverage;
   EXPECT_NE(coverage.find("n in [2^0, 2^1): 1 sizes"), std::string::npos) << coverage;
+}
+
+TEST(GuardCoverage, TheEnvironmentAsksEveryAssertionForItsCoverage) {
+  Model model = Model::from_text("insertion", kInsertion, "Theta(n^2)");
+  ::setenv("THETAGATE_GUARD_COVERAGE", "1", 1);
+  ::testing::internal::CaptureStdout();
+  EXPECT_GUARDED(model, insertion_runner(false), quick());
+  std::string shown = ::testing::internal::GetCapturedStdout();
+  ::unsetenv("THETAGATE_GUARD_COVERAGE");
+  EXPECT_EQ(shown.rfind("guard coverage of 'insertion' (upper bound, seed 5, effort 1): ", 0), 0u)
+      << shown;
+  ::testing::internal::CaptureStdout();
+  EXPECT_GUARDED(model, insertion_runner(false), quick());
+  EXPECT_EQ(::testing::internal::GetCapturedStdout(), "");
+}
+
+TEST(GuardProgress, ALongGuardShowsItsSizeOnOneLineAndErasesIt) {
+  // Runs of 0.15 s at 12 sizes: past the first second the line appears.
+  // (progress = false: never, even past a second.)
+  Model model = Model::from_text("slow", "T(n) = n", "Theta(n)");
+  Runner<std::vector<int>> slow = insertion_runner(false);
+  slow.run = [](uint64_t, const std::vector<int>&, CostCounter&) {
+    std::this_thread::sleep_for(std::chrono::milliseconds(150));
+  };
+  GuardOptions o = quick();
+  o.max_n = 12;
+  o.inputs_per_size = 1;
+  o.search_steps = 0;
+  o.min_search_steps = 0;
+  o.shapes = false;
+  o.progress = true;
+  ::testing::internal::CaptureStderr();
+  GuardResult r = check_code(model, slow, o);
+  std::string shown = ::testing::internal::GetCapturedStderr();
+  ASSERT_TRUE(r.passed()) << r.report();
+  EXPECT_EQ(shown.rfind("\r\033[Kthetagate guard: 'slow': n = ", 0), 0u) << shown;
+  EXPECT_NE(shown.find(" of 12, "), std::string::npos) << shown;
+  EXPECT_EQ(shown.substr(shown.size() - 4), "\r\033[K");  // erased at the end
+  o.progress = false;
+  o.max_n = 8;
+  ::testing::internal::CaptureStderr();
+  check_code(model, slow, o);
+  EXPECT_EQ(::testing::internal::GetCapturedStderr(), "");
 }
 
 TEST(GuardBudget, PastTheTimeBudgetShapesStillRunAndTheReportSaysWhere) {
