@@ -103,10 +103,9 @@ struct GuardOptions {
   // search goes where the model is tightest).
   uint64_t inputs_per_size = 50;  // random inputs at a size, at most
   uint64_t search_steps = 50;     // mutations of the costliest inputs, at most
-  uint64_t size_work =
-      1u << 16;  // input elements per size for random inputs (and as many for the search)
+  uint64_t size_work = 1u << 15;  // input elements per size (random inputs; as many searched)
   uint64_t min_inputs = 2;        // random inputs at every size, at least
-  uint64_t min_search_steps = 4;  // search steps at every size, at least
+  uint64_t min_search_steps = 2;  // search steps at every size, at least
   // Random inputs drawn from the runner's generator (with RapidCheck's shrink
   // information) at a size, at most `generated_work` elements' worth, at
   // least one; the other random inputs of a vector of numbers are fresh
