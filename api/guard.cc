@@ -110,8 +110,9 @@ std::string claim_part(const std::string& report) {
 
 std::string budget_text(uint64_t n) {
   return fmt::format(
-      "the time budget ran out at n = {}: that size and those above ran only their seeds, "
-      "shapes and built-up orders (raise GuardOptions::time_budget or THETAGATE_GUARD_EFFORT)\n",
+      "the time budget ran out at n = {}: that size and those above ran only one random "
+      "input, their seeds, shapes and built-up orders (raise GuardOptions::time_budget or "
+      "THETAGATE_GUARD_EFFORT)\n",
       n);
 }
 

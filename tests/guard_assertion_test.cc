@@ -263,7 +263,8 @@ TEST(GuardBudget, PastTheTimeBudgetShapesStillRunAndTheReportSaysWhere) {
   EXPECT_EQ(*r.budget_reached_at, 1u);
   EXPECT_NE(r.report().find("the time budget ran out at n = 1"), std::string::npos) << r.report();
   EXPECT_NE(r.coverage().find("the time budget ran out at n = 1"), std::string::npos);
-  // Seeds, shapes and built-up orders only: the reversed shape still meets T(n).
+  // One random input, seeds, shapes and built-up orders only: the reversed
+  // shape still meets T(n).
   for (const CostRow& row : r.rows) EXPECT_EQ(row.sign, 0) << row.n;
 }
 

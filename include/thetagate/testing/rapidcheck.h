@@ -1,7 +1,9 @@
 // The runner side of guarding code: run the code under test at the claim's
-// adversarial sizes, on inputs from the maintainer's RapidCheck generator and
-// on inputs an input search makes costlier, count its cost, compare every
-// count with T(n) exactly, and shrink an input that breaks the model.
+// adversarial sizes, on inputs from the maintainer's RapidCheck generator, on
+// the maintainer's seeds, on the usual shapes and orders built up from
+// smaller sizes (vectors of numbers), and on inputs an input search makes
+// costlier; count its cost, compare every count with T(n) exactly, and shrink
+// an input that breaks the model.
 //
 //   thetagate::guard::Runner<std::vector<int>> runner;
 //   runner.name = "stable_sort";
@@ -127,9 +129,9 @@ struct GuardOptions {
   // std::abort(), so a hung test fails at once, and says where.
   double run_time_limit = 60;
   // Wall-clock budget of the whole guard, in seconds (0: none; at most 10^6),
-  // times the effort. Past it, the remaining sizes run only their seeds,
-  // shapes and built-up orders (no random inputs, no search), and the result
-  // says where the budget ran out (GuardResult::budget_reached_at).
+  // times the effort. Past it, the remaining sizes run only one random input,
+  // their seeds, its shapes and the built-up orders (no search), and the
+  // result says where the budget ran out (GuardResult::budget_reached_at).
   double time_budget = 30;
   // Multiplies inputs_per_size, search_steps, size_work, generated_work and
   // time_budget (a nightly run: THETAGATE_GUARD_EFFORT=10). Default:
