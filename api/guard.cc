@@ -5,6 +5,7 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <cstdlib>
 #include <limits>
 
 #include "generators/size_family.h"
@@ -68,6 +69,51 @@ Relation public_relation(ModelRelation r) {
       return Relation::kLowerBound;
   }
   return Relation::kUpperBound;
+}
+
+// A value's text ("12", "-7/2", "1.414...", an enclosure "[a, b]") as a
+// double, for ratios shown to people; 0 where it reads as none of these.
+double approximately(const std::string& text) {
+  size_t at = text.find_first_of("-0123456789");
+  if (at == std::string::npos) return 0;
+  const char* start = text.c_str() + at;
+  char* end = nullptr;
+  double value = std::strtod(start, &end);
+  if (end != start && *end == '/') {
+    double below = std::strtod(end + 1, nullptr);
+    if (below != 0) value /= below;
+  }
+  return value;
+}
+
+// The claim's own part of a text report: without the run's header (the tool,
+// and how to rerun it from the command line) and its summary line, which a
+// test's failure message has no use for.
+std::string claim_part(const std::string& report) {
+  std::string out = report;
+  if (out.rfind("thetagate ", 0) == 0) {
+    size_t blank = out.find("\n\n");
+    out.erase(0, blank == std::string::npos ? out.size() : blank + 2);
+  }
+  size_t summary = out.rfind("\n\n");
+  if (summary != std::string::npos) {
+    size_t start = summary + 2;
+    size_t digits = out.find_first_not_of("0123456789", start);
+    bool counted = digits != std::string::npos && digits > start;
+    if (counted &&
+        (out.compare(digits, 7, " claim:") == 0 || out.compare(digits, 8, " claims:") == 0)) {
+      out.erase(summary + 1);
+    }
+  }
+  return out;
+}
+
+std::string budget_text(uint64_t n) {
+  return fmt::format(
+      "the time budget ran out at n = {}: that size and those above ran only one random "
+      "input, their seeds, shapes and built-up orders (raise GuardOptions::time_budget or "
+      "THETAGATE_GUARD_EFFORT)\n",
+      n);
 }
 
 }  // namespace
@@ -202,6 +248,7 @@ ModelValue Model::value_at(uint64_t n) {
       if (*most <= std::numeric_limits<uint64_t>::max())
         v.allowed_max = most->convert_to<uint64_t>();
     }
+    v.approx = approximately(v.text);
   } catch (const InputError& e) {
     rethrow_input(e,
                   fmt::format("the model of '{}' has no value at n = {}: ", impl_->claim.name, n));
@@ -230,6 +277,24 @@ bool Model::violates(int sign) const {
   return engine::relation_broken(internal_relation(impl_->relation), sign);
 }
 
+CostCheck Model::check_cost(uint64_t n, uint64_t cost) {
+  CostCheck check;
+  check.n = n;
+  check.cost = cost;
+  check.relation = impl_->relation;
+  check.model = value_at(n).text;
+  check.sign = compare(n, cost);
+  check.kept = !violates(check.sign);
+  return check;
+}
+
+std::string to_string(const CostCheck& check) {
+  const char* op = check.sign < 0 ? "<" : check.sign > 0 ? ">" : "=";
+  return fmt::format("n = {}: counted cost {} {} T(n) = {} (model: {}, {})", check.n, check.cost,
+                     op, check.model, relation_name(check.relation),
+                     check.kept ? "kept" : "broken");
+}
+
 BoundOutcome Model::check_bound(uint64_t seed) const {
   CheckOptions options;
   options.seed = seed;
@@ -240,7 +305,7 @@ BoundOutcome Model::check_bound(uint64_t seed) const {
   run.claims.push_back(engine::check_claim(claim, options));
   BoundOutcome out;
   out.verdict = static_cast<Verdict>(run.claims.front().verdict);  // mirrors, see check.cc
-  out.report = engine::render_text(run, TextStyle{});
+  out.report = claim_part(engine::render_text(run, TextStyle{}));
   return out;
 }
 
@@ -284,9 +349,41 @@ std::string GuardResult::report() const {
     }
   }
   out += link;
+  if (budget_reached_at) out += budget_text(*budget_reached_at);
   if (!bound.failed() && bound.verdict) {
     out += "model -> bound: " + std::string(verdict_name(*bound.verdict)) + "\n";
   }
+  return out;
+}
+
+std::string GuardResult::coverage() const {
+  uint64_t sized_runs = 0;
+  for (const CostRow& r : rows) sized_runs += r.runs;
+  std::string out = fmt::format("guard coverage of '{}' ({}, seed {}, effort {}): {} sizes", claim,
+                                relation_name(relation), seed, effort, rows.size());
+  if (!rows.empty()) out += fmt::format(" from {} to {}", rows.front().n, rows.back().n);
+  out += fmt::format(", {} runs, {:.2f} s\n", sized_runs, seconds);
+  const bool lower = relation == Relation::kLowerBound;
+  // Per scale: 2^k <= n < 2^(k+1).
+  size_t i = 0;
+  while (i < rows.size()) {
+    int k = 0;
+    while (k < 63 && (uint64_t{2} << k) <= rows[i].n) ++k;
+    const uint64_t top = k >= 63 ? std::numeric_limits<uint64_t>::max() : (uint64_t{2} << k) - 1;
+    uint64_t sizes = 0, runs_here = 0;
+    const CostRow* tightest = nullptr;
+    for (; i < rows.size() && rows[i].n <= top; ++i) {
+      ++sizes;
+      runs_here += rows[i].runs;
+      if (!tightest || (lower ? rows[i].ratio < tightest->ratio : rows[i].ratio > tightest->ratio))
+        tightest = &rows[i];
+    }
+    out +=
+        fmt::format("  n in [2^{}, 2^{}): {} sizes, {} runs, tightest cost/T(n) = {:.4f} at n = {}",
+                    k, k + 1, sizes, runs_here, tightest->ratio, tightest->n);
+    out += fmt::format(" ({} of {})\n", tightest->cost, tightest->model);
+  }
+  if (budget_reached_at) out += budget_text(*budget_reached_at);
   return out;
 }
 

@@ -1,7 +1,8 @@
 # ctest's orchard_guard_suite: installs thetagate into a fresh prefix, builds
 # examples/orchard against it (find_package(thetagate), nothing else of the
 # build or source tree), and runs its guard suite twice:
-#   1. as is: every claim is guarded and the suite must pass;
+#   1. as is: every claim is guarded and the suite must pass, and so must the
+#      README's guard snippet (built from the README);
 #   2. with -DORCHARD_REGRESSION=ON: the merge sort re-compares an element it
 #      already placed, and the suite must fail with a small witness input and
 #      a replay command.
@@ -28,6 +29,13 @@ foreach(variant ok regression)
       message(FATAL_ERROR "the orchard guard suite failed (${status}):\n${out}")
     endif()
     message(STATUS "the orchard guard suite passed")
+    # The README's guard snippet, compiled from the README, passes too.
+    execute_process(COMMAND ${build}/orchard_readme_guard RESULT_VARIABLE status
+                    OUTPUT_VARIABLE out ERROR_VARIABLE out)
+    if(NOT status EQUAL 0)
+      message(FATAL_ERROR "the README's guard snippet failed (${status}):\n${out}")
+    endif()
+    message(STATUS "the README's guard snippet passed")
   else()
     # It must fail, in the sorting test only, with the witness of the
     # regression: three elements, one more comparison than T(3) = 3.

@@ -18,6 +18,7 @@
 #include <cstdint>
 #include <memory>
 #include <optional>
+#include <ostream>
 #include <stdexcept>
 #include <string>
 #include <vector>
@@ -51,6 +52,7 @@ struct ModelValue {
   // in 64 bits. The guard stops a run whose count passes it. Lower-bound
   // models allow any larger count: nullopt.
   std::optional<uint64_t> allowed_max;
+  double approx = 0;  // T(n) as a double, for tightness ratios only
 };
 
 // The verdict of model -> bound, as `thetagate check` gives it.
@@ -61,6 +63,24 @@ struct BoundOutcome {
     return verdict && (*verdict == Verdict::kRefuted || *verdict == Verdict::kError);
   }
 };
+
+// One counted cost held against T(n): what a property prints when it fails.
+// Inside a RapidCheck property, `RC_ASSERT(model.check_cost(n, cost.count()))`
+// fails with this text ("n = 3: counted cost 4 > T(n) = 3 (model: upper
+// bound, broken)") instead of "false".
+struct CostCheck {
+  uint64_t n = 0;
+  uint64_t cost = 0;
+  std::string model;  // T(n), exact
+  Relation relation = Relation::kUpperBound;
+  int sign = 0;      // sign of cost − T(n)
+  bool kept = true;  // the relation holds
+  explicit operator bool() const { return kept; }
+};
+THETAGATE_API std::string to_string(const CostCheck& check);
+inline std::ostream& operator<<(std::ostream& out, const CostCheck& check) {
+  return out << to_string(check);
+}
 
 // A claim's recurrence as a cost model. Not thread-safe (T(n) is memoised
 // across sizes); use one Model per thread.
@@ -104,6 +124,9 @@ class THETAGATE_API Model {
   int compare(uint64_t n, uint64_t cost);
   // Whether sign(cost − T(n)) breaks the relation.
   bool violates(int sign) const;
+  // `cost` at size n held against T(n) under the relation. Throws as
+  // value_at.
+  CostCheck check_cost(uint64_t n, uint64_t cost);
 
   // model -> bound: checks the claim as `thetagate check --seed seed` would.
   BoundOutcome check_bound(uint64_t seed) const;
@@ -123,6 +146,7 @@ struct CostRow {
   int sign = 0;       // sign of cost − T(n)
   uint64_t runs = 0;
   std::string family;
+  double ratio = 0;  // cost / T(n), approximately (0 where T(n) <= 0)
 };
 
 // A counted cost on the wrong side of T(n), with the input that caused it.
@@ -155,11 +179,21 @@ struct THETAGATE_API GuardResult {
   // replay setting (THETAGATE_GUARD_N, THETAGATE_GUARD_SEED, GuardOptions) is
   // refused. The check stops there.
   std::optional<std::string> error;
+  uint64_t effort = 1;  // GuardOptions::effort as used
+  // The first size reached after the time budget ran out (GuardOptions::
+  // time_budget): it and the sizes above ran no random inputs and no search.
+  std::optional<uint64_t> budget_reached_at;
+  double seconds = 0;  // wall time of the check
 
   bool passed() const { return !bound.failed() && !violation && !error; }
   // Both links in words: the failure (witness, input, replay) first, then
   // the per-size tightness table. Ends with a newline.
   std::string report() const;
+  // What a check covered, for a passing guard too: sizes, runs and time,
+  // then per scale (2^k <= n < 2^(k+1)) the sizes and runs and the tightest
+  // cost/T(n) (largest; smallest for a lower bound) with its n. Ends with a
+  // newline.
+  std::string coverage() const;
 };
 
 }  // namespace thetagate::guard

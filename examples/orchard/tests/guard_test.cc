@@ -14,21 +14,19 @@
 namespace {
 
 using thetagate::CostCounter;
-using thetagate::guard::Model;
 using thetagate::guard::Runner;
 
-Model claim(const std::string& file, const std::string& name) {
-  return Model::from_file(std::string(ORCHARD_CLAIMS_DIR) + "/" + file, name);
-}
+using thetagate::guard::claim;
 
 // These runners also check their results against a reference (a sort, a
-// schoolbook product) that costs more than the code under test: 20 inputs and
-// 20 search steps per size keep the suite within its time (the sort test uses
-// the defaults, 50 and 50).
-thetagate::guard::GuardOptions lean() {
+// schoolbook product) that costs more than the code under test: a smaller
+// work per size (input elements' worth of random inputs and of search steps
+// at each size) keeps each guard a fast unit test.
+thetagate::guard::GuardOptions lean(uint64_t size_work) {
   thetagate::guard::GuardOptions options;
   options.inputs_per_size = 20;
   options.search_steps = 20;
+  options.size_work = size_work;
   return options;
 }
 
@@ -50,7 +48,8 @@ TEST(OrchardSearch, FindSortedKeepsItsProbeClaim) {
       throw std::logic_error("find_sorted disagrees with std::binary_search");
     }
   };
-  EXPECT_GUARDED(claim("search.toml", "orchard::find_sorted / probes, worst case"), runner, lean());
+  EXPECT_GUARDED(claim("search.toml", "orchard::find_sorted / probes, worst case"), runner,
+                 lean(1 << 14));
 }
 
 TEST(OrchardSelect, SelectNthKeepsItsComparisonClaim) {
@@ -67,7 +66,7 @@ TEST(OrchardSelect, SelectNthKeepsItsComparisonClaim) {
     if (got != sorted[k]) throw std::logic_error("select_nth disagrees with std::nth_element");
   };
   EXPECT_GUARDED(claim("search.toml", "orchard::select_nth / comparisons, as implemented"), runner,
-                 lean());
+                 lean(1 << 14));
 }
 
 TEST(OrchardBignum, KaratsubaMakesExactlyItsDigitProducts) {
@@ -99,7 +98,7 @@ TEST(OrchardBignum, KaratsubaMakesExactlyItsDigitProducts) {
   };
   EXPECT_GUARDED(
       claim("bignum.toml", "orchard::mul_karatsuba / digit products, documented constant"), runner,
-      lean());
+      lean(1 << 10));
 }
 
 TEST(OrchardTree, BuildBalancedAllocatesExactlyOneNodePerKey) {
@@ -119,8 +118,11 @@ TEST(OrchardTree, BuildBalancedAllocatesExactlyOneNodePerKey) {
     while ((uint64_t{1} << expected) <= n) ++expected;
     if (orchard::tree::height(root.get()) != expected) throw std::logic_error("not balanced");
   };
+  // The runner sorts the keys first, so their order cannot matter: no shapes.
+  thetagate::guard::GuardOptions options = lean(1 << 13);
+  options.shapes = false;
   EXPECT_GUARDED(claim("trees.toml", "orchard::tree::build_balanced / nodes allocated"), runner,
-                 lean());
+                 options);
 }
 
 // The adversarial sizes in a maintainer's own property: the tree is balanced

@@ -24,9 +24,9 @@ thetagate::guard::Runner<std::vector<int>> stable_sort_runner() {
 }
 
 TEST(OrchardSort, StableSortKeepsItsComparisonClaim) {
-  auto model = thetagate::guard::Model::from_file(ORCHARD_CLAIMS_DIR "/sorting.toml",
-                                                  "orchard::stable_sort / comparisons, worst case");
-  EXPECT_GUARDED(model, stable_sort_runner());
+  EXPECT_GUARDED(
+      thetagate::guard::claim("sorting.toml", "orchard::stable_sort / comparisons, worst case"),
+      stable_sort_runner());
 }
 
 }  // namespace

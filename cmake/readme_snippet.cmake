@@ -1,0 +1,20 @@
+# readme_snippet(<readme> <marker> <out>): writes to <out> the first ```cpp
+# block after the line <marker> of <readme>, so that a test compiles what the
+# README shows and the two cannot drift apart (tests/consumer, examples/orchard).
+function(readme_snippet readme marker out)
+  file(READ ${readme} text)
+  string(FIND "${text}" "${marker}" at)
+  if(at EQUAL -1)
+    message(FATAL_ERROR "${readme} has no snippet marked '${marker}'")
+  endif()
+  string(SUBSTRING "${text}" ${at} -1 rest)
+  string(FIND "${rest}" "```cpp\n" open)
+  if(open EQUAL -1)
+    message(FATAL_ERROR "${readme} has no ```cpp block after '${marker}'")
+  endif()
+  math(EXPR open "${open} + 7")
+  string(SUBSTRING "${rest}" ${open} -1 rest)
+  string(FIND "${rest}" "```" close)
+  string(SUBSTRING "${rest}" 0 ${close} snippet)
+  file(WRITE ${out} "${snippet}")
+endfunction()
