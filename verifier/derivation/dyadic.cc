@@ -451,10 +451,11 @@ Interval enclose(const std::map<std::pair<int, int>, Rational>& f, const Interva
       sum = sum + coef * ipow(x, a) * ipow(lgx, b);
       continue;
     }
-    if (a != 0) sum = sum + coef * Interval(Rational(a), kPrecision) * ipow(x, a - 1) * ipow(lgx, b);
+    if (a != 0)
+      sum = sum + coef * Interval(Rational(a), kPrecision) * ipow(x, a - 1) * ipow(lgx, b);
     if (b != 0) {
-      sum = sum + coef * Interval(Rational(b), kPrecision) * inv_ln2 * ipow(x, a - 1) *
-                      ipow(lgx, b - 1);
+      sum = sum +
+            coef * Interval(Rational(b), kPrecision) * inv_ln2 * ipow(x, a - 1) * ipow(lgx, b - 1);
     }
   }
   return sum;
@@ -522,7 +523,8 @@ Coefficient at_block(const std::map<std::pair<int, int>, Coefficient>& g, uint64
                  Rational(pow(BigInt(k), static_cast<unsigned>(ij.second)));
     for (const auto& [ab, c] : coef) out[ab] += c * w;
   }
-  for (auto it = out.begin(); it != out.end();) it = it->second == 0 ? out.erase(it) : std::next(it);
+  for (auto it = out.begin(); it != out.end();)
+    it = it->second == 0 ? out.erase(it) : std::next(it);
   return out;
 }
 
@@ -542,8 +544,9 @@ uint64_t tail_from(const Groups& groups, uint64_t start, uint64_t& work, uint64_
   auto lead = std::prev(groups.end());
   std::optional<Rational> least = lower_bound(lead->second, 1, 2, work, budget);
   if (!least) {
-    throw Outside{"the leading term of the bound minus T's closed form is not shown positive on "
-                  "[1, 2]"};
+    throw Outside{
+        "the leading term of the bound minus T's closed form is not shown positive on "
+        "[1, 2]"};
   }
   std::vector<std::tuple<int, int, Rational>> rest;
   for (auto it = groups.begin(); it != lead; ++it) {
@@ -616,8 +619,9 @@ ExprPtr basis_expr(const Basis& f) {
   ExprPtr k = make_call("floor", {make_call("lg", {make_variable()})});
   ExprPtr e;
   auto times = [&](ExprPtr x) { e = e ? make_binary(ExprKind::kMul, e, x) : x; };
-  if (f.a > 0) times(f.a == 1 ? make_variable()
-                              : make_binary(ExprKind::kPow, make_variable(), make_number(f.a)));
+  if (f.a > 0)
+    times(f.a == 1 ? make_variable()
+                   : make_binary(ExprKind::kPow, make_variable(), make_number(f.a)));
   if (f.b > 0) times(f.b == 1 ? k : make_binary(ExprKind::kPow, k, make_number(f.b)));
   if (f.c > 0) {
     ExprPtr p = make_binary(ExprKind::kPow, make_number(2), k);
@@ -679,7 +683,7 @@ ExprPtr fit_closed_form(const DyadicRequest& req, const BigInt& s, int degree) {
   std::optional<std::vector<Rational>> x = solve(std::move(rows), basis.size());
   if (!x) throw Outside{"T's values fit no closed form in n, floor(lg n) and 2^floor(lg n)"};
   ExprPtr e;
-  for (size_t i = 0; i < basis.size(); ++i) {
+  for (size_t i = basis.size(); i-- > 0;) {  // the fastest-growing terms first
     if ((*x)[i] == 0) continue;
     ExprPtr term = basis_expr(basis[i]);
     Rational c = (*x)[i];
@@ -806,11 +810,12 @@ class Prover {
       proof.bound += (proof.bound.empty() ? "" : " and ") + rel + " " + print(*b);
       proof.obligations.push_back(
           std::string(side == Side::kUpper ? "B(n) - E(n)" : "E(n) - B(n)") +
-          (strict ? " > 0" : " >= 0") + " for every n >= " + from.str() + ", E(n) = " +
-          print(*form) + ", B(n) = " + print(*b) +
+          (strict ? " > 0" : " >= 0") + " for every n >= " + from.str() +
+          ", E(n) = " + print(*form) + ", B(n) = " + print(*b) +
           ": on each block 2^k <= n < 2^(k+1) in x = n/2^k in [1, 2] (lg n = k + lg x), by "
           "interval arithmetic, " +
-          std::to_string(c.blocks) + " blocks one by one, then the leading power of 2^k and k "
+          std::to_string(c.blocks) +
+          " blocks one by one, then the leading power of 2^k and k "
           "from k = " +
           std::to_string(c.tail_from) + "; and at n = 2^k exactly");
     }
