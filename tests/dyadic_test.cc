@@ -170,14 +170,18 @@ TEST(DyadicInduction, SaysWhyOutsideTheMethod) {
   // floor(lg n) and 2^floor(lg n): with f = n^2 the sum of the squared
   // sizes depends on n's binary digits (from memory).
   InductionOutcome cond =
-      attempt("T(n) = T(n/2) + 1 if n even; T(n) = T(n - 1) + 1 otherwise; T(1) = 0",
-              "T(n) <= 2 lg n for n >= 1");
+      attempt("T(n) = T(n/2) + 1 if n even; T(n) = T(floor(n/2)) + 2 otherwise; T(1) = 1",
+              "T(n) <= 2 lg n + 1 for n >= 1");
   EXPECT_FALSE(cond.proof.has_value());
   EXPECT_EQ(cond.failure,
             "no proof by induction on dyadic blocks: T has case lines with conditions");
   InductionOutcome digits =
       attempt("T(n) = T(ceil(n/2)) + T(floor(n/2)) + n^2; T(1) = 0", "T(n) <= 2n^2 for n >= 1");
   EXPECT_FALSE(digits.proof.has_value());
+  InductionOutcome other =
+      attempt("T(n) = T(n - 1) + T(floor(n/2)) + 1; T(0) = 1", "T(n) <= 8 n^(lg(n)/2) for n >= 2");
+  EXPECT_FALSE(other.proof.has_value());
+  EXPECT_EQ(other.failure, "");  // T(n - 1) does not halve n: not the method's recurrence
   EXPECT_EQ(digits.failure,
             "no proof by induction on dyadic blocks: T's values fit no closed form in n, "
             "floor(lg n) and 2^floor(lg n)");

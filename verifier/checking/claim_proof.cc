@@ -192,7 +192,7 @@ InductionOutcome ProofStage::try_induction(const Bound& bound) {
                        request.work_budget};
   InductionOutcome blocks = prove_on_dyadic_blocks(dyadic);
   if (blocks.proof) return blocks;
-  outcome.failure += "; " + blocks.failure;
+  if (!blocks.failure.empty()) outcome.failure += "; " + blocks.failure;
   return outcome;
 }
 

@@ -64,10 +64,13 @@ constexpr uint64_t kMaxSingleBlocks = 96;
 constexpr int kMaxDepth = 44;
 constexpr long kPrecision = 256;
 
-// One attempt failed: caught in prove_on_dyadic_blocks.
+// One attempt failed: caught in Prover::run.
 struct Outside {
   std::string why;
 };
+// The recurrence is not one the method is for (some call does not halve
+// n): no proof, and nothing to say (caught in Prover::run).
+struct NotHalving {};
 
 // ---- Polynomials in m, P = 2^k, k, x = n/2^k and L = lg x.
 
@@ -722,15 +725,43 @@ class Prover {
   InductionOutcome run() {
     InductionOutcome out;
     try {
+      if (!halving(*req_.recurrence)) throw NotHalving{};
       out.proof = prove();
     } catch (const Outside& o) {
       out.failure = "no proof by induction on dyadic blocks: " + o.why;
+    } catch (const NotHalving&) {
+      out.failure.clear();
     }
     out.work = work_;
     return out;
   }
 
  private:
+  // Whether every call on T's lines (past the point cases) is T(floor(n/2)),
+  // T(ceil(n/2)) or T(n/2) plus a constant: n = 2m + r gives m + c.
+  static bool halving(const Recurrence& r) {
+    const Function& f = r.main;
+    std::vector<const CaseLine*> lines;
+    for (const CaseLine& l : f.conditional) lines.push_back(&l);
+    if (f.fallback) lines.push_back(&*f.fallback);
+    if (lines.empty()) return false;
+    Translator t(f.name, nullptr);
+    Size n;
+    n.lin = Lin{2, 0, 1};
+    for (const CaseLine* l : lines) {
+      if (l->sums_calls || l->calls.empty()) return false;
+      for (const Expr* call : l->calls) {
+        if (call->args.size() != 1) return false;
+        try {
+          if (t.lin(*call->args[0], n, true).a != 1) return false;
+        } catch (const Outside&) {
+          return false;
+        }
+      }
+    }
+    return true;
+  }
+
   // Where the exact range starts and k0 (the first block of the step).
   std::pair<BigInt, uint64_t> start() const {
     const Function& f = req_.recurrence->main;
@@ -832,6 +863,8 @@ class Prover {
 }  // namespace
 
 InductionOutcome prove_on_dyadic_blocks(const DyadicRequest& request) {
+  // (Prover::run catches the method's own signals; intervals too wide to
+  // decide end the attempt here.)
   try {
     return Prover(request).run();
   } catch (const PrecisionShortfall&) {

@@ -46,8 +46,9 @@ struct DyadicRequest {
   uint64_t work_budget = 20000;
 };
 
-// The proof (InductionProof::dyadic set), or the reason there is none.
-// Never throws for a valid claim.
+// The proof (InductionProof::dyadic set), or the reason there is none; no
+// reason ("") when some call of T does not halve n (T(n - 1), T(n/3)), a
+// recurrence the method is not for. Never throws for a valid claim.
 InductionOutcome prove_on_dyadic_blocks(const DyadicRequest& request);
 
 }  // namespace thetagate::engine
