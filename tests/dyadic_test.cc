@@ -5,6 +5,7 @@
 #include "verifier/derivation/dyadic.h"
 
 #include <gtest/gtest.h>
+#include <rapidcheck/gtest.h>
 
 #include <string>
 
@@ -116,6 +117,14 @@ TEST(DyadicInduction, LinearDriversSolvedByLinearity) {
         // Near misses: one more, and a power of two too many at one end.
         expect_not_proved(rec, "T(n) = " + form + " + 1 for n >= 1");
         expect_not_proved(rec, "T(n) = " + form + " + floor(lg n) for n >= 1");
+        // Bounds with room, through T's fitted closed form; one below, false
+        // at every n, never.
+        for (const char* room : {"0", "1", "n", "floor(lg n)"}) {
+          expect_holds(rec, "T(n) <= " + form + " + " + room + " for n >= 1");
+          expect_holds(rec, "T(n) >= " + form + " - " + room + " for n >= 1");
+        }
+        expect_not_proved(rec, "T(n) <= " + form + " - 1 for n >= 1");
+        expect_not_proved(rec, "T(n) >= " + form + " + 1 for n >= 1");
       }
     }
   }
@@ -185,6 +194,52 @@ TEST(DyadicInduction, SaysWhyOutsideTheMethod) {
   EXPECT_EQ(digits.failure,
             "no proof by induction on dyadic blocks: T's values fit no closed form in n, "
             "floor(lg n) and 2^floor(lg n)");
+}
+
+// Whether T(n) meets every side of `bound` for n0 <= n <= last, by the
+// evaluator, one size at a time (far past the prover's own exact range).
+bool meets_up_to(const std::string& recurrence, const std::string& bound, int64_t last) {
+  auto rec = recurrence_from_text(recurrence);
+  Bound b = parse_bound(SourceText::whole("<bound>", bound));
+  Evaluator eval(rec);
+  SourceText t_source = SourceText::whole("<t>", "T(n)");
+  ExprPtr t_of_n = parse_expression(t_source);
+  for (BigInt n = b.n0; n <= last; ++n) {
+    if (b.upper) {
+      int order = eval.compare_at(*t_of_n, t_source, *b.upper, b.source, n);
+      if (b.strict_upper ? order >= 0 : order > 0) return false;
+    }
+    if (b.lower) {
+      int order = eval.compare_at(*t_of_n, t_source, *b.lower, b.source, n);
+      if (b.strict_lower ? order <= 0 : order < 0) return false;
+    }
+  }
+  return true;
+}
+
+// Whatever the halving recurrence and the bound (random small coefficients;
+// most of them false), a bound the prover proves is met at every size up to
+// 1200, twenty times past its exact range.
+RC_GTEST_PROP(DyadicInductionProperty, WhatIsProvedIsTrueFarPastTheExactRange, ()) {
+  const int a = *rc::gen::inRange(0, 3), b = *rc::gen::inRange(a == 0 ? 1 : 0, 3);
+  const int c = *rc::gen::inRange(0, 4), d = *rc::gen::inRange(-2, 3), e = *rc::gen::inRange(0, 4);
+  auto num = [](int v) { return "(" + std::to_string(v) + ")"; };
+  std::string rec = "T(n) = " + num(a) + "T(floor(n/2)) + " + num(b) + "T(ceil(n/2)) + " + num(c) +
+                    "n + " + num(d) + "; T(1) = " + num(e);
+  const int kind = *rc::gen::inRange(0, 3);  // =, <=, >=
+  std::string form = num(*rc::gen::inRange(-1, 4)) + "n ceil(lg n) + " +
+                     num(*rc::gen::inRange(-2, 3)) + "2^ceil(lg n) + " +
+                     num(*rc::gen::inRange(-3, 4)) + "n + " + num(*rc::gen::inRange(-2, 3)) +
+                     "floor(lg n) + " + num(*rc::gen::inRange(-2, 3));
+  if (kind != 0) form += " + " + num(*rc::gen::inRange(0, 3)) + "n lg n";
+  std::string bound = std::string("T(n) ") +
+                      (kind == 0   ? "="
+                       : kind == 1 ? "<="
+                                   : ">=") +
+                      " " + form + " for n >= 1";
+  InductionOutcome out = attempt(rec, bound);
+  RC_CLASSIFY(out.proof.has_value(), "proved");
+  if (out.proof) RC_ASSERT(meets_up_to(rec, bound, 1200));
 }
 
 }  // namespace
