@@ -459,6 +459,10 @@ class ReportReader {
       p.tail_log2 = unsigned_at(*in, at, "tail_log2");
       p.blocks = unsigned_at(*in, at, "blocks");
       p.identity = boolean_value(require(*in, at, "identity"), join(at, "identity"));
+      // Both optional: reports from before induction on dyadic blocks lack them.
+      if (const Json* d = optional_key(*in, "dyadic"))
+        p.dyadic = boolean_value(*d, join(at, "dyadic"));
+      if (optional_key(*in, "closed_form")) p.closed_form = string_at(*in, at, "closed_form");
       b.induction = p;
     }
     if (const Json* tr = optional_key(j, "trend"); tr && !tr->is_null()) {

@@ -130,6 +130,8 @@ Json basis_json(const VerdictBasis& b) {
     in["tail_log2"] = p.tail_log2;
     in["blocks"] = p.blocks;
     in["identity"] = p.identity;
+    in["dyadic"] = p.dyadic;
+    in["closed_form"] = p.closed_form;
     j["induction"] = in;
   } else {
     j["induction"] = nullptr;

@@ -12,6 +12,7 @@
 #include <cmath>
 #include <cstdint>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "generators/size_family.h"
@@ -300,12 +301,15 @@ TEST(WitnessHunt, MergeSortBoundsNearThePeakFromTwoToTheForty) {
 // no family below 10^30, must close in on that window.
 TEST(WitnessHunt, MergeSortBoundsNearThePeakBeyondTenToTheThirty) {
   const BigInt n0 = boost::multiprecision::pow(BigInt(10), 30);
-  // True, but not provable here: the bound fails at small n (T(1) = 0 >
-  // −0.9139286), so an induction cannot start below 10^30, and starting at
-  // 10^30 would need exact checks up to 2·10^30. Never refuted, never holds.
+  // True: the bound fails at small n (T(1) = 0 > −0.9139286), so no
+  // induction on the bound itself can start below 10^30; induction on
+  // dyadic blocks proves T's closed form instead and compares the bound
+  // with it on every block from 10^30 on. Never refuted.
   ClaimResult holds = check_one(
       claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139286 n for n >= 10^30"), CheckOptions{});
-  EXPECT_EQ(holds.verdict, Verdict::kUndecided) << verdict_message(holds);
+  EXPECT_EQ(holds.verdict, Verdict::kHolds) << verdict_message(holds);
+  EXPECT_NE(verdict_message(holds).find("on each dyadic block"), std::string::npos)
+      << verdict_message(holds);
   EXPECT_TRUE(holds.witnesses.empty());
 
   ClaimResult r = check_one(claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139287 n for n >= 10^30"),
@@ -409,6 +413,32 @@ RunResult run_all(uint64_t seed) {
   for (const std::string& toml : replay_claims())
     run.claims.push_back(check_one(toml, options_with(seed, 128)));
   return run;
+}
+
+// Exact counts with floors of lg n and constants against them (issue 19,
+// §3): the true ones hold by induction on dyadic blocks, and near misses of
+// each are refuted or undecided, never proved. Merge sort's closed form and
+// least constant: Suchenek and Flajolet–Golin (docs/sources.md); binary
+// search's floor(lg n) + 1: common practice.
+TEST(WitnessHunt, DyadicCountsHoldAndTheirNearMissesNeverDo) {
+  const char* search = "T(n) = T(floor(n/2)) + 1\nT(1) = 1";
+  ClaimResult tight =
+      check_one(claim_toml(kMergeSort, "T(n) <= n lg n - 0.9139286 n + 1 for n >= 10^8"),
+                options_with(7, 256));
+  EXPECT_EQ(tight.verdict, Verdict::kHolds) << verdict_message(tight);
+  EXPECT_EQ(proof_name(tight).rfind("induction on dyadic blocks from n = 63: T(n) = ", 0), 0u)
+      << proof_name(tight);
+  for (const auto& [rec, bound] : std::vector<std::pair<const char*, const char*>>{
+           {search, "T(n) = floor(lg(n + 1)) + 1 for n >= 1"},
+           {search, "T(n) = ceil(lg n) + 1 for n >= 1"},
+           {kMergeSort, "T(n) = n ceil(lg n) - 2^ceil(lg n) for n >= 1"},
+           {kMergeSort, "T(n) = n floor(lg n) - 2^floor(lg n) + 1 for n >= 1"},
+           {kMergeSort, "T(n) <= n lg n - 0.91392867 n + 1 for n >= 10^8"},
+           {kMergeSort, "T(n) >= n lg n - 0.999 n + 1 for n >= 1"}}) {
+    ClaimResult r = check_one(claim_toml(rec, bound), options_with(7, 256));
+    EXPECT_NE(r.verdict, Verdict::kHolds) << bound << ": " << verdict_message(r);
+    EXPECT_NE(r.verdict, Verdict::kError) << bound << ": " << verdict_message(r);
+  }
 }
 
 TEST(WitnessHunt, SameSeedSameReportByteForByte) {

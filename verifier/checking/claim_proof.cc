@@ -6,6 +6,7 @@
 
 #include "verifier/checking/trend.h"
 #include "verifier/derivation/classify.h"
+#include "verifier/derivation/dyadic.h"
 #include "verifier/derivation/shape.h"
 
 namespace thetagate::engine::checker_internal {
@@ -179,7 +180,20 @@ InductionOutcome ProofStage::try_induction(const Bound& bound) {
       return false;
     }
   };
-  return prove_by_induction(request);
+  InductionOutcome outcome = prove_by_induction(request);
+  if (outcome.proof || &bound != &claim_.bound) return outcome;
+  // Floors and ceilings of lg n: induction on dyadic blocks (dyadic.h).
+  DyadicRequest dyadic{request.recurrence, request.bound, request.check_range,
+                       [&](const BigInt& n) -> std::optional<Rational> {
+                         std::optional<Value> v = eval_.value_at(n, false);
+                         if (!v || !v->is_exact()) return std::nullopt;
+                         return v->exact();
+                       },
+                       request.work_budget};
+  InductionOutcome blocks = prove_on_dyadic_blocks(dyadic);
+  if (blocks.proof) return blocks;
+  if (!blocks.failure.empty()) outcome.failure += "; " + blocks.failure;
+  return outcome;
 }
 
 bool ProofStage::try_direct_bound() {

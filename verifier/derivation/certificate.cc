@@ -596,8 +596,12 @@ std::optional<Certificate> theorem_certificate(const Recurrence& recurrence,
 
 Certificate induction_certificate(const InductionProof& proof) {
   Certificate cert;
-  cert.method = "induction";
+  cert.method = proof.dyadic ? "dyadic-induction" : "induction";
   cert.proof = induction_proof_name(proof);
+  if (proof.dyadic) {
+    cert.obligations = proof.obligations;
+    return cert;
+  }
   for (const InductionSideProof& s : proof.side_proofs) {
     std::string side = side_name(s.side);
     cert.obligations.push_back("T(n) " + s.relation + " " + s.claimed + " checked exactly for " +

@@ -423,7 +423,12 @@ InductionOutcome Prover::run() {
 }  // namespace
 
 std::string induction_proof_name(const InductionProof& proof) {
-  std::string s = "induction from n = " + proof.checked_to.str() + ": T(n) " + proof.bound;
+  if (proof.dyadic && !proof.closed_form.empty()) {
+    return "induction on dyadic blocks from n = " + proof.checked_to.str() +
+           ": T(n) = " + proof.closed_form + ", then T(n) " + proof.bound + " on every block";
+  }
+  std::string s = std::string(proof.dyadic ? "induction on dyadic blocks" : "induction") +
+                  " from n = " + proof.checked_to.str() + ": T(n) " + proof.bound;
   if (!proof.strengthening.empty()) s += " (the claim strengthened by " + proof.strengthening + ")";
   return s;
 }

@@ -39,6 +39,17 @@ struct InductionProof {
   uint64_t blocks = 0;        // interval blocks between M and 2^tail_log2
   bool identity = false;      // the step's slack vanishes identically
   std::vector<InductionSideProof> side_proofs;  // per side, in `sides` order
+  // Induction on dyadic blocks (dyadic.h): the step is an identity on every
+  // block [2^k, 2^(k+1)) past checked_to; tail_log2 is then the k from which
+  // the comparison with closed_form needs no block-by-block check, blocks
+  // the blocks checked one by one before it.
+  bool dyadic = false;
+  // Dyadic: T's closed form, proved equal to T by that induction, that the
+  // claim's bound was compared with on every block ("" when the claim's
+  // bound was carried itself).
+  std::string closed_form;
+  // Dyadic: the certificate's obligations, one statement each.
+  std::vector<std::string> obligations;
 };
 
 // The proof as reports name it: "induction from n = 65: T(n) <= 3*(n - 1)^lg(3)
