@@ -7,6 +7,7 @@
 #include "verifier/checking/trend.h"
 #include "verifier/derivation/classify.h"
 #include "verifier/derivation/shape.h"
+#include "verifier/derivation/sum_induction.h"
 
 namespace thetagate::engine::checker_internal {
 
@@ -179,7 +180,14 @@ InductionOutcome ProofStage::try_induction(const Bound& bound) {
       return false;
     }
   };
-  return prove_by_induction(request);
+  InductionOutcome outcome = prove_by_induction(request);
+  if (!outcome.proof && claim_.recurrence->full_history) {
+    // A line that sums over earlier values: its own two methods.
+    InductionOutcome over_sums = prove_over_sums(request);
+    if (over_sums.proof) return over_sums;
+    outcome.failure += "; " + over_sums.failure;
+  }
+  return outcome;
 }
 
 bool ProofStage::try_direct_bound() {

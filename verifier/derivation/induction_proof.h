@@ -39,6 +39,12 @@ struct InductionProof {
   uint64_t blocks = 0;        // interval blocks between M and 2^tail_log2
   bool identity = false;      // the step's slack vanishes identically
   std::vector<InductionSideProof> side_proofs;  // per side, in `sides` order
+  // "" for the substitution step above; a proof over a sum of earlier
+  // values names its own step (sum_induction.h: "sum-difference",
+  // "sum-step"), which is also its certificate's method, and lists that
+  // certificate's obligations here.
+  std::string method;
+  std::vector<std::string> obligations;
 };
 
 // The proof as reports name it: "induction from n = 65: T(n) <= 3*(n - 1)^lg(3)
