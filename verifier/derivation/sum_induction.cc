@@ -206,9 +206,12 @@ InductionOutcome differencing(const InductionRequest& request) {
   BigInt last = *n;
   const BigInt& n0 = bound.n0;
   std::string text = print(*sides.closed);
-  for (Side side : sides.sides) {
+  // The induction starts from T(N) = B(N) itself, so both sides are checked
+  // even for a one-sided claim.
+  for (Side side : {Side::kUpper, Side::kLower}) {
     if (!request.check_range(sides.closed, side, false, n0, last))
-      throw NoProof{"the exact check up to n = " + last.str() + " did not finish"};
+      throw NoProof{rec.main.name + "(n) = " + text + " fails or was not finished for " + n0.str() +
+                    " <= n <= " + last.str()};
   }
 
   InductionProof proof;
