@@ -8,6 +8,7 @@
 #include "verifier/derivation/classify.h"
 #include "verifier/derivation/dyadic.h"
 #include "verifier/derivation/shape.h"
+#include "verifier/derivation/sum_induction.h"
 
 namespace thetagate::engine::checker_internal {
 
@@ -181,6 +182,12 @@ InductionOutcome ProofStage::try_induction(const Bound& bound) {
     }
   };
   InductionOutcome outcome = prove_by_induction(request);
+  if (!outcome.proof && claim_.recurrence->full_history) {
+    // A line that sums over earlier values: its own two methods.
+    InductionOutcome over_sums = prove_over_sums(request);
+    if (over_sums.proof) return over_sums;
+    outcome.failure += "; " + over_sums.failure;
+  }
   if (outcome.proof || &bound != &claim_.bound) return outcome;
   // Floors and ceilings of lg n: induction on dyadic blocks (dyadic.h).
   DyadicRequest dyadic{request.recurrence, request.bound, request.check_range,

@@ -85,11 +85,41 @@ class Classifier {
       case ExprKind::kCall:
         return call(e);
       case ExprKind::kSum:
+        return sum(e);
       case ExprKind::kBound:
-        throw Refusal{"'" + print(e) + "' is a sum, whose growth class is not derived here"};
+        throw Refusal{"'" + print(e) + "' is a sum's variable outside its sum"};
       default:
         throw Refusal{"'" + print(e) + "' is a condition, not a value"};
     }
+  }
+
+  // sum(j, lo, hi, h(j)) with lo constant, hi = Θ(n) and h(j) =
+  // Θ(j^a lg^b j (lg lg j)^c) positive for large j, by comparison with the
+  // integral of h (docs/design.md §4, "Sums as driving functions"): Θ(n^(a+1)
+  // lg^b n (lg lg n)^c) for a > -1, Θ(lg^(b+1) n (lg lg n)^c) for a = -1 and
+  // b > -1. The constant is left unknown. A sum that converges (a < -1, ...)
+  // or grows exponentially is refused.
+  Expansion sum(const Expr& e) {
+    std::string what = print(e);
+    if (!sum_body_closed(e) || contains_sum(*e.args[2]) || mentions_n(*e.args[0]))
+      throw Refusal{"'" + what + "' has a body or lower limit that depends on n"};
+    Lead hi = lead_of(run(*e.args[1]));
+    if (hi.sign <= 0 || compare(hi.g, n_class()) != 0)
+      throw Refusal{"'" + what + "' does not run up to a multiple of n"};
+    Lead h = lead_of(run(*bound_as_n(e.args[2], e.name)));
+    if (h.sign <= 0) throw Refusal{"the terms of '" + what + "' are not positive for large n"};
+    const GrowthClass& g = h.g;
+    if (!g.is_subexponential())
+      throw Refusal{"'" + what + "' sums exponentially growing terms, not derived here"};
+    RealNumber minus_one(-1L);
+    int a = compare(g.alpha, minus_one);
+    if (a > 0)
+      return pure_expansion(GrowthClass::polylog(g.alpha + RealNumber(1L), g.beta, g.gamma), 1);
+    if (a == 0 && compare(g.beta, minus_one) > 0)
+      return pure_expansion(GrowthClass::polylog(RealNumber(), g.beta + RealNumber(1L), g.gamma),
+                            1);
+    throw Refusal{"'" + what + "' sums terms of class " + to_string(g) +
+                  ", whose sum converges or grows like lg lg n: not derived here"};
   }
 
   Expansion power(const Expr& e) {
@@ -267,6 +297,15 @@ int condition_reach(const Expr& c) {
     }
   }
   return 0;
+}
+
+ExprPtr bound_as_n(const ExprPtr& e, const std::string& variable) {
+  if (e->kind == ExprKind::kBound && e->name == variable) return make_variable(e->pos);
+  if (e->args.empty()) return e;
+  auto copy = std::make_shared<Expr>(*e);
+  for (auto& a : copy->args) a = bound_as_n(a, variable);
+  update_depth(*copy);
+  return copy;
 }
 
 ExprPtr substitute(const ExprPtr& e, const ExprPtr& argument) {

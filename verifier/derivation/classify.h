@@ -44,6 +44,8 @@ int condition_reach(const Expr& condition);
 
 // e with every n replaced by `argument` (for f(n/2) with f a helper).
 ExprPtr substitute(const ExprPtr& e, const ExprPtr& argument);
+// e with the sum variable `variable` read as n (a sum's body as a function of n).
+ExprPtr bound_as_n(const ExprPtr& e, const std::string& variable);
 
 }  // namespace thetagate::engine
 

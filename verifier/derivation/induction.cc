@@ -16,6 +16,7 @@
 
 #include "verifier/derivation/classify.h"
 #include "verifier/derivation/series.h"
+#include "verifier/derivation/sum_induction.h"
 
 namespace thetagate::engine {
 
@@ -430,6 +431,7 @@ std::string induction_proof_name(const InductionProof& proof) {
   std::string s = std::string(proof.dyadic ? "induction on dyadic blocks" : "induction") +
                   " from n = " + proof.checked_to.str() + ": T(n) " + proof.bound;
   if (!proof.strengthening.empty()) s += " (the claim strengthened by " + proof.strengthening + ")";
+  if (!proof.method.empty()) s += sum_step_name(proof.method);
   return s;
 }
 

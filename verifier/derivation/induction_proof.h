@@ -48,7 +48,13 @@ struct InductionProof {
   // claim's bound was compared with on every block ("" when the claim's
   // bound was carried itself).
   std::string closed_form;
-  // Dyadic: the certificate's obligations, one statement each.
+  // "" for the substitution step above; a proof over a sum of earlier
+  // values names its own step (sum_induction.h: "sum-difference",
+  // "sum-step"), which is also its certificate's method, and lists that
+  // certificate's obligations here.
+  std::string method;
+  // Dyadic, sum-difference or sum-step: the certificate's obligations, one
+  // statement each.
   std::vector<std::string> obligations;
 };
 
