@@ -375,8 +375,8 @@ TEST_F(UntrustedInput, ACommaSeparatesSizeAndCostAsInACsvExport) {
   const std::string csv = (root_ / "repo/claims/costs/csv.txt").string();
   EXPECT_EQ(located(header.error), csv +
                                        ":1:1: the size must be a non-negative whole number, found "
-                                       "'n' [hint: each line holds a size and its counted cost: "
-                                       "\"1024 9217\"]");
+                                       "'n' [hint: a header line? start it with '#' to make it a "
+                                       "comment: \"# size cost\"]");
   write("repo/claims/costs/csv.txt", "# n,comparisons\n4,5\n5, 8\n5 ,7\n");
   ClaimResult r = check_one(claim_file("costs/csv.txt"));
   // Read without error and without a violation; sizes 4 and 5 alone reach no

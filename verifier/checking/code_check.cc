@@ -333,9 +333,9 @@ CodeResult check_costs_text(const Claim& claim, std::string bytes,
         if (bad != std::string::npos) {
           bool numeric = std::isdigit(static_cast<unsigned char>(word[0])) &&
                          word.find_first_of(".eE") != std::string::npos;
-          // A first line of words is a spreadsheet's column header.
-          bool header =
-              result.measurements == 0 && std::isalpha(static_cast<unsigned char>(word[0])) != 0;
+          // A first line of short words is a spreadsheet's column header.
+          bool header = result.measurements == 0 && word.size() <= kMaxShownWordBytes &&
+                        std::isalpha(static_cast<unsigned char>(word[0])) != 0;
           std::string hint = word[0] == '-' ? std::string("a ") + what + " is never negative"
                              : numeric      ? std::string("write the ") + what +
                                              " as a whole number in decimal digits (no 1e6, no 2.5)"

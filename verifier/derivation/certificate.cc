@@ -608,7 +608,7 @@ std::optional<Certificate> theorem_certificate(const Recurrence& recurrence,
 
 Certificate induction_certificate(const InductionProof& proof) {
   Certificate cert;
-  cert.method = proof.dyadic             ? "dyadic-induction"
+  cert.method = proof.dyadic           ? "dyadic-induction"
                 : proof.method.empty() ? "induction"
                                        : proof.method;
   cert.proof = induction_proof_name(proof);
