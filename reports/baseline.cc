@@ -463,6 +463,10 @@ class ReportReader {
       if (const Json* d = optional_key(*in, "dyadic"))
         p.dyadic = boolean_value(*d, join(at, "dyadic"));
       if (optional_key(*in, "closed_form")) p.closed_form = string_at(*in, at, "closed_form");
+      // Optional too: reports from before the proofs over sums, and before
+      // the proof was named with the claim's own function.
+      if (optional_key(*in, "method")) p.method = string_at(*in, at, "method");
+      if (optional_key(*in, "function")) p.function = string_at(*in, at, "function");
       b.induction = p;
     }
     if (const Json* tr = optional_key(j, "trend"); tr && !tr->is_null()) {

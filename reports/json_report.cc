@@ -132,6 +132,8 @@ Json basis_json(const VerdictBasis& b) {
     in["identity"] = p.identity;
     in["dyadic"] = p.dyadic;
     in["closed_form"] = p.closed_form;
+    in["method"] = p.method;
+    in["function"] = p.function;
     j["induction"] = in;
   } else {
     j["induction"] = nullptr;

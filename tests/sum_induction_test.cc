@@ -11,6 +11,8 @@
 #include <string>
 #include <vector>
 
+#include "reports/baseline.h"
+#include "reports/json_report.h"
 #include "reports/verdict_text.h"
 #include "verifier/checking/checker.h"
 #include "verifier/derivation/classify.h"
@@ -247,6 +249,16 @@ TEST(SumClaims, ClosedFormsHoldAndNearMissesDoNot) {
   EXPECT_EQ(r.verdict, Verdict::kHolds) << verdict_message(r);
   ASSERT_TRUE(r.basis.certificate.has_value());
   EXPECT_EQ(r.basis.certificate->method, "sum-difference");
+  // The proof is named in the claim's own terms, and a report read back
+  // from its JSON (a baseline, a merged shard) names it the same way.
+  const std::string name = proof_name(r);
+  EXPECT_EQ(name.rfind("induction from n = 2: C(n) = ", 0), 0u) << name;
+  EXPECT_NE(name.find("(the sum differenced away"), std::string::npos) << name;
+  RunResult run;
+  run.claims.push_back(r);
+  RunResult read_back = read_json_report(render_json(run), "sums.json");
+  ASSERT_EQ(read_back.claims.size(), 1u);
+  EXPECT_EQ(proof_name(read_back.claims[0]), name);
   for (const char* wrong :
        {"C(n) = 2(n + 1) sum(j, 1, n, 1/j) - 4n + 1 for n >= 0",
         "C(n) = 2(n + 1) sum(j, 1, n, 1/j) - 4n + n(n - 1)(n - 2)/100 for n >= 0",

@@ -181,14 +181,19 @@ InductionOutcome ProofStage::try_induction(const Bound& bound) {
       return false;
     }
   };
+  // A proof is named in the claim's own terms: C(n) = ..., not T(n).
+  auto named = [&](InductionOutcome found) {
+    if (found.proof) found.proof->function = claim_.recurrence->main.name;
+    return found;
+  };
   InductionOutcome outcome = prove_by_induction(request);
   if (!outcome.proof && claim_.recurrence->full_history) {
     // A line that sums over earlier values: its own two methods.
     InductionOutcome over_sums = prove_over_sums(request);
-    if (over_sums.proof) return over_sums;
+    if (over_sums.proof) return named(over_sums);
     outcome.failure += "; " + over_sums.failure;
   }
-  if (outcome.proof || &bound != &claim_.bound) return outcome;
+  if (outcome.proof || &bound != &claim_.bound) return named(outcome);
   // Floors and ceilings of lg n: induction on dyadic blocks (dyadic.h).
   DyadicRequest dyadic{request.recurrence, request.bound, request.check_range,
                        [&](const BigInt& n) -> std::optional<Rational> {
@@ -198,7 +203,7 @@ InductionOutcome ProofStage::try_induction(const Bound& bound) {
                        },
                        request.work_budget};
   InductionOutcome blocks = prove_on_dyadic_blocks(dyadic);
-  if (blocks.proof) return blocks;
+  if (blocks.proof) return named(blocks);
   if (!blocks.failure.empty()) outcome.failure += "; " + blocks.failure;
   return outcome;
 }

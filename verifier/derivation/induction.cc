@@ -425,11 +425,13 @@ InductionOutcome Prover::run() {
 
 std::string induction_proof_name(const InductionProof& proof) {
   if (proof.dyadic && !proof.closed_form.empty()) {
-    return "induction on dyadic blocks from n = " + proof.checked_to.str() +
-           ": T(n) = " + proof.closed_form + ", then T(n) " + proof.bound + " on every block";
+    const std::string t = proof.function + "(n)";
+    return "induction on dyadic blocks from n = " + proof.checked_to.str() + ": " + t + " = " +
+           proof.closed_form + ", then " + t + " " + proof.bound + " on every block";
   }
   std::string s = std::string(proof.dyadic ? "induction on dyadic blocks" : "induction") +
-                  " from n = " + proof.checked_to.str() + ": T(n) " + proof.bound;
+                  " from n = " + proof.checked_to.str() + ": " + proof.function + "(n) " +
+                  proof.bound;
   if (!proof.strengthening.empty()) s += " (the claim strengthened by " + proof.strengthening + ")";
   if (!proof.method.empty()) s += sum_step_name(proof.method);
   return s;

@@ -56,6 +56,9 @@ struct InductionProof {
   // Dyadic, sum-difference or sum-step: the certificate's obligations, one
   // statement each.
   std::vector<std::string> obligations;
+  // The recurrence's function as the claim names it (C in C(n) = ...), for
+  // the proof's name.
+  std::string function = "T";
 };
 
 // The proof as reports name it: "induction from n = 65: T(n) <= 3*(n - 1)^lg(3)
