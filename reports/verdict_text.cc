@@ -44,23 +44,23 @@ std::string edges_phrase(const TrendEvidence& t) {
 std::string dyadic_phrase(const InductionProof& p) {
   std::string carried = p.closed_form.empty() ? p.bound : "= " + p.closed_form;
   std::string s = fmt::format(
-      "T(n) {} checked exactly for {} <= n <= {}; the inductive step holds with equality "
+      "{}(n) {} checked exactly for {} <= n <= {}; the inductive step holds with equality "
       "for every n > {}, on each dyadic block (n = 2m + r, 2^k <= m < 2^(k+1), with "
       "floor(lg m) = k), as an identity in m, 2^k and k",
-      carried, p.checked_from.str(), p.checked_to.str(), p.checked_to.str());
+      p.function, carried, p.checked_from.str(), p.checked_to.str(), p.checked_to.str());
   if (!p.closed_form.empty()) {
     s += fmt::format(
-        "; then T(n) {} on every block 2^k <= n < 2^(k+1) from the claim's start, compared "
+        "; then {}(n) {} on every block 2^k <= n < 2^(k+1) from the claim's start, compared "
         "with that closed form in x = n/2^k in [1, 2] by interval arithmetic ({} blocks one by "
         "one, then the leading term from 2^{})",
-        p.bound, p.blocks, p.tail_log2);
+        p.function, p.bound, p.blocks, p.tail_log2);
   }
   return s;
 }
 
 std::string induction_phrase(const InductionProof& p) {
   if (p.dyadic) return dyadic_phrase(p);
-  std::string s = fmt::format("T(n) {} checked exactly for {} <= n <= {}", p.bound,
+  std::string s = fmt::format("{}(n) {} checked exactly for {} <= n <= {}", p.function, p.bound,
                               p.checked_from.str(), p.checked_to.str());
   if (p.identity) {
     s += "; the inductive step holds with equality for every n > " + p.checked_to.str();
