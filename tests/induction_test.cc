@@ -50,9 +50,7 @@ Attempt attempt(const std::string& recurrence, const std::string& bound,
     if (exact_answer) return *exact_answer;
     for (BigInt n = lo; n <= hi; ++n) {
       int order = eval.compare_at(*t_of_n, t_source, *candidate, b.source, n);
-      bool ok = side == Side::kUpper ? (strict ? order < 0 : order <= 0)
-                                     : (strict ? order > 0 : order >= 0);
-      if (!ok) return false;
+      if (!on_side(side, strict, order)) return false;
     }
     return true;
   };

@@ -116,12 +116,12 @@ Outcome prove(InductionOutcome (*prover)(const InductionRequest&), const std::st
   InductionRequest request;
   request.recurrence = rec.get();
   request.bound = &b;
-  request.check_range = [&](const ExprPtr& candidate, Side side, bool, const BigInt& lo,
+  request.check_range = [&](const ExprPtr& candidate, Side side, bool strict, const BigInt& lo,
                             const BigInt& hi) {
     out.checked.push_back({lo, hi});
     for (BigInt n = lo; n <= hi; ++n) {
       int order = eval.compare_at(*t_of_n, t_source, *candidate, b.source, n);
-      if (side == Side::kUpper ? order > 0 : order < 0) return false;
+      if (!on_side(side, strict, order)) return false;
     }
     return true;
   };

@@ -172,9 +172,7 @@ InductionOutcome ProofStage::try_induction(const Bound& bound) {
         std::optional<int> order =
             eval_.compare_at(*eval_.t_of_n(), rs, *candidate, claim_.bound.source, n);
         if (!order) return false;
-        bool ok = side == Side::kUpper ? (strict ? *order < 0 : *order <= 0)
-                                       : (strict ? *order > 0 : *order >= 0);
-        if (!ok) return false;
+        if (!on_side(side, strict, *order)) return false;
       }
       return true;
     } catch (const BudgetExceeded&) {

@@ -18,6 +18,12 @@ enum class BoundKind { kTheta, kBigO, kOmega, kExplicit };
 // witness breaks, a proof proves, a ratio edge belongs to.
 enum class Side { kUpper, kLower };
 const char* side_name(Side s);  // "upper", "lower"
+// Whether T stays on its side of a bound, given order = sign(T(n) - B(n)):
+// T <= B (T < B when strict) for kUpper, T >= B (T > B) for kLower.
+inline bool on_side(Side side, bool strict, int order) {
+  return side == Side::kUpper ? (strict ? order < 0 : order <= 0)
+                              : (strict ? order > 0 : order >= 0);
+}
 
 struct Bound {
   BoundKind kind = BoundKind::kTheta;
