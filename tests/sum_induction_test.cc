@@ -254,6 +254,7 @@ TEST(SumClaims, ClosedFormsHoldAndNearMissesDoNot) {
   const std::string name = proof_name(r);
   EXPECT_EQ(name.rfind("induction from n = 2: C(n) = ", 0), 0u) << name;
   EXPECT_NE(name.find("(the sum differenced away"), std::string::npos) << name;
+  EXPECT_EQ(verdict_message(r).rfind("proved by induction: C(n) = ", 0), 0u) << verdict_message(r);
   RunResult run;
   run.claims.push_back(r);
   RunResult read_back = read_json_report(render_json(run), "sums.json");
