@@ -42,6 +42,7 @@ constexpr uint64_t kMaxModulus = 720;
 // (every throw today is inside an attempt).
 struct Failure {
   std::string why;
+  bool budget_spent = false;  // the shared work budget ran out: no later attempt can run
 };
 
 struct Call {
@@ -172,7 +173,7 @@ StepProof Prover::nonnegative(const std::function<Series(const SeriesContext&)>&
     NonnegativeProof p = prove_nonnegative(build, ctx, work_, request_.work_budget);
     return StepProof{p.identity, p.tail_log2, p.blocks};
   } catch (const SeriesUnsupported& e) {
-    throw Failure{e.why};
+    throw Failure{e.why, work_ > request_.work_budget};
   }
 }
 
@@ -394,7 +395,7 @@ InductionOutcome Prover::run() {
           if (out.failure.empty() || cand.strengthening.empty()) out.failure = f.why;
           // The work budget is shared by every attempt: once spent, later
           // candidates cannot run either.
-          if (f.why == "the proof's work budget ran out") {
+          if (f.budget_spent) {
             out.failure = f.why;
             out.work = work_;
             return out;
