@@ -1,5 +1,6 @@
 // Notation people already write (issue "Each user's first ten minutes", §2):
-// base cases listed with commas, and ** for a power. Each reads exactly as
+// base cases listed with commas, ** for a power, % for mod, && and || in
+// conditions. Each reads exactly as
 // the canonical form does, so printing and parsing again is unchanged.
 #include <gtest/gtest.h>
 
@@ -57,6 +58,24 @@ TEST(Notation, DoubleStarIsAPower) {
       located_error_of([] { parse_expression(SourceText::whole("<e>", "n * *2")); }),
       "<e>:1:5: expected a number, 'n', a function or '(' after '*', found '*' [hint: a value "
       "goes here: a number, a name, a call or a parenthesised expression]");
+}
+
+TEST(Notation, PercentAndTheDoubledLogicalOperatorsReadAsModAndOrAnd) {
+  // Programmers write n % 2 == 0 and a && b (common practice in C-like languages).
+  EXPECT_EQ(printed("f(n) = n^2 if n % 2 == 0; f(n) = n otherwise; T(n) = T(n/2) + f(n); "
+                    "T(1) = 1"),
+            printed("f(n) = n^2 if n mod 2 == 0; f(n) = n otherwise; T(n) = T(n/2) + f(n); "
+                    "T(1) = 1"));
+  EXPECT_EQ(printed("T(n) = 1 if n < 2 || n == 5 && n % 3 != 1; T(n) = T(n - 1) + 1 otherwise"),
+            printed("T(n) = 1 if n < 2 or n == 5 and n mod 3 != 1; T(n) = T(n - 1) + 1 otherwise"));
+  ExprPtr e = parse_expression(SourceText::whole("<e>", "(n + 1) % 4"));
+  EXPECT_EQ(print(*e), print(*parse_expression(SourceText::whole("<e>", "(n + 1) mod 4"))));
+  // A single & or | is still an error, with the spellings that work.
+  EXPECT_EQ(located_error_of([] {
+              build_recurrence(SourceText::whole("<r>", "T(n) = 1 if n < 2 & n > 0; T(n) = 2"));
+            }),
+            "<r>:1:19: unexpected character '&' [hint: write 'and' / 'or' (or && / ||) in "
+            "conditions]");
 }
 
 TEST(Notation, LogWithoutABaseIsLgWhereOnlyTheClassMatters) {

@@ -17,24 +17,42 @@ struct Spelling {
   const char* name;  // for names spelled in Unicode: the ASCII name
 };
 
-// Longest spellings first so "<=" wins over "<".
+// Longest spellings first so "<=" wins over "<". Programmers' spellings are
+// read as the language's own: ** as ^, % as mod, && and || as and, or.
 const Spelling kSpellings[] = {
-    {"**", TokenKind::kCaret, nullptr},  // a power, as several languages write it
-    {"==", TokenKind::kEqual, nullptr},         {"!=", TokenKind::kNotEqual, nullptr},
-    {"<=", TokenKind::kLessEqual, nullptr},     {">=", TokenKind::kGreaterEqual, nullptr},
-    {"\u2264", TokenKind::kLessEqual, nullptr}, {"\u2265", TokenKind::kGreaterEqual, nullptr},
-    {"\u2260", TokenKind::kNotEqual, nullptr},  {"\u2212", TokenKind::kMinus, nullptr},
-    {"\u00b7", TokenKind::kStar, nullptr},      {"\u00d7", TokenKind::kStar, nullptr},
-    {"\u230a", TokenKind::kLeftFloor, nullptr}, {"\u230b", TokenKind::kRightFloor, nullptr},
-    {"\u2308", TokenKind::kLeftCeil, nullptr},  {"\u2309", TokenKind::kRightCeil, nullptr},
-    {"\u221a", TokenKind::kSqrt, nullptr},      {"\u0398", TokenKind::kName, "Theta"},
-    {"\u03a9", TokenKind::kName, "Omega"},      {"+", TokenKind::kPlus, nullptr},
-    {"-", TokenKind::kMinus, nullptr},          {"*", TokenKind::kStar, nullptr},
-    {"/", TokenKind::kSlash, nullptr},          {"^", TokenKind::kCaret, nullptr},
-    {"(", TokenKind::kLeftParen, nullptr},      {")", TokenKind::kRightParen, nullptr},
-    {",", TokenKind::kComma, nullptr},          {"=", TokenKind::kAssign, nullptr},
-    {"<", TokenKind::kLess, nullptr},           {">", TokenKind::kGreater, nullptr},
+    {"**", TokenKind::kCaret, nullptr},
+    {"&&", TokenKind::kName, "and"},
+    {"||", TokenKind::kName, "or"},
+    {"==", TokenKind::kEqual, nullptr},
+    {"!=", TokenKind::kNotEqual, nullptr},
+    {"<=", TokenKind::kLessEqual, nullptr},
+    {">=", TokenKind::kGreaterEqual, nullptr},
+    {"\u2264", TokenKind::kLessEqual, nullptr},
+    {"\u2265", TokenKind::kGreaterEqual, nullptr},
+    {"\u2260", TokenKind::kNotEqual, nullptr},
+    {"\u2212", TokenKind::kMinus, nullptr},
+    {"\u00b7", TokenKind::kStar, nullptr},
+    {"\u00d7", TokenKind::kStar, nullptr},
+    {"\u230a", TokenKind::kLeftFloor, nullptr},
+    {"\u230b", TokenKind::kRightFloor, nullptr},
+    {"\u2308", TokenKind::kLeftCeil, nullptr},
+    {"\u2309", TokenKind::kRightCeil, nullptr},
+    {"\u221a", TokenKind::kSqrt, nullptr},
+    {"\u0398", TokenKind::kName, "Theta"},
+    {"\u03a9", TokenKind::kName, "Omega"},
+    {"+", TokenKind::kPlus, nullptr},
+    {"-", TokenKind::kMinus, nullptr},
+    {"*", TokenKind::kStar, nullptr},
+    {"/", TokenKind::kSlash, nullptr},
+    {"^", TokenKind::kCaret, nullptr},
+    {"(", TokenKind::kLeftParen, nullptr},
+    {")", TokenKind::kRightParen, nullptr},
+    {",", TokenKind::kComma, nullptr},
+    {"=", TokenKind::kAssign, nullptr},
+    {"<", TokenKind::kLess, nullptr},
+    {">", TokenKind::kGreater, nullptr},
     {";", TokenKind::kNewline, nullptr},
+    {"%", TokenKind::kName, "mod"},
 };
 
 // Characters that cannot be seen, or that look like ASCII but are not: the
@@ -279,7 +297,7 @@ std::vector<Token> tokenize(const SourceText& source) {
                              "T(n) = n T(n-1), T(0) = 1, or bound it, e.g. by n^n"
                            : "write 'not' for negation, '!=' for inequality";
     }
-    if (bad == "&" || bad == "|") hint = "write 'and' / 'or' in conditions";
+    if (bad == "&" || bad == "|") hint = "write 'and' / 'or' (or && / ||) in conditions";
     std::string shown = "'" + bad + "'";
     if (*code >= 0x80) shown += " (" + code_point_text(*code) + ")";
     if (*code < 0x20 || *code == 0x7F) shown = code_point_text(*code);  // a control character
