@@ -177,6 +177,25 @@ TEST(ClassTerm, OAndOmegaDriversGiveOneSidedBounds) {
   EXPECT_EQ(to_string(*w.lower), "n^2");
 }
 
+// f = 0 is a member of O(n): with T(1) = 0 it gives T = 0, so the leaves
+// bound nothing from below, and neither does an O(1) base value. Only the
+// upper side of the comparison remains.
+TEST(ClassTerm, AnODriverBoundsBelowOnlyThroughPositiveBaseValues) {
+  for (const char* text :
+       {"T(n) = 2T(n/2) + O(n); T(1) = 0", "T(n) = 2T(n/2) + O(n); T(1) = O(1)"}) {
+    SCOPED_TRACE(text);
+    Derivation d = derive(*recurrence_from_text(text));
+    ASSERT_TRUE(d.upper.has_value());
+    EXPECT_EQ(to_string(*d.upper), "n lg n");
+    EXPECT_FALSE(d.lower.has_value());
+    ClaimResult omega = check_text(text, "Omega(1)");
+    EXPECT_NE(omega.verdict, Verdict::kHolds) << verdict_message(omega);
+  }
+  Derivation theta_base = derive(*recurrence_from_text("T(n) = 2T(n/2) + O(n); T(1) = Θ(1)"));
+  ASSERT_TRUE(theta_base.lower.has_value());
+  EXPECT_EQ(to_string(*theta_base.lower), "n");
+}
+
 TEST(ClassTerm, ClaimsHoldOnlyByTheTheoremsAndFallByAMember) {
   ClaimResult merge = check_text("T(n) = 2T(n/2) + Θ(n); T(1) = 1", "Theta(n log n)");
   EXPECT_EQ(merge.verdict, Verdict::kHolds) << verdict_message(merge);

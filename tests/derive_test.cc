@@ -90,6 +90,35 @@ TEST(DeriveMaster, ZeroDrivingFunctionCostsOnlyTheLeaves) {
   EXPECT_EQ(steps.find("ε"), std::string::npos) << "f = 0 has no ε to speak of:\n" << steps;
 }
 
+// With f = 0 the leaves are all T is: T(1) = 0 makes T = 0 at every size
+// (T(n) = a^(log_b n) T(1), common practice), so no theorem may conclude
+// Θ(n^p), Θ(1) or Θ(a^(n/b)) from the leaves unless every base value is a
+// positive constant. The reason names the base value.
+TEST(DeriveMaster, ZeroDriverWithAZeroOrUnknownBaseValueConcludesNothing) {
+  for (const char* text :
+       {"T(n) = 2T(n/2); T(1) = 0", "T(n) = 3T(ceil(n/2)); T(1) = 1; T(2) = 0",
+        "T(n) = T(n/3) + T(2n/3); T(n) = 0 if n < 3", "T(n) = T(n - 1); T(0) = 0",
+        "T(n) = 2T(n - 1); T(0) = 0", "T(n) = 2T(sqrt(n)); T(n) = n - 2 if n <= 2",
+        "T(n) = 2T(n/2); T(1) = O(1)"}) {
+    SCOPED_TRACE(text);
+    Derivation d = derived(text);
+    EXPECT_FALSE(d.growth.has_value()) << d.derived;
+    EXPECT_FALSE(d.lower.has_value());
+    std::string reasons;
+    for (const std::string& r : d.failed_hypotheses) reasons += r + "\n";
+    EXPECT_NE(reasons.find("a sum of base values over its leaves, and the base value"),
+              std::string::npos)
+        << reasons;
+  }
+  // Positive constants, or a Θ(1) class, keep the leaves' growth.
+  EXPECT_EQ(derived("T(n) = 2T(n/2); T(1) = Θ(1)").derived, "n");
+  EXPECT_EQ(derived("T(n) = T(n - 1); T(0) = 3").derived, "1");
+  EXPECT_EQ(derived("T(n) = 2T(n - 1); T(0) = 1/2").derived, "2^n");
+  // A driver that is eventually positive needs no positive base: T(n) =
+  // 2T(n/2) + 1, T(1) = 0 is n - 1 at powers of two (common practice).
+  EXPECT_EQ(derived("T(n) = 2T(n/2) + 1; T(1) = 0").derived, "n");
+}
+
 TEST(DeriveMaster, CaseThreeWithRegularity) {
   Derivation d = derived("T(n) = 3T(n/4) + n lg n; T(1) = 1");
   EXPECT_EQ(d.derived, "n lg n") << reasons(d);

@@ -205,6 +205,56 @@ void classify_driving(const Shape& shape, const Recurrence& rec, DerivationInput
   }
 }
 
+bool holds_node(const Expr& e, const Expr* node) {
+  if (&e == node) return true;
+  for (const ExprPtr& a : e.args)
+    if (holds_node(*a, node)) return true;
+  return false;
+}
+
+// Sets input.leaves_positive: every line of T without a recursive call gives
+// a positive constant. A class term counts only as the whole body, and only
+// Θ or Ω (O(1) has 0 as a member); a body that depends on n, calls a helper
+// or cannot be evaluated counts as not known to be positive.
+void check_leaves(const Recurrence& rec, DerivationInput& input) {
+  auto reason = [&](const CaseLine& line, const std::string& why) {
+    std::string where =
+        line.point ? rec.main.name + "(" + line.point->str() + ")"
+                   : rec.main.name + "(n)" +
+                         (line.condition ? " where " + print(*line.condition) : std::string());
+    return "the base value " + where + " = " + print(*line.body) + " " + why;
+  };
+  for (const CaseLine* line : rec.main.lines_in_order()) {
+    if (!line->calls.empty() || line->sums_calls) continue;
+    const ClassTerm* term = nullptr;
+    for (const ClassTerm& c : rec.class_terms) {
+      if (c.base_case && holds_node(*line->body, c.representative.get())) {
+        term = &c;
+        break;
+      }
+    }
+    if (term && (term->representative != line->body || term->kind == ClassTermKind::kBigO)) {
+      input.leaves_reason =
+          reason(*line, term->kind == ClassTermKind::kBigO ? "has 0 among its members"
+                                                           : "is not a class alone");
+      return;
+    }
+    std::optional<RealNumber> v =
+        mentions_n(*line->body) ? std::nullopt : constant_value(*line->body);
+    bool positive = false;
+    try {
+      positive = v && v->sign() > 0;
+    } catch (const PrecisionShortfall&) {
+    }
+    if (!positive) {
+      input.leaves_reason =
+          reason(*line, v ? "is not positive" : "is not a constant known to be positive");
+      return;
+    }
+  }
+  input.leaves_positive = true;
+}
+
 // "master theorem: needs exactly one ...", not "master theorem: the master
 // theorem needs exactly one ...".
 std::string outcome_reason(const TheoremOutcome& o) {
@@ -232,6 +282,7 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
   input.shape = &shape;
   input.helpers = &recurrence.helpers;
   classify_driving(shape, recurrence, input);
+  check_leaves(recurrence, input);
   d.driving = input.driving;
   d.driving_is_class = input.driving_is_class;
   d.driving_one_sided = input.driving_one_sided;

@@ -220,7 +220,10 @@ TheoremOutcome akra_bazzi(const DerivationInput& input) {
                                          : " = " + p.digits()));
   GrowthClass np = GrowthClass::polylog(p);
   GrowthClass result;
-  if (input.driving.zero) {
+  if (input.driving.zero && !input.leaves_positive) {
+    out.failure = input.leaves_failure("g");
+    return out;
+  } else if (input.driving.zero) {
     out.steps.push_back("g(n) = 0: the integral vanishes");
     result = np;
   } else if (!input.driving.growth) {

@@ -19,6 +19,9 @@ TheoremOutcome change_of_variables(const DerivationInput& input) {
   } else if (!input.driving.zero) {
     out.failure = "f(n) has no growth class: " + input.driving.reason;
     return out;
+  } else if (!input.leaves_positive) {
+    out.failure = input.leaves_failure();
+    return out;
   }
   if (!f.is_subexponential()) {
     out.failure = "f(n) = Θ(" + to_string(f) +

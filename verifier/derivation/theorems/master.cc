@@ -105,8 +105,16 @@ RegularityFacts regularity_facts(const DerivationInput& input, const Rational& a
   return facts;
 }
 
-// T(n) = a T(n/b) with f = 0: only the n^p leaves cost (case 1).
-TheoremOutcome master_on_zero(const Rational& a, const Rational& divisor) {
+// T(n) = a T(n/b) with f = 0: only the n^p leaves cost (case 1), when every
+// base value is positive (T(1) = 0 would make T = 0).
+TheoremOutcome master_on_zero(const Rational& a, const Rational& divisor,
+                              const DerivationInput& input) {
+  if (!input.leaves_positive) {
+    TheoremOutcome out;
+    out.theorem = "master theorem";
+    out.failure = input.leaves_failure();
+    return out;
+  }
   TheoremOutcome out = master_on_class(a, divisor, GrowthClass::polylog(-1), "0");
   if (out.applies()) {
     // Derived through f = Θ(1/n), whose steps speak of an ε that f = 0
@@ -134,7 +142,7 @@ void bound_by_comparison(const Rational& a, const Rational& divisor, const Deriv
     lower_text = to_string(*input.driving_lower);
     low = master_on_class(a, divisor, *input.driving_lower, lower_text);
   } else if (input.driving_lower_zero) {
-    low = master_on_zero(a, divisor);
+    low = master_on_zero(a, divisor, input);
   }
   if (up && !up->applies()) up.reset();
   if (low && !low->applies()) low.reset();
@@ -364,7 +372,7 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
     return o;
   };
   if (input.driving.zero) {
-    out = master_on_zero(t.a, divisor);
+    out = master_on_zero(t.a, divisor, input);
   } else if (input.driving.growth) {
     // A class written in the recurrence is shown as its class, not as the
     // member the exact values use.

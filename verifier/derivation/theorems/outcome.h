@@ -52,6 +52,18 @@ struct DerivationInput {
   // an Ω(g) term bounds it below only (driving_upper empty).
   bool driving_one_sided = false;
   bool driving_lower_zero = false;
+  // Every value T takes on a line without a recursive call is a positive
+  // constant (a number, or a Θ or Ω class of one). Where f may be 0 (f = 0,
+  // or only an O term bounds it), T is a sum over its leaves, and only then
+  // does it grow like them; otherwise `leaves_reason` says which base value
+  // may be 0 or negative, and no theorem concludes from the leaves alone.
+  bool leaves_positive = false;
+  std::string leaves_reason;
+  // A theorem's failure where it would conclude from the leaves alone.
+  std::string leaves_failure(const std::string& f = "f") const {
+    return "with " + f + "(n) = 0, T(n) is a sum of base values over its leaves, and " +
+           leaves_reason;
+  }
   // f(n) exactly, or empty when it cannot be evaluated at n (may be null).
   std::function<std::optional<Value>(const BigInt& n)> driving_at;
   // T(n) exactly (may be null): for linear recurrences' initial values.

@@ -36,6 +36,10 @@ TheoremOutcome subtract_and_conquer(const DerivationInput& input) {
     out.failure = "f(n) has no growth class: " + input.driving.reason;
     return out;
   }
+  if (input.driving.zero && t.a >= 1 && !input.leaves_positive) {
+    out.failure = input.leaves_failure();
+    return out;
+  }
   std::string a = to_string(t.a), b = t.c.str();
   if (!f.is_subexponential()) {
     // f = rho^n g(n), g polynomial: the unrolled sum weighs f(n - j b) by a^j, so
