@@ -28,8 +28,13 @@ constexpr int64_t kMaxOffset = 64;
 constexpr int64_t kMaxPower = 64;
 constexpr int kMaxDegree = 16;
 const BigInt kMaxRootTries = 100000;
-// The longest exact range: T's full-history sums cost its square.
-const BigInt kLongestRange = 4096;
+// The longest exact range: the evaluator adds T's full-history sums term
+// by term, so a range costs its square (1,024 sizes: a few seconds).
+const BigInt kLongestRange = 1024;
+// The largest fraction followed: degree in n and terms of the numerator
+// (a product of many powers would otherwise grow without bound).
+constexpr int kMaxFractionDegree = 256;
+constexpr size_t kMaxFractionTerms = 256;
 
 const Polynomial kOne({Rational(1)});
 const Polynomial kX({Rational(0), Rational(1)});
@@ -75,6 +80,12 @@ Fraction operator+(const Fraction& a, const Fraction& b) {
 }
 
 Fraction operator*(const Fraction& a, const Fraction& b) {
+  int degree = a.den.degree() + b.den.degree();
+  for (const auto& [p, c] : a.num) degree = std::max(degree, c.degree() + b.den.degree());
+  for (const auto& [p, c] : b.num) degree = std::max(degree, c.degree() + a.den.degree());
+  if (degree > kMaxFractionDegree || a.num.size() * b.num.size() > kMaxFractionTerms)
+    throw Unsupported("the algebra grows past degree " + std::to_string(kMaxFractionDegree) +
+                      " or " + std::to_string(kMaxFractionTerms) + " terms");
   Fraction out;
   out.den = a.den * b.den;
   for (const auto& [p, c] : a.num)
