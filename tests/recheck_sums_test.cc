@@ -6,7 +6,9 @@
 // rejected or not re-checked, never re-checked.
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <map>
+#include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
 
@@ -202,37 +204,66 @@ TEST(RecheckSumStep, ABoundThatIsNoPolynomialIsNotReChecked) {
 
 // --- As the prover writes them --------------------------------------------
 
-// Checks every claim of `toml` (or the ones named) with the prover, renders
-// the JSON report and re-checks it: the statuses by claim name.
-std::map<std::string, RecheckedClaim> prove_and_recheck(const std::vector<ClaimEntry>& entries,
-                                                        const std::vector<std::string>& names) {
+// The named claims checked by the prover: its JSON report and the claims
+// by name, for the re-checker.
+struct Proved {
+  nlohmann::json report;
   std::multimap<std::string, Claim> table;
+};
+
+Proved prove(const std::vector<ClaimEntry>& entries, const std::vector<std::string>& names) {
+  Proved out;
   RunResult run;
   CheckOptions options;
   options.seed = 5;
   for (const ClaimEntry& e : entries) {
     if (!e.claim || std::find(names.begin(), names.end(), e.name) == names.end()) continue;
-    table.emplace(e.name, *e.claim);
+    out.table.emplace(e.name, *e.claim);
     ClaimResult r = check_claim(*e.claim, options);
     EXPECT_EQ(r.verdict, Verdict::kHolds) << e.name;
     run.claims.push_back(r);
   }
+  out.report = nlohmann::json::parse(render_json(run));
+  return out;
+}
+
+// The re-checker's answers by claim name.
+std::map<std::string, RecheckedClaim> recheck(const nlohmann::json& report,
+                                              const std::multimap<std::string, Claim>& table) {
   std::map<std::string, RecheckedClaim> out;
-  for (const RecheckedClaim& c : recheck_report(render_json(run), "sums.json", table).claims)
+  for (const RecheckedClaim& c : recheck_report(report.dump(), "sums.json", table).claims)
     out[c.name] = c;
   return out;
 }
 
-TEST(RecheckSumProofs, TheDemoSumClaimsAreReChecked) {
+TEST(RecheckSumProofs, TheDemoSumClaimsAreReCheckedAndDoctoredCopiesAreNot) {
   std::string path = std::string(THETAGATE_SOURCE_DIR) + "/claims/average.toml";
   const std::vector<std::string> names = {
       "orchard::quick_sort / comparisons, average, exact",
       "orchard::ordered_map / total key depth, random insertion order",
       "orchard::select / comparisons, larger side"};
-  auto out = prove_and_recheck(load_claim_file(path), names);
+  Proved proved = prove(load_claim_file(path), names);
+  auto out = recheck(proved.report, proved.table);
   ASSERT_EQ(out.size(), names.size());
   for (const std::string& name : names)
     EXPECT_EQ(out[name].status, RuleStatus::kRechecked) << name << ": " << out[name].detail;
+  // The same report with M moved to 0 (below where the line applies) and
+  // select's modulus 1 (too small for floor(n/2)).
+  nlohmann::json doctored = proved.report;
+  for (nlohmann::json& c : doctored["claims"]) {
+    nlohmann::json& induction = c["basis"]["induction"];
+    if (c["basis"]["certificate"]["method"] == "sum-difference") induction["checked_to"] = "0";
+    if (c["basis"]["certificate"]["method"] == "sum-step") induction["modulus"] = 1;
+  }
+  out = recheck(doctored, proved.table);
+  ASSERT_EQ(out.size(), names.size());
+  EXPECT_EQ(out[names[0]].status, RuleStatus::kRejected) << out[names[0]].detail;
+  EXPECT_NE(out[names[0]].detail.find("point case C(0)"), std::string::npos)
+      << out[names[0]].detail;
+  EXPECT_EQ(out[names[1]].status, RuleStatus::kRejected) << out[names[1]].detail;
+  EXPECT_EQ(out[names[2]].status, RuleStatus::kRejected) << out[names[2]].detail;
+  EXPECT_NE(out[names[2]].detail.find("not exact modulo 1"), std::string::npos)
+      << out[names[2]].detail;
 }
 
 TEST(RecheckSumProofs, TheProversOtherSumHoldsAreReChecked) {
@@ -248,8 +279,9 @@ TEST(RecheckSumProofs, TheProversOtherSumHoldsAreReChecked) {
            {kLargerSide, "T(n) >= n - 1 for n >= 1"}})
     toml += "[[claim]]\nname = \"orchard::sums " + std::to_string(i++) +
             "\"\nrecurrence = \"\"\"\n" + recurrence + "\n\"\"\"\nbound = \"" + bound + "\"\n\n";
-  auto out = prove_and_recheck(load_claim_text(toml, "sums.toml"),
-                               {"orchard::sums 0", "orchard::sums 1", "orchard::sums 2"});
+  Proved proved = prove(load_claim_text(toml, "sums.toml"),
+                        {"orchard::sums 0", "orchard::sums 1", "orchard::sums 2"});
+  auto out = recheck(proved.report, proved.table);
   ASSERT_EQ(out.size(), 3u);
   for (const auto& [name, c] : out)
     EXPECT_EQ(c.status, RuleStatus::kRechecked) << name << ": " << c.detail;
