@@ -11,6 +11,8 @@
 // largest, verdict = 0 holds, 1 refuted, 2 undecided, 3 error. The default
 // work budget (CheckOptions::kDefaultWorkBudget) is calibrated here: a claim
 // that spends all of it (median of medians) should take about 200 ms.
+// RecheckSumCertificates times the re-checker's rules alone on the demo's
+// three proofs over sums (about 1.2 ms of CPU for the three on this machine).
 #include <benchmark/benchmark.h>
 
 #include <cstdlib>
