@@ -6,6 +6,7 @@
 
 #include <string>
 
+#include "tests/support/recheck_rule_test.h"
 #include "verifier/model/bound.h"
 #include "verifier/model/recurrence.h"
 #include "verifier/recheck/expansion.h"
@@ -15,11 +16,8 @@
 namespace thetagate::engine::recheck {
 namespace {
 
-RuleOutcome run(const std::string& recurrence, const std::string& bound, const CertificateData& c) {
-  auto r = recurrence_from_text(recurrence);
-  Bound b = parse_bound(SourceText::whole("<bound>", bound));
-  return check_certificate(*r, b, c);
-}
+// The certificate against the claim written as text.
+constexpr auto* run = &test_support::run_rule;
 
 CertificateData divide(const std::string& proof, const std::string& g, const std::string& low,
                        const std::string& high, const std::string& from = "64") {
@@ -44,20 +42,6 @@ CertificateData induction(const std::string& hypothesis, const std::string& m,
   c.modulus = modulus;
   return c;
 }
-
-#define EXPECT_RECHECKED(outcome)                              \
-  do {                                                         \
-    RuleOutcome o_ = (outcome);                                \
-    EXPECT_EQ(o_.status, RuleStatus::kRechecked) << o_.detail; \
-    EXPECT_GT(o_.obligations, 0);                              \
-  } while (0)
-
-#define EXPECT_REJECTED(outcome, fragment)                               \
-  do {                                                                   \
-    RuleOutcome o_ = (outcome);                                          \
-    EXPECT_EQ(o_.status, RuleStatus::kRejected) << o_.detail;            \
-    EXPECT_NE(o_.detail.find(fragment), std::string::npos) << o_.detail; \
-  } while (0)
 
 // --- The expansions -------------------------------------------------------
 

@@ -91,6 +91,63 @@ void linearize(const ExprPtr& e, const Rational& coef, const std::string& name, 
   }
 }
 
+namespace {
+
+// `e` with its one sum over T's values (reached through products,
+// quotients' numerators and negation only) replaced by 1, the sum kept in
+// `sum`: e = (result) · sum.
+ExprPtr factor_of_sum(const ExprPtr& e, const std::string& name, const Expr*& sum) {
+  if (!calls_function(*e, name)) return e;
+  if (e->kind == ExprKind::kSum && !sum) {
+    sum = e.get();
+    return make_number(Rational(1));
+  }
+  bool linear = e->kind == ExprKind::kMul || e->kind == ExprKind::kNeg ||
+                (e->kind == ExprKind::kDiv && !calls_function(*e->args[1], name));
+  if (!linear) throw Unsupported("T inside " + print(*e));
+  auto copy = std::make_shared<Expr>(*e);
+  for (ExprPtr& a : copy->args) a = factor_of_sum(a, name, sum);
+  // (2/n)·1 reads as 2/n in messages.
+  auto is_one = [](const ExprPtr& x) { return x->kind == ExprKind::kNumber && x->number == 1; };
+  if (copy->kind == ExprKind::kMul && is_one(copy->args[1])) return copy->args[0];
+  if (copy->kind == ExprKind::kMul && is_one(copy->args[0])) return copy->args[1];
+  update_depth(*copy);
+  return copy;
+}
+
+}  // namespace
+
+SumLine sum_line_of(const ExprPtr& body, const std::string& name) {
+  // body = A + W·sum: split off the one additive term that mentions T.
+  ExprPtr a, term;
+  std::function<void(const ExprPtr&, bool)> split = [&](const ExprPtr& e, bool minus) {
+    if (e->kind == ExprKind::kAdd || e->kind == ExprKind::kSub) {
+      split(e->args[0], minus);
+      split(e->args[1], e->kind == ExprKind::kSub ? !minus : minus);
+      return;
+    }
+    ExprPtr signed_e = minus ? make_unary(ExprKind::kNeg, e) : e;
+    if (!calls_function(*e, name)) {
+      a = a ? make_binary(ExprKind::kAdd, a, signed_e) : signed_e;
+      return;
+    }
+    if (term) throw Unsupported("T in two terms of the line");
+    term = signed_e;
+  };
+  split(body, false);
+  if (!term) throw Unsupported("no sum over earlier values of T");
+  SumLine out;
+  out.a = a ? a : make_number(Rational(0));
+  out.w = factor_of_sum(term, name, out.sum);
+  if (!out.sum || calls_function(*out.w, name)) throw Unsupported("T outside the sum");
+  const Expr& summand = *out.sum->args[2];
+  if (summand.kind != ExprKind::kCall || summand.name != name ||
+      summand.args[0]->kind != ExprKind::kBound || summand.args[0]->name != out.sum->name ||
+      calls_function(*out.sum->args[0], name) || calls_function(*out.sum->args[1], name))
+    throw Unsupported("a sum other than sum(k, lo, hi, T(k))");
+  return out;
+}
+
 Expansion driver_of(const Linear& lin, const Context& ctx, const Rational& s, const Rational& t) {
   return lin.f ? expand(*lin.f, ctx, s, t) : constant(Coef::of(Rational(0)));
 }

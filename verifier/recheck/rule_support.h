@@ -3,7 +3,8 @@
 // the obligations "E(n) >= 0 for every n past a point" and "T against a
 // bound on a range", and the declarations of the rules themselves, one per
 // certificate method: theorem_rules.cc (a theorem's hypotheses and
-// conclusion) and induction_rule.cc (an explicit bound by induction).
+// conclusion), induction_rule.cc (an explicit bound by induction) and
+// sum_rules.cc (explicit bounds over a sum of earlier values).
 #ifndef THETAGATE_VERIFIER_RECHECK_RULE_SUPPORT_H_
 #define THETAGATE_VERIFIER_RECHECK_RULE_SUPPORT_H_
 
@@ -43,6 +44,15 @@ struct Linear {
 bool calls_function(const Expr& e, const std::string& name);
 // Adds coef · e to `out`; throws Unsupported where T is not linear.
 void linearize(const ExprPtr& e, const Rational& coef, const std::string& name, Linear& out);
+// A line that sums over earlier values, A(n) + W(n)·sum(k, lo, hi, T(k)):
+// A (zero when absent) and W as expressions, and the sum's node inside the
+// line. Throws Unsupported for any other shape (T outside the one sum, a
+// sum whose body is not T(k), T twice).
+struct SumLine {
+  ExprPtr a, w;
+  const Expr* sum = nullptr;
+};
+SumLine sum_line_of(const ExprPtr& body, const std::string& name);
 // The driver's enclosure with the size read as s·n + t (zero without one).
 Expansion driver_of(const Linear& lin, const Context& ctx, const Rational& s = 1,
                     const Rational& t = 0);
@@ -110,6 +120,8 @@ void full_history(const Recurrence& r, const Bound& bound, const CertificateData
 void change_of_variables(const Recurrence& r, const Bound& bound, const CertificateData& c,
                          int& count);
 void induction(const Recurrence& r, const Bound& bound, const CertificateData& c, int& count);
+void sum_difference(const Recurrence& r, const Bound& bound, const CertificateData& c, int& count);
+void sum_step(const Recurrence& r, const Bound& bound, const CertificateData& c, int& count);
 
 }  // namespace thetagate::engine::recheck
 

@@ -22,6 +22,8 @@ RuleOutcome check_certificate(const Recurrence& recurrence, const Bound& bound,
         {"full-history", {full_history, false}},
         {"change-of-variables", {change_of_variables, false}},
         {"induction", {induction, true}},
+        {"sum-difference", {sum_difference, true}},
+        {"sum-step", {sum_step, true}},
     };
     auto rule = kRules.find(certificate.method);
     if (rule == kRules.end())

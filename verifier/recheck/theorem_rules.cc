@@ -205,23 +205,6 @@ int order_of_exponential(const RealNumber& rho, const Bound& bound) {
   return base != 0 ? base : compare_keys(Key{claimed.rho, RealNumber(0L), 0}, claimed);
 }
 
-// `e` with its one sum (reached through products, quotients' numerators and
-// negation only) replaced by 1, the sum kept in `sum`: e = (result) · sum.
-ExprPtr factor_of_sum(const ExprPtr& e, const std::string& name, const Expr*& sum) {
-  if (e->kind == ExprKind::kSum && !sum) {
-    sum = e.get();
-    return make_number(Rational(1));
-  }
-  if (!calls_function(*e, name)) return e;
-  bool linear = e->kind == ExprKind::kMul || e->kind == ExprKind::kNeg ||
-                (e->kind == ExprKind::kDiv && !calls_function(*e->args[1], name));
-  if (!linear) throw Unsupported("T inside " + print(*e));
-  auto copy = std::make_shared<Expr>(*e);
-  for (ExprPtr& a : copy->args) a = factor_of_sum(a, name, sum);
-  update_depth(*copy);
-  return copy;
-}
-
 // `e` with n replaced by `by`.
 ExprPtr with_n(const ExprPtr& e, const ExprPtr& by) {
   if (e->kind == ExprKind::kVariable) return by;
@@ -452,32 +435,12 @@ void full_history(const Recurrence& r, const Bound& bound, const CertificateData
   BigInt m = parse_size(c.bound_from, "start");
   if (m < 4) throw Rejected{"the start must be at least 4"};
   Context at_m{m, 1, 0, &r.helpers};
-  ExprPtr body = line_on_class(r.main, at_m).body;
-  // body = f + F·sum: split off the one additive term that mentions T.
-  ExprPtr f, term;
-  std::function<void(const ExprPtr&, bool)> split = [&](const ExprPtr& e, bool minus) {
-    if (e->kind == ExprKind::kAdd || e->kind == ExprKind::kSub) {
-      split(e->args[0], minus);
-      split(e->args[1], e->kind == ExprKind::kSub ? !minus : minus);
-      return;
-    }
-    ExprPtr signed_e = minus ? make_unary(ExprKind::kNeg, e) : e;
-    ExprPtr& into = calls_function(*e, r.main.name) ? term : f;
-    if (into == term && term) throw Unsupported("T in two terms of the line");
-    into = into ? make_binary(ExprKind::kAdd, into, signed_e) : signed_e;
-  };
-  split(body, false);
-  if (!term) throw Unsupported("no sum over earlier values of T");
-  if (!f) f = make_number(Rational(0));
-  const Expr* sum = nullptr;
-  ExprPtr factor = factor_of_sum(term, r.main.name, sum);
-  if (!sum || calls_function(*factor, r.main.name)) throw Unsupported("T outside the sum");
+  SumLine line = sum_line_of(line_on_class(r.main, at_m).body, r.main.name);
+  ExprPtr f = line.a, factor = line.w;
+  const Expr* sum = line.sum;
   const Expr& lo = *sum->args[0];
-  const Expr& summand = *sum->args[2];
   auto top = as_affine(expand(*sum->args[1], at_m));
-  if (mentions_n(lo) || contains_sum(lo) || !top || *top != std::pair{Rational(1), Rational(-1)} ||
-      summand.kind != ExprKind::kCall || summand.name != r.main.name ||
-      summand.args[0]->kind != ExprKind::kBound || summand.args[0]->name != sum->name)
+  if (mentions_n(lo) || contains_sum(lo) || !top || *top != std::pair{Rational(1), Rational(-1)})
     throw Unsupported("a sum other than sum(k, k0, n - 1, T(k))");
   if (constant_value(lo) > RealNumber(Rational(m))) throw Unsupported("a sum that starts past M");
   Expansion fe = expand(*factor, at_m);
