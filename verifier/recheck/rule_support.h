@@ -3,7 +3,8 @@
 // the obligations "E(n) >= 0 for every n past a point" and "T against a
 // bound on a range", and the declarations of the rules themselves, one per
 // certificate method: theorem_rules.cc (a theorem's hypotheses and
-// conclusion) and induction_rule.cc (an explicit bound by induction).
+// conclusion), induction_rule.cc (an explicit bound by induction) and
+// dyadic_rule.cc (induction on dyadic blocks).
 #ifndef THETAGATE_VERIFIER_RECHECK_RULE_SUPPORT_H_
 #define THETAGATE_VERIFIER_RECHECK_RULE_SUPPORT_H_
 
@@ -110,6 +111,8 @@ void full_history(const Recurrence& r, const Bound& bound, const CertificateData
 void change_of_variables(const Recurrence& r, const Bound& bound, const CertificateData& c,
                          int& count);
 void induction(const Recurrence& r, const Bound& bound, const CertificateData& c, int& count);
+void dyadic_induction(const Recurrence& r, const Bound& bound, const CertificateData& c,
+                      int& count);
 
 }  // namespace thetagate::engine::recheck
 

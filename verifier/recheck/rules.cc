@@ -22,6 +22,7 @@ RuleOutcome check_certificate(const Recurrence& recurrence, const Bound& bound,
         {"full-history", {full_history, false}},
         {"change-of-variables", {change_of_variables, false}},
         {"induction", {induction, true}},
+        {"dyadic-induction", {dyadic_induction, true}},
     };
     auto rule = kRules.find(certificate.method);
     if (rule == kRules.end())
