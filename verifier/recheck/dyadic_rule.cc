@@ -637,7 +637,7 @@ std::optional<Rational> least_on(const Coefficient& c, const Rational& lo, const
   while (!todo.empty()) {
     auto [a, b] = todo.back();
     todo.pop_back();
-    if (++work > 400000)
+    if (++work > 200000)
       throw Unsupported("the comparison with T's closed form needs too many enclosures");
     Interval v = c.on(a, b);
     if (strict ? v.certainly_positive() : v.certainly_nonnegative()) {
