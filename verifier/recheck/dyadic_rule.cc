@@ -31,7 +31,7 @@
 //   and the certificate is rejected with such an n where one is found.
 // - A bound that is not exact: T = F is proved as above; the claim's side
 //   B against F is then compared on each block 2^k <= n < 2^(k+1) with the
-//   re-checker's own interval arithmetic in x = n/2^k (see compare_sides).
+//   re-checker's own interval arithmetic in x = n/2^k (compare_on_blocks).
 #include <algorithm>
 #include <array>
 #include <map>
@@ -94,6 +94,7 @@ Poly operator*(const Poly& a, const Poly& b) {
       for (int s = 0; s < kSymbols; ++s) e[s] = ea[s] + eb[s];
       out.add(e, ca * cb);
     }
+  if (out.terms.size() > 4096) throw Unsupported("a polynomial of more than 4096 terms");
   return out;
 }
 
@@ -476,6 +477,7 @@ std::string witness(const Poly& diff, const Piece& piece, uint64_t k0) {
     BigInt P = BigInt(1) << k;
     for (int i = 0; i < (piece.part == Part::kInterior ? 8 : 1); ++i) {
       Rational m = piece.m_at(P, i);
+      if (piece.part == Part::kInterior && m > Rational(2 * P - 1 - piece.edge)) break;
       Rational v = value_at(diff, m, P, k);
       if (v != 0) return ": at n = " + to_string(2 * m + piece.r) + " it is " + to_string(v);
     }
@@ -491,6 +493,7 @@ void prove_step(const Recurrence& r, const ExprPtr& b, const BigInt& s, const Bi
   const std::string& name = r.main.name;
   uint64_t k0 = bit_length(m + 1) - 2;  // 2^(k0+1) <= M + 1 < 2^(k0+2)
   std::string unsupported;
+  std::optional<Rejected> too_short;
   for (int edge : {2, 4, 8}) {
     try {
       Needs needs;
@@ -522,11 +525,14 @@ void prove_step(const Recurrence& r, const ExprPtr& b, const BigInt& s, const Bi
         identities.emplace_back(piece, diff);
       }
       if (needs.from > k0) {
+        // Wider edges may need less; rejected when none is enough.
         BigInt need = (BigInt(1) << (needs.from + 1)) - 1;
-        throw Rejected{"the exact range ends at M = " + m.str() +
-                       ", but the step holds only from " + "the block 2^" +
-                       std::to_string(needs.from) + " of m on (" + needs.why +
-                       "): M must be at least " + need.str()};
+        if (!too_short)
+          too_short =
+              Rejected{"the exact range ends at M = " + m.str() +
+                       ", but the step holds only from the block 2^" + std::to_string(needs.from) +
+                       " of m on (" + needs.why + "): M must be at least " + need.str()};
+        continue;
       }
       for (const auto& [piece, diff] : identities) {
         if (!diff.is_zero())
@@ -540,6 +546,7 @@ void prove_step(const Recurrence& r, const ExprPtr& b, const BigInt& s, const Bi
       if (unsupported.empty()) unsupported = u.what();
     }
   }
+  if (too_short) throw *too_short;
   throw Unsupported(unsupported);
 }
 
