@@ -71,6 +71,22 @@ T(n) = 1 if n <= 2
 T(n) = T(floor(sqrt(n))) + 1
 """
 bound = "Theta(lg lg n)"
+
+[[claim]]
+name = "probes"
+recurrence = """
+T(n) = T(floor(n/2)) + 1
+T(1) = 1
+"""
+bound = "T(n) = floor(lg n) + 1 for n >= 1"
+
+[[claim]]
+name = "merge, tight"
+recurrence = """
+T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1
+T(1) = 0
+"""
+bound = "T(n) <= n lg n - 0.9139286 n + 1 for n >= 10^8"
 )toml";
     for (auto& entry : thetagate::engine::load_claim_text(text, "orchard.toml"))
       if (entry.claim) out->emplace(entry.name, *entry.claim);

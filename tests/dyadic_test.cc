@@ -8,10 +8,13 @@
 #include <rapidcheck/gtest.h>
 
 #include <string>
+#include <utility>
 
+#include "verifier/derivation/certificate.h"
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/model/bound.h"
 #include "verifier/model/recurrence.h"
+#include "verifier/recheck/rules.h"
 #include "verifier/syntax/parser.h"
 
 namespace thetagate::engine {
@@ -215,10 +218,9 @@ bool meets_up_to(const std::string& recurrence, const std::string& bound, int64_
   return true;
 }
 
-// Whatever the halving recurrence and the bound (random small coefficients;
-// most of them false), a bound the prover proves is met at every size up to
-// 1200, twenty times past its exact range.
-RC_GTEST_PROP(DyadicInductionProperty, WhatIsProvedIsTrueFarPastTheExactRange, ()) {
+// A halving recurrence and an explicit bound with random small
+// coefficients (most of them false).
+std::pair<std::string, std::string> random_halving_claim() {
   const int a = *rc::gen::inRange(0, 3), b = *rc::gen::inRange(a == 0 ? 1 : 0, 3);
   const int c = *rc::gen::inRange(0, 4), d = *rc::gen::inRange(-2, 3), e = *rc::gen::inRange(0, 4);
   auto num = [](int v) { return "(" + std::to_string(v) + ")"; };
@@ -235,9 +237,97 @@ RC_GTEST_PROP(DyadicInductionProperty, WhatIsProvedIsTrueFarPastTheExactRange, (
                        : kind == 1 ? "<="
                                    : ">=") +
                       " " + form + " for n >= 1";
+  return {rec, bound};
+}
+
+// Whatever the halving recurrence and the bound, a bound the prover proves
+// is met at every size up to 1200, twenty times past its exact range.
+RC_GTEST_PROP(DyadicInductionProperty, WhatIsProvedIsTrueFarPastTheExactRange, ()) {
+  auto [rec, bound] = random_halving_claim();
   InductionOutcome out = attempt(rec, bound);
   RC_CLASSIFY(out.proof.has_value(), "proved");
   if (out.proof) RC_ASSERT(meets_up_to(rec, bound, 1200));
+}
+
+// A halving recurrence with a known closed form F and a bound near it: F
+// itself, or F with room (1, floor(lg n), n) on one side, shifted by -1, 0
+// or 1 (so some bounds are false). The closed forms: merge sort's worst
+// case (Suchenek, above) scaled and shifted by linearity (calc, as in
+// LinearDriversSolvedByLinearity); c floor(lg n) + e and c ceil(lg n) + e
+// for one halving call (from memory: floor(lg n) halvings down to 1);
+// (e + c) 2^floor(lg n) - c for two calls of T(floor(n/2)) (calc: it solves
+// 2T(floor(n/2)) + c, T(1) = e, since floor(lg floor(n/2)) = floor(lg n) - 1).
+std::pair<std::string, std::string> near_true_halving_claim() {
+  const int family = *rc::gen::inRange(0, 4);
+  const int c = *rc::gen::inRange(1, 4), d = *rc::gen::inRange(-1, 3), e = *rc::gen::inRange(0, 6);
+  auto num = [](int v) { return "(" + std::to_string(v) + ")"; };
+  std::string rec, form;
+  switch (family) {
+    case 0:
+      rec = "T(n) = T(ceil(n/2)) + T(floor(n/2)) + " + num(c) + "n + " + num(d);
+      form = num(c) + "(n ceil(lg n) - 2^ceil(lg n) + 1) + " + num(c + d + e) + "n - " + num(c + d);
+      break;
+    case 1:
+      rec = "T(n) = T(floor(n/2)) + " + num(c);
+      form = num(c) + "floor(lg n) + " + num(e);
+      break;
+    case 2:
+      rec = "T(n) = T(ceil(n/2)) + " + num(c);
+      form = num(c) + "ceil(lg n) + " + num(e);
+      break;
+    default:
+      rec = "T(n) = 2T(floor(n/2)) + " + num(c);
+      form = num(e + c) + "2^floor(lg n) - " + num(c);
+      break;
+  }
+  rec += "; T(1) = " + num(e);
+  const int kind = *rc::gen::inRange(0, 3);  // =, <=, >=
+  const int shift = *rc::gen::element(-1, 0, 0, 0, 1);
+  const std::string room = *rc::gen::element<std::string>("0", "1", "floor(lg n)", "n");
+  std::string side = kind == 0 ? "= " : kind == 1 ? "<= " : ">= ";
+  std::string bound = "T(n) " + side + form + " + " + num(shift);
+  if (kind != 0) bound += (kind == 1 ? " + " : " - ") + room;
+  return {rec, bound + " for n >= 1"};
+}
+
+// The certificate of a proof as the JSON report carries it
+// (reports/json_report.cc, basis.induction and certificate.method).
+recheck::CertificateData certificate_of(const InductionProof& p) {
+  recheck::CertificateData c;
+  c.method = induction_certificate(p).method;
+  for (Side s : p.sides) c.sides.push_back(s == Side::kUpper ? "upper" : "lower");
+  c.hypothesis = p.bound;
+  c.checked_from = p.checked_from.str();
+  c.checked_to = p.checked_to.str();
+  c.modulus = std::to_string(p.modulus);
+  c.closed_form = p.closed_form;
+  return c;
+}
+
+// The independent re-checker (verifier/recheck/dyadic_rule.cc) re-verifies
+// every proof of the prover from the claim and the certificate's numbers: it
+// may say it cannot follow a comparison, but never rejects a proof, and it
+// follows every exact closed form.
+void expect_rechecked_or_honestly_not(const std::string& rec, const std::string& bound) {
+  InductionOutcome out = attempt(rec, bound);
+  RC_CLASSIFY(out.proof.has_value(), "proved");
+  if (!out.proof) return;
+  auto r = recurrence_from_text(rec);
+  Bound b = parse_bound(SourceText::whole("<bound>", bound));
+  recheck::RuleOutcome o = recheck::check_certificate(*r, b, certificate_of(*out.proof));
+  RC_CLASSIFY(o.status == recheck::RuleStatus::kRechecked, "re-checked");
+  RC_ASSERT(o.status != recheck::RuleStatus::kRejected);
+  if (out.proof->closed_form.empty()) RC_ASSERT(o.status == recheck::RuleStatus::kRechecked);
+}
+
+RC_GTEST_PROP(DyadicInductionProperty, EveryProofIsReCheckedOrHonestlyNot, ()) {
+  auto [rec, bound] = random_halving_claim();
+  expect_rechecked_or_honestly_not(rec, bound);
+}
+
+RC_GTEST_PROP(DyadicInductionProperty, EveryProofNearATrueFormIsReCheckedOrHonestlyNot, ()) {
+  auto [rec, bound] = near_true_halving_claim();
+  expect_rechecked_or_honestly_not(rec, bound);
 }
 
 }  // namespace

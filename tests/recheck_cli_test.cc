@@ -46,15 +46,17 @@ TEST_F(RecheckCli, EveryHoldsOfTheDemoAndTheTestClaimsIsReCheckedOrSaysWhyNot) {
   CommandResult again = run_shell(tg("recheck '" + report.string() + "'"));
   EXPECT_EQ(again.status, 0) << again.out;
   EXPECT_EQ(count_of(again.out, "REJECTED"), 0u) << again.out;
-  // 31 of the demo's 33 holds (the three proofs over sums of earlier
-  // values included) and both of tests/data's; the two exact counts proved
-  // by induction on dyadic blocks (find_sorted, stable_sort) have no
-  // re-checker rule yet and say so.
-  EXPECT_EQ(count_of(again.out, ": re-checked ("), 33u) << again.out;
-  EXPECT_EQ(count_of(again.out, ": not re-checked: the method 'dyadic-induction' has no rule"), 2u)
+  // Every one of the demo's 33 holds, the two exact counts proved by
+  // induction on dyadic blocks and the three proofs over sums of earlier
+  // values among them, and both of tests/data's.
+  EXPECT_EQ(count_of(again.out, ": re-checked ("), 35u) << again.out;
+  EXPECT_EQ(count_of(again.out, "orchard::find_sorted / probes, exact: re-checked ("), 1u)
       << again.out;
-  EXPECT_EQ(count_of(again.out, "has no rule in the re-checker"), 2u) << again.out;
-  EXPECT_NE(again.out.find("35 holds: 33 re-checked, 0 rejected, 2 not re-checked"),
+  EXPECT_EQ(
+      count_of(again.out, "orchard::stable_sort / comparisons, exact worst case: re-checked ("), 1u)
+      << again.out;
+  EXPECT_EQ(count_of(again.out, "has no rule in the re-checker"), 0u) << again.out;
+  EXPECT_NE(again.out.find("35 holds: 35 re-checked, 0 rejected, 0 not re-checked"),
             std::string::npos)
       << again.out;
   EXPECT_NE(again.out.find("0 rejected"), std::string::npos) << again.out;
@@ -71,7 +73,7 @@ TEST_F(RecheckCli, EveryHoldsOfTheDemoAndTheTestClaimsIsReCheckedOrSaysWhyNot) {
     EXPECT_FALSE(answer.empty()) << c["name"];
     rechecked += answer.rfind("re-checked (", 0) == 0;
   }
-  EXPECT_EQ(rechecked, 33);
+  EXPECT_EQ(rechecked, 35);
 }
 
 TEST_F(RecheckCli, ADoctoredCertificateIsRejectedWithItsObligationAndExit3) {

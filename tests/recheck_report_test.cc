@@ -116,6 +116,71 @@ TEST(RecheckReport, AReportAboutAnotherClaimIsRejected) {
   EXPECT_EQ(out[1].status, RuleStatus::kRejected);
 }
 
+const char* kDyadic = R"toml([[claim]]
+name = "orchard::find_sorted / probes, exact"
+recurrence = """
+T(n) = T(floor(n/2)) + 1
+T(1) = 1
+"""
+bound = "T(n) = floor(lg n) + 1 for n >= 1"
+
+[[claim]]
+name = "orchard::stable_sort / comparisons, tight"
+recurrence = """
+T(n) = T(ceil(n/2)) + T(floor(n/2)) + n - 1
+T(1) = 0
+"""
+bound = "T(n) <= n lg n - 0.9139286 n + 1 for n >= 10^8"
+)toml";
+
+// A dyadic holds as the JSON report writes it: the numbers and T's closed
+// form in basis.induction.
+Json dyadic_holds(const std::string& name, const std::string& claimed, const std::string& bound,
+                  const std::string& closed_form) {
+  Json sides = closed_form.empty() ? Json{"upper", "lower"} : Json{"upper"};
+  return holds(name, claimed,
+               Json{{"method", "dyadic-induction"},
+                    {"proof", "induction on dyadic blocks"},
+                    {"obligations", Json::array()}},
+               Json{{"sides", sides},
+                    {"bound", bound},
+                    {"checked_from", "1"},
+                    {"checked_to", "63"},
+                    {"modulus", 1},
+                    {"dyadic", true},
+                    {"closed_form", closed_form}});
+}
+
+TEST(RecheckReport, DyadicProofsAreReadFromTheInductionObject) {
+  auto table = claims_of(kDyadic);
+  // Binary search probes floor(lg n) + 1 (docs/sources.md: from memory;
+  // calc); merge sort's worst case n lg n - theta n + 1 with theta >=
+  // 0.9139286 (P. Flajolet, M. Golin, "Mellin transforms and asymptotics:
+  // the mergesort recurrence", 1994), against its closed form (M. A.
+  // Suchenek, arXiv:1702.08443, 2017). The exact range starts at
+  // checked_from = 1, below the claim's 10^8.
+  const char* tight = "T(n) <= n lg n - 0.9139286 n + 1 for n >= 10^8";
+  const char* form = "n*floor(lg(n)) + n - 2*2^floor(lg(n)) + 1";
+  Json claims =
+      Json::array({dyadic_holds("orchard::find_sorted / probes, exact",
+                                "T(n) = floor(lg n) + 1 for n >= 1", "= floor(lg(n)) + 1", ""),
+                   dyadic_holds("orchard::stable_sort / comparisons, tight", tight,
+                                "<= n*lg(n) - 0.9139286*n + 1", form),
+                   // Mutants: the report's claim edited, T's closed form off by one.
+                   dyadic_holds("orchard::find_sorted / probes, exact",
+                                "T(n) = floor(lg n) + 2 for n >= 1", "= floor(lg(n)) + 2", ""),
+                   dyadic_holds("orchard::stable_sort / comparisons, tight", tight,
+                                "<= n*lg(n) - 0.9139286*n + 1", std::string(form) + " + 1")});
+  auto out = recheck_json(claims, table);
+  ASSERT_EQ(out.size(), 4u);
+  EXPECT_EQ(out[0].status, RuleStatus::kRechecked) << out[0].detail;
+  EXPECT_EQ(out[1].status, RuleStatus::kRechecked) << out[1].detail;
+  EXPECT_EQ(out[2].status, RuleStatus::kRejected);
+  EXPECT_NE(out[2].detail.find("differs from the claim file"), std::string::npos) << out[2].detail;
+  EXPECT_EQ(out[3].status, RuleStatus::kRejected);
+  EXPECT_NE(out[3].detail.find("fails at n = 1"), std::string::npos) << out[3].detail;
+}
+
 TEST(RecheckReport, AHoldsWithoutACertificateIsNotReChecked) {
   auto table = claims_of(kOrchard);
   Json c = holds("orchard::merge_rows / comparisons", "Theta(n lg n)", nullptr);

@@ -65,6 +65,8 @@ CertificateData certificate_of(const Json& basis) {
     c.hypothesis = text_at(*induction, "bound");
     c.checked_to = number_text_at(*induction, "checked_to");
     c.modulus = number_text_at(*induction, "modulus");
+    c.checked_from = number_text_at(*induction, "checked_from");
+    c.closed_form = text_at(*induction, "closed_form");
   }
   return c;
 }

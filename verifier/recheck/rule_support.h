@@ -4,7 +4,8 @@
 // bound on a range", and the declarations of the rules themselves, one per
 // certificate method: theorem_rules.cc (a theorem's hypotheses and
 // conclusion), induction_rule.cc (an explicit bound by induction) and
-// sum_rules.cc (explicit bounds over a sum of earlier values).
+// sum_rules.cc (explicit bounds over a sum of earlier values) and
+// dyadic_rule.cc (induction on dyadic blocks).
 #ifndef THETAGATE_VERIFIER_RECHECK_RULE_SUPPORT_H_
 #define THETAGATE_VERIFIER_RECHECK_RULE_SUPPORT_H_
 
@@ -122,6 +123,8 @@ void change_of_variables(const Recurrence& r, const Bound& bound, const Certific
 void induction(const Recurrence& r, const Bound& bound, const CertificateData& c, int& count);
 void sum_difference(const Recurrence& r, const Bound& bound, const CertificateData& c, int& count);
 void sum_step(const Recurrence& r, const Bound& bound, const CertificateData& c, int& count);
+void dyadic_induction(const Recurrence& r, const Bound& bound, const CertificateData& c,
+                      int& count);
 
 }  // namespace thetagate::engine::recheck
 

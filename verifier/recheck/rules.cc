@@ -24,6 +24,7 @@ RuleOutcome check_certificate(const Recurrence& recurrence, const Bound& bound,
         {"induction", {induction, true}},
         {"sum-difference", {sum_difference, true}},
         {"sum-step", {sum_step, true}},
+        {"dyadic-induction", {dyadic_induction, true}},
     };
     auto rule = kRules.find(certificate.method);
     if (rule == kRules.end())

@@ -31,6 +31,8 @@ struct CertificateData {
   std::string hypothesis;          // "<= 2n*lg(n)", "= n", ">= a and <= b"
   std::string checked_to;          // M
   std::string modulus;
+  std::string checked_from;  // where the exact range starts
+  std::string closed_form;   // dyadic-induction: T's closed form F, "" when B was carried
 };
 
 enum class RuleStatus { kRechecked, kRejected, kNotRechecked };
