@@ -196,6 +196,31 @@ TEST(ClassTerm, AnODriverBoundsBelowOnlyThroughPositiveBaseValues) {
   EXPECT_EQ(to_string(*theta_base.lower), "n");
 }
 
+// T(n) = T(n - 1) + O(1), as reviewers write a loop's cost: T is O(n) by
+// subtract-and-conquer on the driver 1 (common practice), and Ω(1) from the
+// leaves only with a positive base value; Θ(n) does not follow (f = 0 gives
+// T = T(0)). With a = 2 the leaves alone give Θ(2^n), so an O(1) driver keeps
+// T = Θ(2^n) on both sides.
+TEST(ClassTerm, SubtractAndConquerBoundsAnODriverByComparison) {
+  Derivation d = derive(*recurrence_from_text("T(n) = T(n - 1) + O(1); T(0) = 1"));
+  EXPECT_FALSE(d.growth.has_value());
+  ASSERT_TRUE(d.upper && d.lower);
+  EXPECT_EQ(d.bound_text(), "O(n) and Omega(1)");
+  EXPECT_EQ(d.method, "comparison with the drivers 0 and 1: subtract-and-conquer");
+  Derivation zero_base = derive(*recurrence_from_text("T(n) = T(n - 1) + O(1); T(0) = 0"));
+  EXPECT_EQ(zero_base.bound_text(), "O(n)");
+  Derivation doubling = derive(*recurrence_from_text("T(n) = 2T(n - 1) + O(n); T(0) = 1"));
+  EXPECT_EQ(doubling.bound_text(), "O(2^n) and Omega(2^n)");
+  ClaimResult linear = check_text("T(n) = T(n - 1) + O(1); T(0) = 0", "O(n)");
+  EXPECT_EQ(linear.verdict, Verdict::kHolds) << verdict_message(linear);
+  ClaimResult quadratic = check_text("T(n) = T(n - 1) + O(n); T(0) = 0", "O(n^2)");
+  EXPECT_EQ(quadratic.verdict, Verdict::kHolds) << verdict_message(quadratic);
+  ClaimResult theta = check_text("T(n) = T(n - 1) + O(1); T(0) = 1", "Theta(n)");
+  EXPECT_NE(theta.verdict, Verdict::kHolds) << verdict_message(theta);
+  ClaimResult too_small = check_text("T(n) = T(n - 1) + Θ(n); T(0) = 0", "O(n)");
+  EXPECT_EQ(too_small.verdict, Verdict::kRefuted) << verdict_message(too_small);
+}
+
 TEST(ClassTerm, ClaimsHoldOnlyByTheTheoremsAndFallByAMember) {
   ClaimResult merge = check_text("T(n) = 2T(n/2) + Θ(n); T(1) = 1", "Theta(n log n)");
   EXPECT_EQ(merge.verdict, Verdict::kHolds) << verdict_message(merge);

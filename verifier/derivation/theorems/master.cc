@@ -1,6 +1,7 @@
 #include "verifier/derivation/theorems/master.h"
 
 #include "verifier/derivation/regularity.h"
+#include "verifier/derivation/theorems/comparison.h"
 
 namespace thetagate::engine {
 
@@ -125,66 +126,11 @@ TheoremOutcome master_on_zero(const Rational& a, const Rational& divisor,
   return out;
 }
 
-// f lies between c₁·lower and c₂·upper for large n (every case line is of a
-// class between the two; or f has O/Ω terms), and a > 0, so T lies between
-// the recurrences driven by those bounds; the master theorem solves each on
-// its class. Sets the one-sided bounds of `out` (it stays without a Θ
-// class). A missing upper bound (an Ω term) gives a lower bound only; a zero
-// lower bound (f is only O(g)) still leaves T = Ω(n^p) from the leaves.
-void bound_by_comparison(const Rational& a, const Rational& divisor, const DerivationInput& input,
-                         TheoremOutcome& out) {
-  std::optional<TheoremOutcome> up, low;
-  if (input.driving_upper) {
-    up = master_on_class(a, divisor, *input.driving_upper, to_string(*input.driving_upper));
-  }
-  std::string lower_text = input.driving_lower_zero ? "0" : "";
-  if (input.driving_lower) {
-    lower_text = to_string(*input.driving_lower);
-    low = master_on_class(a, divisor, *input.driving_lower, lower_text);
-  } else if (input.driving_lower_zero) {
-    low = master_on_zero(a, divisor, input);
-  }
-  if (up && !up->applies()) up.reset();
-  if (low && !low->applies()) low.reset();
-  if (!up && !low) return;
-  std::string upper_text = input.driving_upper ? to_string(*input.driving_upper) : "";
-  std::string between;
-  if (!lower_text.empty() && !upper_text.empty()) {
-    between = (lower_text == "0" ? "0" : "c₁ " + lower_text) + " <= f(n) <= c₂ " + upper_text;
-  } else if (!upper_text.empty()) {
-    between = "0 <= f(n) <= c₂ " + upper_text;
-  } else {
-    between = "f(n) >= c₁ " + lower_text;
-  }
-  out.bounds_steps.push_back((input.driving_one_sided
-                                  ? "f(n) is bounded by its terms: "
-                                  : "every case line of f is of a class "
-                                    "between Θ(" +
-                                        lower_text + ") and Θ(" + upper_text + "), so ") +
-                             between + " for all large n");
-  out.bounds_steps.push_back(
-      "comparison: the recursion's coefficient a is positive, so T is monotone in f and lies " +
-      std::string(up && low ? "between the solutions" : "on that side of the solution") +
-      " of the same recursion driven by " + (up && low ? "those bounds" : "that bound") +
-      " (their base values adjusted for the finitely many smaller n)");
-  std::string conclusion;
-  if (up) {
-    out.upper = up->growth;
-    out.bounds_steps.push_back("driven by " + upper_text + ": " + up->method + ", Θ(" +
-                               to_string(*up->growth) + ")");
-    conclusion = "T(n) = O(" + to_string(*up->growth) + ")";
-  }
-  if (low) {
-    out.lower = low->growth;
-    out.bounds_steps.push_back("driven by " + lower_text + ": " + low->method + ", Θ(" +
-                               to_string(*low->growth) + ")");
-    conclusion += (conclusion.empty() ? "T(n) = Ω(" : " and Ω(") + to_string(*low->growth) + ")";
-  }
-  out.bounds_steps.push_back(conclusion);
-  std::string drivers = up && low ? "the drivers " + lower_text + " and " + upper_text
-                        : up      ? "the driver " + upper_text
-                                  : "the driver " + lower_text;
-  out.bounds_method = "comparison with " + drivers + ": master theorem";
+// The master theorem on a driver's class, or on f = 0 (g null): one side of
+// a comparison (comparison.h).
+std::optional<TheoremOutcome> master_on(const Rational& a, const Rational& divisor,
+                                        const GrowthClass* g, const DerivationInput& input) {
+  return g ? master_on_class(a, divisor, *g, to_string(*g)) : master_on_zero(a, divisor, input);
 }
 
 }  // namespace
@@ -364,7 +310,9 @@ TheoremOutcome master_theorem(const DerivationInput& input) {
   // No Θ class from the theorem itself: T is still bounded on each side by
   // comparison with the extremes of f's case lines.
   auto with_bounds = [&](TheoremOutcome& o) -> TheoremOutcome& {
-    bound_by_comparison(t.a, divisor, input, o);
+    bound_by_comparison(
+        input, "master theorem",
+        [&](const GrowthClass* g) { return master_on(t.a, divisor, g, input); }, o);
     if (!o.bounds_steps.empty()) {
       if (!rounding.empty()) o.bounds_steps.insert(o.bounds_steps.begin(), rounding);
       o.bounds_steps.insert(o.bounds_steps.begin(), prefix.begin(), prefix.end());

@@ -1,6 +1,7 @@
 #include "verifier/derivation/theorems/subtract.h"
 
 #include "verifier/derivation/theorems/akra_bazzi.h"
+#include "verifier/derivation/theorems/comparison.h"
 
 namespace thetagate::engine {
 
@@ -16,27 +17,21 @@ namespace thetagate::engine {
 // a > 1: T(n) = a^q (T_r + sum_{j<q} f(n - j b) a^(j - q)); the sum in brackets
 //        converges (f polynomial against a geometric decay), so T = Θ(a^q)
 //        = Θ(a^(n/b)) -- tight, not merely O(n^k a^(n/b)).
-TheoremOutcome subtract_and_conquer(const DerivationInput& input) {
+namespace {
+
+// The theorem on the term a T(n - b) (a > 0) with the driver `driving`.
+TheoremOutcome subtract_on(const SubtractiveTerm& t, const Classification& driving,
+                           const DerivationInput& input) {
   TheoremOutcome out;
   out.theorem = "subtract-and-conquer";
-  const Shape& s = *input.shape;
-  if (s.subtractive.size() != 1 || !s.scaled.empty() || !s.roots.empty()) {
-    out.failure = "subtract-and-conquer needs exactly one term a T(n - b)";
-    return out;
-  }
-  const SubtractiveTerm& t = s.subtractive[0];
-  if (t.a <= 0) {
-    out.failure = "subtract-and-conquer needs a > 0; here a = " + to_string(t.a);
-    return out;
-  }
   GrowthClass f = GrowthClass::constant();
-  if (input.driving.growth) {
-    f = *input.driving.growth;
-  } else if (!input.driving.zero) {
-    out.failure = "f(n) has no growth class: " + input.driving.reason;
+  if (driving.growth) {
+    f = *driving.growth;
+  } else if (!driving.zero) {
+    out.failure = "f(n) has no growth class: " + driving.reason;
     return out;
   }
-  if (input.driving.zero && t.a >= 1 && !input.leaves_positive) {
+  if (driving.zero && t.a >= 1 && !input.leaves_positive) {
     out.failure = input.leaves_failure();
     return out;
   }
@@ -77,12 +72,12 @@ TheoremOutcome subtract_and_conquer(const DerivationInput& input) {
     out.growth = result;
     return out;
   }
-  out.steps.push_back("T(n) = a T(n - b) + f(n) with a = " + a + ", b = " + b + ", f(n) = " +
-                      (input.driving.zero ? std::string("0") : "Θ(" + to_string(f) + ")") +
+  out.steps.push_back("T(n) = a T(n - b) + f(n) with a = " + a + ", b = " + b +
+                      ", f(n) = " + (driving.zero ? std::string("0") : "Θ(" + to_string(f) + ")") +
                       " (common practice; derived by unrolling the recursion)");
   GrowthClass result;
   if (t.a < 1) {
-    if (input.driving.zero) {
+    if (driving.zero) {
       out.failure = "with a < 1 and f = 0, T(n) tends to 0 and has no class of the normal form";
       return out;
     }
@@ -92,7 +87,7 @@ TheoremOutcome subtract_and_conquer(const DerivationInput& input) {
     out.method = "subtract-and-conquer, a < 1";
   } else if (t.a == 1) {
     out.method = "subtract-and-conquer, a = 1";
-    if (input.driving.zero) {
+    if (driving.zero) {
       result = GrowthClass::constant();
     } else {
       // T(n) = T_r + sum_{j<q} f(n - j b): the driver summed, Θ(∫ f) (as in
@@ -119,8 +114,8 @@ TheoremOutcome subtract_and_conquer(const DerivationInput& input) {
       // The leading constant, where f's is exact: sum of A m^k lg^j m over
       // m <= n (every b-th m) ~ A/(b (k+1)) n^(k+1) lg^j n, or for k = -1
       // A ln 2/(b (j+1)) lg^(j+1) n = A/(b (j+1)) lg^j n ln n.
-      if (input.driving.coefficient_known && k >= 0 && f.gamma.sign() == 0) {
-        RealNumber A = input.driving.coefficient / RealNumber(Rational(t.c));
+      if (driving.coefficient_known && k >= 0 && f.gamma.sign() == 0) {
+        RealNumber A = driving.coefficient / RealNumber(Rational(t.c));
         std::string leading;
         if (k > 0) {
           RealNumber c = A / (f.alpha + RealNumber(1L));
@@ -142,6 +137,42 @@ TheoremOutcome subtract_and_conquer(const DerivationInput& input) {
   }
   out.steps.push_back("T(n) = Θ(" + to_string(result) + ")");
   out.growth = result;
+  return out;
+}
+
+}  // namespace
+
+TheoremOutcome subtract_and_conquer(const DerivationInput& input) {
+  TheoremOutcome out;
+  out.theorem = "subtract-and-conquer";
+  const Shape& s = *input.shape;
+  if (s.subtractive.size() != 1 || !s.scaled.empty() || !s.roots.empty()) {
+    out.failure = "subtract-and-conquer needs exactly one term a T(n - b)";
+    return out;
+  }
+  const SubtractiveTerm& t = s.subtractive[0];
+  if (t.a <= 0) {
+    out.failure = "subtract-and-conquer needs a > 0; here a = " + to_string(t.a);
+    return out;
+  }
+  out = subtract_on(t, input.driving, input);
+  // f with an O or Ω term has no class, but T lies between the solutions
+  // driven by its bounds (comparison.h).
+  if (!out.applies() && input.driving_one_sided) {
+    bound_by_comparison(
+        input, "subtract-and-conquer",
+        [&](const GrowthClass* g) {
+          Classification c;
+          if (g) {
+            c.growth = *g;
+            c.coefficient_known = false;  // any function of the class
+          } else {
+            c.zero = true;
+          }
+          return std::optional<TheoremOutcome>(subtract_on(t, c, input));
+        },
+        out);
+  }
   return out;
 }
 
