@@ -1,6 +1,6 @@
 // Notation people already write (issue "Each user's first ten minutes", §2):
-// base cases listed with commas, ** for a power, % for mod, && and || in
-// conditions. Each reads exactly as
+// base cases listed with commas, ** and superscripts for a power, % for mod,
+// && and || in conditions. Each reads exactly as
 // the canonical form does, so printing and parsing again is unchanged.
 #include <gtest/gtest.h>
 
@@ -76,6 +76,21 @@ TEST(Notation, PercentAndTheDoubledLogicalOperatorsReadAsModAndOrAnd) {
             }),
             "<r>:1:19: unexpected character '&' [hint: write 'and' / 'or' (or && / ||) in "
             "conditions]");
+}
+
+TEST(Notation, SuperscriptsArePowers) {
+  // As documentation writes them (common practice): n², 2ⁿ, n¹⁰ lg² n.
+  for (auto [text, caret] :
+       {std::pair{"n²", "n^2"}, std::pair{"2ⁿ", "2^n"}, std::pair{"n¹⁰ lg² n", "n^10 lg^2 n"},
+        std::pair{"3n³ + n", "3n^3 + n"}, std::pair{"n^(lg 3) + n⁰", "n^(lg 3) + n^0"}}) {
+    SCOPED_TRACE(text);
+    EXPECT_EQ(print(*parse_expression(SourceText::whole("<e>", text))),
+              print(*parse_expression(SourceText::whole("<e>", caret))));
+  }
+  EXPECT_EQ(printed("T(n) = 2T(n/2) + n²; T(1) = 1"), printed("T(n) = 2T(n/2) + n^2; T(1) = 1"));
+  EXPECT_EQ(located_error_of([] { parse_expression(SourceText::whole("<e>", "n²ⁿ")); }),
+            "<e>:1:2: a superscript mixes ⁿ with other characters [hint: write the power with ^, "
+            "e.g. n^2 or 2^n]");
 }
 
 TEST(Notation, LogWithoutABaseIsLgWhereOnlyTheClassMatters) {

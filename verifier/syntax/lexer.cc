@@ -195,6 +195,25 @@ std::optional<std::pair<std::string, std::string>> look_alike(char32_t code,
                    "replace it with '" + ascii + "'"};
 }
 
+// The digit a superscript character stands for (n², 2ⁿ as documentation
+// writes them), 'n' for ⁿ, or 0.
+char superscript(char32_t code) {
+  switch (code) {
+    case 0x2070:
+      return '0';
+    case 0x00B9:
+      return '1';
+    case 0x00B2:
+      return '2';
+    case 0x00B3:
+      return '3';
+    case 0x207F:
+      return 'n';
+    default:
+      return code >= 0x2074 && code <= 0x2079 ? static_cast<char>('4' + (code - 0x2074)) : 0;
+  }
+}
+
 bool name_start(char c) { return std::isalpha(static_cast<unsigned char>(c)) || c == '_'; }
 bool name_char(char c) { return std::isalnum(static_cast<unsigned char>(c)) || c == '_'; }
 
@@ -235,6 +254,27 @@ std::vector<Token> tokenize(const SourceText& source) {
       size_t start = i;
       while (i < s.size() && name_char(s[i])) ++i;
       tokens.push_back({TokenKind::kName, s.substr(start, i - start), start});
+      continue;
+    }
+    // A run of superscripts is a power: n² reads as n^2, 2ⁿ as 2^n, n¹⁰ as n^10.
+    size_t sup_len = 1;
+    std::optional<char32_t> sup_code = decode_utf8(s, i, sup_len);
+    if (sup_code && superscript(*sup_code)) {
+      size_t start = i;
+      std::string exponent;
+      while (i < s.size()) {
+        size_t len = 1;
+        std::optional<char32_t> code = decode_utf8(s, i, len);
+        char d = code ? superscript(*code) : 0;
+        if (!d) break;
+        exponent += d;
+        i += len;
+      }
+      if (exponent.find('n') != std::string::npos && exponent != "n")
+        fail_at(source, start, "a superscript mixes ⁿ with other characters",
+                "write the power with ^, e.g. n^2 or 2^n");
+      tokens.push_back({TokenKind::kCaret, "^", start});
+      tokens.push_back({exponent == "n" ? TokenKind::kName : TokenKind::kNumber, exponent, start});
       continue;
     }
     bool matched = false;
