@@ -93,6 +93,16 @@ TEST(Notation, SuperscriptsArePowers) {
             "e.g. n^2 or 2^n]");
 }
 
+TEST(Notation, LogUnderscoreTwoIsLg) {
+  // TeX's log_2 n (common practice in papers and documentation).
+  EXPECT_EQ(print(*parse_expression(SourceText::whole("<e>", "n log_2 n"))),
+            print(*parse_expression(SourceText::whole("<e>", "n log2 n"))));
+  EXPECT_EQ(
+      located_error_of([] { parse_expression(SourceText::whole("<e>", "n log_10 n")); }),
+      "<e>:1:3: unknown name 'log_10' [hint: write log(b, n) for a logarithm to base b (lg n or "
+      "log_2 n for base 2, ln n for e)]");
+}
+
 TEST(Notation, LogWithoutABaseIsLgWhereOnlyTheClassMatters) {
   Bound b = parse_bound(SourceText::whole("<bound>", "O(n log n)"));
   EXPECT_EQ(print(*b.growth),

@@ -253,7 +253,9 @@ std::vector<Token> tokenize(const SourceText& source) {
     if (name_start(c)) {
       size_t start = i;
       while (i < s.size() && name_char(s[i])) ++i;
-      tokens.push_back({TokenKind::kName, s.substr(start, i - start), start});
+      std::string name = s.substr(start, i - start);
+      if (name == "log_2") name = "log2";  // as TeX writes it: log_2 n
+      tokens.push_back({TokenKind::kName, name, start});
       continue;
     }
     // A run of superscripts is a power: n² reads as n^2, 2ⁿ as 2^n, n¹⁰ as n^10.

@@ -390,6 +390,8 @@ ExprPtr Parser::parse_name(const Token& name) {
     hint = "separate factors with spaces or '*': n lg n, n*n";
   } else if (name.text == "Theta" || name.text == "O" || name.text == "Omega") {
     hint = "asymptotic classes belong in 'bound', not in an expression";
+  } else if (name.text.rfind("log_", 0) == 0) {
+    hint = "write log(b, n) for a logarithm to base b (lg n or log_2 n for base 2, ln n for e)";
   }
   fail(name, "unknown name '" + name.text + "'", hint);
 }
