@@ -213,8 +213,13 @@ TEST(ClassTerm, SubtractAndConquerBoundsAnODriverByComparison) {
   EXPECT_EQ(doubling.bound_text(), "O(2^n) and Omega(2^n)");
   ClaimResult linear = check_text("T(n) = T(n - 1) + O(1); T(0) = 0", "O(n)");
   EXPECT_EQ(linear.verdict, Verdict::kHolds) << verdict_message(linear);
+  // O(n) is the derived upper bound itself: not reported as loose.
+  EXPECT_TRUE(linear.tight) << verdict_message(linear);
   ClaimResult quadratic = check_text("T(n) = T(n - 1) + O(n); T(0) = 0", "O(n^2)");
   EXPECT_EQ(quadratic.verdict, Verdict::kHolds) << verdict_message(quadratic);
+  ClaimResult cubic = check_text("T(n) = T(n - 1) + O(n); T(0) = 0", "O(n^3)");
+  EXPECT_EQ(cubic.verdict, Verdict::kHolds) << verdict_message(cubic);
+  EXPECT_FALSE(cubic.tight) << verdict_message(cubic);
   ClaimResult theta = check_text("T(n) = T(n - 1) + O(1); T(0) = 1", "Theta(n)");
   EXPECT_NE(theta.verdict, Verdict::kHolds) << verdict_message(theta);
   ClaimResult too_small = check_text("T(n) = T(n - 1) + Θ(n); T(0) = 0", "O(n)");

@@ -430,10 +430,14 @@ ClaimComparison compare_one_sided(const Derivation& derivation, const Bound& bou
       settle(Agreement::kContradicts, *derivation.upper, BoundKind::kBigO, false);
     } else if (bound.kind == BoundKind::kBigO && derivation.upper &&
                compare(g, *derivation.upper) >= 0) {
-      settle(Agreement::kLoose, *derivation.upper, BoundKind::kBigO, false);
+      // O(g) with g the derived upper bound itself is as tight as anything
+      // derived says; only a larger g is known to be loose.
+      settle(compare(g, *derivation.upper) == 0 ? Agreement::kSame : Agreement::kLoose,
+             *derivation.upper, BoundKind::kBigO, false);
     } else if (bound.kind == BoundKind::kOmega && derivation.lower &&
                compare(g, *derivation.lower) <= 0) {
-      settle(Agreement::kLoose, *derivation.lower, BoundKind::kOmega, false);
+      settle(compare(g, *derivation.lower) == 0 ? Agreement::kSame : Agreement::kLoose,
+             *derivation.lower, BoundKind::kOmega, false);
     }
   } catch (const PrecisionShortfall& e) {
     r.agreement.reset();
