@@ -219,7 +219,9 @@ TEST(Comparison, APiecewiseDriverBoundedByRegularOnesProvesBigO) {
   ASSERT_EQ(r.verdict, Verdict::kHolds) << verdict_message(r);
   EXPECT_EQ(r.basis.kind, BasisKind::kDerivationAgrees);
   EXPECT_EQ(r.method, "comparison with the drivers n^2 and n^3: master theorem");
-  EXPECT_FALSE(r.tight);
+  // n^3 is the derived upper bound itself (T is n^3 off the powers of two),
+  // so nothing shows the claim loose.
+  EXPECT_TRUE(r.tight);
   EXPECT_EQ(check_text(rec, "Omega(n^2)", 64).verdict, Verdict::kHolds);
   EXPECT_EQ(check_text(rec, "Omega(n^4)", 64).verdict, Verdict::kRefuted);
   // calc: with f <= n^3, T(n) <= 2 T(n/2) + n^3 <= (4/3) n^3 + n by induction
