@@ -19,8 +19,11 @@
 #include "verifier/checking/checker.h"
 #include "verifier/derivation/certificate.h"
 #include "verifier/derivation/derive.h"
+#include "verifier/model/bound.h"
 #include "verifier/model/claim.h"
 #include "verifier/model/recurrence.h"
+#include "verifier/recheck/rules.h"
+#include "verifier/syntax/parser.h"
 
 namespace thetagate::engine {
 namespace {
@@ -158,6 +161,38 @@ TEST(NormalisedRoots, CertificateCarriesTheNormalisation) {
   EXPECT_EQ(cert->factor_from, "4");
   EXPECT_EQ(cert->driver_class, "n");
   EXPECT_FALSE(cert->chain_low.empty());
+}
+
+// The same rounded root before T and inside it cancels: n/floor(sqrt(n)) ·
+// floor(sqrt(n))/n = 1, so r(n) = 1 with nothing to bound, and T/n = V with
+// V(n) = V(floor(sqrt(n))) + 1 = Θ(lg lg n) (from memory: lg lg n levels).
+TEST(NormalisedRoots, TheSameRootInCoefficientAndArgumentCancels) {
+  Derivation d = derived("T(n) = (n/floor(sqrt(n))) T(floor(sqrt(n))) + n\nT(n) = 1 if n <= 3");
+  ASSERT_TRUE(d.growth) << reasons(d);
+  EXPECT_EQ(d.derived, "n lg lg n");
+  ASSERT_TRUE(d.normalisation);
+  EXPECT_EQ(d.normalisation->factor_low, 1);
+  EXPECT_EQ(d.normalisation->factor_high, 1);
+  EXPECT_EQ(d.normalisation->factor, "1");
+}
+
+// The re-checker has no rule for the method: not re-checked, never accepted
+// (docs/design.md, "The re-checker").
+TEST(NormalisedRoots, TheReCheckerDoesNotClaimToFollowIt) {
+  auto rec = recurrence_from_text(kSquareRootFloors);
+  Derivation d = derive(*rec);
+  std::optional<Certificate> cert = theorem_certificate(*rec, d);
+  ASSERT_TRUE(cert);
+  recheck::CertificateData data;
+  data.method = cert->method;
+  data.proof = cert->proof;
+  data.driver_class = cert->driver_class;
+  data.driver_low = cert->driver_low;
+  data.driver_high = cert->driver_high;
+  data.driver_from = cert->driver_from;
+  Bound bound = parse_bound(SourceText::whole("<bound>", "Theta(n lg n)"));
+  recheck::RuleOutcome out = recheck::check_certificate(*rec, bound, data);
+  EXPECT_EQ(out.status, recheck::RuleStatus::kNotRechecked) << out.detail;
 }
 
 // ---------------------------------------------------------------------------

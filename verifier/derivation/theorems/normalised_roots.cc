@@ -182,7 +182,17 @@ TheoremOutcome normalised_change_of_variables(const DerivationInput& input) {
       }
     }
     if (!merged) r_parts.push_back({rounded_text(term.ceiling, term.k), q});
-    factors.push_back({term.ceiling, term.k, q});
+    // The same rounded root in the coefficient: one factor, its exponents
+    // added (n/floor(sqrt(n)) before T(floor(sqrt(n))) leaves r(n) = 1).
+    merged = false;
+    for (Factor& f : factors) {
+      if (f.ceiling == term.ceiling && f.k == term.k) {
+        f.e += q;
+        merged = true;
+      }
+    }
+    if (!merged) factors.push_back({term.ceiling, term.k, q});
+    std::erase_if(factors, [](const Factor& f) { return f.e == 0; });
     n_power -= q;
   } else {
     n_power += q / k - q;
