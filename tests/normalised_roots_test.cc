@@ -121,6 +121,17 @@ TEST(NormalisedRoots, OneSidedClaimsHold) {
   EXPECT_EQ(check_text(kSquareRootFloors, "O(n^2)").verdict, Verdict::kHolds);
 }
 
+// A driver written as a class: the base lines are still decided exactly, and
+// the proof comes from the classes alone (no certificate for any member).
+TEST(NormalisedRoots, AClassTermDriverDerivesToo) {
+  const char* text = "T(n) = 2 floor(sqrt(n)) T(floor(sqrt(n))) + Θ(n)\nT(n) = 1 if n <= 3";
+  Derivation d = derived(text);
+  ASSERT_TRUE(d.growth) << reasons(d);
+  EXPECT_EQ(d.derived, "n lg n");
+  EXPECT_EQ(d.normalisation->from, 4);
+  EXPECT_FALSE(theorem_certificate(*recurrence_from_text(text), d));
+}
+
 // Near misses must never hold: T = Θ(n lg n) is not Θ(n), Θ(n lg lg n) or
 // Θ(n lg^2 n), nor O(n lg lg n), nor Ω(n lg^2 n).
 TEST(NormalisedRoots, NearMissesNeverHold) {

@@ -294,7 +294,13 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
       }
       return std::nullopt;
     };
-    if (!shape.roots.empty()) input.recursive_from = recursive_start(shape, *evaluator, source);
+  }
+  if (!shape.roots.empty()) {
+    // Only the base lines' conditions are evaluated: a class term in T's
+    // body does not matter to them.
+    std::shared_ptr<const Recurrence> handle(std::shared_ptr<const Recurrence>(), &recurrence);
+    Evaluator conditions(handle, derivation_budget(clock_limit));
+    input.recursive_from = recursive_start(shape, conditions, recurrence.source);
   }
   using Theorem = std::pair<const char*, TheoremOutcome (*)(const DerivationInput&)>;
   std::vector<Theorem> theorems;

@@ -229,7 +229,7 @@ TheoremOutcome normalised_change_of_variables(const DerivationInput& input) {
   } else {
     if (!input.recursive_from) {
       out.failure = "the first size at which " + call +
-                    "'s line applies was not found below 4096, so the range of r(n) = " + r_text +
+                    "'s line applies was not decided below 4096, so the range of r(n) = " + r_text +
                     " is not bounded";
       return out;
     }

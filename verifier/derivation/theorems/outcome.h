@@ -74,8 +74,7 @@ struct DerivationInput {
   // T(n) exactly (may be null): for linear recurrences' initial values.
   std::function<std::optional<Value>(const BigInt& n)> value_at;
   // The smallest n >= 1 at which no point case and no line for bounded n
-  // applies (decided exactly for n <= 4096); unset when none was found there
-  // or T's values are not evaluated.
+  // applies (decided exactly for n <= 4096); unset when none was found there.
   std::optional<BigInt> recursive_from;
 };
 
