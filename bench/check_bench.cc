@@ -125,6 +125,15 @@ void CheckGoldenSplitTheta(benchmark::State& state) {
 }
 BENCHMARK(CheckGoldenSplitTheta)->Unit(benchmark::kMillisecond);
 
+// A root term whose coefficient depends on n (issue 19, §5): T divided by n,
+// the floors' factor 2 floor(sqrt(n))^2/n bounded along a chain, then the
+// change of variables. Target: < 2 s, like every claim at default effort.
+void CheckRootCoefficientTheta(benchmark::State& state) {
+  check_once(state, "T(n) = 2 floor(sqrt(n)) T(floor(sqrt(n))) + n\nT(1) = 1\nT(2) = 1\nT(3) = 1",
+             "Theta(n lg n)");
+}
+BENCHMARK(CheckRootCoefficientTheta)->Unit(benchmark::kMillisecond);
+
 // The derivation alone for the same recurrence and its comparison with the claim.
 void DeriveGoldenSplitAndCompare(benchmark::State& state) {
   auto r = thetagate::engine::recurrence_from_text("T(n) = T(n/2) + T(n/4) + 1");

@@ -524,7 +524,14 @@ class ReportReader {
                               {&c.bound_class, "bound_class"},
                               {&c.bound_low, "bound_low"},
                               {&c.bound_high, "bound_high"},
-                              {&c.bound_from, "bound_from"}})
+                              {&c.bound_from, "bound_from"},
+                              {&c.normaliser, "normaliser"},
+                              {&c.factor_limit, "factor_limit"},
+                              {&c.factor_low, "factor_low"},
+                              {&c.factor_high, "factor_high"},
+                              {&c.factor_from, "factor_from"},
+                              {&c.chain_low, "chain_low"},
+                              {&c.chain_high, "chain_high"}})
       *field = optional_string(j, path, key);
     c.obligations = optional_strings(j, path, "obligations");
     return c;

@@ -89,7 +89,14 @@ Json certificate_json(const std::optional<Certificate>& c) {
         {"bound_class", c->bound_class},
         {"bound_low", c->bound_low},
         {"bound_high", c->bound_high},
-        {"bound_from", c->bound_from}}) {
+        {"bound_from", c->bound_from},
+        {"normaliser", c->normaliser},
+        {"factor_limit", c->factor_limit},
+        {"factor_low", c->factor_low},
+        {"factor_high", c->factor_high},
+        {"factor_from", c->factor_from},
+        {"chain_low", c->chain_low},
+        {"chain_high", c->chain_high}}) {
     if (!value.empty()) j[key] = value;
   }
   if (!c->root_polynomial.empty()) j["root_polynomial"] = c->root_polynomial;

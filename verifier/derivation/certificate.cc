@@ -8,6 +8,7 @@
 #include "verifier/derivation/classify.h"
 #include "verifier/derivation/shape.h"
 #include "verifier/derivation/theorems/akra_bazzi.h"
+#include "verifier/derivation/theorems/normalised_roots.h"
 #include "verifier/evaluation/evaluator.h"
 #include "verifier/syntax/parser.h"
 
@@ -520,7 +521,8 @@ std::optional<Certificate> theorem_certificate(const Recurrence& recurrence,
     return full_history_certificate(recurrence, d, clock_limit);
   bool divide = d.theorem == "master theorem" || d.theorem == "Akra–Bazzi";
   bool subtract = d.theorem == "subtract-and-conquer";
-  bool substitute = d.theorem == "change of variables";
+  bool normalised = d.theorem == kNormalisedRootsTheorem && d.normalisation;
+  bool substitute = d.theorem == "change of variables" || normalised;
   if (!divide && !subtract && !substitute) return std::nullopt;
   // A class written as a term stands for any member, and O or Ω terms bound
   // f on one side only: no constants hold for every function they allow.
@@ -540,7 +542,10 @@ std::optional<Certificate> theorem_certificate(const Recurrence& recurrence,
   }
 
   Certificate cert;
-  cert.method = divide ? "divide" : subtract ? "subtract" : "change-of-variables";
+  cert.method = divide       ? "divide"
+                : subtract   ? "subtract"
+                : normalised ? "normalised-change-of-variables"
+                             : "change-of-variables";
   cert.proof = d.method;
   cert.driver_class = *g_text;
   SourceText g_source = SourceText::whole("<certificate>", *g_text);
@@ -582,6 +587,29 @@ std::optional<Certificate> theorem_certificate(const Recurrence& recurrence,
       std::string a = to_string(t.a), b = t.c.str();
       theorem.push_back("a = " + a + ", b = " + b + ": T(n) = " + (t.a == 1 ? "" : a + " ") +
                         "T(n - " + b + ") + f(n), unrolled: a^(j/b) f(n - j) summed");
+    } else if (normalised) {
+      const RootNormalisation& r = *d.normalisation;
+      const RootTerm& t = shape.roots.at(0);
+      std::string a0 = to_string(r.limit);
+      cert.normaliser = r.normaliser;
+      cert.factor_limit = a0;
+      cert.factor_low = to_string(r.factor_low);
+      cert.factor_high = to_string(r.factor_high);
+      cert.factor_from = r.from.str();
+      cert.chain_low = to_string(r.chain_low);
+      cert.chain_high = to_string(r.chain_high);
+      std::string g =
+          r.normaliser.find('/') == std::string::npos ? r.normaliser : "(" + r.normaliser + ")";
+      theorem.push_back("U(n) = T(n)/" + g + ": U(n) = r(n) U(" + t.argument + ") + f(n)/" + g +
+                        " with r(n) = " + r.factor);
+      theorem.push_back(cert.factor_low + " <= r(n) <= " + cert.factor_high +
+                        " for every n >= " + cert.factor_from +
+                        " where the recursive line applies (floor(x) in (x - 1, " +
+                        "x], ceil(x) in [x, x + 1))");
+      theorem.push_back("the product of r(n)/" + a0 + " along every chain of sizes lies in [" +
+                        cert.chain_low + ", " + cert.chain_high + "]");
+      theorem.push_back("V(n) = " + a0 + " V(" + t.argument + ") + f(n)/" + g +
+                        ": m = lg n, Akra–Bazzi on S(m) = V(2^m), back to n; T = Θ(" + g + " V)");
     } else if (substitute) {
       theorem.push_back("m = lg n, S(m) = T(2^m): Akra–Bazzi on S with f(2^m), back to n");
     } else if (d.theorem == "master theorem") {

@@ -17,7 +17,8 @@
 namespace thetagate::engine {
 
 struct Certificate {
-  // "divide", "subtract", "change-of-variables", "linear", "full-history" or "induction"
+  // "divide", "subtract", "change-of-variables", "normalised-change-of-variables",
+  // "linear", "full-history" or "induction"
   std::string method;
   std::string proof;  // the proof as the report names it: "master theorem, case 2"
   // divide and subtract: the driving function f (the non-recursive part of
@@ -43,6 +44,14 @@ struct Certificate {
   // full-history: bound_low·g(n) <= T(n) <= bound_high·g(n) at n = bound_from,
   // carried by the differenced recurrence to every n > bound_from; g = bound_class.
   std::string bound_class, bound_low, bound_high, bound_from;
+  // normalised-change-of-variables: T was divided by normaliser = n^q; the
+  // factor r(n) left on the root term lies in [factor_low, factor_high] at
+  // every n >= factor_from where the recursive line applies and tends to
+  // factor_limit (a0); the product of r/a0 along one chain of sizes lies in
+  // [chain_low, chain_high]. The driver keys bound f itself, as for
+  // change-of-variables.
+  std::string normaliser, factor_limit, factor_low, factor_high, factor_from;
+  std::string chain_low, chain_high;
   // The proof's hypotheses, one statement each, in words and formulas:
   // "f(n) >= (1/2) n for every n >= 64", "T(n) > 0 for 31 <= n <= 63", ...
   std::vector<std::string> obligations;
@@ -51,7 +60,8 @@ struct Certificate {
 // The certificate of a Θ class that the master theorem (any case, the
 // polylog extension, case 3 by comparison), Akra–Bazzi ("divide"),
 // subtract-and-conquer ("subtract"), a change of variables m = lg n
-// ("change-of-variables"), a linear recurrence with constant coefficients
+// ("change-of-variables"; after dividing T by a power of n,
+// "normalised-change-of-variables"), a linear recurrence with constant coefficients
 // ("linear": the growing root) or a full-history sum ("full-history": the
 // constants at a start) derived; nullopt for any other method, and where f is not between constant
 // multiples of one class n^q lg^k n (q rational, k whole): f = 0, lg lg n factors, case lines of

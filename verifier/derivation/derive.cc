@@ -7,6 +7,7 @@
 #include "verifier/derivation/theorems/full_history.h"
 #include "verifier/derivation/theorems/linear.h"
 #include "verifier/derivation/theorems/master.h"
+#include "verifier/derivation/theorems/normalised_roots.h"
 #include "verifier/derivation/theorems/subtract.h"
 #include "verifier/evaluation/evaluator.h"
 
@@ -47,6 +48,30 @@ bool holds(Evaluator& ev, const Expr& c, const SourceText& source, const BigInt&
       return comparison_holds(c.kind, r);
     }
   }
+}
+
+// The smallest n >= 1 at which none of T's point cases and lines for bounded
+// n applies, decided exactly up to kLastBaseSize; nullopt past it, or when a
+// condition cannot be decided.
+constexpr int64_t kLastBaseSize = 4096;
+
+std::optional<BigInt> recursive_start(const Shape& shape, Evaluator& ev, const SourceText& source) {
+  try {
+    for (BigInt n = 1; n <= kLastBaseSize; ++n) {
+      bool base = false;
+      for (const CaseLine* line : shape.base_cases) {
+        if (line->point ? *line->point == n
+                        : line->condition && holds(ev, *line->condition, source, n)) {
+          base = true;
+          break;
+        }
+      }
+      if (!base) return n;
+    }
+  } catch (const InputError&) {
+  } catch (const LimitReached&) {
+  }
+  return std::nullopt;
 }
 
 std::string when(const std::string& condition) {
@@ -321,12 +346,21 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
       return std::nullopt;
     };
   }
+  if (!shape.roots.empty()) {
+    // Only the base lines' conditions are evaluated: a class term in T's
+    // body does not matter to them.
+    std::shared_ptr<const Recurrence> handle(std::shared_ptr<const Recurrence>(), &recurrence);
+    Evaluator conditions(handle, derivation_budget(clock_limit));
+    input.recursive_from = recursive_start(shape, conditions, recurrence.source);
+  }
   using Theorem = std::pair<const char*, TheoremOutcome (*)(const DerivationInput&)>;
   std::vector<Theorem> theorems;
   if (!shape.sums.empty())
     theorems = {{"full-history summation factor", full_history}};
   else if (!shape.scaled.empty())
     theorems = {{"master theorem", master_theorem}, {"Akra–Bazzi", akra_bazzi}};
+  else if (!shape.roots.empty() && shape.roots[0].coefficient.varies())
+    theorems = {{kNormalisedRootsTheorem, normalised_change_of_variables}};
   else if (!shape.roots.empty())
     theorems = {{"change of variables", change_of_variables}};
   else if (!shape.subtractive.empty()) {
@@ -364,6 +398,7 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
       d.steps = o.steps;
       d.theorem = o.theorem;
       d.regularity = o.regularity;
+      d.normalisation = o.normalisation;
     } else if (compare(*d.growth, *o.growth) != 0) {
       // Two theorems whose hypotheses both hold cannot disagree: one of them is wrong.
       throw InternalError("", d.method + " gives Θ(" + to_string(*d.growth) + ") but " + o.method +

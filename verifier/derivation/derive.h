@@ -41,6 +41,9 @@ struct Derivation {
   std::optional<GrowthClass> driving_upper, driving_lower;
   // The applying theorem's case 3 rests on this regularity bound on f itself.
   std::optional<RegularityBound> regularity;
+  // The applying theorem divided T by a power of n first (a root term whose
+  // coefficient depends on n): what it proved about the factor left over.
+  std::optional<RootNormalisation> normalisation;
 
   bool derived_class() const { return growth.has_value(); }
   bool one_sided() const { return !growth && (upper || lower); }

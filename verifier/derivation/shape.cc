@@ -99,10 +99,11 @@ LinearForm linear_form(const ExprPtr& e) {
 }
 
 // n^(1/k), sqrt(n), possibly inside floor/ceil: k, else 0.
-unsigned long root_index(const Expr& e, bool& rounded) {
+unsigned long root_index(const Expr& e, bool& rounded, bool* ceiling = nullptr) {
   const Expr* x = &e;
   if (x->kind == ExprKind::kCall && (x->name == "floor" || x->name == "ceil")) {
     rounded = true;
+    if (ceiling) *ceiling = x->name == "ceil";
     x = x->args[0].get();
   }
   if (x->kind == ExprKind::kCall && x->name == "sqrt" && x->args[0]->kind == ExprKind::kVariable)
@@ -115,6 +116,100 @@ unsigned long root_index(const Expr& e, bool& rounded) {
     }
   }
   return 0;
+}
+
+// A factor c · n^u · floor(n^(1/k))^v · ... that a root term's coefficient
+// may carry (2 floor(sqrt(n)), sqrt(n), n/ceil(n^(1/3))); nullopt for any
+// other expression.
+struct RootFactor {
+  Rational c = 1;
+  RootCoefficient coefficient;
+};
+
+void merge_rounded(RootCoefficient& into, const RoundedRoot& r) {
+  for (auto it = into.rounded.begin(); it != into.rounded.end(); ++it) {
+    if (it->ceiling != r.ceiling || it->k != r.k) continue;
+    it->exponent += r.exponent;
+    if (it->exponent == 0) into.rounded.erase(it);
+    return;
+  }
+  if (r.exponent != 0) into.rounded.push_back(r);
+}
+
+std::optional<RootFactor> root_factor(const Expr& e);
+
+std::optional<RootFactor> root_power(const RootFactor& base, const Rational& r) {
+  RootFactor out;
+  if (base.c != 1) {
+    if (denominator(r) != 1 || abs(numerator(r)) > 64 || base.c == 0) return std::nullopt;
+    long j = numerator(r).convert_to<long>();
+    Rational c = 1;
+    for (long i = 0; i < (j < 0 ? -j : j); ++i) c *= base.c;
+    out.c = j < 0 ? Rational(1) / c : c;
+  }
+  out.coefficient.n_exponent = base.coefficient.n_exponent * r;
+  for (RoundedRoot x : base.coefficient.rounded) {
+    x.exponent *= r;
+    merge_rounded(out.coefficient, x);
+  }
+  return out;
+}
+
+std::optional<RootFactor> root_factor(const Expr& e) {
+  if (!mentions_n(e)) {
+    auto v = constant_value(e);
+    if (!v || !v->is_rational()) return std::nullopt;
+    return RootFactor{v->rational(), {}};
+  }
+  RootFactor out;
+  switch (e.kind) {
+    case ExprKind::kVariable:
+      out.coefficient.n_exponent = 1;
+      return out;
+    case ExprKind::kNeg: {
+      auto a = root_factor(*e.args[0]);
+      if (a) a->c = -a->c;
+      return a;
+    }
+    case ExprKind::kMul:
+    case ExprKind::kDiv: {
+      auto a = root_factor(*e.args[0]), b = root_factor(*e.args[1]);
+      if (!a || !b) return std::nullopt;
+      if (e.kind == ExprKind::kDiv) {
+        if (b->c == 0) return std::nullopt;
+        b = root_power(*b, Rational(-1));
+        if (!b) return std::nullopt;
+      }
+      out.c = a->c * b->c;
+      out.coefficient = a->coefficient;
+      out.coefficient.n_exponent += b->coefficient.n_exponent;
+      for (const RoundedRoot& x : b->coefficient.rounded) merge_rounded(out.coefficient, x);
+      return out;
+    }
+    case ExprKind::kPow: {
+      if (mentions_n(*e.args[1])) return std::nullopt;
+      auto r = constant_value(*e.args[1]);
+      auto base = root_factor(*e.args[0]);
+      if (!r || !r->is_rational() || !base) return std::nullopt;
+      return root_power(*base, r->rational());
+    }
+    case ExprKind::kCall: {
+      bool rounded = false, ceiling = false;
+      if (e.name == "sqrt" && e.args.size() == 1 && e.args[0]->kind == ExprKind::kVariable) {
+        out.coefficient.n_exponent = Rational(1, 2);
+        return out;
+      }
+      if ((e.name == "floor" || e.name == "ceil") && e.args.size() == 1) {
+        if (unsigned long k = root_index(e, rounded, &ceiling)) {
+          merge_rounded(out.coefficient, RoundedRoot{ceiling, k, Rational(1)});
+          return out;
+        }
+      }
+      return std::nullopt;
+    }
+    default:
+      return std::nullopt;
+  }
 }
 
 struct LineParts {
@@ -166,12 +261,18 @@ std::optional<std::pair<Rational, int>> monomial(const Expr& e) {
   }
 }
 
-void add_term(LineParts& parts, const Rational& a, const Expr& call) {
+void add_term(LineParts& parts, const Rational& a, const Expr& call,
+              const RootCoefficient& varying) {
   const ExprPtr& arg = call.args[0];
-  bool rounded = false;
-  if (unsigned long k = root_index(*arg, rounded)) {
-    parts.roots.push_back({a, k, rounded, print(*arg)});
+  bool rounded = false, ceiling = false;
+  if (unsigned long k = root_index(*arg, rounded, &ceiling)) {
+    parts.roots.push_back({a, k, rounded, ceiling, print(*arg), varying});
     return;
+  }
+  if (varying.varies()) {
+    throw ShapeError{"the coefficient '" + varying.text + "' of " + print(call) +
+                     " depends on n; a coefficient that depends on n is read only for root "
+                     "terms such as T(floor(sqrt(n)))"};
   }
   LinearForm f = linear_form(arg);
   std::string written = print(*arg);
@@ -226,26 +327,44 @@ ExprPtr scaled_piece(const ExprPtr& e, const Rational& s, int n_power) {
   return make_binary(ExprKind::kMul, make_number(s), x);
 }
 
+// `varying` times the factor `factor` (which mentions n): its n-dependence
+// multiplied in, to the power `sign` (+1, or -1 for a divisor), and its text.
+RootCoefficient times_factor(RootCoefficient varying, const RootCoefficient& factor, int sign,
+                             const Expr& written) {
+  varying.n_exponent += sign * factor.n_exponent;
+  for (RoundedRoot r : factor.rounded) {
+    r.exponent *= sign;
+    merge_rounded(varying, r);
+  }
+  std::string text = sign > 0 ? print(written) : "1/(" + print(written) + ")";
+  varying.text = varying.text.empty() ? text : varying.text + " " + text;
+  return varying;
+}
+
 // Splits a line's body into its T terms and the driving function; a factor
-// c n^j (j != 0) is allowed only in front of a sum over earlier values.
+// c n^j (j != 0) is allowed only in front of a sum over earlier values, and
+// a factor with roots of n (2 floor(sqrt(n))) only in front of a root term.
 void split(const ExprPtr& e, const Rational& scale, LineParts& parts, const std::string& name,
-           int n_power = 0) {
+           int n_power = 0, const RootCoefficient& varying = {}) {
   if (!contains_call(e, name)) {
+    if (varying.varies())
+      throw ShapeError{"the factor '" + varying.text + "' multiplies '" + print(*e) +
+                       "', which has no call of " + name};
     parts.driving.push_back(scaled_piece(e, scale, n_power));
     return;
   }
   const std::string text = print(*e);
   switch (e->kind) {
     case ExprKind::kAdd:
-      split(e->args[0], scale, parts, name, n_power);
-      split(e->args[1], scale, parts, name, n_power);
+      split(e->args[0], scale, parts, name, n_power, varying);
+      split(e->args[1], scale, parts, name, n_power, varying);
       return;
     case ExprKind::kSub:
-      split(e->args[0], scale, parts, name, n_power);
-      split(e->args[1], -scale, parts, name, n_power);
+      split(e->args[0], scale, parts, name, n_power, varying);
+      split(e->args[1], -scale, parts, name, n_power, varying);
       return;
     case ExprKind::kNeg:
-      split(e->args[0], -scale, parts, name, n_power);
+      split(e->args[0], -scale, parts, name, n_power, varying);
       return;
     case ExprKind::kMul: {
       bool left = contains_call(e->args[0], name), right = contains_call(e->args[1], name);
@@ -255,41 +374,60 @@ void split(const ExprPtr& e, const Rational& scale, LineParts& parts, const std:
       const ExprPtr& inner = left ? e->args[0] : e->args[1];
       const ExprPtr& factor = left ? e->args[1] : e->args[0];
       if (mentions_n(*factor)) {
-        auto m = monomial(*factor);
-        if (!m) {
-          throw ShapeError{"the coefficient '" + print(*factor) + "' of " + print(*inner) +
-                           " depends on n"};
+        if (auto m = monomial(*factor)) {
+          split(inner, scale * m->first, parts, name, n_power + m->second, varying);
+          return;
         }
-        split(inner, scale * m->first, parts, name, n_power + m->second);
-        return;
+        if (auto r = root_factor(*factor)) {
+          split(inner, scale * r->c, parts, name, n_power,
+                times_factor(varying, r->coefficient, 1, *factor));
+          return;
+        }
+        throw ShapeError{"the coefficient '" + print(*factor) + "' of " + print(*inner) +
+                         " depends on n"};
       }
-      split(inner, scale * rational_constant(*factor, "coefficient"), parts, name, n_power);
+      split(inner, scale * rational_constant(*factor, "coefficient"), parts, name, n_power,
+            varying);
       return;
     }
     case ExprKind::kDiv:
       if (contains_call(e->args[1], name))
         throw ShapeError{"'" + text + "' divides by " + name + ": not linear in " + name};
       if (mentions_n(*e->args[1])) {
-        auto m = monomial(*e->args[1]);
-        if (!m || m->first == 0) {
-          throw ShapeError{"the coefficient 1/(" + print(*e->args[1]) + ") in '" + text +
-                           "' depends on n"};
+        if (auto m = monomial(*e->args[1]); m && m->first != 0) {
+          split(e->args[0], scale / m->first, parts, name, n_power - m->second, varying);
+          return;
         }
-        split(e->args[0], scale / m->first, parts, name, n_power - m->second);
-        return;
+        if (auto r = root_factor(*e->args[1]); r && r->c != 0) {
+          split(e->args[0], scale / r->c, parts, name, n_power,
+                times_factor(varying, r->coefficient, -1, *e->args[1]));
+          return;
+        }
+        throw ShapeError{"the coefficient 1/(" + print(*e->args[1]) + ") in '" + text +
+                         "' depends on n"};
       }
-      split(e->args[0], scale / divisor_constant(*e->args[1]), parts, name, n_power);
+      split(e->args[0], scale / divisor_constant(*e->args[1]), parts, name, n_power, varying);
       return;
     case ExprKind::kSum:
+      if (varying.varies())
+        throw ShapeError{"the coefficient '" + varying.text + "' of " + text + " depends on n"};
       parts.sums.push_back({scale, n_power, e});
       return;
     case ExprKind::kCall:
       if (e->name == name) {
-        if (n_power != 0) {
+        bool rounded = false;
+        bool root = e->args.size() == 1 && root_index(*e->args[0], rounded) != 0;
+        if (n_power != 0 && !root) {
           throw ShapeError{"the coefficient of " + text + " depends on n (a factor n^" +
                            std::to_string(n_power) + ")"};
         }
-        add_term(parts, scale, *e);
+        RootCoefficient coefficient = varying;
+        if (n_power != 0) {
+          coefficient.n_exponent += n_power;
+          std::string power = n_power == 1 ? "n" : "n^" + std::to_string(n_power);
+          coefficient.text = coefficient.text.empty() ? power : coefficient.text + " " + power;
+        }
+        add_term(parts, scale, *e, coefficient);
         return;
       }
       throw ShapeError{name + " appears inside '" + text + "': the recurrence is not linear in " +
@@ -309,7 +447,10 @@ std::string recursion_text(const LineParts& p, const std::string& name) {
   };
   for (const auto& t : p.scaled) add(t.a, name + "(" + t.argument + ")");
   for (const auto& t : p.subtractive) add(t.a, name + "(n - " + t.c.str() + ")");
-  for (const auto& t : p.roots) add(t.a, name + "(" + t.argument + ")");
+  for (const auto& t : p.roots) {
+    std::string factor = t.coefficient.varies() ? t.coefficient.text + " " : "";
+    add(t.a, factor + name + "(" + t.argument + ")");
+  }
   for (const auto& t : p.sums) add(t.scale, print(*t.sum));
   return s.empty() ? "no recursive call" : s;
 }
@@ -347,7 +488,9 @@ bool same_recursion(LineParts x, LineParts y) {
   std::sort(x.roots.begin(), x.roots.end(), by_k);
   std::sort(y.roots.begin(), y.roots.end(), by_k);
   for (size_t i = 0; i < x.roots.size(); ++i) {
-    if (x.roots[i].a != y.roots[i].a || x.roots[i].k != y.roots[i].k) return false;
+    if (x.roots[i].a != y.roots[i].a || x.roots[i].k != y.roots[i].k ||
+        !x.roots[i].coefficient.same_as(y.roots[i].coefficient))
+      return false;
   }
   return true;
 }
@@ -369,6 +512,17 @@ bool same_driving(const ExprPtr& a, const ExprPtr& b) {
 }
 
 }  // namespace
+
+bool RootCoefficient::same_as(const RootCoefficient& other) const {
+  if (n_exponent != other.n_exponent || rounded.size() != other.rounded.size()) return false;
+  for (const RoundedRoot& r : rounded) {
+    bool found = false;
+    for (const RoundedRoot& o : other.rounded)
+      found = found || (o.ceiling == r.ceiling && o.k == r.k && o.exponent == r.exponent);
+    if (!found) return false;
+  }
+  return true;
+}
 
 Shape extract_shape(const Recurrence& recurrence) {
   Shape shape;

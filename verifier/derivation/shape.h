@@ -35,11 +35,33 @@ struct SubtractiveTerm {
   BigInt c;  // >= 1: a * T(n - c)
 };
 
+// floor(n^(1/k))^exponent or ceil(n^(1/k))^exponent: a rounded root in a
+// root term's coefficient.
+struct RoundedRoot {
+  bool ceiling = false;
+  unsigned long k = 2;
+  Rational exponent;
+};
+
+// How a root term's coefficient depends on n: n^n_exponent times the
+// rounded roots (exact roots such as sqrt(n) are folded into n_exponent).
+// Empty for a constant coefficient.
+struct RootCoefficient {
+  Rational n_exponent;
+  std::vector<RoundedRoot> rounded;
+  std::string text;  // the factor as written: "floor(sqrt(n))", "" when constant
+
+  bool varies() const { return n_exponent != 0 || !rounded.empty(); }
+  bool same_as(const RootCoefficient& other) const;
+};
+
 struct RootTerm {
-  Rational a;
-  unsigned long k = 2;  // a * T(n^(1/k)), possibly rounded
+  Rational a;           // the constant factor of the coefficient
+  unsigned long k = 2;  // a(n) * T(n^(1/k)), possibly rounded
   bool rounded = false;
+  bool ceiling = false;  // rounded up (ceil), else down
   std::string argument;
+  RootCoefficient coefficient;  // a(n) = a * (this); constant when !coefficient.varies()
 };
 
 // A sum over earlier values, scale * n^n_power * sum(k, lo, hi, body), with

@@ -13,6 +13,11 @@ TheoremOutcome change_of_variables(const DerivationInput& input) {
     return out;
   }
   const RootTerm& t = s.roots[0];
+  if (t.coefficient.varies()) {
+    out.failure = "the coefficient " + t.coefficient.text + " of T(" + t.argument +
+                  ") depends on n; change of variables needs a constant one";
+    return out;
+  }
   GrowthClass f = GrowthClass::polylog(-1);  // f = 0 acts as any decaying term
   if (input.driving.growth) {
     f = *input.driving.growth;

@@ -16,6 +16,21 @@
 
 namespace thetagate::engine {
 
+// What the change of variables after dividing T by n^power proved about the
+// factor r(n) = a(n) s(n)^power / n^power (s(n) the root term's argument):
+// factor_low <= r(n) <= factor_high at every size n >= from where the
+// recursive line applies, and the product of r(n_i)/limit over the sizes of
+// one chain n, s(n), s(s(n)), ... lies in [chain_low, chain_high].
+struct RootNormalisation {
+  Rational power;  // q: T is divided by n^q
+  Rational limit;  // a0, the limit of r(n)
+  Rational factor_low, factor_high;
+  BigInt from;
+  Rational chain_low, chain_high;
+  std::string factor;      // r(n) as text: "2 floor(sqrt(n))^2/n"
+  std::string normaliser;  // n^q in the claim language: "n", "n^(1/2)"
+};
+
 struct TheoremOutcome {
   std::string theorem;                // "master theorem", "Akra–Bazzi", ...
   std::string method;                 // when it applies: "master theorem, case 2"
@@ -31,6 +46,8 @@ struct TheoremOutcome {
   // Case 3 concluded through a regularity bound proved on f itself (not
   // from the limit, not by comparison): that bound, for the certificate.
   std::optional<RegularityBound> regularity;
+  // A root term whose coefficient depends on n: the normalisation it rests on.
+  std::optional<RootNormalisation> normalisation;
 
   bool applies() const { return growth.has_value(); }
 };
@@ -68,6 +85,9 @@ struct DerivationInput {
   std::function<std::optional<Value>(const BigInt& n)> driving_at;
   // T(n) exactly (may be null): for linear recurrences' initial values.
   std::function<std::optional<Value>(const BigInt& n)> value_at;
+  // The smallest n >= 1 at which no point case and no line for bounded n
+  // applies (decided exactly for n <= 4096); unset when none was found there.
+  std::optional<BigInt> recursive_from;
 };
 
 }  // namespace thetagate::engine
