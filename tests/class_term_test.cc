@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "reports/verdict_text.h"
+#include "tests/support/check_recurrence.h"
 #include "tests/support/diagnostic_matchers.h"
 #include "verifier/checking/checker.h"
 #include "verifier/derivation/derive.h"
@@ -34,17 +35,7 @@ std::string refusal(const std::string& text) {
 }
 
 ClaimResult check_text(const std::string& recurrence, const std::string& bound) {
-  std::string toml = "[[claim]]\nname = \"orchard::class_term\"\nrecurrence = \"" + recurrence +
-                     "\"\nbound = \"" + bound + "\"\n";
-  std::vector<ClaimEntry> entries = load_claim_text(toml, "class.toml");
-  if (entries.size() != 1 || !entries[0].claim) {
-    ADD_FAILURE() << "the claim did not load";
-    return ClaimResult{};
-  }
-  CheckOptions options;
-  options.seed = 5;
-  options.max_bits = 256;
-  return check_claim(*entries[0].claim, options);
+  return test_support::check_recurrence(recurrence, bound, {5, 256, "orchard::class_term"});
 }
 
 TEST(ClassTerm, TheRepresentativeStandsInForTheClass) {

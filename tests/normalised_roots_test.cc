@@ -16,6 +16,7 @@
 #include <vector>
 
 #include "reports/verdict_text.h"
+#include "tests/support/check_recurrence.h"
 #include "verifier/checking/checker.h"
 #include "verifier/derivation/certificate.h"
 #include "verifier/derivation/derive.h"
@@ -38,17 +39,7 @@ std::string reasons(const Derivation& d) {
 }
 
 ClaimResult check_text(const std::string& recurrence, const std::string& bound) {
-  std::string toml = "[[claim]]\nname = \"orchard::roots\"\nrecurrence = \"\"\"\n" + recurrence +
-                     "\n\"\"\"\nbound = \"" + bound + "\"\n";
-  std::vector<ClaimEntry> entries = load_claim_text(toml, "roots.toml");
-  if (entries.size() != 1 || !entries[0].claim) {
-    ADD_FAILURE() << "the claim did not load";
-    return ClaimResult{};
-  }
-  CheckOptions options;
-  options.seed = 5;
-  options.max_bits = 1024;
-  return check_claim(*entries[0].claim, options);
+  return test_support::check_recurrence(recurrence, bound, {5, 1024, "orchard::roots"});
 }
 
 const char* kSquareRootFloors =

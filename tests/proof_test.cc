@@ -12,6 +12,7 @@
 #include "reports/baseline.h"
 #include "reports/json_report.h"
 #include "reports/verdict_text.h"
+#include "tests/support/check_recurrence.h"
 #include "verifier/checking/checker.h"
 #include "verifier/derivation/regularity.h"
 #include "verifier/model/claim.h"
@@ -22,17 +23,7 @@ namespace {
 
 ClaimResult check_text(const std::string& recurrence, const std::string& bound,
                        uint64_t max_bits = 1024) {
-  std::string toml = "[[claim]]\nname = \"orchard::proof\"\nrecurrence = \"\"\"\n" + recurrence +
-                     "\n\"\"\"\nbound = \"" + bound + "\"\n";
-  std::vector<ClaimEntry> entries = load_claim_text(toml, "proof.toml");
-  if (entries.size() != 1 || !entries[0].claim) {
-    ADD_FAILURE() << "the claim did not load";
-    return ClaimResult{};
-  }
-  CheckOptions options;
-  options.seed = 3;
-  options.max_bits = max_bits;
-  return check_claim(*entries[0].claim, options);
+  return test_support::check_recurrence(recurrence, bound, {3, max_bits, "orchard::proof"});
 }
 
 // ---------------------------------------------------------------------------

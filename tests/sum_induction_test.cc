@@ -14,6 +14,7 @@
 #include "reports/baseline.h"
 #include "reports/json_report.h"
 #include "reports/verdict_text.h"
+#include "tests/support/check_recurrence.h"
 #include "verifier/checking/checker.h"
 #include "verifier/derivation/classify.h"
 #include "verifier/derivation/rational_form.h"
@@ -230,17 +231,7 @@ TEST(SummedStep, TooSmallAConstantIsNotProved) {
 // Whole claims: nothing false holds.
 
 ClaimResult check_text(const std::string& recurrence, const std::string& bound) {
-  std::string toml = "[[claim]]\nname = \"orchard::sums\"\nrecurrence = \"\"\"\n" + recurrence +
-                     "\n\"\"\"\nbound = \"" + bound + "\"\n";
-  std::vector<ClaimEntry> entries = load_claim_text(toml, "sums.toml");
-  if (entries.size() != 1 || !entries[0].claim) {
-    ADD_FAILURE() << "the claim did not load";
-    return ClaimResult{};
-  }
-  CheckOptions options;
-  options.seed = 5;
-  options.max_bits = 16;
-  return check_claim(*entries[0].claim, options);
+  return test_support::check_recurrence(recurrence, bound, {5, 16, "orchard::sums"});
 }
 
 TEST(SumClaims, ClosedFormsHoldAndNearMissesDoNot) {
