@@ -7,6 +7,7 @@
 
 #include <memory>
 #include <string>
+#include <tuple>
 #include <vector>
 
 #include "reports/verdict_text.h"
@@ -215,6 +216,35 @@ TEST(ClassTerm, SubtractAndConquerBoundsAnODriverByComparison) {
   EXPECT_NE(theta.verdict, Verdict::kHolds) << verdict_message(theta);
   ClaimResult too_small = check_text("T(n) = T(n - 1) + Θ(n); T(0) = 0", "O(n)");
   EXPECT_EQ(too_small.verdict, Verdict::kRefuted) << verdict_message(too_small);
+}
+
+// A claim speaks of every function of its classes, so one member that
+// breaks it refutes it: with n for O(n), 2T(n/2) + n is Θ(n lg n) (master
+// theorem, case 2; common practice), which O(n) and Θ(n) cannot contain,
+// and T(n - 1) + n is Θ(n^2), which breaks O(n lg n). A claim the member
+// keeps (O(n lg n) for the first) is not refuted by it.
+TEST(ClassTerm, AClaimOneMemberBreaksIsRefutedByThatMembersTheorem) {
+  for (auto [recurrence, bound, method] :
+       {std::tuple{"T(n) = 2T(n/2) + O(n); T(1) = 1", "O(n)",
+                   "the member with n for O(n): master theorem, case 2"},
+        std::tuple{"T(n) = 2T(n/2) + O(n); T(1) = 1", "Theta(n)",
+                   "the member with n for O(n): master theorem, case 2"},
+        std::tuple{"T(n) = T(n - 1) + O(n); T(0) = 1", "O(n lg n)",
+                   "the member with n for O(n): subtract-and-conquer, a = 1"},
+        std::tuple{"T(n) = 2T(n/2) + Ω(n); T(1) = 1", "Omega(n^2)",
+                   "the member with n for Ω(n): master theorem, case 2"}}) {
+    SCOPED_TRACE(std::string(recurrence) + " / " + bound);
+    ClaimResult r = check_text(recurrence, bound);
+    EXPECT_EQ(r.verdict, Verdict::kRefuted) << verdict_message(r);
+    EXPECT_EQ(r.basis.kind, BasisKind::kDerivationContradicts);
+    ASSERT_TRUE(r.basis.theorem.has_value());
+    EXPECT_EQ(r.basis.theorem->method, method);
+  }
+  ClaimResult kept = check_text("T(n) = 2T(n/2) + O(n); T(1) = 1", "O(n lg n)");
+  EXPECT_EQ(kept.verdict, Verdict::kHolds) << verdict_message(kept);
+  // Θ(n lg n) is the member's class, but f = 0 gives Θ(n): neither proved nor refuted.
+  ClaimResult open = check_text("T(n) = 2T(n/2) + O(n); T(1) = 1", "Theta(n lg n)");
+  EXPECT_EQ(open.verdict, Verdict::kUndecided) << verdict_message(open);
 }
 
 TEST(ClassTerm, ClaimsHoldOnlyByTheTheoremsAndFallByAMember) {

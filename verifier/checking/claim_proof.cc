@@ -129,9 +129,12 @@ void ProofStage::prove_asymptotic() {
   const Bound& bound = claim_.bound;
   ClaimComparison cmp = compare_with_derivation(derivation_, bound);
   if (cmp.agreement) {
-    TheoremEvidence evidence{derivation_.method,      to_string(*cmp.derived),
-                             to_string(*cmp.claimed), compared_with(bound.kind),
-                             *cmp.agreement,          cmp.claimed_below};
+    TheoremEvidence evidence{cmp.method.empty() ? derivation_.method : cmp.method,
+                             to_string(*cmp.derived),
+                             to_string(*cmp.claimed),
+                             compared_with(bound.kind),
+                             *cmp.agreement,
+                             cmp.claimed_below};
     evidence.relation = cmp.relation;
     attempt_.theorem = evidence;
     attempt_.disagreement = consistency();

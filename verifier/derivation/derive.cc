@@ -417,6 +417,23 @@ Derivation derive(const Recurrence& recurrence, std::optional<double> clock_limi
       break;
     }
   }
+  if (!d.growth && !recurrence.class_terms.empty()) {
+    // The member with each class's own g: its class refutes what it breaks.
+    Recurrence member = recurrence;
+    member.class_terms.clear();
+    Derivation m = derive(member, clock_limit);
+    if (m.growth) {
+      std::string which;
+      for (const ClassTerm& c : recurrence.class_terms) {
+        if (c.base_case) continue;
+        std::string g = print(*c.representative);
+        which +=
+            (which.empty() ? "" : ", ") + g + " for " + class_term_name(c.kind) + "(" + g + ")";
+      }
+      d.member_growth = m.growth;
+      d.member_method = (which.empty() ? std::string("its values") : which) + ": " + m.method;
+    }
+  }
   return d;
 }
 
@@ -473,6 +490,15 @@ ClaimComparison compare_one_sided(const Derivation& derivation, const Bound& bou
                compare(g, *derivation.lower) <= 0) {
       settle(compare(g, *derivation.lower) == 0 ? Agreement::kSame : Agreement::kLoose,
              *derivation.lower, BoundKind::kOmega, false);
+    }
+    if (!r.agreement && derivation.member_growth) {
+      // Not settled by the bounds every member obeys; one member may still
+      // break the claim.
+      int c = compare(g, *derivation.member_growth);
+      if ((upper_side && c < 0) || (lower_side && c > 0)) {
+        settle(Agreement::kContradicts, *derivation.member_growth, BoundKind::kTheta, c < 0);
+        r.method = "the member with " + derivation.member_method;
+      }
     }
   } catch (const PrecisionShortfall& e) {
     r.agreement.reset();

@@ -44,6 +44,12 @@ struct Derivation {
   // The applying theorem divided T by a power of n first (a root term whose
   // coefficient depends on n): what it proved about the factor left over.
   std::optional<RootNormalisation> normalisation;
+  // Growth classes written as terms, and no Θ class: the Θ class of the one
+  // member that puts each class's own g in its place ("n for O(n)"), with
+  // the theorem that derived it. A claim this member breaks is false, as a
+  // claim speaks of every function of its classes.
+  std::optional<GrowthClass> member_growth;
+  std::string member_method;  // "n for O(n): master theorem, case 2"
 
   bool derived_class() const { return growth.has_value(); }
   bool one_sided() const { return !growth && (upper || lower); }
@@ -81,6 +87,9 @@ struct ClaimComparison {
   // not be ordered); empty otherwise. reports/ composes the sentences.
   std::string detail;
   bool claimed_below = false;  // kContradicts: the claimed class is the smaller one
+  // The method that settled it, when not the derivation's own (a member of
+  // the class terms breaks the claim); "" otherwise.
+  std::string method;
 };
 
 // Compares an asymptotic bound Theta/O/Omega(g) with the derivation exactly
