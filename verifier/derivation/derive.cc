@@ -264,8 +264,7 @@ void check_leaves(const Recurrence& rec, DerivationInput& input) {
                                                            : "is not a class alone");
       return;
     }
-    std::optional<RealNumber> v =
-        mentions_n(*line->body) ? std::nullopt : constant_value(*line->body);
+    std::optional<RealNumber> v = constant_value(*line->body);  // empty where n occurs
     bool positive = false;
     try {
       positive = v && v->sign() > 0;

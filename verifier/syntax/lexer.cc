@@ -260,7 +260,8 @@ std::vector<Token> tokenize(const SourceText& source) {
     }
     // A run of superscripts is a power: n² reads as n^2, 2ⁿ as 2^n, n¹⁰ as n^10.
     size_t sup_len = 1;
-    std::optional<char32_t> sup_code = decode_utf8(s, i, sup_len);
+    std::optional<char32_t> sup_code =
+        static_cast<unsigned char>(c) >= 0x80 ? decode_utf8(s, i, sup_len) : std::nullopt;
     if (sup_code && superscript(*sup_code)) {
       size_t start = i;
       std::string exponent;

@@ -2,10 +2,9 @@
 
 namespace thetagate::engine {
 
-void bound_by_comparison(
-    const DerivationInput& input, const std::string& theorem,
-    const std::function<std::optional<TheoremOutcome>(const GrowthClass*)>& solve,
-    TheoremOutcome& out) {
+void bound_by_comparison(const DerivationInput& input, const std::string& theorem,
+                         const std::function<TheoremOutcome(const GrowthClass*)>& solve,
+                         TheoremOutcome& out) {
   std::optional<TheoremOutcome> up, low;
   if (input.driving_upper) {
     up = solve(&*input.driving_upper);

@@ -8,7 +8,6 @@
 #define THETAGATE_VERIFIER_DERIVATION_THEOREMS_COMPARISON_H_
 
 #include <functional>
-#include <optional>
 #include <string>
 
 #include "verifier/derivation/theorems/outcome.h"
@@ -22,10 +21,9 @@ namespace thetagate::engine {
 // A missing upper driver (an Ω term) gives a lower bound only; a zero lower
 // driver (f is only O(g)) leaves the lower side to the leaves, which `solve`
 // concludes only where every base value is positive.
-void bound_by_comparison(
-    const DerivationInput& input, const std::string& theorem,
-    const std::function<std::optional<TheoremOutcome>(const GrowthClass*)>& solve,
-    TheoremOutcome& out);
+void bound_by_comparison(const DerivationInput& input, const std::string& theorem,
+                         const std::function<TheoremOutcome(const GrowthClass*)>& solve,
+                         TheoremOutcome& out);
 
 }  // namespace thetagate::engine
 

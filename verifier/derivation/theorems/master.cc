@@ -128,8 +128,8 @@ TheoremOutcome master_on_zero(const Rational& a, const Rational& divisor,
 
 // The master theorem on a driver's class, or on f = 0 (g null): one side of
 // a comparison (comparison.h).
-std::optional<TheoremOutcome> master_on(const Rational& a, const Rational& divisor,
-                                        const GrowthClass* g, const DerivationInput& input) {
+TheoremOutcome master_on(const Rational& a, const Rational& divisor, const GrowthClass* g,
+                         const DerivationInput& input) {
   return g ? master_on_class(a, divisor, *g, to_string(*g)) : master_on_zero(a, divisor, input);
 }
 

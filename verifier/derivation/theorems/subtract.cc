@@ -169,7 +169,7 @@ TheoremOutcome subtract_and_conquer(const DerivationInput& input) {
           } else {
             c.zero = true;
           }
-          return std::optional<TheoremOutcome>(subtract_on(t, c, input));
+          return subtract_on(t, c, input);
         },
         out);
   }
